@@ -1,0 +1,683 @@
+package certify
+
+import (
+	"errors"
+	"fmt"
+	"maps"
+	"math/big"
+	"slices"
+	"strings"
+	"time"
+
+	"lyacert/certificates"
+	"lyacert/model"
+	"lyacert/poly"
+)
+
+// Version is the tool version written into certificates.
+const Version = "0.1.0"
+
+// Form is one quadratic form of the argument with its factorization.
+type Form struct {
+	Name   string // "V" or "-Vdot"
+	Gram   poly.Matrix
+	LDL    LDL
+	Minors []poly.RatFunc
+}
+
+// Condition is what one minor requires, after the assumptions have
+// discharged the factors whose sign they fix.
+type Condition struct {
+	Form     string
+	Index    int
+	Minor    poly.RatFunc
+	Constant *big.Rat
+	Factors  []FactorStatus
+	Q        *poly.Poly // Q > 0 is what remains
+}
+
+// FactorStatus is a factor with what the assumptions say of its sign.
+type FactorStatus struct {
+	Factor
+	Status string
+}
+
+// Result is the outcome of Check: the derivation, the verdict, and the
+// certificate document that backs it (already re-checked by
+// certificates.Verify).
+type Result struct {
+	Model   *model.Model
+	V       poly.RatFunc
+	Vdot    poly.RatFunc
+	Shifted struct{ V, Vdot poly.RatFunc } // in coordinates centred at the equilibrium
+	HigherV poly.RatFunc                   // the terms of V of degree > 2 at the equilibrium
+	HigherD poly.RatFunc                   // the same for V̇
+	Forms   []Form
+	Conds   []Condition
+	Claim   string
+	Verdict string
+	// Reason explains the verdict in one sentence for people.
+	Reason     string
+	Region     *certificates.Region
+	Witnesses  []certificates.Witness
+	Refutation *certificates.Refutation
+	Kernel     [][]poly.RatFunc
+	Doc        *certificates.Document
+	Check      certificates.Result
+}
+
+// Check analyses the model's candidate V: it computes V̇ exactly, completes
+// the squares of the quadratic parts of V and −V̇ at the equilibrium by exact
+// LDLᵀ, reduces Sylvester's conditions by the assumptions, decides where in
+// parameter space they hold, looks for an exact refutation where they fail,
+// and writes a certificate that certificates.Verify re-checks before Check
+// returns. An error is returned for input the argument cannot apply to.
+func Check(m *model.Model, source string) (*Result, error) {
+	if m.V == nil {
+		return nil, &poly.Error{Pos: poly.Pos{File: m.File, Line: 1, Col: 1}, Msg: "the model has no candidate V (add a line \"V = ...\")"}
+	}
+	if err := m.CheckEquilibrium(); err != nil {
+		return nil, err
+	}
+	res := &Result{Model: m, V: *m.V}
+	r := m.Ring
+	states := r.StateMask()
+	res.Vdot = m.Derivative(res.V)
+	vs, ds := m.Shift(res.V), m.Shift(res.Vdot)
+	res.Shifted.V, res.Shifted.Vdot = vs, ds
+	if c := vs.Homogeneous(0, states); !c.IsZero() {
+		return nil, &poly.Error{Pos: m.VPos, Msg: fmt.Sprintf("V does not vanish at the equilibrium: V there is %s; a Lyapunov function is 0 at the equilibrium (subtract the constant)", c)}
+	}
+	vq, dq := vs.Homogeneous(2, states), ds.Homogeneous(2, states)
+	res.HigherV = vs.Sub(vq).Sub(vs.Homogeneous(1, states))
+	res.HigherD = ds.Sub(dq).Sub(ds.Homogeneous(1, states))
+
+	if lin := vs.Homogeneous(1, states); !lin.IsZero() {
+		res.Claim, res.Verdict = certificates.ClaimNone, certificates.VerdictFails
+		res.Reason = "V has a linear part at the equilibrium, so the equilibrium is not a minimum of V"
+		res.Refutation = refuteLinear(m, vs, lin)
+		if res.Refutation == nil {
+			res.Verdict = certificates.VerdictUndecided
+		}
+		return finish(res, source)
+	}
+	n := len(m.States)
+	for _, f := range []struct {
+		name string
+		q    poly.RatFunc
+	}{{"V", vq}, {"-Vdot", dq.Neg()}} {
+		g := poly.GramMatrix(f.q, n)
+		var l LDL
+		if ok, col := l.Factorize(g); !ok {
+			// A zero pivot with a non-zero column: indefinite wherever
+			// that entry is non-zero.
+			res.Forms = nil
+			res.Claim, res.Verdict = certificates.ClaimNone, certificates.VerdictFails
+			res.Reason = fmt.Sprintf("the quadratic part of %s has a zero diagonal entry with a non-zero coupling (state %s), so it is indefinite", formWord(f.name), m.States[col])
+			res.Refutation = refuteAnywhere(m, res)
+			if res.Refutation == nil {
+				res.Verdict = certificates.VerdictUndecided
+			}
+			return finish(res, source)
+		}
+		res.Forms = append(res.Forms, Form{Name: f.name, Gram: g, LDL: l, Minors: l.Minors()})
+	}
+	fv, fd := res.Forms[0], res.Forms[1]
+	switch {
+	case fv.LDL.Semidefinite():
+		res.Claim = certificates.ClaimNone
+		res.Verdict = certificates.VerdictUndecided
+		res.Reason = "the quadratic part of V is singular, so the quadratic test cannot show V positive definite"
+	case fd.LDL.Semidefinite() && !res.HigherD.IsZero():
+		res.Claim = certificates.ClaimNone
+		res.Verdict = certificates.VerdictUndecided
+		res.Reason = "the quadratic part of V̇ is singular and V̇ has higher-order terms, so the quadratic test is inconclusive"
+	case fd.LDL.Semidefinite() && !semidefDefined(m, fd.LDL):
+		res.Claim = certificates.ClaimNone
+		res.Verdict = certificates.VerdictUndecided
+		res.Reason = "the semidefinite factorization of −V̇ is not defined for every allowed parameter value"
+	case fd.LDL.Semidefinite():
+		res.Claim = certificates.ClaimStable
+	case res.HigherV.IsZero() && res.HigherD.IsZero():
+		res.Claim = certificates.ClaimGlobal
+	default:
+		res.Claim = certificates.ClaimLocal
+	}
+	if res.Verdict == "" {
+		res.conditions()
+		res.decide()
+	} else {
+		res.conditions()
+	}
+	if res.Claim == certificates.ClaimStable && (res.Verdict == certificates.VerdictHolds || res.Verdict == certificates.VerdictOnRegion) {
+		res.Kernel = fd.LDL.Kernel()
+	}
+	if res.Verdict == certificates.VerdictFails || res.Verdict == certificates.VerdictOnRegion {
+		res.Refutation = refuteAnywhere(m, res)
+		if res.Verdict == certificates.VerdictFails && res.Refutation == nil {
+			res.Verdict = certificates.VerdictUndecided
+			res.Reason += "; no exact refutation point was found"
+			res.Region = nil
+		}
+	}
+	if res.Verdict == certificates.VerdictFails || res.Verdict == certificates.VerdictUndecided {
+		res.Claim = certificates.ClaimNone
+	}
+	return finish(res, source)
+}
+
+func formWord(name string) string {
+	if name == "V" {
+		return "V"
+	}
+	return "−V̇"
+}
+
+// semidefDefined reports that every entry of the semidefinite factors has a
+// denominator the assumptions keep away from zero.
+func semidefDefined(m *model.Model, l LDL) bool {
+	box := m.Box()
+	ok := func(f poly.RatFunc) bool {
+		for _, d := range f.Den {
+			if d.P.Enclose(box).ContainsZero() {
+				return false
+			}
+		}
+		return true
+	}
+	for i := range l.D {
+		if !ok(l.D[i]) {
+			return false
+		}
+		for j := range l.L {
+			if !ok(l.L[j][i]) {
+				return false
+			}
+		}
+	}
+	return true
+}
+
+// conditions factors every minor and discharges the factors whose sign the
+// assumptions fix.
+func (res *Result) conditions() {
+	box := res.Model.Box()
+	r := res.Model.Ring
+	for _, f := range res.Forms {
+		for k, mi := range f.Minors {
+			target := new(poly.Poly).Mul(mi.Num, mi.DenPoly())
+			c, factors := Factorize(target)
+			cond := Condition{Form: f.Name, Index: k + 1, Minor: mi, Constant: c}
+			q := poly.ConstInt(r, 1)
+			sign := c.Sign()
+			for _, fa := range factors {
+				st := certificates.FactorStatus(fa.P, fa.Power, box)
+				cond.Factors = append(cond.Factors, FactorStatus{fa, st})
+				switch st {
+				case certificates.StatusNegative:
+					sign = -sign
+				case certificates.StatusCondition:
+					q.Mul(q, new(poly.Poly).Pow(fa.P, fa.Power))
+				}
+			}
+			if sign < 0 {
+				q.Neg(q)
+			}
+			if c.Sign() == 0 {
+				q = poly.Zero(r)
+			}
+			cond.Q = q
+			res.Conds = append(res.Conds, cond)
+		}
+	}
+}
+
+// decide sets the verdict from the conditions: discharged, a region in one
+// parameter, or witnesses in several.
+func (res *Result) decide() {
+	m := res.Model
+	r := m.Ring
+	used := map[int]bool{}
+	allPos, someNonPos := true, false
+	for _, c := range res.Conds {
+		for _, v := range c.Q.VarsUsed() {
+			used[v] = true
+		}
+		if c.Q.IsConst() {
+			if c.Q.ConstTerm().Sign() <= 0 {
+				someNonPos = true
+			}
+		} else {
+			allPos = false
+		}
+	}
+	vars := slices.Sorted(maps.Keys(used))
+	free := m.FreeParams()
+	switch {
+	case someNonPos:
+		res.Verdict = certificates.VerdictFails
+		res.Reason = "a condition fails for every allowed parameter value"
+		if len(free) == 1 {
+			res.regionFor(free[0].Name)
+		}
+	case allPos && len(free) == 1:
+		res.regionFor(free[0].Name)
+	case allPos:
+		res.Verdict = certificates.VerdictHolds
+		if len(free) > 0 {
+			res.Reason = "every condition is discharged by the assumptions"
+		}
+	case len(vars) == 1:
+		res.regionFor(r.Name(vars[0]))
+	default:
+		res.witnesses(vars)
+	}
+}
+
+func (res *Result) regionFor(name string) {
+	m := res.Model
+	i, _ := m.Ring.Index(name)
+	p, _ := m.Param(name)
+	var conds []poly.Univariate
+	for _, c := range res.Conds {
+		u, _ := c.Q.Univariate(i)
+		conds = append(conds, u)
+	}
+	pieces := OneParamRegion(m.Ring, i, conds, p.Range)
+	res.Region = &certificates.Region{Param: name, Intervals: Intervals(pieces), Pieces: pieces}
+	holds, fails := false, false
+	for _, pc := range pieces {
+		holds = holds || pc.Holds
+		fails = fails || !pc.Holds
+	}
+	switch {
+	case !fails:
+		res.Verdict = certificates.VerdictHolds
+		res.Reason = fmt.Sprintf("the conditions hold for every allowed %s", name)
+	case !holds:
+		res.Verdict = certificates.VerdictFails
+		res.Reason = fmt.Sprintf("the conditions fail for every allowed %s", name)
+	default:
+		res.Verdict = certificates.VerdictOnRegion
+		res.Reason = fmt.Sprintf("the conditions hold only on part of the range of %s", name)
+	}
+}
+
+// samples returns a few rational values in a parameter's range.
+func samples(iv poly.Interval) []*big.Rat {
+	var cand []*big.Rat
+	switch {
+	case iv.Lo.Inf == 0 && iv.Hi.Inf == 0:
+		w := new(big.Rat).Sub(iv.Hi.Value, iv.Lo.Value)
+		for k := int64(0); k <= 8; k++ {
+			x := new(big.Rat).Mul(w, big.NewRat(k, 8))
+			cand = append(cand, x.Add(x, iv.Lo.Value))
+		}
+	default:
+		base := new(big.Rat)
+		if iv.Lo.Inf == 0 {
+			base = iv.Lo.Value
+		} else if iv.Hi.Inf == 0 {
+			base = iv.Hi.Value
+		}
+		for _, d := range []int64{0, 1, 2, 4, 8, 16, 64} {
+			for _, frac := range []*big.Rat{big.NewRat(d, 1), big.NewRat(1, 4)} {
+				x := new(big.Rat).Set(base)
+				if iv.Lo.Inf == 0 {
+					x.Add(x, frac)
+				} else if iv.Hi.Inf == 0 {
+					x.Sub(x, frac)
+				} else {
+					cand = append(cand, new(big.Rat).Neg(frac))
+					x.Add(x, frac)
+				}
+				cand = append(cand, x)
+			}
+		}
+	}
+	var out []*big.Rat
+	for _, x := range cand {
+		if iv.Contains(x) && !slices.ContainsFunc(out, func(y *big.Rat) bool { return y.Cmp(x) == 0 }) {
+			out = append(out, x)
+		}
+	}
+	return out
+}
+
+// witnesses looks for parameter points where the conditions hold and fail
+// (several parameters; the exact region is left as the conditions).
+func (res *Result) witnesses(vars []int) {
+	m := res.Model
+	r := m.Ring
+	free := m.FreeParams()
+	base := map[string]*big.Rat{}
+	grids := make([][]*big.Rat, len(free))
+	for i, p := range free {
+		grids[i] = samples(p.Range)
+		base[p.Name] = grids[i][len(grids[i])/2]
+	}
+	var hold, fail *certificates.Witness
+	idx := make([]int, len(free))
+	for count := 0; count < 4096; count++ {
+		point := make([]*big.Rat, r.NumVars())
+		for i := range point {
+			point[i] = new(big.Rat)
+		}
+		vals := map[string]string{}
+		for i, p := range free {
+			j, _ := r.Index(p.Name)
+			point[j] = grids[i][idx[i]]
+			vals[p.Name] = point[j].RatString()
+		}
+		all := true
+		for _, c := range res.Conds {
+			if c.Q.Eval(point).Sign() <= 0 {
+				all = false
+			}
+		}
+		w := &certificates.Witness{Params: vals, Holds: all}
+		if all && hold == nil {
+			hold = w
+		}
+		if !all && fail == nil {
+			fail = w
+		}
+		if hold != nil && fail != nil {
+			break
+		}
+		// next grid point (odometer)
+		k := 0
+		for k < len(idx) {
+			idx[k]++
+			if idx[k] < len(grids[k]) {
+				break
+			}
+			idx[k] = 0
+			k++
+		}
+		if k == len(idx) {
+			break
+		}
+	}
+	for _, w := range []*certificates.Witness{hold, fail} {
+		if w != nil {
+			res.Witnesses = append(res.Witnesses, *w)
+		}
+	}
+	names := make([]string, len(vars))
+	for i, v := range vars {
+		names[i] = r.Name(v)
+	}
+	if hold != nil && fail != nil {
+		res.Verdict = certificates.VerdictOnRegion
+		res.Reason = fmt.Sprintf("the conditions in %s hold at some parameter values and fail at others", strings.Join(names, ", "))
+		return
+	}
+	res.Verdict = certificates.VerdictUndecided
+	res.Reason = fmt.Sprintf("the conditions involve several parameters (%s); they are exact, but no region is computed here", strings.Join(names, ", "))
+}
+
+// failingParams returns a parameter point where some condition fails.
+func failingParams(res *Result) (map[string]string, []*big.Rat, bool) {
+	m := res.Model
+	r := m.Ring
+	point := make([]*big.Rat, r.NumVars())
+	for i := range point {
+		point[i] = new(big.Rat)
+	}
+	vals := map[string]string{}
+	free := m.FreeParams()
+	for _, p := range free {
+		s := samples(p.Range)
+		x := s[len(s)/2]
+		j, _ := r.Index(p.Name)
+		point[j] = x
+		vals[p.Name] = x.RatString()
+	}
+	switch {
+	case res.Region != nil:
+		// Prefer the inside of a failing interval (where the failure is
+		// strict) to a failing boundary point.
+		j, _ := r.Index(res.Region.Param)
+		var x *big.Rat
+		for _, pc := range res.Region.Pieces {
+			isPoint := pc.Lo == pc.Hi && pc.LoPoly == pc.HiPoly && pc.LoClosed && pc.HiClosed
+			switch {
+			case pc.Holds:
+			case !isPoint:
+				x = samplePoint(pc.Interval)
+			case x == nil && pc.LoPoly == "":
+				x, _ = new(big.Rat).SetString(pc.Lo)
+				continue
+			default:
+				continue
+			}
+			if x != nil && !isPoint && !pc.Holds {
+				break
+			}
+		}
+		if x == nil {
+			return nil, nil, false
+		}
+		point[j] = x
+		vals[res.Region.Param] = x.RatString()
+		return vals, point, true
+	case len(res.Witnesses) > 0:
+		for _, w := range res.Witnesses {
+			if w.Holds {
+				continue
+			}
+			for name, s := range w.Params {
+				j, _ := r.Index(name)
+				point[j], _ = new(big.Rat).SetString(s)
+				vals[name] = s
+			}
+			return vals, point, true
+		}
+		return nil, nil, false
+	}
+	return vals, point, true
+}
+
+// refuteAnywhere looks for a state point where V ≤ 0 or V̇ ≥ 0 (other than
+// the equilibrium) at parameter values where the conditions fail.
+func refuteAnywhere(m *model.Model, res *Result) *certificates.Refutation {
+	vals, point, ok := failingParams(res)
+	if !ok {
+		return nil
+	}
+	r := m.Ring
+	n := len(m.States)
+	pv := map[int]*big.Rat{}
+	for i := n; i < r.NumVars(); i++ {
+		pv[i] = point[i]
+	}
+	fs := []struct {
+		f    poly.RatFunc
+		sign int // the quadratic form is sign·f
+	}{{res.Shifted.V, 1}, {res.Shifted.Vdot, -1}}
+	states := r.StateMask()
+	for _, f := range fs {
+		q := f.f.Homogeneous(2, states)
+		if f.sign < 0 {
+			q = q.Neg()
+		}
+		gsym := poly.GramMatrix(q, n)
+		g := make([][]*big.Rat, n)
+		bad := false
+		for i := range gsym {
+			g[i] = make([]*big.Rat, n)
+			for j := range gsym[i] {
+				e, err := gsym[i][j].EvalVars(pv)
+				if err != nil {
+					bad = true
+					break
+				}
+				g[i][j] = e.Num.ConstTerm()
+			}
+		}
+		if bad {
+			continue
+		}
+		k, y, d := ratLDL(g)
+		if k < 0 {
+			continue
+		}
+		if rf := alongRay(m, res, vals, point, y, d.Sign() < 0); rf != nil {
+			return rf
+		}
+	}
+	return nil
+}
+
+// alongRay evaluates V and V̇ at equilibrium + t·y for t = 1, 1/2, 1/4, ...
+// (and −t) and returns the first point that refutes the candidate.
+func alongRay(m *model.Model, res *Result, vals map[string]string, params []*big.Rat, y []*big.Rat, strict bool) *certificates.Refutation {
+	n := len(m.States)
+	x := slices.Clone(params)
+	at := make([]*big.Rat, n)
+	for i := range at {
+		v, err := m.At[i].Eval(params)
+		if err != nil {
+			return nil
+		}
+		at[i] = v
+	}
+	t := big.NewRat(1, 1)
+	tries := 40
+	if !strict {
+		tries = 12
+	}
+	for k := 0; k < tries; k++ {
+		for _, s := range []int64{1, -1} {
+			for i := 0; i < n; i++ {
+				xi := new(big.Rat).Mul(y[i], t)
+				if s < 0 {
+					xi.Neg(xi)
+				}
+				x[i] = xi.Add(xi, at[i])
+			}
+			vv, err1 := res.V.Eval(x)
+			dv, err2 := res.Vdot.Eval(x)
+			if err1 != nil || err2 != nil {
+				return nil
+			}
+			if vv.Sign() <= 0 || dv.Sign() >= 0 {
+				pt := map[string]string{}
+				for i, name := range m.States {
+					pt[name] = x[i].RatString()
+				}
+				return &certificates.Refutation{Params: vals, Point: pt, V: vv.RatString(), Vdot: dv.RatString()}
+			}
+		}
+		t.Quo(t, big.NewRat(2, 1))
+	}
+	return nil
+}
+
+// refuteLinear finds a point near the equilibrium where V < 0, moving
+// against the gradient of V's linear part.
+func refuteLinear(m *model.Model, vs, lin poly.RatFunc) *certificates.Refutation {
+	res := &Result{Model: m}
+	vals, point, _ := failingParams(res)
+	n := len(m.States)
+	y := make([]*big.Rat, n)
+	for i := 0; i < n; i++ {
+		e := make([]int, m.Ring.NumVars())
+		e[i] = 1
+		c := lin.Coefficient(e, m.Ring.StateMask())
+		v, err := c.Eval(point)
+		if err != nil {
+			return nil
+		}
+		y[i] = v.Neg(v)
+	}
+	res.V = *m.V
+	res.Vdot = m.Derivative(res.V)
+	return alongRay(m, res, vals, point, y, true)
+}
+
+// finish builds the certificate and re-checks it; a claim that the checker
+// does not accept is an internal error, never printed.
+func finish(res *Result, source string) (*Result, error) {
+	doc := res.document(source)
+	if err := doc.Seal(); err != nil {
+		return nil, err
+	}
+	res.Doc = doc
+	res.Check = certificates.Verify(doc)
+	if !res.Check.Valid {
+		var failed []string
+		for _, c := range res.Check.Checks {
+			if !c.OK {
+				failed = append(failed, c.Name+": "+c.Reason)
+			}
+		}
+		return nil, fmt.Errorf("%w: %s", ErrUnverified, strings.Join(failed, "; "))
+	}
+	return res, nil
+}
+
+// ErrUnverified reports a certificate that the exact checker rejected: a bug
+// in the engine, never a claim.
+var ErrUnverified = errors.New("internal error: the exact checker rejected the certificate the engine built")
+
+func (res *Result) document(source string) *certificates.Document {
+	m := res.Model
+	d := &certificates.Document{
+		Format:  certificates.Format,
+		Tool:    "lyacert " + Version,
+		Issued:  time.Now().UTC().Format(time.RFC3339),
+		Source:  source,
+		Model:   m.Canonical(),
+		V:       res.V.String(),
+		Vdot:    res.Vdot.String(),
+		Claim:   res.Claim,
+		Verdict: res.Verdict,
+	}
+	d.System.Time = "continuous"
+	if m.Discrete {
+		d.System.Time = "discrete"
+	}
+	d.System.States = slices.Clone(m.States)
+	d.System.Params = []certificates.ParamDoc{}
+	for _, p := range m.Params {
+		d.System.Params = append(d.System.Params, certificates.ParamDoc{Name: p.Name, Range: model.RangeText(p)})
+	}
+	for i := range m.States {
+		d.System.Equations = append(d.System.Equations, m.F[i].String())
+		d.System.Equilibrium = append(d.System.Equilibrium, m.At[i].String())
+	}
+	d.Forms = []certificates.Form{}
+	for _, f := range res.Forms {
+		fd := certificates.Form{Name: f.Name, Gram: f.Gram.Strings(), L: f.LDL.L.Strings()}
+		for _, p := range f.LDL.D {
+			fd.D = append(fd.D, p.String())
+		}
+		fd.Minors = []string{}
+		for _, mi := range f.Minors {
+			fd.Minors = append(fd.Minors, mi.String())
+		}
+		d.Forms = append(d.Forms, fd)
+	}
+	d.Conditions = []certificates.Condition{}
+	for _, c := range res.Conds {
+		cd := certificates.Condition{Form: c.Form, Index: c.Index, Minor: c.Minor.String(), Constant: c.Constant.RatString(), Condition: c.Q.String()}
+		cd.Factors = []certificates.FactorDoc{}
+		for _, f := range c.Factors {
+			cd.Factors = append(cd.Factors, certificates.FactorDoc{Poly: f.P.String(), Power: f.Power, Status: f.Status})
+		}
+		d.Conditions = append(d.Conditions, cd)
+	}
+	d.Region = res.Region
+	d.Witnesses = res.Witnesses
+	d.Refutation = res.Refutation
+	for _, k := range res.Kernel {
+		var row []string
+		for _, e := range k {
+			row = append(row, e.String())
+		}
+		d.Kernel = append(d.Kernel, row)
+	}
+	return d
+}

@@ -1,0 +1,185 @@
+package certify
+
+import (
+	"errors"
+	"math/big"
+
+	"lyacert/poly"
+)
+
+// LDL is the exact factorization G = L·diag(D)·Lᵀ of a symmetric matrix of
+// rational functions of the parameters, L unit lower triangular: Lagrange's
+// completing of squares, xᵀGx = Σₖ Dₖ·(xₖ + Σᵢ>ₖ Lᵢₖ xᵢ)². A pivot that is
+// identically zero is kept, with a zero column of L below it, when the whole
+// remaining column is identically zero too (the semidefinite case).
+type LDL struct {
+	L    poly.Matrix
+	D    []poly.RatFunc
+	Zero []bool // pivots that are identically zero
+}
+
+// ErrZeroPivot reports a pivot that is identically zero while its column is
+// not: the form is indefinite wherever that column entry is non-zero (a 2×2
+// principal minor of the Schur complement is −a²).
+var ErrZeroPivot = errors.New("zero pivot with a non-zero column")
+
+// Factorize computes the factorization; like gonum's factorizations, a
+// failure is a result: it returns false and ErrZeroPivot's column index.
+func (f *LDL) Factorize(g poly.Matrix) (ok bool, col int) {
+	n := len(g)
+	r := g[0][0].Ring()
+	a := make(poly.Matrix, n)
+	for i := range g {
+		a[i] = append([]poly.RatFunc(nil), g[i]...)
+	}
+	f.L = poly.NewMatrix(r, n)
+	f.D = make([]poly.RatFunc, n)
+	f.Zero = make([]bool, n)
+	one := poly.RatConst(r, big.NewRat(1, 1))
+	for k := 0; k < n; k++ {
+		f.L[k][k] = one
+		d := a[k][k]
+		f.D[k] = d
+		if d.IsZero() {
+			for i := k + 1; i < n; i++ {
+				if !a[i][k].IsZero() {
+					return false, k
+				}
+			}
+			f.Zero[k] = true
+			continue
+		}
+		for i := k + 1; i < n; i++ {
+			if !a[i][k].IsZero() {
+				f.L[i][k] = a[i][k].Quo(d)
+			}
+		}
+		for i := k + 1; i < n; i++ {
+			if f.L[i][k].IsZero() {
+				continue
+			}
+			for j := k + 1; j <= i; j++ {
+				if a[k][j].IsZero() {
+					continue
+				}
+				a[i][j] = a[i][j].Sub(f.L[i][k].Mul(a[k][j]))
+				a[j][i] = a[i][j]
+			}
+		}
+	}
+	return true, -1
+}
+
+// Semidefinite reports whether some pivot is identically zero.
+func (f *LDL) Semidefinite() bool {
+	for _, z := range f.Zero {
+		if z {
+			return true
+		}
+	}
+	return false
+}
+
+// Minors returns the products of the first non-zero pivots: the leading
+// principal minors of G (Sylvester's criterion), or, when some pivot is zero,
+// those of G's principal submatrix on the non-zero pivots.
+func (f *LDL) Minors() []poly.RatFunc {
+	var out []poly.RatFunc
+	var p poly.RatFunc
+	for i, d := range f.D {
+		if f.Zero[i] {
+			continue
+		}
+		if out == nil {
+			p = d
+		} else {
+			p = p.Mul(d)
+		}
+		out = append(out, p)
+	}
+	return out
+}
+
+// Kernel returns a basis of {x : Lᵀ rows of the non-zero pivots vanish at x},
+// which is the kernel of G when the non-zero pivots are positive: one vector
+// per zero pivot, 1 at that coordinate and 0 at the other zero pivots.
+func (f *LDL) Kernel() [][]poly.RatFunc {
+	n := len(f.D)
+	r := f.L[0][0].Ring()
+	var basis [][]poly.RatFunc
+	for z := 0; z < n; z++ {
+		if !f.Zero[z] {
+			continue
+		}
+		x := make([]poly.RatFunc, n)
+		for i := range x {
+			x[i] = poly.FromPoly(poly.Zero(r))
+		}
+		x[z] = poly.RatConst(r, big.NewRat(1, 1))
+		for j := n - 1; j >= 0; j-- {
+			if f.Zero[j] {
+				continue
+			}
+			s := poly.FromPoly(poly.Zero(r))
+			for i := j + 1; i < n; i++ {
+				if !f.L[i][j].IsZero() && !x[i].IsZero() {
+					s = s.Add(f.L[i][j].Mul(x[i]))
+				}
+			}
+			x[j] = s.Neg()
+		}
+		basis = append(basis, x)
+	}
+	return basis
+}
+
+// ratLDL factors a rational symmetric matrix without pivoting and returns the
+// first index k whose pivot is ≤ 0 together with a vector y with yᵀGy equal
+// to that pivot (y = L⁻ᵀeₖ restricted to the leading k+1 coordinates), or
+// -1 when every pivot is positive.
+func ratLDL(g [][]*big.Rat) (int, []*big.Rat, *big.Rat) {
+	n := len(g)
+	a := make([][]*big.Rat, n)
+	for i := range g {
+		a[i] = make([]*big.Rat, n)
+		for j := range g[i] {
+			a[i][j] = new(big.Rat).Set(g[i][j])
+		}
+	}
+	l := make([][]*big.Rat, n)
+	for i := range l {
+		l[i] = make([]*big.Rat, n)
+		for j := range l[i] {
+			l[i][j] = new(big.Rat)
+		}
+		l[i][i].SetInt64(1)
+	}
+	for k := 0; k < n; k++ {
+		d := a[k][k]
+		if d.Sign() <= 0 {
+			// Solve Lₖᵀ y = eₖ on the leading block by back substitution.
+			y := make([]*big.Rat, n)
+			for i := range y {
+				y[i] = new(big.Rat)
+			}
+			y[k].SetInt64(1)
+			for j := k - 1; j >= 0; j-- {
+				s := new(big.Rat)
+				for i := j + 1; i <= k; i++ {
+					s.Add(s, new(big.Rat).Mul(l[i][j], y[i]))
+				}
+				y[j].Neg(s)
+			}
+			return k, y, new(big.Rat).Set(d)
+		}
+		for i := k + 1; i < n; i++ {
+			l[i][k].Quo(a[i][k], d)
+		}
+		for i := k + 1; i < n; i++ {
+			for j := k + 1; j < n; j++ {
+				a[i][j].Sub(a[i][j], new(big.Rat).Mul(l[i][k], a[k][j]))
+			}
+		}
+	}
+	return -1, nil, nil
+}

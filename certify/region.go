@@ -1,0 +1,244 @@
+package certify
+
+import (
+	"math/big"
+
+	"lyacert/certificates"
+	"lyacert/poly"
+)
+
+// Digits is the number of significant digits of the decimal shown for an
+// irrational region endpoint.
+const Digits = 15
+
+// breakpoint is a real root of the product of the conditions inside the
+// parameter's range: rational (exact) or isolated.
+type breakpoint struct {
+	root poly.URoot
+}
+
+func (b breakpoint) rational() bool { return b.root.Exact != nil }
+
+// lowerRat and upperRat bound the breakpoint by rationals (equal for a rational one).
+func (b breakpoint) lowerRat() *big.Rat {
+	if b.rational() {
+		return b.root.Exact
+	}
+	return b.root.Lo
+}
+
+func (b breakpoint) upperRat() *big.Rat {
+	if b.rational() {
+		return b.root.Exact
+	}
+	return b.root.Hi
+}
+
+// OneParamRegion computes the exact set of values of one parameter, within
+// its range dom, where every condition q > 0 holds, as a partition of dom
+// into pieces on which all conditions hold or some condition is ≤ 0
+// throughout. The breakpoints are the real roots of the product of the
+// conditions (Sturm isolation), rational ones exact; between and at them the
+// signs are decided exactly.
+func OneParamRegion(r *poly.Ring, param int, conds []poly.Univariate, dom poly.Interval) []certificates.Piece {
+	prod := poly.UnivariateFromInts(1)
+	for _, q := range conds {
+		if q.Degree() >= 1 {
+			prod = prod.Mul(q)
+		}
+	}
+	var bps []breakpoint
+	if prod.Degree() >= 1 {
+		for _, root := range prod.SquareFree().IsolateRoots() {
+			if bp, ok := insideRange(root, dom); ok {
+				bps = append(bps, bp)
+			}
+		}
+	}
+	separate(bps)
+	var pieces []certificates.Piece
+	lo := rangeEnd(dom.Lo)
+	for _, bp := range bps {
+		atLo := dom.Lo.Inf == 0 && bp.rational() && bp.root.Exact.Cmp(dom.Lo.Value) == 0
+		if !atLo {
+			iv := certificates.Interval{}
+			setLo(&iv, lo)
+			setHi(&iv, endOf(r, param, bp, false))
+			pieces = append(pieces, certificates.Piece{Interval: iv})
+		}
+		pt := certificates.Interval{}
+		setLo(&pt, endOf(r, param, bp, true))
+		setHi(&pt, endOf(r, param, bp, true))
+		pieces = append(pieces, certificates.Piece{Interval: pt})
+		lo = endOf(r, param, bp, false)
+	}
+	last := bps == nil || !(dom.Hi.Inf == 0 && bps[len(bps)-1].rational() && bps[len(bps)-1].root.Exact.Cmp(dom.Hi.Value) == 0)
+	if last {
+		iv := certificates.Interval{}
+		setLo(&iv, lo)
+		setHi(&iv, rangeEnd(dom.Hi))
+		pieces = append(pieces, certificates.Piece{Interval: iv})
+	}
+	// Decide each piece: interval pieces at an interior rational sample,
+	// point pieces at the point (an irrational breakpoint is a root of some
+	// condition, so it fails).
+	for i := range pieces {
+		pieces[i].Holds = holdsOn(conds, pieces[i].Interval)
+	}
+	return pieces
+}
+
+type pend struct {
+	iv     certificates.Interval // only the Lo-side fields are used
+	closed bool
+}
+
+func rangeEnd(b poly.Bound) pend {
+	var e pend
+	switch {
+	case b.Inf < 0:
+		e.iv.Lo = "-inf"
+	case b.Inf > 0:
+		e.iv.Lo = "inf"
+	default:
+		e.iv.Lo = b.Value.RatString()
+		e.closed = !b.Open
+	}
+	return e
+}
+
+// endOf returns the breakpoint as an end; closed says whether the piece
+// being built contains it.
+func endOf(r *poly.Ring, param int, bp breakpoint, closed bool) pend {
+	var e pend
+	e.closed = closed
+	if bp.rational() {
+		e.iv.Lo = bp.root.Exact.RatString()
+		return e
+	}
+	e.iv.Lo = bp.root.Decimal(Digits)
+	e.iv.LoPoly = poly.FromUnivariate(r, param, bp.root.Poly).String()
+	e.iv.LoIsolating = &[2]string{bp.root.Lo.RatString(), bp.root.Hi.RatString()}
+	return e
+}
+
+func setLo(iv *certificates.Interval, e pend) {
+	iv.Lo, iv.LoPoly, iv.LoIsolating, iv.LoClosed = e.iv.Lo, e.iv.LoPoly, e.iv.LoIsolating, e.closed
+}
+
+func setHi(iv *certificates.Interval, e pend) {
+	iv.Hi, iv.HiPoly, iv.HiIsolating, iv.HiClosed = e.iv.Lo, e.iv.LoPoly, e.iv.LoIsolating, e.closed
+}
+
+// insideRange keeps a root that lies in the interior of dom or at a closed
+// finite end, refining an irrational root's interval until it lies strictly
+// inside dom.
+func insideRange(root poly.URoot, dom poly.Interval) (breakpoint, bool) {
+	if root.Exact != nil {
+		x := root.Exact
+		if !dom.Contains(x) {
+			return breakpoint{}, false
+		}
+		return breakpoint{root}, true
+	}
+	if dom.Lo.Inf == 0 && root.CompareRat(dom.Lo.Value) <= 0 {
+		return breakpoint{}, false
+	}
+	if dom.Hi.Inf == 0 && root.CompareRat(dom.Hi.Value) >= 0 {
+		return breakpoint{}, false
+	}
+	half := big.NewRat(1, 2)
+	for {
+		okLo := dom.Lo.Inf != 0 || root.Lo.Cmp(dom.Lo.Value) > 0
+		okHi := dom.Hi.Inf != 0 || root.Hi.Cmp(dom.Hi.Value) < 0
+		if okLo && okHi {
+			return breakpoint{root}, true
+		}
+		w := new(big.Rat).Sub(root.Hi, root.Lo)
+		root = root.Refine(w.Mul(w, half))
+	}
+}
+
+// separate refines isolating intervals until neighbouring breakpoints are
+// strictly apart: each one's upper rational bound below the next one's lower.
+func separate(bps []breakpoint) {
+	half := big.NewRat(1, 2)
+	for i := 0; i+1 < len(bps); i++ {
+		for bps[i].upperRat().Cmp(bps[i+1].lowerRat()) >= 0 {
+			for _, j := range []int{i, i + 1} {
+				if !bps[j].rational() {
+					w := new(big.Rat).Sub(bps[j].root.Hi, bps[j].root.Lo)
+					bps[j].root = bps[j].root.Refine(w.Mul(w, half))
+				}
+			}
+		}
+	}
+}
+
+// holdsOn decides whether every condition is > 0 on a piece.
+func holdsOn(conds []poly.Univariate, iv certificates.Interval) bool {
+	point := iv.Lo == iv.Hi && iv.LoPoly == iv.HiPoly && iv.LoClosed && iv.HiClosed
+	if point {
+		if iv.LoPoly != "" {
+			return false
+		}
+		x, _ := new(big.Rat).SetString(iv.Lo)
+		for _, q := range conds {
+			if q.IsZero() || q.Sign(x) <= 0 {
+				return false
+			}
+		}
+		return true
+	}
+	x := samplePoint(iv)
+	for _, q := range conds {
+		if q.IsZero() || q.Sign(x) <= 0 {
+			return false
+		}
+	}
+	return true
+}
+
+// samplePoint returns a rational strictly inside an interval piece.
+func samplePoint(iv certificates.Interval) *big.Rat {
+	lo := innerRat(iv.Lo, iv.LoIsolating, true)
+	hi := innerRat(iv.Hi, iv.HiIsolating, false)
+	switch {
+	case lo == nil && hi == nil:
+		return new(big.Rat)
+	case lo == nil:
+		return new(big.Rat).Sub(hi, big.NewRat(1, 1))
+	case hi == nil:
+		return new(big.Rat).Add(lo, big.NewRat(1, 1))
+	}
+	m := new(big.Rat).Add(lo, hi)
+	return m.Quo(m, big.NewRat(2, 1))
+}
+
+// innerRat is the rational just inside an end (nil for an infinite end).
+func innerRat(v string, iso *[2]string, lower bool) *big.Rat {
+	if v == "-inf" || v == "inf" {
+		return nil
+	}
+	if iso != nil {
+		s := iso[0]
+		if lower {
+			s = iso[1]
+		}
+		x, _ := new(big.Rat).SetString(s)
+		return x
+	}
+	x, _ := new(big.Rat).SetString(v)
+	return x
+}
+
+// Intervals returns the holding pieces.
+func Intervals(pieces []certificates.Piece) []certificates.Interval {
+	out := []certificates.Interval{}
+	for _, p := range pieces {
+		if p.Holds {
+			out = append(out, p.Interval)
+		}
+	}
+	return out
+}

@@ -1,0 +1,232 @@
+// Command lyacert checks, finds and documents Lyapunov-function certificates
+// for polynomial dynamical systems, with exact arithmetic.
+package main
+
+import (
+	"encoding/json"
+	"errors"
+	"fmt"
+	"io"
+	"os"
+	"strings"
+
+	"github.com/alecthomas/kong"
+
+	"lyacert/certificates"
+	"lyacert/certify"
+	"lyacert/examples"
+	"lyacert/model"
+	"lyacert/poly"
+)
+
+// Exit codes.
+const (
+	exitHolds = 0 // the claim holds for every allowed parameter value
+	exitFails = 1 // it does not, holds only on part of the range, or is undecided
+	exitInput = 2 // bad input or usage
+)
+
+const description = `lyacert checks Lyapunov-function certificates for polynomial dynamical systems.
+
+It computes the derivative of a candidate V along the flow exactly, completes
+the squares, says for which parameter values the argument holds, and writes a
+certificate that "lyacert verify" re-checks from scratch.
+
+Examples:
+  lyacert demo                                 run the built-in demo model
+  lyacert check model.lya                      check the candidate V in model.lya
+  lyacert check model.lya --set r=1/2 -o c.json  fix a parameter, write a certificate
+  lyacert check - < model.lya                  read the model from standard input
+  lyacert verify c.json                        re-check a certificate
+  lyacert check model.lya --json               machine-readable output
+
+Exit codes: 0 the claim holds for every allowed parameter value; 1 it does not
+(or only on part of the range, or undecided); 2 bad input or usage.`
+
+type cli struct {
+	Version kong.VersionFlag `help:"Print the version and exit."`
+
+	Check  checkCmd  `cmd:"" help:"Check the candidate V of a model file."`
+	Verify verifyCmd `cmd:"" help:"Re-check a certificate file from scratch with exact arithmetic."`
+	Demo   demoCmd   `cmd:"" help:"Check the built-in demo model (an invented test-rig coolant loop)."`
+}
+
+type common struct {
+	JSON bool `help:"Print machine-readable JSON instead of text."`
+}
+
+type checkCmd struct {
+	common
+	File string   `arg:"" help:"Model file (.lya), or - for standard input."`
+	Out  string   `short:"o" name:"out" placeholder:"CERT" help:"Write the certificate to this file (atomically)."`
+	Set  []string `name:"set" placeholder:"NAME=VALUE" help:"Fix a parameter to an exact value (repeatable), e.g. --set r=1/2."`
+}
+
+type verifyCmd struct {
+	common
+	Cert string `arg:"" placeholder:"CERT" help:"Certificate file (JSON), or - for standard input."`
+}
+
+type demoCmd struct {
+	common
+	Out string `short:"o" name:"out" placeholder:"CERT" help:"Write the demo's certificate to this file."`
+}
+
+// env is what a command needs of the outside world.
+type env struct {
+	stdin          io.Reader
+	stdout, stderr io.Writer
+}
+
+func main() {
+	os.Exit(run(os.Args[1:], env{os.Stdin, os.Stdout, os.Stderr}))
+}
+
+// exitCode carries an exit code out of kong's help and version handling.
+type exitCode int
+
+func run(args []string, e env) (code int) {
+	var c cli
+	defer func() {
+		if r := recover(); r != nil {
+			if ec, ok := r.(exitCode); ok {
+				code = int(ec)
+				return
+			}
+			panic(r)
+		}
+	}()
+	parser, err := kong.New(&c,
+		kong.Name("lyacert"),
+		kong.Description(description),
+		kong.Vars{"version": "lyacert " + certify.Version},
+		kong.Writers(e.stdout, e.stderr),
+		kong.Exit(func(n int) { panic(exitCode(n)) }),
+		kong.UsageOnError(),
+	)
+	if err != nil {
+		fmt.Fprintln(e.stderr, "lyacert:", err)
+		return exitInput
+	}
+	ctx, err := parser.Parse(args)
+	if err != nil {
+		fmt.Fprintln(e.stderr, "lyacert:", err)
+		return exitInput
+	}
+	switch ctx.Command() {
+	case "check <file>":
+		return c.Check.run(e)
+	case "verify <cert>":
+		return c.Verify.run(e)
+	case "demo":
+		return c.Demo.run(e)
+	}
+	fmt.Fprintln(e.stderr, "lyacert: unknown command", ctx.Command())
+	return exitInput
+}
+
+func (c *checkCmd) run(e env) int {
+	name, src, err := readInput(c.File, e.stdin)
+	if err != nil {
+		fmt.Fprintln(e.stderr, "lyacert:", err)
+		return exitInput
+	}
+	var settings []model.Setting
+	for _, s := range c.Set {
+		st, err := model.ParseSetting(s)
+		if err != nil {
+			fmt.Fprintln(e.stderr, "lyacert:", err)
+			return exitInput
+		}
+		settings = append(settings, st)
+	}
+	return checkModel(name, src, settings, c.Out, c.JSON, e)
+}
+
+func (c *demoCmd) run(e env) int {
+	return checkModel(examples.CoolantName, examples.Coolant, nil, c.Out, c.JSON, e)
+}
+
+func readInput(path string, stdin io.Reader) (string, []byte, error) {
+	if path == "-" {
+		b, err := io.ReadAll(stdin)
+		return "<stdin>", b, err
+	}
+	b, err := os.ReadFile(path)
+	return path, b, err
+}
+
+func checkModel(name string, src []byte, settings []model.Setting, out string, asJSON bool, e env) int {
+	m, err := model.Parse(name, src, settings...)
+	if err != nil {
+		printInputError(e.stderr, err)
+		return exitInput
+	}
+	res, err := certify.Check(m, name)
+	if err != nil {
+		if errors.Is(err, certify.ErrUnverified) {
+			fmt.Fprintln(e.stderr, "lyacert:", err)
+			return exitFails
+		}
+		printInputError(e.stderr, err)
+		return exitInput
+	}
+	written := ""
+	if out != "" {
+		if err := res.Doc.WriteFile(out); err != nil {
+			fmt.Fprintln(e.stderr, "lyacert: writing the certificate:", err)
+			return exitInput
+		}
+		written = out
+	}
+	if asJSON {
+		writeJSON(e.stdout, checkJSON(res, written))
+	} else {
+		renderCheck(e.stdout, res, written)
+	}
+	if res.Verdict == certificates.VerdictHolds {
+		return exitHolds
+	}
+	return exitFails
+}
+
+func printInputError(w io.Writer, err error) {
+	var list poly.ErrorList
+	if errors.As(err, &list) {
+		for _, e := range list {
+			fmt.Fprintln(w, e)
+		}
+		return
+	}
+	fmt.Fprintln(w, strings.TrimPrefix(err.Error(), "lyacert: "))
+}
+
+func (c *verifyCmd) run(e env) int {
+	name, src, err := readInput(c.Cert, e.stdin)
+	if err != nil {
+		fmt.Fprintln(e.stderr, "lyacert:", err)
+		return exitInput
+	}
+	doc, err := certificates.Read(strings.NewReader(string(src)))
+	if err != nil {
+		fmt.Fprintf(e.stderr, "lyacert: %s: %v\n", name, err)
+		return exitInput
+	}
+	res := certificates.Verify(doc)
+	if c.JSON {
+		writeJSON(e.stdout, verifyJSON(doc, res))
+	} else {
+		renderVerify(e.stdout, name, doc, res)
+	}
+	if res.Valid {
+		return exitHolds
+	}
+	return exitFails
+}
+
+func writeJSON(w io.Writer, v any) {
+	enc := json.NewEncoder(w)
+	enc.SetEscapeHTML(false)
+	enc.SetIndent("", "  ")
+	enc.Encode(v)
+}

@@ -1,0 +1,10 @@
+module lyacert
+
+go 1.26
+
+require (
+	github.com/shopspring/decimal v1.6.0
+	gonum.org/v1/gonum v0.17.0
+)
+
+require github.com/alecthomas/kong v1.17.0

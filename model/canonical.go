@@ -1,0 +1,105 @@
+package model
+
+import (
+	"fmt"
+	"strings"
+
+	"lyacert/poly"
+)
+
+// RangeText returns the assumption as it is written in a model file, without
+// the "param name" prefix: "> 0", "in [0, 4)", "= 8/3", or "" for no assumption.
+func RangeText(p Param) string {
+	if p.Fixed != nil {
+		return "= " + p.Fixed.RatString()
+	}
+	lo, hi := p.Range.Lo, p.Range.Hi
+	switch {
+	case lo.Inf < 0 && hi.Inf > 0:
+		return ""
+	case hi.Inf > 0 && lo.Open:
+		return "> " + lo.Value.RatString()
+	case hi.Inf > 0:
+		return ">= " + lo.Value.RatString()
+	case lo.Inf < 0 && hi.Open:
+		return "< " + hi.Value.RatString()
+	case lo.Inf < 0:
+		return "<= " + hi.Value.RatString()
+	}
+	return "in " + p.Range.String()
+}
+
+// Canonical returns the model as canonical text: one declaration a line,
+// fixed parameters and let names substituted into the equations, every
+// expression in poly's canonical form. Parsing the text gives back the same
+// model.
+func (m *Model) Canonical() string {
+	var b strings.Builder
+	fmt.Fprintf(&b, "state %s\n", strings.Join(m.States, ", "))
+	for _, p := range m.Params {
+		if t := RangeText(p); t != "" {
+			fmt.Fprintf(&b, "param %s %s\n", p.Name, t)
+		} else {
+			fmt.Fprintf(&b, "param %s\n", p.Name)
+		}
+	}
+	for i, s := range m.States {
+		if m.Discrete {
+			fmt.Fprintf(&b, "next %s = %s\n", s, m.F[i])
+		} else {
+			fmt.Fprintf(&b, "%s' = %s\n", s, m.F[i])
+		}
+	}
+	if m.V != nil {
+		fmt.Fprintf(&b, "V = %s\n", m.V)
+	}
+	if m.AtGiven {
+		parts := make([]string, len(m.States))
+		for i, s := range m.States {
+			parts[i] = s + " = " + m.At[i].String()
+		}
+		fmt.Fprintf(&b, "at %s\n", strings.Join(parts, ", "))
+	}
+	return b.String()
+}
+
+// Residual returns f(at) for continuous time, f(at) − at for discrete time:
+// what must vanish at an equilibrium, one rational function of the
+// parameters per state.
+func (m *Model) Residual() []poly.RatFunc {
+	n := len(m.States)
+	has := make([]bool, m.Ring.NumVars())
+	for i := 0; i < n; i++ {
+		has[i] = true
+	}
+	sub := make([]poly.RatFunc, m.Ring.NumVars())
+	copy(sub, m.At)
+	out := make([]poly.RatFunc, n)
+	for i, f := range m.F {
+		out[i] = f.ComposeStates(sub, has)
+		if m.Discrete {
+			out[i] = out[i].Sub(m.At[i])
+		}
+	}
+	return out
+}
+
+// CheckEquilibrium returns an error unless the equilibrium makes every
+// residual vanish identically in the parameters (exact).
+func (m *Model) CheckEquilibrium() error {
+	var errs poly.ErrorList
+	for i, r := range m.Residual() {
+		if !r.IsZero() {
+			what := m.States[i] + "'"
+			if m.Discrete {
+				what = "next " + m.States[i] + " - " + m.States[i]
+			}
+			pos := m.AtPos
+			if !m.AtGiven {
+				pos = m.FPos[i]
+			}
+			errs.Add(pos, "not an equilibrium: at this point %s = %s, not 0 for every allowed parameter value", what, r)
+		}
+	}
+	return errs.Err()
+}

@@ -1,0 +1,639 @@
+// Package model reads lyacert model files: polynomial dynamical systems with
+// symbolic parameters, their assumptions, an optional candidate V and the
+// equilibrium.
+//
+// A model file has one declaration a line; "#" starts a comment:
+//
+//	state u, v, w                  # state variables, in order
+//	param g > 0                    # also >=, <, <=
+//	param h in [0, 4]              # closed, open or half-open: (0, 4], [0, 4) ...
+//	param m = 8/3                  # fixed value
+//	let q = u*v                    # named sub-expression, substituted
+//	u' = g*(v - u)                 # exactly one equation per state
+//	v' = h*u - v - q
+//	w' = q - m*w
+//	V = u^2/g + v^2 + w^2          # the candidate (optional)
+//	at u = 0, v = 0, w = 0         # the equilibrium; the origin when left out
+//
+// Discrete-time models write "next u = ..." instead of "u' = ...", for all
+// states alike.
+//
+// The package sits between poly and certificates: the certificate checker
+// re-reads a model's canonical text with it.
+package model
+
+import (
+	"fmt"
+	"math/big"
+	"slices"
+	"strings"
+
+	"lyacert/poly"
+)
+
+// Param is a declared parameter with its assumed range.
+type Param struct {
+	Name  string
+	Range poly.Interval // the allowed values; a point when fixed
+	Fixed *big.Rat      // the value when fixed (by "= c" or by Set)
+	Pos   poly.Pos
+}
+
+// Model is a parsed model. Fixed parameters and let names are substituted;
+// the ring holds the states followed by the free parameters.
+type Model struct {
+	File        string
+	Description []string // the comment lines before the first declaration
+	States      []string
+	StatePos    []poly.Pos
+	Params      []Param
+	Discrete    bool
+	Ring        *poly.Ring
+	F           []poly.RatFunc // right-hand sides (x' = F or next x = F), in state order
+	FPos        []poly.Pos
+	V           *poly.RatFunc // the candidate, nil when absent
+	VPos        poly.Pos
+	At          []poly.RatFunc // the equilibrium, in the parameters; zeros when absent
+	AtGiven     bool
+	AtPos       poly.Pos
+}
+
+// FreeParams returns the parameters that are not fixed, in declaration order.
+func (m *Model) FreeParams() []Param {
+	var out []Param
+	for _, p := range m.Params {
+		if p.Fixed == nil {
+			out = append(out, p)
+		}
+	}
+	return out
+}
+
+// Box returns the parameter box indexed like the ring's variables: nil
+// (unconstrained) intervals for states, the assumed range for each free
+// parameter.
+func (m *Model) Box() []poly.Interval {
+	box := make([]poly.Interval, m.Ring.NumVars())
+	for i := range box {
+		box[i] = poly.Entire()
+	}
+	for _, p := range m.FreeParams() {
+		i, _ := m.Ring.Index(p.Name)
+		box[i] = p.Range
+	}
+	return box
+}
+
+// Param returns the named parameter.
+func (m *Model) Param(name string) (Param, bool) {
+	for _, p := range m.Params {
+		if p.Name == name {
+			return p, true
+		}
+	}
+	return Param{}, false
+}
+
+var keywords = []string{"state", "param", "let", "at", "next", "V", "in"}
+
+// Setting fixes a parameter from the command line (--set name=value).
+type Setting struct {
+	Name  string
+	Value *big.Rat
+}
+
+// ParseSetting reads "name=value" with an exact number or constant expression value.
+func ParseSetting(s string) (Setting, error) {
+	name, val, ok := strings.Cut(s, "=")
+	name = strings.TrimSpace(name)
+	if !ok || name == "" {
+		return Setting{}, fmt.Errorf("--set %q: expected name=value", s)
+	}
+	v, err := constExpr(strings.TrimSpace(val), poly.Pos{File: "--set", Line: 1, Col: len(name) + 2})
+	if err != nil {
+		return Setting{}, fmt.Errorf("--set %s: %w", name, err)
+	}
+	return Setting{name, v}, nil
+}
+
+func constExpr(text string, pos poly.Pos) (*big.Rat, error) {
+	r := poly.NewRing(nil, nil)
+	f, err := poly.ParseExpr(r, func(string) (poly.RatFunc, bool) { return poly.RatFunc{}, false }, text, pos)
+	if err != nil {
+		return nil, err
+	}
+	return f.Num.ConstTerm(), nil
+}
+
+type line struct {
+	toks []poly.Token
+	pos  poly.Pos
+}
+
+// Parse reads a model from src; file names positions in errors. Settings fix
+// parameters (they must lie in the declared range). All errors found are
+// returned together as a poly.ErrorList.
+func Parse(file string, src []byte, settings ...Setting) (*Model, error) {
+	var errs poly.ErrorList
+	m := &Model{File: file}
+	var lines []line
+	seenDecl := false
+	for i, text := range strings.Split(string(src), "\n") {
+		text = strings.TrimSuffix(text, "\r")
+		pos := poly.Pos{File: file, Line: i + 1, Col: 1}
+		toks := poly.Scan(text, pos)
+		if len(toks) == 1 {
+			if !seenDecl {
+				if c, ok := strings.CutPrefix(strings.TrimSpace(text), "#"); ok {
+					m.Description = append(m.Description, strings.TrimSpace(c))
+				}
+			}
+			continue
+		}
+		seenDecl = true
+		lines = append(lines, line{toks, pos})
+	}
+
+	// Pass 1: states and parameters, wherever they are declared.
+	paramIdx := map[string]int{}
+	for _, l := range lines {
+		t := l.toks[0]
+		if t.Kind != poly.Name || (t.Text != "state" && t.Text != "param") || isAssign(l.toks) {
+			continue
+		}
+		names, rest, ok := nameList(l.toks[1:], &errs)
+		if !ok {
+			continue
+		}
+		for _, n := range names {
+			if slices.Contains(keywords, n.Text) {
+				errs.Add(n.Pos, "%q is a keyword and cannot name a %s", n.Text, t.Text)
+				continue
+			}
+			if slices.Contains(m.States, n.Text) {
+				errs.Add(n.Pos, "%q is already declared as a state", n.Text)
+				continue
+			}
+			if t.Text == "state" {
+				if _, dup := paramIdx[n.Text]; dup {
+					errs.Add(n.Pos, "%q is already declared as a parameter", n.Text)
+					continue
+				}
+				m.States = append(m.States, n.Text)
+				m.StatePos = append(m.StatePos, n.Pos)
+			}
+		}
+		if t.Text == "state" {
+			if rest[0].Kind != poly.EOF {
+				errs.Add(rest[0].Pos, "expected , or the end of the line after the state names, found %s", rest[0])
+			}
+			continue
+		}
+		rng, fixed, ok := parseAssumption(rest, &errs)
+		if !ok {
+			continue
+		}
+		for _, n := range names {
+			if slices.Contains(keywords, n.Text) || slices.Contains(m.States, n.Text) {
+				continue
+			}
+			j, seen := paramIdx[n.Text]
+			if !seen {
+				paramIdx[n.Text] = len(m.Params)
+				m.Params = append(m.Params, Param{Name: n.Text, Range: rng, Fixed: fixed, Pos: n.Pos})
+				continue
+			}
+			// A repeated declaration narrows the range.
+			p := &m.Params[j]
+			both, ok := intersect(p.Range, rng)
+			if !ok {
+				errs.Add(n.Pos, "contradictory range for %s: %s and %s have no value in common", n.Text, p.Range, rng)
+				continue
+			}
+			p.Range = both
+			if fixed != nil {
+				p.Fixed = fixed
+			}
+		}
+	}
+	if len(m.States) == 0 {
+		errs.Add(poly.Pos{File: file, Line: 1, Col: 1}, "no states: declare them with a line such as \"state x, y\"")
+		return nil, errs.Err()
+	}
+	for _, s := range settings {
+		j, ok := paramIdx[s.Name]
+		if !ok {
+			errs.Add(poly.Pos{File: "--set", Line: 1, Col: 1}, "--set %s: no parameter of that name in %s", s.Name, file)
+			continue
+		}
+		p := &m.Params[j]
+		if !p.Range.Contains(s.Value) {
+			errs.Add(p.Pos, "--set %s=%s lies outside the declared range %s", s.Name, s.Value.RatString(), p.Range)
+			continue
+		}
+		p.Fixed = new(big.Rat).Set(s.Value)
+		p.Range = poly.Point(s.Value)
+	}
+	if len(errs) > 0 {
+		return nil, errs.Err()
+	}
+
+	var free []string
+	for _, p := range m.Params {
+		if p.Fixed == nil {
+			free = append(free, p.Name)
+		}
+	}
+	m.Ring = poly.NewRing(m.States, free)
+	r := m.Ring
+	lets := map[string]poly.RatFunc{}
+	env := func(name string) (poly.RatFunc, bool) {
+		if v, ok := lets[name]; ok {
+			return v, true
+		}
+		if i, ok := r.Index(name); ok {
+			return poly.FromPoly(poly.Var(r, i)), true
+		}
+		if j, ok := paramIdx[name]; ok && m.Params[j].Fixed != nil {
+			return poly.RatConst(r, m.Params[j].Fixed), true
+		}
+		return poly.RatFunc{}, false
+	}
+	expr := func(toks []poly.Token) (poly.RatFunc, bool) {
+		p := &poly.ExprParser{Ring: r, Env: env}
+		f, err := p.ParseTokens(toks)
+		if err != nil {
+			errs = append(errs, err.(*poly.Error))
+			return f, false
+		}
+		return f, true
+	}
+
+	// Pass 2: everything else, in order (a let must precede its uses).
+	m.F = make([]poly.RatFunc, len(m.States))
+	m.FPos = make([]poly.Pos, len(m.States))
+	have := make([]bool, len(m.States))
+	kinds := map[bool]poly.Pos{}
+	for _, l := range lines {
+		t := l.toks[0]
+		switch {
+		case t.Kind == poly.Name && (t.Text == "state" || t.Text == "param") && !isAssign(l.toks):
+			continue
+		case t.Kind == poly.Name && t.Text == "let" && !isAssign(l.toks):
+			if len(l.toks) < 4 || l.toks[1].Kind != poly.Name || !isOp(l.toks[2], "=") {
+				errs.Add(l.toks[1].Pos, "expected \"let name = expression\"")
+				continue
+			}
+			n := l.toks[1]
+			if _, taken := env(n.Text); taken || slices.Contains(keywords, n.Text) || isParam(paramIdx, n.Text) {
+				errs.Add(n.Pos, "%q is already a name in this model", n.Text)
+				continue
+			}
+			if f, ok := expr(l.toks[3:]); ok {
+				lets[n.Text] = f
+			}
+		case t.Kind == poly.Name && t.Text == "V" && len(l.toks) > 1 && isOp(l.toks[1], "="):
+			if m.V != nil {
+				errs.Add(t.Pos, "a second candidate V; the first is at %s", m.VPos)
+				continue
+			}
+			if f, ok := expr(l.toks[2:]); ok {
+				m.V, m.VPos = &f, t.Pos
+			}
+		case t.Kind == poly.Name && t.Text == "at" && !isAssign(l.toks):
+			if m.AtGiven {
+				errs.Add(t.Pos, "a second \"at\"; the first is at %s", m.AtPos)
+				continue
+			}
+			m.parseAt(l.toks[1:], t.Pos, expr, &errs)
+		case t.Kind == poly.Name && (t.Text == "next" && len(l.toks) > 2 && l.toks[1].Kind == poly.Name && isOp(l.toks[2], "=") ||
+			len(l.toks) > 2 && isOp(l.toks[1], "'") && isOp(l.toks[2], "=")):
+			discrete := t.Text == "next" && !isOp(l.toks[1], "'")
+			nameTok, rhs := t, l.toks[3:]
+			if discrete {
+				nameTok = l.toks[1]
+			}
+			i := slices.Index(m.States, nameTok.Text)
+			if i < 0 {
+				if isParam(paramIdx, nameTok.Text) {
+					errs.Add(nameTok.Pos, "%q is a parameter, not a state; parameters have no equation", nameTok.Text)
+				} else {
+					errs.Add(nameTok.Pos, "equation for %q, which is not a declared state", nameTok.Text)
+				}
+				continue
+			}
+			if have[i] {
+				errs.Add(nameTok.Pos, "a second equation for %s; the first is at %s", nameTok.Text, m.FPos[i])
+				continue
+			}
+			if _, ok := kinds[!discrete]; ok {
+				errs.Add(t.Pos, "mixes continuous-time (x' = ...) and discrete-time (next x = ...) equations; use one kind for all states")
+				continue
+			}
+			kinds[discrete] = t.Pos
+			m.Discrete = discrete
+			if f, ok := expr(rhs); ok {
+				m.F[i], m.FPos[i], have[i] = f, nameTok.Pos, true
+			}
+		default:
+			errs.Add(t.Pos, "expected a declaration (state, param, let, an equation x' = ..., next x = ..., V = ..., at ...), found %s", t)
+		}
+	}
+	if len(errs) > 0 {
+		return nil, errs.Err()
+	}
+	for i, s := range m.States {
+		if !have[i] {
+			errs.Add(m.StatePos[i], "state %s has no equation (write %s' = ...)", s, s)
+		}
+	}
+	if !m.AtGiven {
+		m.At = make([]poly.RatFunc, len(m.States))
+		for i := range m.At {
+			m.At[i] = poly.FromPoly(poly.Zero(r))
+		}
+	}
+	if len(errs) > 0 {
+		return nil, errs.Err()
+	}
+	m.checkDenominators(&errs)
+	if len(errs) > 0 {
+		return nil, errs.Err()
+	}
+	return m, nil
+}
+
+func isParam(idx map[string]int, name string) bool { _, ok := idx[name]; return ok }
+
+func isOp(t poly.Token, s string) bool { return t.Kind == poly.Op && t.Text == s }
+
+// isAssign reports a line "name = ..." or "name' = ...", which is never a
+// declaration even when the name is a keyword (a state cannot be called so).
+func isAssign(toks []poly.Token) bool {
+	return len(toks) > 1 && (isOp(toks[1], "=") || isOp(toks[1], "'"))
+}
+
+func nameList(toks []poly.Token, errs *poly.ErrorList) ([]poly.Token, []poly.Token, bool) {
+	var names []poly.Token
+	for {
+		if toks[0].Kind != poly.Name {
+			errs.Add(toks[0].Pos, "expected a name, found %s", toks[0])
+			return nil, nil, false
+		}
+		names = append(names, toks[0])
+		toks = toks[1:]
+		if !isOp(toks[0], ",") {
+			return names, toks, true
+		}
+		toks = toks[1:]
+	}
+}
+
+// parseAssumption reads what follows the names of a param line.
+func parseAssumption(toks []poly.Token, errs *poly.ErrorList) (poly.Interval, *big.Rat, bool) {
+	t := toks[0]
+	if t.Kind == poly.EOF {
+		return poly.Entire(), nil, true
+	}
+	num := func(ts []poly.Token) (*big.Rat, bool) {
+		r := poly.NewRing(nil, nil)
+		p := &poly.ExprParser{Ring: r, Env: func(string) (poly.RatFunc, bool) { return poly.RatFunc{}, false }}
+		f, err := p.ParseTokens(ts)
+		if err != nil {
+			e := err.(*poly.Error)
+			if strings.HasPrefix(e.Msg, "unknown name") {
+				e.Msg = "a parameter's range takes constants only: " + e.Msg
+			}
+			*errs = append(*errs, e)
+			return nil, false
+		}
+		return f.Num.ConstTerm(), true
+	}
+	switch {
+	case t.Kind == poly.Op && (t.Text == ">" || t.Text == ">=" || t.Text == "<" || t.Text == "<=" || t.Text == "="):
+		c, ok := num(toks[1:])
+		if !ok {
+			return poly.Interval{}, nil, false
+		}
+		switch t.Text {
+		case ">":
+			return mustInterval(poly.Bound{Value: c, Open: true}, poly.Bound{Inf: 1, Open: true}), nil, true
+		case ">=":
+			return mustInterval(poly.Bound{Value: c}, poly.Bound{Inf: 1, Open: true}), nil, true
+		case "<":
+			return mustInterval(poly.Bound{Inf: -1, Open: true}, poly.Bound{Value: c, Open: true}), nil, true
+		case "<=":
+			return mustInterval(poly.Bound{Inf: -1, Open: true}, poly.Bound{Value: c}), nil, true
+		}
+		return poly.Point(c), c, true
+	case t.Kind == poly.Name && t.Text == "in":
+		open := toks[1]
+		if !isOp(open, "[") && !isOp(open, "(") {
+			errs.Add(open.Pos, "expected [ or ( after \"in\", found %s", open)
+			return poly.Interval{}, nil, false
+		}
+		// Find the comma and the closing bracket at depth zero.
+		depth, comma, end := 0, -1, -1
+		for i := 2; i < len(toks); i++ {
+			switch {
+			case isOp(toks[i], "("):
+				depth++
+			case isOp(toks[i], ")") && depth > 0:
+				depth--
+			case depth == 0 && isOp(toks[i], ",") && comma < 0:
+				comma = i
+			case depth == 0 && comma > 0 && (isOp(toks[i], "]") || isOp(toks[i], ")")):
+				end = i
+			}
+			if end > 0 {
+				break
+			}
+		}
+		if comma < 0 || end < 0 {
+			errs.Add(open.Pos, "expected a range such as [0, 4], (0, 4] or [0, 4)")
+			return poly.Interval{}, nil, false
+		}
+		if toks[end+1].Kind != poly.EOF {
+			errs.Add(toks[end+1].Pos, "unexpected %s after the range", toks[end+1])
+			return poly.Interval{}, nil, false
+		}
+		loToks := append(slices.Clone(toks[2:comma]), poly.Token{Kind: poly.EOF, Pos: toks[comma].Pos})
+		hiToks := append(slices.Clone(toks[comma+1:end]), poly.Token{Kind: poly.EOF, Pos: toks[end].Pos})
+		lo, ok1 := boundOf(loToks, num, -1, errs)
+		hi, ok2 := boundOf(hiToks, num, 1, errs)
+		if !ok1 || !ok2 {
+			return poly.Interval{}, nil, false
+		}
+		lo.Open = lo.Inf != 0 || isOp(open, "(")
+		hi.Open = hi.Inf != 0 || isOp(toks[end], ")")
+		iv, err := poly.NewInterval(lo, hi)
+		if err != nil {
+			errs.Add(open.Pos, "empty range: no number lies in %s%s, %s%s", open.Text, tokText(loToks), tokText(hiToks), toks[end].Text)
+			return poly.Interval{}, nil, false
+		}
+		if iv.Lo.Inf == 0 && iv.Hi.Inf == 0 && iv.Lo.Value.Cmp(iv.Hi.Value) == 0 {
+			return iv, new(big.Rat).Set(iv.Lo.Value), true
+		}
+		return iv, nil, true
+	}
+	errs.Add(t.Pos, "expected a range after the parameter names (> c, >= c, < c, <= c, = c, or in [a, b]), found %s", t)
+	return poly.Interval{}, nil, false
+}
+
+func tokText(ts []poly.Token) string {
+	var parts []string
+	for _, t := range ts {
+		if t.Kind != poly.EOF {
+			parts = append(parts, t.Text)
+		}
+	}
+	return strings.Join(parts, "")
+}
+
+func boundOf(ts []poly.Token, num func([]poly.Token) (*big.Rat, bool), inf int, errs *poly.ErrorList) (poly.Bound, bool) {
+	if len(ts) == 2 && ts[0].Kind == poly.Name && ts[0].Text == "inf" {
+		if inf < 0 {
+			errs.Add(ts[0].Pos, "a lower end of +inf leaves the range empty; write -inf")
+			return poly.Bound{}, false
+		}
+		return poly.Bound{Inf: 1, Open: true}, true
+	}
+	if len(ts) == 3 && isOp(ts[0], "-") && ts[1].Kind == poly.Name && ts[1].Text == "inf" {
+		if inf > 0 {
+			errs.Add(ts[0].Pos, "an upper end of -inf leaves the range empty; write inf")
+			return poly.Bound{}, false
+		}
+		return poly.Bound{Inf: -1, Open: true}, true
+	}
+	c, ok := num(ts)
+	if !ok {
+		return poly.Bound{}, false
+	}
+	return poly.Bound{Value: c}, true
+}
+
+func mustInterval(lo, hi poly.Bound) poly.Interval {
+	iv, err := poly.NewInterval(lo, hi)
+	if err != nil {
+		panic(err)
+	}
+	return iv
+}
+
+// intersect returns x ∩ y and whether it is non-empty.
+func intersect(x, y poly.Interval) (poly.Interval, bool) {
+	lo, hi := x.Lo, x.Hi
+	if cmpLo(y.Lo, lo) > 0 {
+		lo = y.Lo
+	}
+	if cmpHi(y.Hi, hi) < 0 {
+		hi = y.Hi
+	}
+	iv, err := poly.NewInterval(lo, hi)
+	return iv, err == nil
+}
+
+// cmpLo orders lower ends: a larger value, or the same value open, is tighter.
+func cmpLo(a, b poly.Bound) int {
+	if a.Inf != b.Inf || a.Inf != 0 {
+		return a.Inf - b.Inf
+	}
+	if c := a.Value.Cmp(b.Value); c != 0 {
+		return c
+	}
+	switch {
+	case a.Open == b.Open:
+		return 0
+	case a.Open:
+		return 1
+	}
+	return -1
+}
+
+func cmpHi(a, b poly.Bound) int {
+	if a.Inf != b.Inf || a.Inf != 0 {
+		return a.Inf - b.Inf
+	}
+	if c := a.Value.Cmp(b.Value); c != 0 {
+		return c
+	}
+	switch {
+	case a.Open == b.Open:
+		return 0
+	case a.Open:
+		return -1
+	}
+	return 1
+}
+
+func (m *Model) parseAt(toks []poly.Token, pos poly.Pos, expr func([]poly.Token) (poly.RatFunc, bool), errs *poly.ErrorList) {
+	m.AtGiven, m.AtPos = true, pos
+	r := m.Ring
+	m.At = make([]poly.RatFunc, len(m.States))
+	set := make([]bool, len(m.States))
+	for len(toks) > 0 && toks[0].Kind != poly.EOF {
+		n := toks[0]
+		if n.Kind != poly.Name || len(toks) < 3 || !isOp(toks[1], "=") {
+			errs.Add(n.Pos, "expected \"state = value\" in \"at\", found %s", n)
+			return
+		}
+		// The value runs to the next comma at depth zero.
+		depth, end := 0, 2
+		for ; toks[end].Kind != poly.EOF; end++ {
+			if isOp(toks[end], "(") {
+				depth++
+			} else if isOp(toks[end], ")") {
+				depth--
+			} else if depth == 0 && isOp(toks[end], ",") {
+				break
+			}
+		}
+		vt := append(slices.Clone(toks[2:end]), poly.Token{Kind: poly.EOF, Pos: toks[end].Pos})
+		i := slices.Index(m.States, n.Text)
+		switch {
+		case i < 0:
+			errs.Add(n.Pos, "%q in \"at\" is not a state", n.Text)
+		case set[i]:
+			errs.Add(n.Pos, "%s is given twice in \"at\"", n.Text)
+		default:
+			if f, ok := expr(vt); ok {
+				if f.DegreeIn(r.StateMask()) > 0 {
+					errs.Add(vt[0].Pos, "the equilibrium may depend on parameters, not on states")
+				} else {
+					m.At[i], set[i] = f, true
+				}
+			}
+		}
+		toks = toks[end:]
+		if isOp(toks[0], ",") {
+			toks = toks[1:]
+		}
+	}
+	for i, s := range m.States {
+		if !set[i] && len(*errs) == 0 {
+			errs.Add(pos, "\"at\" gives no value for state %s", s)
+		}
+	}
+}
+
+// checkDenominators requires every parameter expression that divides to be
+// kept away from zero by the assumptions.
+func (m *Model) checkDenominators(errs *poly.ErrorList) {
+	box := m.Box()
+	check := func(f poly.RatFunc, pos poly.Pos, what string) {
+		for _, d := range f.Den {
+			if d.P.Enclose(box).ContainsZero() {
+				errs.Add(pos, "%s divides by %s, which the assumptions do not keep away from zero; narrow the parameter's range (for example param %s > 0)", what, d.P, d.P.String())
+			}
+		}
+	}
+	for i, f := range m.F {
+		check(f, m.FPos[i], m.States[i]+"'")
+	}
+	if m.V != nil {
+		check(*m.V, m.VPos, "V")
+	}
+	for i, f := range m.At {
+		check(f, m.AtPos, "the equilibrium's "+m.States[i])
+	}
+}

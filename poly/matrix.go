@@ -1,0 +1,115 @@
+package poly
+
+// Matrix is a dense matrix of rational functions of the parameters.
+type Matrix [][]RatFunc
+
+// NewMatrix returns the n×n zero matrix over r.
+func NewMatrix(r *Ring, n int) Matrix {
+	m := make(Matrix, n)
+	for i := range m {
+		m[i] = make([]RatFunc, n)
+		for j := range m[i] {
+			m[i][j] = FromPoly(Zero(r))
+		}
+	}
+	return m
+}
+
+// GramMatrix returns the symmetric matrix G with q(x) = xᵀ G x for a quadratic
+// form q in the first n variables (the states): G_ii is the coefficient of
+// x_i², G_ij = G_ji half the coefficient of x_i x_j. Terms of q of another
+// degree in the states are ignored; callers split q first.
+func GramMatrix(q RatFunc, n int) Matrix {
+	r := q.Ring()
+	mask := r.StateMask()
+	g := NewMatrix(r, n)
+	half := FromPoly(ConstInt(r, 2))
+	for i := 0; i < n; i++ {
+		for j := i; j < n; j++ {
+			e := make([]int, r.NumVars())
+			e[i]++
+			e[j]++
+			c := q.Coefficient(e, mask)
+			if i != j {
+				c = c.Quo(half)
+			}
+			g[i][j], g[j][i] = c, c
+		}
+	}
+	return g
+}
+
+// QuadraticForm returns xᵀ G x in the first len(G) variables.
+func QuadraticForm(g Matrix, r *Ring) RatFunc {
+	sum := FromPoly(Zero(r))
+	for i := range g {
+		for j := range g {
+			xij := new(Poly).Mul(Var(r, i), Var(r, j))
+			sum = sum.Add(g[i][j].Mul(FromPoly(xij)))
+		}
+	}
+	return sum
+}
+
+// Mul returns a·b.
+func (a Matrix) Mul(b Matrix) Matrix {
+	n, k, m := len(a), len(b), len(b[0])
+	r := b[0][0].Ring()
+	c := make(Matrix, n)
+	for i := 0; i < n; i++ {
+		c[i] = make([]RatFunc, m)
+		for j := 0; j < m; j++ {
+			s := FromPoly(Zero(r))
+			for l := 0; l < k; l++ {
+				if a[i][l].IsZero() || b[l][j].IsZero() {
+					continue
+				}
+				s = s.Add(a[i][l].Mul(b[l][j]))
+			}
+			c[i][j] = s
+		}
+	}
+	return c
+}
+
+// Transpose returns aᵀ.
+func (a Matrix) Transpose() Matrix {
+	t := make(Matrix, len(a[0]))
+	for j := range t {
+		t[j] = make([]RatFunc, len(a))
+		for i := range a {
+			t[j][i] = a[i][j]
+		}
+	}
+	return t
+}
+
+// Equal reports entrywise equality as rational functions.
+func (a Matrix) Equal(b Matrix) bool {
+	if len(a) != len(b) {
+		return false
+	}
+	for i := range a {
+		if len(a[i]) != len(b[i]) {
+			return false
+		}
+		for j := range a[i] {
+			if !a[i][j].Equal(b[i][j]) {
+				return false
+			}
+		}
+	}
+	return true
+}
+
+// Strings returns the canonical text of every entry.
+func (a Matrix) Strings() [][]string {
+	out := make([][]string, len(a))
+	for i := range a {
+		out[i] = make([]string, len(a[i]))
+		for j := range a[i] {
+			out[i][j] = a[i][j].String()
+		}
+	}
+	return out
+}

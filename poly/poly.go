@@ -1,0 +1,708 @@
+package poly
+
+import (
+	"fmt"
+	"math/big"
+	"slices"
+	"strings"
+)
+
+// Ring is an ordered list of variable names: the states of a model first,
+// then its parameters. Every Poly belongs to one Ring; operations on
+// polynomials of different rings panic (a programmer error).
+type Ring struct {
+	names   []string
+	index   map[string]int
+	nstates int
+}
+
+// NewRing returns the ring with the given states followed by the parameters.
+// Names must be distinct; a repeated name panics.
+func NewRing(states, params []string) *Ring {
+	r := &Ring{index: make(map[string]int), nstates: len(states)}
+	for _, n := range slices.Concat(states, params) {
+		if _, dup := r.index[n]; dup {
+			panic("poly: repeated variable " + n)
+		}
+		r.index[n] = len(r.names)
+		r.names = append(r.names, n)
+	}
+	return r
+}
+
+// NumVars returns the number of variables.
+func (r *Ring) NumVars() int { return len(r.names) }
+
+// NumStates returns the number of state variables (the first ones).
+func (r *Ring) NumStates() int { return r.nstates }
+
+// Name returns the name of variable i.
+func (r *Ring) Name(i int) string { return r.names[i] }
+
+// Names returns a copy of all variable names in order.
+func (r *Ring) Names() []string { return slices.Clone(r.names) }
+
+// Index returns the index of the named variable.
+func (r *Ring) Index(name string) (int, bool) {
+	i, ok := r.index[name]
+	return i, ok
+}
+
+// IsState reports whether variable i is a state.
+func (r *Ring) IsState(i int) bool { return i < r.nstates }
+
+// Term is one coefficient times a monomial; Exp has one exponent per ring variable.
+type Term struct {
+	Exp  []int
+	Coef *big.Rat
+}
+
+// Poly is a sparse multivariate polynomial with exact rational coefficients.
+// Methods follow math/big: the receiver holds the result and is returned;
+// operands may alias the receiver. A nil *Poly is never valid; use Zero.
+type Poly struct {
+	ring  *Ring
+	terms map[string]*big.Rat // key: encoded exponents
+}
+
+// Zero returns the zero polynomial of r.
+func Zero(r *Ring) *Poly { return &Poly{ring: r, terms: map[string]*big.Rat{}} }
+
+// Const returns the constant polynomial c.
+func Const(r *Ring, c *big.Rat) *Poly {
+	p := Zero(r)
+	if c.Sign() != 0 {
+		p.terms[key(make([]int, r.NumVars()))] = new(big.Rat).Set(c)
+	}
+	return p
+}
+
+// ConstInt returns the constant polynomial n.
+func ConstInt(r *Ring, n int64) *Poly { return Const(r, big.NewRat(n, 1)) }
+
+// Var returns the polynomial consisting of variable i.
+func Var(r *Ring, i int) *Poly {
+	e := make([]int, r.NumVars())
+	e[i] = 1
+	return Monomial(r, e, big.NewRat(1, 1))
+}
+
+// Monomial returns c times the monomial with exponents e.
+func Monomial(r *Ring, e []int, c *big.Rat) *Poly {
+	if len(e) != r.NumVars() {
+		panic("poly: exponent vector length mismatch")
+	}
+	p := Zero(r)
+	if c.Sign() != 0 {
+		p.terms[key(e)] = new(big.Rat).Set(c)
+	}
+	return p
+}
+
+// Ring returns the ring of p.
+func (p *Poly) Ring() *Ring { return p.ring }
+
+func key(e []int) string {
+	b := make([]byte, 2*len(e))
+	for i, x := range e {
+		if x < 0 || x > 0xffff {
+			panic("poly: exponent out of range")
+		}
+		b[2*i] = byte(x >> 8)
+		b[2*i+1] = byte(x)
+	}
+	return string(b)
+}
+
+func unkey(k string) []int {
+	e := make([]int, len(k)/2)
+	for i := range e {
+		e[i] = int(k[2*i])<<8 | int(k[2*i+1])
+	}
+	return e
+}
+
+func (p *Poly) check(q *Poly) {
+	if p.ring != q.ring {
+		panic("poly: polynomials of different rings")
+	}
+}
+
+// Set sets z to a copy of x and returns z.
+func (z *Poly) Set(x *Poly) *Poly {
+	if z == x {
+		return z
+	}
+	t := make(map[string]*big.Rat, len(x.terms))
+	for k, c := range x.terms {
+		t[k] = new(big.Rat).Set(c)
+	}
+	z.ring, z.terms = x.ring, t
+	return z
+}
+
+// Clone returns a copy of p.
+func (p *Poly) Clone() *Poly { return new(Poly).Set(p) }
+
+// Add sets z = x + y and returns z.
+func (z *Poly) Add(x, y *Poly) *Poly { return z.combine(x, y, 1) }
+
+// Sub sets z = x - y and returns z.
+func (z *Poly) Sub(x, y *Poly) *Poly { return z.combine(x, y, -1) }
+
+func (z *Poly) combine(x, y *Poly, sign int) *Poly {
+	x.check(y)
+	t := make(map[string]*big.Rat, len(x.terms)+len(y.terms))
+	for k, c := range x.terms {
+		t[k] = new(big.Rat).Set(c)
+	}
+	for k, c := range y.terms {
+		s, ok := t[k]
+		if !ok {
+			s = new(big.Rat)
+			t[k] = s
+		}
+		if sign > 0 {
+			s.Add(s, c)
+		} else {
+			s.Sub(s, c)
+		}
+		if s.Sign() == 0 {
+			delete(t, k)
+		}
+	}
+	z.ring, z.terms = x.ring, t
+	return z
+}
+
+// Neg sets z = -x and returns z.
+func (z *Poly) Neg(x *Poly) *Poly {
+	return z.Scale(x, big.NewRat(-1, 1))
+}
+
+// Scale sets z = c·x and returns z.
+func (z *Poly) Scale(x *Poly, c *big.Rat) *Poly {
+	t := make(map[string]*big.Rat, len(x.terms))
+	if c.Sign() != 0 {
+		for k, a := range x.terms {
+			t[k] = new(big.Rat).Mul(a, c)
+		}
+	}
+	z.ring, z.terms = x.ring, t
+	return z
+}
+
+// Mul sets z = x·y and returns z.
+func (z *Poly) Mul(x, y *Poly) *Poly {
+	x.check(y)
+	t := make(map[string]*big.Rat, len(x.terms)*len(y.terms))
+	n := x.ring.NumVars()
+	buf := make([]byte, 2*n)
+	var prod big.Rat
+	for kx, cx := range x.terms {
+		for ky, cy := range y.terms {
+			for i := 0; i < n; i++ {
+				e := (int(kx[2*i])<<8 | int(kx[2*i+1])) + (int(ky[2*i])<<8 | int(ky[2*i+1]))
+				if e > 0xffff {
+					panic("poly: exponent out of range")
+				}
+				buf[2*i], buf[2*i+1] = byte(e>>8), byte(e)
+			}
+			k := string(buf)
+			prod.Mul(cx, cy)
+			if s, ok := t[k]; ok {
+				s.Add(s, &prod)
+				if s.Sign() == 0 {
+					delete(t, k)
+				}
+			} else {
+				t[k] = new(big.Rat).Set(&prod)
+			}
+		}
+	}
+	z.ring, z.terms = x.ring, t
+	return z
+}
+
+// Pow sets z = x^n for n >= 0 (x^0 = 1, also for x = 0) and returns z.
+func (z *Poly) Pow(x *Poly, n int) *Poly {
+	if n < 0 {
+		panic("poly: negative exponent")
+	}
+	result := ConstInt(x.ring, 1)
+	base := x.Clone()
+	for n > 0 {
+		if n&1 == 1 {
+			result.Mul(result, base)
+		}
+		n >>= 1
+		if n > 0 {
+			base.Mul(base, base)
+		}
+	}
+	return z.Set(result)
+}
+
+// Derivative sets z = ∂x/∂v_i and returns z.
+func (z *Poly) Derivative(x *Poly, i int) *Poly {
+	t := make(map[string]*big.Rat, len(x.terms))
+	for k, c := range x.terms {
+		e := unkey(k)
+		if e[i] == 0 {
+			continue
+		}
+		d := new(big.Rat).Mul(c, big.NewRat(int64(e[i]), 1))
+		e[i]--
+		t[key(e)] = d
+	}
+	z.ring, z.terms = x.ring, t
+	return z
+}
+
+// Substitute sets z to x with variable i replaced by the polynomial q and returns z.
+func (z *Poly) Substitute(x *Poly, i int, q *Poly) *Poly {
+	x.check(q)
+	sub := make([]*Poly, x.ring.NumVars())
+	sub[i] = q
+	return z.Compose(x, sub)
+}
+
+// Compose sets z to x with every variable i for which sub[i] != nil replaced
+// by sub[i], simultaneously, and returns z.
+func (z *Poly) Compose(x *Poly, sub []*Poly) *Poly {
+	r := x.ring
+	result := Zero(r)
+	powers := make([][]*Poly, len(sub)) // cache of sub[i]^k
+	pow := func(i, k int) *Poly {
+		for len(powers[i]) <= k {
+			if len(powers[i]) == 0 {
+				powers[i] = append(powers[i], ConstInt(r, 1))
+				continue
+			}
+			last := powers[i][len(powers[i])-1]
+			powers[i] = append(powers[i], new(Poly).Mul(last, sub[i]))
+		}
+		return powers[i][k]
+	}
+	for _, t := range x.Terms() {
+		rest := slices.Clone(t.Exp)
+		term := Zero(r)
+		for i := range rest {
+			if sub[i] != nil {
+				rest[i] = 0
+			}
+		}
+		term = Monomial(r, rest, t.Coef)
+		for i, e := range t.Exp {
+			if sub[i] != nil && e > 0 {
+				term.Mul(term, pow(i, e))
+			}
+		}
+		result.Add(result, term)
+	}
+	return z.Set(result)
+}
+
+// EvalVars sets z to x with the variables in vals (index → value) replaced by
+// rational values and returns z.
+func (z *Poly) EvalVars(x *Poly, vals map[int]*big.Rat) *Poly {
+	t := make(map[string]*big.Rat, len(x.terms))
+	var f big.Rat
+	for k, c := range x.terms {
+		e := unkey(k)
+		v := new(big.Rat).Set(c)
+		for i, val := range vals {
+			if e[i] > 0 {
+				v.Mul(v, f.Set(ratPow(val, e[i])))
+				e[i] = 0
+			}
+		}
+		if v.Sign() == 0 {
+			continue
+		}
+		nk := key(e)
+		if s, ok := t[nk]; ok {
+			s.Add(s, v)
+			if s.Sign() == 0 {
+				delete(t, nk)
+			}
+		} else {
+			t[nk] = v
+		}
+	}
+	z.ring, z.terms = x.ring, t
+	return z
+}
+
+// Eval returns p at the point x (one value per ring variable), exactly.
+func (p *Poly) Eval(x []*big.Rat) *big.Rat {
+	if len(x) != p.ring.NumVars() {
+		panic("poly: point dimension mismatch")
+	}
+	sum := new(big.Rat)
+	for k, c := range p.terms {
+		v := new(big.Rat).Set(c)
+		for i, e := range unkey(k) {
+			if e > 0 {
+				v.Mul(v, ratPow(x[i], e))
+			}
+		}
+		sum.Add(sum, v)
+	}
+	return sum
+}
+
+func ratPow(x *big.Rat, n int) *big.Rat {
+	num := new(big.Int).Exp(x.Num(), big.NewInt(int64(n)), nil)
+	den := new(big.Int).Exp(x.Denom(), big.NewInt(int64(n)), nil)
+	return new(big.Rat).SetFrac(num, den)
+}
+
+// IsZero reports whether p is the zero polynomial.
+func (p *Poly) IsZero() bool { return len(p.terms) == 0 }
+
+// NumTerms returns the number of non-zero terms.
+func (p *Poly) NumTerms() int { return len(p.terms) }
+
+// IsConst reports whether p is a constant (including zero).
+func (p *Poly) IsConst() bool {
+	return p.Degree() <= 0
+}
+
+// ConstTerm returns the constant coefficient of p.
+func (p *Poly) ConstTerm() *big.Rat {
+	c, ok := p.terms[key(make([]int, p.ring.NumVars()))]
+	if !ok {
+		return new(big.Rat)
+	}
+	return new(big.Rat).Set(c)
+}
+
+// Equal reports whether p and q are the same polynomial.
+func (p *Poly) Equal(q *Poly) bool {
+	p.check(q)
+	if len(p.terms) != len(q.terms) {
+		return false
+	}
+	for k, c := range p.terms {
+		d, ok := q.terms[k]
+		if !ok || c.Cmp(d) != 0 {
+			return false
+		}
+	}
+	return true
+}
+
+// Degree returns the total degree of p; the zero polynomial has degree -1.
+func (p *Poly) Degree() int {
+	return p.DegreeIn(nil)
+}
+
+// DegreeIn returns the total degree of p in the variables i with in[i] true
+// (all variables when in is nil); -1 for the zero polynomial.
+func (p *Poly) DegreeIn(in []bool) int {
+	d := -1
+	for k := range p.terms {
+		s := 0
+		for i, e := range unkey(k) {
+			if in == nil || in[i] {
+				s += e
+			}
+		}
+		d = max(d, s)
+	}
+	return d
+}
+
+// Homogeneous returns the part of p of total degree d in the variables i with
+// in[i] true (all variables when in is nil).
+func (p *Poly) Homogeneous(d int, in []bool) *Poly {
+	z := Zero(p.ring)
+	for k, c := range p.terms {
+		s := 0
+		for i, e := range unkey(k) {
+			if in == nil || in[i] {
+				s += e
+			}
+		}
+		if s == d {
+			z.terms[k] = new(big.Rat).Set(c)
+		}
+	}
+	return z
+}
+
+// StateMask returns the mask selecting the states of r.
+func (r *Ring) StateMask() []bool {
+	m := make([]bool, r.NumVars())
+	for i := 0; i < r.nstates; i++ {
+		m[i] = true
+	}
+	return m
+}
+
+// ParamMask returns the mask selecting the parameters of r.
+func (r *Ring) ParamMask() []bool {
+	m := r.StateMask()
+	for i := range m {
+		m[i] = !m[i]
+	}
+	return m
+}
+
+// Coefficient returns the coefficient of the monomial in the variables
+// selected by in with exponents e (entries outside in are ignored), as a
+// polynomial in the remaining variables.
+func (p *Poly) Coefficient(e []int, in []bool) *Poly {
+	z := Zero(p.ring)
+	for k, c := range p.terms {
+		te := unkey(k)
+		match := true
+		for i := range te {
+			if in[i] {
+				if te[i] != e[i] {
+					match = false
+					break
+				}
+				te[i] = 0
+			}
+		}
+		if match {
+			z.terms[key(te)] = new(big.Rat).Set(c)
+		}
+	}
+	return z
+}
+
+// UsesVar reports whether variable i occurs in p.
+func (p *Poly) UsesVar(i int) bool {
+	for k := range p.terms {
+		if k[2*i] != 0 || k[2*i+1] != 0 {
+			return true
+		}
+	}
+	return false
+}
+
+// VarsUsed returns the indices of the variables that occur in p, ascending.
+func (p *Poly) VarsUsed() []int {
+	var out []int
+	for i := 0; i < p.ring.NumVars(); i++ {
+		if p.UsesVar(i) {
+			out = append(out, i)
+		}
+	}
+	return out
+}
+
+// gradedLess orders exponent vectors by total degree, then lexicographically
+// (x₁ > x₂ > ...): the graded lexicographic order.
+func gradedLess(a, b []int) bool {
+	da, db := 0, 0
+	for i := range a {
+		da += a[i]
+		db += b[i]
+	}
+	if da != db {
+		return da < db
+	}
+	for i := range a {
+		if a[i] != b[i] {
+			return a[i] < b[i]
+		}
+	}
+	return false
+}
+
+// Terms returns the terms of p in descending graded lexicographic order.
+func (p *Poly) Terms() []Term {
+	ts := make([]Term, 0, len(p.terms))
+	for k, c := range p.terms {
+		ts = append(ts, Term{Exp: unkey(k), Coef: new(big.Rat).Set(c)})
+	}
+	slices.SortFunc(ts, func(a, b Term) int {
+		switch {
+		case gradedLess(b.Exp, a.Exp):
+			return -1
+		case gradedLess(a.Exp, b.Exp):
+			return 1
+		}
+		return 0
+	})
+	return ts
+}
+
+// Lead returns the leading term of p in graded lexicographic order; p must be non-zero.
+func (p *Poly) Lead() Term {
+	var best []int
+	var bc *big.Rat
+	for k, c := range p.terms {
+		e := unkey(k)
+		if best == nil || gradedLess(best, e) {
+			best, bc = e, c
+		}
+	}
+	if best == nil {
+		panic("poly: leading term of zero")
+	}
+	return Term{Exp: best, Coef: new(big.Rat).Set(bc)}
+}
+
+// DivExact sets z = x / y when y divides x exactly and reports whether it does.
+// On false z is unchanged. y must be non-zero.
+//
+// Multivariate division by a graded order: when y | x, the leading monomial of
+// y divides the leading monomial of every intermediate remainder, so greedy
+// division succeeds exactly when the division is exact.
+func (z *Poly) DivExact(x, y *Poly) bool {
+	x.check(y)
+	if y.IsZero() {
+		panic("poly: division by zero polynomial")
+	}
+	rem := x.Clone()
+	quo := Zero(x.ring)
+	ly := y.Lead()
+	for !rem.IsZero() {
+		lr := rem.Lead()
+		e := make([]int, len(lr.Exp))
+		for i := range e {
+			e[i] = lr.Exp[i] - ly.Exp[i]
+			if e[i] < 0 {
+				return false
+			}
+		}
+		c := new(big.Rat).Quo(lr.Coef, ly.Coef)
+		m := Monomial(x.ring, e, c)
+		quo.Add(quo, m)
+		rem.Sub(rem, m.Mul(m, y))
+	}
+	z.Set(quo)
+	return true
+}
+
+// Content returns the positive rational c and the primitive polynomial q with
+// p = c·q, where q has integer coefficients with greatest common divisor 1;
+// for p = 0 it returns 0 and 0.
+func (p *Poly) Content() (*big.Rat, *Poly) {
+	if p.IsZero() {
+		return new(big.Rat), Zero(p.ring)
+	}
+	lcm := big.NewInt(1)
+	g := new(big.Int)
+	for _, c := range p.terms {
+		d := c.Denom()
+		g.GCD(nil, nil, lcm, d)
+		lcm.Mul(lcm, new(big.Int).Quo(d, g))
+	}
+	gnum := new(big.Int)
+	for _, c := range p.terms {
+		n := new(big.Int).Mul(c.Num(), new(big.Int).Quo(lcm, c.Denom()))
+		gnum.GCD(nil, nil, gnum, n.Abs(n))
+	}
+	c := new(big.Rat).SetFrac(gnum, lcm)
+	return c, new(Poly).Scale(p, new(big.Rat).Inv(c))
+}
+
+// PrimitivePart returns the signed rational c and the primitive polynomial q
+// with p = c·q and q having a positive leading coefficient.
+func (p *Poly) PrimitivePart() (*big.Rat, *Poly) {
+	c, q := p.Content()
+	if !q.IsZero() && q.Lead().Coef.Sign() < 0 {
+		c.Neg(c)
+		q.Neg(q)
+	}
+	return c, q
+}
+
+// String returns the canonical text of p with the ring's variable names:
+// terms in descending graded lexicographic order, coefficients as integers or
+// p/q, "*" between factors, "^" for powers, e.g. "2*u*v - u^2 + 3/2".
+// The text re-parses to the same polynomial.
+func (p *Poly) String() string {
+	return p.Format(p.ring.names)
+}
+
+// Format is String with other variable names.
+func (p *Poly) Format(names []string) string {
+	return FromPoly(p).Format(names)
+}
+
+// formatTerms prints p term by term, parameters and states alike.
+func (p *Poly) formatTerms(names []string) string {
+	ts := p.Terms()
+	if len(ts) == 0 {
+		return "0"
+	}
+	var b strings.Builder
+	for i, t := range ts {
+		c := t.Coef
+		neg := c.Sign() < 0
+		abs := new(big.Rat).Abs(c)
+		switch {
+		case i == 0 && neg:
+			b.WriteString("-")
+		case i > 0 && neg:
+			b.WriteString(" - ")
+		case i > 0:
+			b.WriteString(" + ")
+		}
+		mono := formatMonomial(t.Exp, names)
+		one := abs.Cmp(big.NewRat(1, 1)) == 0
+		switch {
+		case mono == "":
+			b.WriteString(abs.RatString())
+		case one:
+			b.WriteString(mono)
+		default:
+			b.WriteString(abs.RatString())
+			b.WriteString("*")
+			b.WriteString(mono)
+		}
+	}
+	return b.String()
+}
+
+func formatMonomial(e []int, names []string) string {
+	var parts []string
+	for i, x := range e {
+		switch {
+		case x == 1:
+			parts = append(parts, names[i])
+		case x > 1:
+			parts = append(parts, fmt.Sprintf("%s^%d", names[i], x))
+		}
+	}
+	return strings.Join(parts, "*")
+}
+
+// IsMonomial reports whether p has exactly one term.
+func (p *Poly) IsMonomial() bool { return len(p.terms) == 1 }
+
+// Relabel returns p moved into ring r, variable i of p's ring becoming
+// variable m[i] of r. Variables that occur in p must be mapped (m[i] >= 0).
+func (p *Poly) Relabel(r *Ring, m []int) *Poly {
+	z := Zero(r)
+	for k, c := range p.terms {
+		e := unkey(k)
+		ne := make([]int, r.NumVars())
+		for i, x := range e {
+			if x == 0 {
+				continue
+			}
+			if m[i] < 0 {
+				panic("poly: relabel drops a used variable")
+			}
+			ne[m[i]] += x
+		}
+		nk := key(ne)
+		if s, ok := z.terms[nk]; ok {
+			s.Add(s, c)
+			if s.Sign() == 0 {
+				delete(z.terms, nk)
+			}
+		} else {
+			z.terms[nk] = new(big.Rat).Set(c)
+		}
+	}
+	return z
+}

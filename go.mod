@@ -8,3 +8,9 @@ require (
 )
 
 require github.com/alecthomas/kong v1.17.0
+
+require (
+	github.com/rogpeppe/go-internal v1.16.0
+	golang.org/x/sys v0.30.0 // indirect
+	golang.org/x/tools v0.30.0 // indirect
+)

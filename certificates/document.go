@@ -40,18 +40,20 @@ const (
 // and free parameters.
 //
 // Fields that carry no claim, and that Verify therefore does not examine, are
-// Tool, Issued and Source.
+// Tool, Issued, Source and Description.
 type Document struct {
-	Format  string `json:"format"`
-	Tool    string `json:"tool"`
-	Issued  string `json:"issued"`
-	Source  string `json:"source,omitempty"`
-	Model   string `json:"model"`
-	System  System `json:"system"`
-	V       string `json:"V"`
-	Vdot    string `json:"vdot"`
-	Claim   string `json:"claim"`
-	Verdict string `json:"verdict"`
+	Format string `json:"format"`
+	Tool   string `json:"tool"`
+	Issued string `json:"issued"`
+	Source string `json:"source,omitempty"`
+	// Description is the model file's leading comment, for people.
+	Description []string `json:"description,omitempty"`
+	Model       string   `json:"model"`
+	System      System   `json:"system"`
+	V           string   `json:"V"`
+	Vdot        string   `json:"vdot"`
+	Claim       string   `json:"claim"`
+	Verdict     string   `json:"verdict"`
 	// Forms are the Gram matrices of the quadratic parts of V and of −V̇
 	// (ΔV for discrete time) at the equilibrium, with their LDLᵀ factors.
 	Forms      []Form      `json:"forms"`
@@ -147,12 +149,17 @@ type Piece struct {
 // Witness is a point of parameter space where every condition holds, or
 // where one fails (several free parameters).
 type Witness struct {
+	// Params gives exactly the parameters the conditions involve.
 	Params map[string]string `json:"params"`
-	Holds  bool              `json:"holds"`
+	// Values are the conditions' values there, in order.
+	Values []string `json:"values"`
+	Holds  bool     `json:"holds"`
 }
 
 // Refutation is a point where the candidate fails: V ≤ 0 or V̇ ≥ 0 at a state
-// other than the equilibrium, for the given parameter values.
+// other than the equilibrium. Params fixes only the parameters on which V or
+// V̇ at Point depends; V and Vdot are the exact values there, as functions
+// of the remaining parameters, whose sign must hold on their whole range.
 type Refutation struct {
 	Params map[string]string `json:"params"`
 	Point  map[string]string `json:"point"`

@@ -2,6 +2,7 @@ package certificates
 
 import (
 	"fmt"
+	"maps"
 	"math/big"
 	"slices"
 	"strings"
@@ -534,7 +535,7 @@ func (c *checker) verdict() bool {
 		return c.region(used, someNonPositiveConst)
 	}
 	if len(d.Witnesses) > 0 {
-		return c.witnesses()
+		return c.witnesses(used)
 	}
 	switch d.Verdict {
 	case VerdictHolds:
@@ -548,21 +549,35 @@ func (c *checker) verdict() bool {
 	return c.add("verdict", false, "verdict %q needs a region or witnesses", d.Verdict)
 }
 
-func (c *checker) witnesses() bool {
+func (c *checker) witnesses(used map[int]bool) bool {
 	d := c.doc
 	holds, fails := false, false
 	for i, w := range d.Witnesses {
-		x, ok := c.paramPoint(w.Params, fmt.Sprintf("witness %d", i+1))
+		what := fmt.Sprintf("witness %d", i+1)
+		vals, ok := c.paramValues(w.Params, what)
 		if !ok {
 			return false
 		}
-		all := true
-		for _, q := range c.conds {
-			if q.Num.Eval(x).Sign() <= 0 {
-				all = false
-			}
+		same := len(vals) == len(used)
+		for v := range vals {
+			same = same && used[v]
 		}
-		if !c.add("witness", all == w.Holds, "witness %d: the conditions hold there: %v", i+1, all) {
+		if !c.add(what, same, "gives exactly the parameters the conditions involve") {
+			return false
+		}
+		if !c.add(what, len(w.Values) == len(c.conds), "states the value of every condition") {
+			return false
+		}
+		all := true
+		for j, q := range c.conds {
+			x := new(poly.Poly).EvalVars(q.Num, vals).ConstTerm()
+			claimed, ok := parseRat(w.Values[j])
+			if !c.add(what, ok && claimed.Cmp(x) == 0, "condition %d is %s there", j+1, w.Values[j]) {
+				return false
+			}
+			all = all && x.Sign() > 0
+		}
+		if !c.add(what, all == w.Holds, "the conditions hold there: %v", all) {
 			return false
 		}
 		holds = holds || all
@@ -577,65 +592,109 @@ func (c *checker) witnesses() bool {
 	return c.add("verdict", false, "verdict %q cannot rest on witness points", d.Verdict)
 }
 
-// paramPoint reads parameter values (every free parameter, inside its range)
-// into a point of the ring with zero states.
-func (c *checker) paramPoint(vals map[string]string, what string) ([]*big.Rat, bool) {
-	x := make([]*big.Rat, c.r.NumVars())
-	for i := range x {
-		x[i] = new(big.Rat)
-	}
-	free := c.m.FreeParams()
-	if !c.add(what, len(vals) == len(free), "gives every free parameter") {
-		return nil, false
-	}
-	for _, p := range free {
-		s, ok := vals[p.Name]
-		v, ok2 := parseRat(s)
-		if !c.add(what, ok && ok2 && p.Range.Contains(v), "%s = %s lies in %s", p.Name, s, p.Range) {
+// paramValues reads values of some free parameters, each inside its range.
+func (c *checker) paramValues(vals map[string]string, what string) (map[int]*big.Rat, bool) {
+	out := map[int]*big.Rat{}
+	for name, s := range vals {
+		p, ok := c.m.Param(name)
+		i, isVar := c.r.Index(name)
+		if !c.add(what, ok && isVar && p.Fixed == nil, "%s is a free parameter", name) {
 			return nil, false
 		}
-		i, _ := c.r.Index(p.Name)
-		x[i] = v
+		v, ok := parseRat(s)
+		if !c.add(what, ok && p.Range.Contains(v), "%s = %s lies in %s", name, s, p.Range) {
+			return nil, false
+		}
+		out[i] = v
 	}
-	return x, true
+	return out, true
 }
 
+// refutation checks a point where V ≤ 0 or V̇ ≥ 0: the values are recomputed
+// as functions of the parameters left free, and their sign must hold on the
+// whole box by exact interval enclosure. Every fixed parameter must matter.
 func (c *checker) refutation(v, vdot poly.RatFunc) bool {
 	rf := c.doc.Refutation
-	x, ok := c.paramPoint(rf.Params, "refutation")
+	vals, ok := c.paramValues(rf.Params, "refutation")
 	if !ok {
 		return false
 	}
-	if !c.add("refutation", len(rf.Point) == len(c.m.States), "the point gives every state") {
+	n := len(c.m.States)
+	if !c.add("refutation", len(rf.Point) == n, "the point gives every state") {
 		return false
 	}
-	differs := false
+	point := map[int]*big.Rat{}
 	for i, s := range c.m.States {
 		val, ok := parseRat(rf.Point[s])
 		if !c.add("refutation", ok, "state %s = %q is a rational", s, rf.Point[s]) {
 			return false
 		}
-		at, err := c.m.At[i].Eval(x)
-		if err != nil {
-			return c.add("refutation", false, "the equilibrium is undefined there")
-		}
-		if val.Cmp(at) != 0 {
+		point[i] = val
+	}
+	at := func(f poly.RatFunc, params map[int]*big.Rat) (poly.RatFunc, bool) {
+		all := map[int]*big.Rat{}
+		maps.Copy(all, point)
+		maps.Copy(all, params)
+		g, err := f.EvalVars(all)
+		return g, err == nil
+	}
+	vv, ok1 := at(v, vals)
+	dv, ok2 := at(vdot, vals)
+	cv, ok3 := c.parse("refutation", rf.V)
+	cd, ok4 := c.parse("refutation", rf.Vdot)
+	if !c.add("refutation", ok1 && ok2 && ok3 && ok4 && vv.Equal(cv) && dv.Equal(cd), "V = %s and V̇ = %s there, exactly", rf.V, rf.Vdot) {
+		return false
+	}
+	// The point differs from the equilibrium for every remaining parameter
+	// value: some coordinate differs from a constant equilibrium coordinate.
+	differs := false
+	for i := range c.m.States {
+		e, ok := at(c.m.At[i], vals)
+		if ok && e.IsPoly() && e.Num.IsConst() && e.Num.ConstTerm().Cmp(point[i]) != 0 {
 			differs = true
 		}
-		x[i] = val
 	}
 	if !c.add("refutation", differs, "the point is not the equilibrium") {
 		return false
 	}
-	vv, err1 := v.Eval(x)
-	dv, err2 := vdot.Eval(x)
-	cv, ok1 := parseRat(rf.V)
-	cd, ok2 := parseRat(rf.Vdot)
-	if !c.add("refutation", err1 == nil && err2 == nil && ok1 && ok2 && vv.Cmp(cv) == 0 && dv.Cmp(cd) == 0,
-		"V = %s and V̇ = %s there, exactly", rf.V, rf.Vdot) {
-		return false
+	for i := range vals {
+		rest := maps.Clone(vals)
+		delete(rest, i)
+		a, _ := at(v, rest)
+		b, _ := at(vdot, rest)
+		if !c.add("refutation", a.Num.UsesVar(i) || b.Num.UsesVar(i) || denUses(a, i) || denUses(b, i), "V or V̇ there depends on %s, which the refutation fixes", c.r.Name(i)) {
+			return false
+		}
 	}
-	return c.add("refutation", vv.Sign() <= 0 || dv.Sign() >= 0, "V ≤ 0 or V̇ ≥ 0 at a point other than the equilibrium")
+	neg := vv.Num.Enclose(c.box).Mul(denSign(vv, c.box))
+	pos := dv.Num.Enclose(c.box).Mul(denSign(dv, c.box))
+	return c.add("refutation", neg.NonPositive() || pos.NonNegative(), "V ≤ 0 or V̇ ≥ 0 there, for every value of the parameters left free")
+}
+
+func denUses(f poly.RatFunc, i int) bool {
+	for _, d := range f.Den {
+		if d.P.UsesVar(i) {
+			return true
+		}
+	}
+	return false
+}
+
+// denSign returns an interval with the sign of f's denominator on the box
+// (the whole line when it is not fixed), so that num·sign has f's sign.
+func denSign(f poly.RatFunc, box []poly.Interval) poly.Interval {
+	one := poly.Point(big.NewRat(1, 1))
+	if len(f.Den) == 0 {
+		return one
+	}
+	e := f.DenPoly().Enclose(box)
+	switch {
+	case e.Positive():
+		return one
+	case e.Negative():
+		return poly.Point(big.NewRat(-1, 1))
+	}
+	return poly.Entire()
 }
 
 func parseRat(s string) (*big.Rat, bool) {

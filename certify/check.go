@@ -367,15 +367,20 @@ func (res *Result) witnesses(vars []int) {
 		for i, p := range free {
 			j, _ := r.Index(p.Name)
 			point[j] = grids[i][idx[i]]
-			vals[p.Name] = point[j].RatString()
+			if slices.Contains(vars, j) {
+				vals[p.Name] = point[j].RatString()
+			}
 		}
 		all := true
+		values := []string{}
 		for _, c := range res.Conds {
-			if c.Q.Eval(point).Sign() <= 0 {
+			x := c.Q.Eval(point)
+			values = append(values, x.RatString())
+			if x.Sign() <= 0 {
 				all = false
 			}
 		}
-		w := &certificates.Witness{Params: vals, Holds: all}
+		w := &certificates.Witness{Params: vals, Values: values, Holds: all}
 		if all && hold == nil {
 			hold = w
 		}
@@ -563,11 +568,7 @@ func alongRay(m *model.Model, res *Result, vals map[string]string, params []*big
 				return nil
 			}
 			if vv.Sign() <= 0 || dv.Sign() >= 0 {
-				pt := map[string]string{}
-				for i, name := range m.States {
-					pt[name] = x[i].RatString()
-				}
-				return &certificates.Refutation{Params: vals, Point: pt, V: vv.RatString(), Vdot: dv.RatString()}
+				return minimalRefutation(m, res, vals, x)
 			}
 		}
 		t.Quo(t, big.NewRat(2, 1))
@@ -625,15 +626,16 @@ var ErrUnverified = errors.New("internal error: the exact checker rejected the c
 func (res *Result) document(source string) *certificates.Document {
 	m := res.Model
 	d := &certificates.Document{
-		Format:  certificates.Format,
-		Tool:    "lyacert " + Version,
-		Issued:  time.Now().UTC().Format(time.RFC3339),
-		Source:  source,
-		Model:   m.Canonical(),
-		V:       res.V.String(),
-		Vdot:    res.Vdot.String(),
-		Claim:   res.Claim,
-		Verdict: res.Verdict,
+		Format:      certificates.Format,
+		Tool:        "lyacert " + Version,
+		Issued:      time.Now().UTC().Format(time.RFC3339),
+		Source:      source,
+		Description: m.Description,
+		Model:       m.Canonical(),
+		V:           res.V.String(),
+		Vdot:        res.Vdot.String(),
+		Claim:       res.Claim,
+		Verdict:     res.Verdict,
 	}
 	d.System.Time = "continuous"
 	if m.Discrete {
@@ -680,4 +682,63 @@ func (res *Result) document(source string) *certificates.Document {
 		d.Kernel = append(d.Kernel, row)
 	}
 	return d
+}
+
+// minimalRefutation states a refuting point with only the parameters that V
+// or V̇ there depends on; the values are functions of the others, which do
+// not occur in them.
+func minimalRefutation(m *model.Model, res *Result, vals map[string]string, x []*big.Rat) *certificates.Refutation {
+	r := m.Ring
+	n := len(m.States)
+	keep := map[int]*big.Rat{}
+	for i := n; i < r.NumVars(); i++ {
+		if _, ok := vals[r.Name(i)]; ok {
+			keep[i] = x[i]
+		}
+	}
+	at := func(f poly.RatFunc, params map[int]*big.Rat) poly.RatFunc {
+		all := maps.Clone(params)
+		for i := 0; i < n; i++ {
+			all[i] = x[i]
+		}
+		g, err := f.EvalVars(all)
+		if err != nil {
+			panic(err) // the point was evaluated before
+		}
+		return g
+	}
+	uses := func(f poly.RatFunc, i int) bool {
+		if f.Num.UsesVar(i) {
+			return true
+		}
+		for _, d := range f.Den {
+			if d.P.UsesVar(i) {
+				return true
+			}
+		}
+		return false
+	}
+	for _, i := range slices.Sorted(maps.Keys(keep)) {
+		rest := maps.Clone(keep)
+		delete(rest, i)
+		// The equilibrium must stay fixed too.
+		eqUses := false
+		for _, a := range m.At {
+			if uses(a, i) {
+				eqUses = true
+			}
+		}
+		if !eqUses && !uses(at(res.V, rest), i) && !uses(at(res.Vdot, rest), i) {
+			keep = rest
+		}
+	}
+	params := map[string]string{}
+	for i, v := range keep {
+		params[r.Name(i)] = v.RatString()
+	}
+	pt := map[string]string{}
+	for i, name := range m.States {
+		pt[name] = x[i].RatString()
+	}
+	return &certificates.Refutation{Params: params, Point: pt, V: at(res.V, keep).String(), Vdot: at(res.Vdot, keep).String()}
 }

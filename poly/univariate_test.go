@@ -495,7 +495,7 @@ func TestSturmSequence(t *testing.T) {
 	got := UnivariateFromInts(1, -3, 0, 1).SturmSequence()
 	want := []Univariate{UnivariateFromInts(1, -3, 0, 1), UnivariateFromInts(-3, 0, 3), UnivariateFromInts(-1, 2), utP("9/4")}
 	if !slices.EqualFunc(got, want, Univariate.Equal) {
-		t.Errorf("got %v", got)
+		t.Errorf("got %s, want %s", utSeqString(got), utSeqString(want))
 	}
 	// Non-square-free: the sequence ends with gcd(p, p') up to a constant.
 	p := utPow(utFromRoots("1"), 2).Mul(utFromRoots("-1"))
@@ -504,11 +504,19 @@ func TestSturmSequence(t *testing.T) {
 		t.Errorf("last element %s, want a multiple of t - 1", last.String("t"))
 	}
 	if s := (Univariate{}).SturmSequence(); s != nil {
-		t.Errorf("zero: %v", s)
+		t.Errorf("zero: %s", utSeqString(s))
 	}
 	if s := UnivariateFromInts(4).SturmSequence(); len(s) != 1 {
-		t.Errorf("constant: %v", s)
+		t.Errorf("constant: %s", utSeqString(s))
 	}
+}
+
+func utSeqString(seq []Univariate) string {
+	parts := make([]string, len(seq))
+	for i, p := range seq {
+		parts[i] = p.String("t")
+	}
+	return "[" + strings.Join(parts, ", ") + "]"
 }
 
 func TestSturmCountRoots(t *testing.T) {

@@ -45,14 +45,94 @@ Exit codes: 0 the claim holds for every allowed parameter value; 1 it does not
 
 type cli struct {
 	Version kong.VersionFlag `help:"Print the version and exit."`
+}
 
-	Check  checkCmd  `cmd:"" help:"Check the candidate V of a model file."`
-	Verify verifyCmd `cmd:"" help:"Re-check a certificate file from scratch with exact arithmetic."`
-	Demo   demoCmd   `cmd:"" help:"Check the built-in demo model (an invented test-rig coolant loop)."`
+// A command is registered by its own file (in init) so that commands stay
+// independent of each other; each run gets fresh flag values.
+type command struct {
+	name, help string
+	make       func() any // returns a pointer to a kong command struct with a Run(*env) error method
+}
+
+var commands []command
+
+func register(name, help string, make func() any) {
+	commands = append(commands, command{name, help, make})
 }
 
 type common struct {
 	JSON bool `help:"Print machine-readable JSON instead of text."`
+}
+
+// env is what a command needs of the outside world.
+type env struct {
+	stdin          io.Reader
+	stdout, stderr io.Writer
+}
+
+// status is an exit code returned by a command as an error.
+type status int
+
+func (s status) Error() string { return fmt.Sprintf("exit status %d", int(s)) }
+
+func main() {
+	os.Exit(run(os.Args[1:], &env{os.Stdin, os.Stdout, os.Stderr}))
+}
+
+// exitCode carries an exit code out of kong's help and version handling.
+type exitCode int
+
+func run(args []string, e *env) (code int) {
+	var c cli
+	defer func() {
+		if r := recover(); r != nil {
+			if ec, ok := r.(exitCode); ok {
+				code = int(ec)
+				return
+			}
+			panic(r)
+		}
+	}()
+	opts := []kong.Option{
+		kong.Name("lyacert"),
+		kong.Description(description),
+		kong.Vars{"version": "lyacert " + certify.Version},
+		kong.Writers(e.stdout, e.stderr),
+		kong.Exit(func(n int) { panic(exitCode(n)) }),
+		kong.UsageOnError(),
+		kong.Bind(e),
+	}
+	for _, cmd := range commands {
+		opts = append(opts, kong.DynamicCommand(cmd.name, cmd.help, "", cmd.make()))
+	}
+	parser, err := kong.New(&c, opts...)
+	if err != nil {
+		fmt.Fprintln(e.stderr, "lyacert:", err)
+		return exitInput
+	}
+	ctx, err := parser.Parse(args)
+	if err != nil {
+		fmt.Fprintln(e.stderr, "lyacert:", err)
+		return exitInput
+	}
+	err = ctx.Run(e)
+	var st status
+	switch {
+	case err == nil:
+		return exitHolds
+	case errors.As(err, &st):
+		return int(st)
+	}
+	fmt.Fprintln(e.stderr, "lyacert:", err)
+	return exitInput
+}
+
+// exit turns an exit code into a command's result.
+func exit(code int) error {
+	if code == 0 {
+		return nil
+	}
+	return status(code)
 }
 
 type checkCmd struct {
@@ -72,60 +152,22 @@ type demoCmd struct {
 	Out string `short:"o" name:"out" placeholder:"CERT" help:"Write the demo's certificate to this file."`
 }
 
-// env is what a command needs of the outside world.
-type env struct {
-	stdin          io.Reader
-	stdout, stderr io.Writer
+func init() {
+	register("check", "Check the candidate V of a model file.", func() any { return &checkCmd{} })
+	register("verify", "Re-check a certificate file from scratch with exact arithmetic.", func() any { return &verifyCmd{} })
+	register("demo", "Check the built-in demo model (an invented test-rig coolant loop).", func() any { return &demoCmd{} })
 }
 
-func main() {
-	os.Exit(run(os.Args[1:], env{os.Stdin, os.Stdout, os.Stderr}))
-}
+// Run checks a model file.
+func (c *checkCmd) Run(e *env) error { return exit(c.run(e)) }
 
-// exitCode carries an exit code out of kong's help and version handling.
-type exitCode int
+// Run re-checks a certificate.
+func (c *verifyCmd) Run(e *env) error { return exit(c.run(e)) }
 
-func run(args []string, e env) (code int) {
-	var c cli
-	defer func() {
-		if r := recover(); r != nil {
-			if ec, ok := r.(exitCode); ok {
-				code = int(ec)
-				return
-			}
-			panic(r)
-		}
-	}()
-	parser, err := kong.New(&c,
-		kong.Name("lyacert"),
-		kong.Description(description),
-		kong.Vars{"version": "lyacert " + certify.Version},
-		kong.Writers(e.stdout, e.stderr),
-		kong.Exit(func(n int) { panic(exitCode(n)) }),
-		kong.UsageOnError(),
-	)
-	if err != nil {
-		fmt.Fprintln(e.stderr, "lyacert:", err)
-		return exitInput
-	}
-	ctx, err := parser.Parse(args)
-	if err != nil {
-		fmt.Fprintln(e.stderr, "lyacert:", err)
-		return exitInput
-	}
-	switch ctx.Command() {
-	case "check <file>":
-		return c.Check.run(e)
-	case "verify <cert>":
-		return c.Verify.run(e)
-	case "demo":
-		return c.Demo.run(e)
-	}
-	fmt.Fprintln(e.stderr, "lyacert: unknown command", ctx.Command())
-	return exitInput
-}
+// Run checks the demo model.
+func (c *demoCmd) Run(e *env) error { return exit(c.run(e)) }
 
-func (c *checkCmd) run(e env) int {
+func (c *checkCmd) run(e *env) int {
 	name, src, err := readInput(c.File, e.stdin)
 	if err != nil {
 		fmt.Fprintln(e.stderr, "lyacert:", err)
@@ -143,7 +185,7 @@ func (c *checkCmd) run(e env) int {
 	return checkModel(name, src, settings, c.Out, c.JSON, e)
 }
 
-func (c *demoCmd) run(e env) int {
+func (c *demoCmd) run(e *env) int {
 	return checkModel(examples.CoolantName, examples.Coolant, nil, c.Out, c.JSON, e)
 }
 
@@ -156,7 +198,7 @@ func readInput(path string, stdin io.Reader) (string, []byte, error) {
 	return path, b, err
 }
 
-func checkModel(name string, src []byte, settings []model.Setting, out string, asJSON bool, e env) int {
+func checkModel(name string, src []byte, settings []model.Setting, out string, asJSON bool, e *env) int {
 	m, err := model.Parse(name, src, settings...)
 	if err != nil {
 		printInputError(e.stderr, err)
@@ -201,7 +243,7 @@ func printInputError(w io.Writer, err error) {
 	fmt.Fprintln(w, strings.TrimPrefix(err.Error(), "lyacert: "))
 }
 
-func (c *verifyCmd) run(e env) int {
+func (c *verifyCmd) run(e *env) int {
 	name, src, err := readInput(c.Cert, e.stdin)
 	if err != nil {
 		fmt.Fprintln(e.stderr, "lyacert:", err)

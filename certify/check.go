@@ -57,7 +57,9 @@ type Result struct {
 	Claim   string
 	Verdict string
 	// Reason explains the verdict in one sentence for people.
-	Reason     string
+	Reason string
+	// Notes are further remarks for people (no claims).
+	Notes      []string
 	Region     *certificates.Region
 	Witnesses  []certificates.Witness
 	Refutation *certificates.Refutation
@@ -289,6 +291,11 @@ func (res *Result) regionFor(name string) {
 	for _, pc := range pieces {
 		holds = holds || pc.Holds
 		fails = fails || !pc.Holds
+	}
+	for _, pc := range pieces {
+		if !pc.Holds && pc.Lo == pc.Hi && pc.LoPoly == "" && pc.LoClosed && pc.HiClosed {
+			res.Notes = append(res.Notes, fmt.Sprintf("at %s = %s a condition is exactly zero: a form is only semidefinite there and the test above is inconclusive; run with --set %s=%s", name, pc.Lo, name, pc.Lo))
+		}
 	}
 	switch {
 	case !fails:

@@ -85,10 +85,14 @@ func (m *Model) Residual() []poly.RatFunc {
 }
 
 // CheckEquilibrium returns an error unless the equilibrium makes every
-// residual vanish identically in the parameters (exact).
+// residual vanish identically in the parameters (exact). When the residuals
+// involve one parameter only, the error says for which allowed values of it
+// the point is an equilibrium (the real roots common to all residuals).
 func (m *Model) CheckEquilibrium() error {
 	var errs poly.ErrorList
-	for i, r := range m.Residual() {
+	res := m.Residual()
+	where := m.equilibriumValues(res)
+	for i, r := range res {
 		if !r.IsZero() {
 			what := m.States[i] + "'"
 			if m.Discrete {
@@ -98,8 +102,57 @@ func (m *Model) CheckEquilibrium() error {
 			if !m.AtGiven {
 				pos = m.FPos[i]
 			}
-			errs.Add(pos, "not an equilibrium: at this point %s = %s, not 0 for every allowed parameter value", what, r)
+			errs.Add(pos, "not an equilibrium: at this point %s = %s, not 0 for every allowed parameter value%s", what, r, where)
 		}
 	}
 	return errs.Err()
+}
+
+// equilibriumValues describes where all residuals vanish when they involve
+// a single parameter: ""  when they involve none or several.
+func (m *Model) equilibriumValues(res []poly.RatFunc) string {
+	param := -1
+	var g poly.Univariate
+	first := true
+	for _, r := range res {
+		if r.IsZero() {
+			continue
+		}
+		vars := r.Num.VarsUsed()
+		if len(vars) != 1 || (param >= 0 && vars[0] != param) {
+			return ""
+		}
+		param = vars[0]
+		u, _ := r.Num.Univariate(param)
+		if first {
+			g, first = u, false
+		} else {
+			g = poly.UnivariateGCD(g, u)
+		}
+	}
+	if param < 0 {
+		return ""
+	}
+	name := m.Ring.Name(param)
+	p, _ := m.Param(name)
+	var vals []string
+	if g.Degree() >= 1 {
+		for _, root := range g.IsolateRoots() {
+			if root.Exact != nil {
+				if p.Range.Contains(root.Exact) {
+					vals = append(vals, root.Exact.RatString())
+				}
+				continue
+			}
+			lo, hi := p.Range.Lo, p.Range.Hi
+			if (lo.Inf == 0 && root.CompareRat(lo.Value) <= 0) || (hi.Inf == 0 && root.CompareRat(hi.Value) >= 0) {
+				continue
+			}
+			vals = append(vals, "≈"+root.Decimal(15)+" (a root of "+poly.FromUnivariate(m.Ring, param, g).String()+")")
+		}
+	}
+	if len(vals) == 0 {
+		return fmt.Sprintf("; it is an equilibrium for no allowed %s", name)
+	}
+	return fmt.Sprintf("; it is an equilibrium only for %s = %s", name, strings.Join(vals, ", "))
 }

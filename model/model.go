@@ -360,6 +360,14 @@ func Parse(file string, src []byte, settings ...Setting) (*Model, error) {
 	if len(errs) > 0 {
 		return nil, errs.Err()
 	}
+	if m.AtGiven {
+		// A stated equilibrium must be one, exactly, for every allowed
+		// parameter value. (Without "at", the origin is checked by the
+		// commands that assume it; find searches instead.)
+		if err := m.CheckEquilibrium(); err != nil {
+			return nil, err
+		}
+	}
 	return m, nil
 }
 

@@ -64,6 +64,9 @@ func (p *ExprParser) ParseTokens(toks []Token) (RatFunc, error) {
 	}
 	p.toks, p.pos, p.err = toks, 0, nil
 	v := p.expr()
+	if t := p.peek(); p.err == nil && t.Kind == Invalid {
+		p.fail(t.Pos, "unexpected character %q", t.Text)
+	}
 	if p.err == nil && p.peek().Kind != EOF {
 		p.fail(p.peek().Pos, "expected an operator or the end of the expression, found %s", p.peek())
 	}

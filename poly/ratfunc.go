@@ -378,14 +378,19 @@ func (f RatFunc) Format(names []string) string {
 		case c.Num.NumTerms() == 1:
 			t := c.Num.Lead()
 			parts := []string{}
-			if t.Coef.Cmp(big.NewRat(1, 1)) != 0 {
+			pm := formatMonomial(t.Exp, names)
+			if t.Coef.Cmp(big.NewRat(1, 1)) != 0 || (pm == "" && mono == "") {
 				parts = append(parts, t.Coef.RatString())
 			}
-			if pm := formatMonomial(t.Exp, names); pm != "" {
+			if pm != "" {
 				parts = append(parts, pm)
 			}
-			parts = append(parts, mono)
+			if mono != "" {
+				parts = append(parts, mono)
+			}
 			b.WriteString(strings.Join(parts, "*"))
+		case mono == "":
+			b.WriteString("(" + c.Num.formatTerms(names) + ")")
 		default:
 			b.WriteString("(" + c.Num.formatTerms(names) + ")*" + mono)
 		}

@@ -112,6 +112,9 @@ func renderCheck(w io.Writer, res *certify.Result, written string) {
 	if res.Refutation != nil {
 		renderRefutation(w, res)
 	}
+	for _, n := range res.Notes {
+		fmt.Fprintf(w, "Note: %s.\n", n)
+	}
 	fmt.Fprintf(w, "\nCertificate re-checked by the exact checker: %d checks passed", len(res.Check.Checks))
 	if written != "" {
 		fmt.Fprintf(w, "; written to %s", written)

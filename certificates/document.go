@@ -63,9 +63,12 @@ type Document struct {
 	Refutation *Refutation `json:"refutation,omitempty"`
 	// Kernel spans the set where the semidefinite quadratic form of −V̇
 	// vanishes (claim "stable").
-	Kernel    [][]string `json:"kernel,omitempty"`
-	Digest    string     `json:"digest"`
-	Signature *Signature `json:"signature,omitempty"`
+	Kernel [][]string `json:"kernel,omitempty"`
+	// Linearization certifies one equilibrium through its linearization
+	// (Lyapunov's indirect method); see Linearization.
+	Linearization *Linearization `json:"linearization,omitempty"`
+	Digest        string         `json:"digest"`
+	Signature     *Signature     `json:"signature,omitempty"`
 }
 
 // System repeats what the model text says, so that a change to either is caught.
@@ -119,10 +122,17 @@ type FactorDoc struct {
 // holds: Pieces partition the parameter's allowed range into intervals on
 // which every condition holds (Holds) or some condition fails throughout;
 // Intervals lists the holding pieces.
+//
+// A region in several parameters has Paving instead (Param empty, Intervals
+// and Pieces empty), and Product when every condition involves at most one
+// parameter: then the region within the paving's box is the product of one
+// one-parameter region per paved parameter, each over its side of the box.
 type Region struct {
 	Param     string     `json:"param"`
 	Intervals []Interval `json:"intervals"`
 	Pieces    []Piece    `json:"pieces"`
+	Paving    *Paving    `json:"paving,omitempty"`
+	Product   []Region   `json:"product,omitempty"`
 }
 
 // Interval has ends that are "-inf", "inf", an exact rational, or an

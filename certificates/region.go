@@ -132,6 +132,9 @@ func less(lo, hi end) bool {
 
 func (c *checker) region(used map[int]bool, someNonPositiveConst bool) bool {
 	d, rg := c.doc, c.doc.Region
+	if !c.add("region", len(rg.Product) == 0, "a one-parameter region has no product form") {
+		return false
+	}
 	pi, ok := c.r.Index(rg.Param)
 	if !c.add("region", ok && !c.r.IsState(pi), "the region's parameter %q is a free parameter", rg.Param) {
 		return false
@@ -147,67 +150,8 @@ func (c *checker) region(used map[int]bool, someNonPositiveConst bool) bool {
 		conds = append(conds, u)
 	}
 	dom := c.box[pi]
-	if !c.add("region", len(rg.Pieces) > 0, "the pieces partition the range of %s", rg.Param) {
-		return false
-	}
-	var pieces []piece
-	for i, p := range rg.Pieces {
-		what := fmt.Sprintf("piece %d", i+1)
-		lo, ok1 := c.readEnd(p.Lo, p.LoPoly, p.LoIsolating, p.LoClosed, pi, what+" lower")
-		if !ok1 {
-			return false
-		}
-		hi, ok2 := c.readEnd(p.Hi, p.HiPoly, p.HiIsolating, p.HiClosed, pi, what+" upper")
-		if !ok2 {
-			return false
-		}
-		point := lo.same(hi) && lo.closed && hi.closed
-		if !c.add("region", point || less(lo, hi), "%s is a non-empty interval", what) {
-			return false
-		}
-		pieces = append(pieces, piece{lo, hi, p.Holds})
-	}
-	// Tiling: the first starts where the range starts, each next one starts
-	// where the previous ends, with the shared end in exactly one of them,
-	// and the last ends where the range ends.
-	first, last := pieces[0].lo, pieces[len(pieces)-1].hi
-	if !c.add("region", boundMatches(first, dom.Lo), "the first piece starts at the lower end of the range %s", dom) ||
-		!c.add("region", boundMatches(last, dom.Hi), "the last piece ends at the upper end of the range %s", dom) {
-		return false
-	}
-	for i := 1; i < len(pieces); i++ {
-		a, b := pieces[i-1].hi, pieces[i].lo
-		if !c.add("region", a.same(b) && a.closed != b.closed, "pieces %d and %d meet, their common end in exactly one", i, i+1) {
-			return false
-		}
-	}
-	// Each piece: all conditions > 0 on it, or one condition ≤ 0 on all of it.
-	var holdsText []Interval
-	anyHolds, anyFails := false, false
-	for i, p := range pieces {
-		if p.holds {
-			anyHolds = true
-			holdsText = append(holdsText, rg.Pieces[i].Interval)
-			for j, q := range conds {
-				if !c.add("region", positiveOn(q, p), "piece %d: condition %d is > 0 throughout", i+1, j+1) {
-					return false
-				}
-			}
-			continue
-		}
-		anyFails = true
-		found := false
-		for _, q := range conds {
-			if nonPositiveOn(q, p) {
-				found = true
-				break
-			}
-		}
-		if !c.add("region", found, "piece %d: some condition is ≤ 0 throughout", i+1) {
-			return false
-		}
-	}
-	if !c.add("region", intervalsEqual(holdsText, rg.Intervals), "the listed intervals are the holding pieces") {
+	anyHolds, anyFails, ok := c.regionPieces(rg, pi, conds, dom)
+	if !ok {
 		return false
 	}
 	want := VerdictOnRegion
@@ -225,6 +169,77 @@ func (c *checker) region(used map[int]bool, someNonPositiveConst bool) bool {
 	}
 	_ = someNonPositiveConst
 	return true
+}
+
+// regionPieces checks that the pieces of rg partition dom (the range of the
+// parameter with index pi), that every condition is > 0 throughout each
+// holding piece and some condition is ≤ 0 throughout each other piece
+// (Sturm), and that Intervals lists the holding pieces. It reports whether
+// some piece holds and whether some piece fails.
+func (c *checker) regionPieces(rg *Region, pi int, conds []poly.Univariate, dom poly.Interval) (anyHolds, anyFails, ok bool) {
+	if !c.add("region", len(rg.Pieces) > 0, "the pieces partition the range %s of %s", dom, rg.Param) {
+		return false, false, false
+	}
+	var pieces []piece
+	for i, p := range rg.Pieces {
+		what := fmt.Sprintf("piece %d", i+1)
+		lo, ok1 := c.readEnd(p.Lo, p.LoPoly, p.LoIsolating, p.LoClosed, pi, what+" lower")
+		if !ok1 {
+			return false, false, false
+		}
+		hi, ok2 := c.readEnd(p.Hi, p.HiPoly, p.HiIsolating, p.HiClosed, pi, what+" upper")
+		if !ok2 {
+			return false, false, false
+		}
+		point := lo.same(hi) && lo.closed && hi.closed
+		if !c.add("region", point || less(lo, hi), "%s is a non-empty interval", what) {
+			return false, false, false
+		}
+		pieces = append(pieces, piece{lo, hi, p.Holds})
+	}
+	// Tiling: the first starts where the range starts, each next one starts
+	// where the previous ends, with the shared end in exactly one of them,
+	// and the last ends where the range ends.
+	first, last := pieces[0].lo, pieces[len(pieces)-1].hi
+	if !c.add("region", boundMatches(first, dom.Lo), "the first piece starts at the lower end of the range %s", dom) ||
+		!c.add("region", boundMatches(last, dom.Hi), "the last piece ends at the upper end of the range %s", dom) {
+		return false, false, false
+	}
+	for i := 1; i < len(pieces); i++ {
+		a, b := pieces[i-1].hi, pieces[i].lo
+		if !c.add("region", a.same(b) && a.closed != b.closed, "pieces %d and %d meet, their common end in exactly one", i, i+1) {
+			return false, false, false
+		}
+	}
+	// Each piece: all conditions > 0 on it, or one condition ≤ 0 on all of it.
+	var holdsText []Interval
+	for i, p := range pieces {
+		if p.holds {
+			anyHolds = true
+			holdsText = append(holdsText, rg.Pieces[i].Interval)
+			for j, q := range conds {
+				if !c.add("region", positiveOn(q, p), "piece %d: condition %d is > 0 throughout", i+1, j+1) {
+					return false, false, false
+				}
+			}
+			continue
+		}
+		anyFails = true
+		found := false
+		for _, q := range conds {
+			if nonPositiveOn(q, p) {
+				found = true
+				break
+			}
+		}
+		if !c.add("region", found, "piece %d: some condition is ≤ 0 throughout", i+1) {
+			return false, false, false
+		}
+	}
+	if !c.add("region", intervalsEqual(holdsText, rg.Intervals), "the listed intervals are the holding pieces") {
+		return false, false, false
+	}
+	return anyHolds, anyFails, true
 }
 
 func intervalsEqual(a, b []Interval) bool {

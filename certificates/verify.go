@@ -48,11 +48,19 @@ type Result struct {
 //   - Sturm's theorem: the number of distinct real roots of a polynomial in
 //     an interval, which decides the sign of a condition on each piece of a
 //     one-parameter region, and locates irrational endpoints.
+//   - Set inversion (Moore 1966; Jaulin & Walter 1993): a region in several
+//     parameters is a paving of a box whose every part is classified by the
+//     exact centred form of each condition on it (see Paving).
 //
-// The digest is checked last; the mathematics must stand on its own.
+// The digest is checked last; the mathematics must stand on its own. A
+// signature, when present, must verify against the digest (see
+// VerifySignature); Verify does not require one.
 func Verify(d *Document) Result {
 	c := &checker{doc: d}
 	c.run()
+	if d.Signature != nil {
+		c.signature()
+	}
 	res := Result{Valid: true, Checks: c.checks}
 	for _, ch := range c.checks {
 		if !ch.OK {
@@ -110,6 +118,10 @@ func (c *checker) run() {
 	}
 	c.m, c.r, c.box = m, m.Ring, m.Box()
 	if !c.system() {
+		return
+	}
+	if d.Linearization != nil {
+		c.linearization()
 		return
 	}
 	err = m.CheckEquilibrium()
@@ -224,6 +236,9 @@ func (c *checker) system() bool {
 		f, ok := c.parse("system", s.Equations[i])
 		if !ok || !c.add("system", f.Equal(m.F[i]), "equation of %s as in the model", m.States[i]) {
 			return false
+		}
+		if lz := c.doc.Linearization; lz != nil && len(lz.Box) > 0 {
+			continue // a box restates the equilibrium; linearization checks it
 		}
 		a, ok := c.parse("system", s.Equilibrium[i])
 		if !ok || !c.add("system", a.Equal(m.At[i]), "equilibrium coordinate %s as in the model", m.States[i]) {
@@ -531,6 +546,9 @@ func (c *checker) verdict() bool {
 			allPositiveConst = false
 		}
 	}
+	if d.Region != nil && d.Region.Paving != nil {
+		return c.paving(used)
+	}
 	if d.Region != nil {
 		return c.region(used, someNonPositiveConst)
 	}
@@ -551,37 +569,9 @@ func (c *checker) verdict() bool {
 
 func (c *checker) witnesses(used map[int]bool) bool {
 	d := c.doc
-	holds, fails := false, false
-	for i, w := range d.Witnesses {
-		what := fmt.Sprintf("witness %d", i+1)
-		vals, ok := c.paramValues(w.Params, what)
-		if !ok {
-			return false
-		}
-		same := len(vals) == len(used)
-		for v := range vals {
-			same = same && used[v]
-		}
-		if !c.add(what, same, "gives exactly the parameters the conditions involve") {
-			return false
-		}
-		if !c.add(what, len(w.Values) == len(c.conds), "states the value of every condition") {
-			return false
-		}
-		all := true
-		for j, q := range c.conds {
-			x := new(poly.Poly).EvalVars(q.Num, vals).ConstTerm()
-			claimed, ok := parseRat(w.Values[j])
-			if !c.add(what, ok && claimed.Cmp(x) == 0, "condition %d is %s there", j+1, w.Values[j]) {
-				return false
-			}
-			all = all && x.Sign() > 0
-		}
-		if !c.add(what, all == w.Holds, "the conditions hold there: %v", all) {
-			return false
-		}
-		holds = holds || all
-		fails = fails || !all
+	holds, fails, ok := c.witnessPoints(used)
+	if !ok {
+		return false
 	}
 	switch d.Verdict {
 	case VerdictOnRegion:
@@ -592,10 +582,49 @@ func (c *checker) witnesses(used map[int]bool) bool {
 	return c.add("verdict", false, "verdict %q cannot rest on witness points", d.Verdict)
 }
 
+// witnessPoints checks every witness exactly and reports whether the
+// conditions hold at one and fail at another.
+func (c *checker) witnessPoints(used map[int]bool) (holds, fails, ok bool) {
+	for i, w := range c.doc.Witnesses {
+		what := fmt.Sprintf("witness %d", i+1)
+		vals, ok := c.paramValues(w.Params, what)
+		if !ok {
+			return false, false, false
+		}
+		same := len(vals) == len(used)
+		for v := range vals {
+			same = same && used[v]
+		}
+		if !c.add(what, same, "gives exactly the parameters the conditions involve") {
+			return false, false, false
+		}
+		if !c.add(what, len(w.Values) == len(c.conds), "states the value of every condition") {
+			return false, false, false
+		}
+		all := true
+		for j, q := range c.conds {
+			x := new(poly.Poly).EvalVars(q.Num, vals).ConstTerm()
+			claimed, ok := parseRat(w.Values[j])
+			if !c.add(what, ok && claimed.Cmp(x) == 0, "condition %d is %s there", j+1, w.Values[j]) {
+				return false, false, false
+			}
+			all = all && x.Sign() > 0
+		}
+		if !c.add(what, all == w.Holds, "the conditions hold there: %v", all) {
+			return false, false, false
+		}
+		holds = holds || all
+		fails = fails || !all
+	}
+	return holds, fails, true
+}
+
 // paramValues reads values of some free parameters, each inside its range.
 func (c *checker) paramValues(vals map[string]string, what string) (map[int]*big.Rat, bool) {
 	out := map[int]*big.Rat{}
-	for name, s := range vals {
+	// In name order, so that the record of checks is the same every time.
+	for _, name := range slices.Sorted(maps.Keys(vals)) {
+		s := vals[name]
 		p, ok := c.m.Param(name)
 		i, isVar := c.r.Index(name)
 		if !c.add(what, ok && isVar && p.Fixed == nil, "%s is a free parameter", name) {
@@ -657,7 +686,7 @@ func (c *checker) refutation(v, vdot poly.RatFunc) bool {
 	if !c.add("refutation", differs, "the point is not the equilibrium") {
 		return false
 	}
-	for i := range vals {
+	for _, i := range slices.Sorted(maps.Keys(vals)) { // sorted: the same record every time
 		rest := maps.Clone(vals)
 		delete(rest, i)
 		a, _ := at(v, rest)

@@ -1,6 +1,7 @@
 package certify
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"maps"
@@ -10,6 +11,7 @@ import (
 	"time"
 
 	"lyacert/certificates"
+	"lyacert/certify/pave"
 	"lyacert/model"
 	"lyacert/poly"
 )
@@ -66,22 +68,35 @@ type Result struct {
 	Kernel     [][]poly.RatFunc
 	Doc        *certificates.Document
 	Check      certificates.Result
+	// Paving is the engine's paving of a region in several parameters
+	// (Region.Paving is its exact record in the certificate); nil when
+	// none was made.
+	Paving *pave.Paving
+	// PavingNote says why no paving was made where one was wanted.
+	PavingNote string
+	pave       *paveState
 }
 
 // Check analyses the model's candidate V: it computes V̇ exactly, completes
 // the squares of the quadratic parts of V and −V̇ at the equilibrium by exact
 // LDLᵀ, reduces Sylvester's conditions by the assumptions, decides where in
-// parameter space they hold, looks for an exact refutation where they fail,
+// parameter space they hold (exactly for one parameter; by a paving of the
+// parameters' box for several, see CheckPaving, with the default
+// PaveOptions), looks for an exact refutation where they fail,
 // and writes a certificate that certificates.Verify re-checks before Check
 // returns. An error is returned for input the argument cannot apply to.
 func Check(m *model.Model, source string) (*Result, error) {
+	return CheckPaving(context.Background(), m, source, PaveOptions{})
+}
+
+func runCheck(m *model.Model, source string, ps *paveState) (*Result, error) {
 	if m.V == nil {
 		return nil, &poly.Error{Pos: poly.Pos{File: m.File, Line: 1, Col: 1}, Msg: "the model has no candidate V (add a line \"V = ...\")"}
 	}
 	if err := m.CheckEquilibrium(); err != nil {
 		return nil, err
 	}
-	res := &Result{Model: m, V: *m.V}
+	res := &Result{Model: m, V: *m.V, pave: ps}
 	r := m.Ring
 	states := r.StateMask()
 	res.Vdot = m.Derivative(res.V)
@@ -148,6 +163,9 @@ func Check(m *model.Model, source string) (*Result, error) {
 	if res.Verdict == "" {
 		res.conditions()
 		res.decide()
+		if res.pave != nil && res.pave.err != nil {
+			return nil, res.pave.err
+		}
 	} else {
 		res.conditions()
 	}
@@ -269,6 +287,8 @@ func (res *Result) decide() {
 		if len(free) > 0 {
 			res.Reason = "every condition is discharged by the assumptions"
 		}
+	case res.wantsPaving(vars):
+		res.paveRegion(vars)
 	case len(vars) == 1:
 		res.regionFor(r.Name(vars[0]))
 	default:
@@ -447,7 +467,7 @@ func failingParams(res *Result) (map[string]string, []*big.Rat, bool) {
 		vals[p.Name] = x.RatString()
 	}
 	switch {
-	case res.Region != nil:
+	case res.Region != nil && res.Region.Paving == nil:
 		// Prefer the inside of a failing interval (where the failure is
 		// strict) to a failing boundary point.
 		j, _ := r.Index(res.Region.Param)

@@ -39,6 +39,8 @@ Examples:
   lyacert check - < model.lya                  read the model from standard input
   lyacert verify c.json                        re-check a certificate
   lyacert check model.lya --json               machine-readable output
+  lyacert find model.lya --set r=20 --all      find, classify and certify the equilibria
+  lyacert sweep model.lya --grid r=0:30:61 -o out.jsonl  certify over a parameter grid
 
 Exit codes: 0 the claim holds for every allowed parameter value; 1 it does not
 (or only on part of the range, or undecided); 2 bad input or usage.`
@@ -140,16 +142,20 @@ type checkCmd struct {
 	File string   `arg:"" help:"Model file (.lya), or - for standard input."`
 	Out  string   `short:"o" name:"out" placeholder:"CERT" help:"Write the certificate to this file (atomically)."`
 	Set  []string `name:"set" placeholder:"NAME=VALUE" help:"Fix a parameter to an exact value (repeatable), e.g. --set r=1/2."`
+	Sign string   `name:"sign" placeholder:"KEY" help:"Sign the written certificate with this ed25519 private key (needs -o)."`
+	paveFlags
 }
 
 type verifyCmd struct {
 	common
-	Cert string `arg:"" placeholder:"CERT" help:"Certificate file (JSON), or - for standard input."`
+	Cert  string   `arg:"" placeholder:"CERT" help:"Certificate file (JSON), or - for standard input."`
+	Trust []string `name:"trust" placeholder:"PUB" help:"Require a valid signature by this public key (repeatable: any of them)."`
 }
 
 type demoCmd struct {
 	common
-	Out string `short:"o" name:"out" placeholder:"CERT" help:"Write the demo's certificate to this file."`
+	Out    string `short:"o" name:"out" placeholder:"CERT" help:"Write the demo's certificate to this file."`
+	Report string `name:"report" placeholder:"DIR" help:"Also write the demo's certificate and its report in every format (md, tex, html) into DIR."`
 }
 
 func init() {
@@ -182,11 +188,23 @@ func (c *checkCmd) run(e *env) int {
 		}
 		settings = append(settings, st)
 	}
-	return checkModel(name, src, settings, c.Out, c.JSON, e)
+	key, code := loadSigningKey(c.Sign, c.Out, e)
+	if code != 0 {
+		return code
+	}
+	code = checkModel(name, src, settings, c.Out, c.JSON, e, &c.paveFlags)
+	return signWritten(c.Out, key, code, c.JSON, e)
 }
 
 func (c *demoCmd) run(e *env) int {
-	return checkModel(examples.CoolantName, examples.Coolant, nil, c.Out, c.JSON, e)
+	code := checkModel(examples.CoolantName, examples.Coolant, nil, c.Out, c.JSON, e, nil)
+	if c.Report != "" && code != exitInput {
+		if err := writeDemoReports(c.Report, e); err != nil {
+			fmt.Fprintln(e.stderr, "lyacert: writing the demo's reports:", err)
+			return exitInput
+		}
+	}
+	return code
 }
 
 func readInput(path string, stdin io.Reader) (string, []byte, error) {
@@ -198,17 +216,22 @@ func readInput(path string, stdin io.Reader) (string, []byte, error) {
 	return path, b, err
 }
 
-func checkModel(name string, src []byte, settings []model.Setting, out string, asJSON bool, e *env) int {
+// checkModel checks a model; pf, when not nil, carries the paving flags.
+func checkModel(name string, src []byte, settings []model.Setting, out string, asJSON bool, e *env, pf *paveFlags) int {
 	m, err := model.Parse(name, src, settings...)
 	if err != nil {
 		printInputError(e.stderr, err)
 		return exitInput
 	}
-	res, err := certify.Check(m, name)
+	res, err := pf.check(m, name, e)
 	if err != nil {
 		if errors.Is(err, certify.ErrUnverified) {
 			fmt.Fprintln(e.stderr, "lyacert:", err)
 			return exitFails
+		}
+		if errors.Is(err, certify.ErrPaveOptions) {
+			fmt.Fprintln(e.stderr, "lyacert:", err)
+			return exitInput
 		}
 		printInputError(e.stderr, err)
 		return exitInput
@@ -225,6 +248,9 @@ func checkModel(name string, src []byte, settings []model.Setting, out string, a
 		writeJSON(e.stdout, checkJSON(res, written))
 	} else {
 		renderCheck(e.stdout, res, written)
+	}
+	if code := pf.finish(res, e); code != 0 {
+		return code
 	}
 	if res.Verdict == certificates.VerdictHolds {
 		return exitHolds
@@ -254,11 +280,17 @@ func (c *verifyCmd) run(e *env) int {
 		fmt.Fprintf(e.stderr, "lyacert: %s: %v\n", name, err)
 		return exitInput
 	}
-	res := certificates.Verify(doc)
+	trusted, err := readTrusted(c.Trust)
+	if err != nil {
+		fmt.Fprintln(e.stderr, "lyacert:", err)
+		return exitInput
+	}
+	res := applyTrust(doc, certificates.Verify(doc), trusted)
 	if c.JSON {
 		writeJSON(e.stdout, verifyJSON(doc, res))
 	} else {
 		renderVerify(e.stdout, name, doc, res)
+		renderSigner(e.stdout, doc, res, len(trusted) > 0)
 	}
 	if res.Valid {
 		return exitHolds

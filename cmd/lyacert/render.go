@@ -250,7 +250,9 @@ func renderVerdict(w io.Writer, res *certify.Result) {
 		certificates.ClaimLocal:  "the equilibrium is locally asymptotically stable",
 		certificates.ClaimStable: "the equilibrium is stable (Lyapunov); V̇ ≤ 0 but not < 0",
 	}[res.Claim]
-	if res.Region != nil {
+	if res.Region != nil && res.Region.Paving != nil {
+		renderPaving(w, res)
+	} else if res.Region != nil {
 		fmt.Fprintf(w, "Region of %s (exact)\n", res.Region.Param)
 		var isol []string
 		for _, p := range res.Region.Pieces {
@@ -282,7 +284,9 @@ func renderVerdict(w io.Writer, res *certify.Result) {
 		fmt.Fprintln(w, ".")
 	case certificates.VerdictOnRegion:
 		where := "where the conditions hold"
-		if res.Region != nil {
+		if res.Region != nil && res.Region.Paving != nil {
+			where = pavingWhere(res)
+		} else if res.Region != nil {
 			var ivs []string
 			for _, iv := range res.Region.Intervals {
 				ivs = append(ivs, intervalText(iv))

@@ -1,0 +1,149 @@
+package certificates
+
+import (
+	"math/big"
+	"path/filepath"
+	"testing"
+
+	"lyacert/poly"
+)
+
+func ratOf(s string) *big.Rat {
+	q, ok := new(big.Rat).SetString(s)
+	if !ok {
+		panic(s)
+	}
+	return q
+}
+
+func ratMatrix(rows ...[]string) [][]*big.Rat {
+	out := make([][]*big.Rat, len(rows))
+	for i, r := range rows {
+		for _, s := range r {
+			out[i] = append(out[i], ratOf(s))
+		}
+	}
+	return out
+}
+
+func TestFirstNonPositivePivot(t *testing.T) {
+	cases := []struct {
+		a     [][]*big.Rat
+		k     int
+		pivot string
+	}{
+		{ratMatrix([]string{"2", "1"}, []string{"1", "2"}), -1, ""},                                    // hand computation: pivots 2, 3/2
+		{ratMatrix([]string{"1", "2"}, []string{"2", "1"}), 1, "-3"},                                   // hand computation: 1 − 4/1
+		{ratMatrix([]string{"0", "1"}, []string{"1", "0"}), 0, "0"},                                    // hand computation: a zero first pivot
+		{ratMatrix([]string{"3/2", "1/2"}, []string{"1/2", "1"}), -1, ""},                              // Ogata's P: pivots 3/2, 5/6
+		{ratMatrix([]string{"1", "1", "1"}, []string{"1", "1", "1"}, []string{"1", "1", "2"}), 1, "0"}, // hand computation: rank 2 leading block
+	}
+	for i, c := range cases {
+		k, p := FirstNonPositivePivot(c.a)
+		if k != c.k || (k >= 0 && p.Cmp(ratOf(c.pivot)) != 0) {
+			t.Errorf("case %d: pivot %d = %v, want %d = %s", i, k, p, c.k, c.pivot)
+		}
+	}
+}
+
+func TestPositiveDefiniteOn(t *testing.T) {
+	iv := func(lo, hi string) poly.Interval { return poly.Closed(ratOf(lo), ratOf(hi)) }
+	cases := []struct {
+		e    [][]poly.Interval
+		want bool
+	}{
+		// hand computation: midpoint I, row sums of radii 1/2: I − 1/2·I ≻ 0.
+		{[][]poly.Interval{{iv("3/4", "5/4"), iv("0", "0")}, {iv("0", "0"), iv("3/4", "5/4")}}, true},
+		// hand computation: radius 1 on the off-diagonal: I − 1·I is singular, refused
+		// although each point matrix [[1, e], [e, 1]] with |e| < 1 is definite.
+		{[][]poly.Interval{{iv("1", "1"), iv("-1", "1")}, {iv("-1", "1"), iv("1", "1")}}, false},
+		// hand computation: the point matrix [[1, 2], [2, 1]] is indefinite.
+		{[][]poly.Interval{{iv("1", "1"), iv("2", "2")}, {iv("2", "2"), iv("1", "1")}}, false},
+	}
+	for i, c := range cases {
+		if got := PositiveDefiniteOn(c.e); got != c.want {
+			t.Errorf("case %d: %v, want %v", i, got, c.want)
+		}
+	}
+}
+
+func TestKrawczykImage(t *testing.T) {
+	r := poly.NewRing([]string{"x"}, nil)
+	g := []*poly.Poly{poly.MustParse(r, "x^2 - 2").Num}
+	cases := []struct {
+		lo, hi, y string
+		inside    bool
+	}{
+		{"7/5", "3/2", "10/29", true},  // √2 ≈ 1.41421 ∈ [1.4, 1.5]; Y ≈ 1/(2·1.45) (common practice)
+		{"3/2", "8/5", "10/31", false}, // no zero of x² − 2 in [1.5, 1.6] (hand computation)
+		{"-3/2", "3/2", "1", false},    // two zeros: the test cannot pass (hand computation)
+	}
+	for _, c := range cases {
+		box := []poly.Interval{poly.Closed(ratOf(c.lo), ratOf(c.hi))}
+		k := KrawczykImage(g, box, ratMatrix([]string{c.y}))
+		inside := k[0].Lo.Value.Cmp(box[0].Lo.Value) > 0 && k[0].Hi.Value.Cmp(box[0].Hi.Value) < 0
+		if inside != c.inside {
+			t.Errorf("[%s, %s]: K = %s, inside %v, want %v", c.lo, c.hi, k[0], inside, c.inside)
+		}
+	}
+}
+
+// TestLinearizationForgeries changes a valid certificate consistently — the
+// derived numbers recomputed so that only the mathematics can object — and
+// requires Verify to reject it.
+func TestLinearizationForgeries(t *testing.T) {
+	load := func(name string) *Document {
+		d, err := ReadFile(filepath.Join("..", "testdata", "certificates", name))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !Verify(d).Valid {
+			t.Fatalf("%s does not verify", name)
+		}
+		return d
+	}
+	forgeries := []struct {
+		name, file string
+		change     func(d *Document)
+	}{
+		{"unstable origin claimed stable", "lin-lorenz-r20-origin.json", func(d *Document) {
+			d.Claim, d.Verdict = ClaimLocal, VerdictHolds
+		}},
+		{"stable C− claimed unstable", "lin-lorenz-r20-cminus.json", func(d *Document) {
+			d.Claim, d.Verdict = ClaimUnstable, VerdictFails
+		}},
+		{"box moved off the equilibrium, K recomputed", "lin-quadmap.json", func(d *Document) {
+			lo, hi := ratOf(d.Linearization.Box[0][0]), ratOf(d.Linearization.Box[0][1])
+			shift := big.NewRat(1, 1000)
+			box := []poly.Interval{poly.Closed(lo.Add(lo, shift), hi.Add(hi, shift))}
+			d.Linearization.Box[0] = IntervalText(box[0])
+			d.System.Equilibrium[0] = BoxText(d.Linearization.Box[0])
+			r := poly.NewRing([]string{"x"}, nil)
+			g := []*poly.Poly{poly.MustParse(r, "x^2 - 1/2 - x").Num}
+			k := KrawczykImage(g, box, ratMatrix(d.Linearization.Preconditioner[0]))
+			d.Linearization.Krawczyk[0] = IntervalText(k[0])
+		}},
+		{"P replaced by an indefinite one, decay recomputed", "lin-logistic.json", func(d *Document) {
+			p := ratMatrix([]string{"-1"})
+			r := poly.NewRing([]string{"x"}, nil)
+			f := []*poly.Poly{poly.MustParse(r, "-5/2*x^2 + 5/2*x").Num}
+			e := DecayEnclosure(f, true, p, []poly.Interval{poly.Point(big.NewRat(3, 5))})
+			d.Linearization.P = [][]string{{"-1"}}
+			d.Linearization.Decay = [][][2]string{{IntervalText(e[0][0])}}
+		}},
+		{"a candidate V slipped in", "lin-logistic.json", func(d *Document) { d.V = "x^2" }},
+		{"model with a free parameter", "lin-logistic.json", func(d *Document) {
+			d.Model = "state x\nparam r in [0, 4]\nnext x = r*x*(1 - x)\nat x = 3/5\n"
+		}},
+	}
+	for _, f := range forgeries {
+		d := load(f.file)
+		f.change(d)
+		if err := d.Seal(); err != nil {
+			t.Fatal(err)
+		}
+		if Verify(d).Valid {
+			t.Errorf("%s: accepted", f.name)
+		}
+	}
+}

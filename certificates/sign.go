@@ -1,0 +1,291 @@
+package certificates
+
+import (
+	"crypto/ed25519"
+	"crypto/rand"
+	"crypto/sha256"
+	"encoding/base64"
+	"encoding/hex"
+	"errors"
+	"fmt"
+	"os"
+	"path/filepath"
+	"strings"
+)
+
+// SignatureAlgorithm is the only signature algorithm a certificate may carry.
+const SignatureAlgorithm = "ed25519"
+
+// Key file headers: the first line of a key file says what it holds, so
+// that a private key is never taken for a public one or the reverse.
+const (
+	privateKeyHeader = "lyacert ed25519 private key"
+	publicKeyHeader  = "lyacert ed25519 public key"
+)
+
+// Errors of signature checking. Each says a different thing to a reader: no
+// signature at all, a signature that does not fit the content (or the key it
+// names), and a sound signature by a key the reader does not trust.
+var (
+	ErrUnsigned     = errors.New("no signature")
+	ErrBadSignature = errors.New("signature does not match: the certificate was altered or signed by another key")
+	ErrUntrusted    = errors.New("signed by a key that is not trusted")
+)
+
+// Fingerprint returns the first 16 hex digits of the SHA-256 of the raw
+// 32-byte public key: a short name for a key that people can compare.
+func Fingerprint(pub ed25519.PublicKey) string {
+	sum := sha256.Sum256(pub)
+	return hex.EncodeToString(sum[:8])
+}
+
+// Sign signs d's canonical digest with priv and stores the signature in d.
+// The signed message is the digest string ("sha256:…") as bytes. The digest
+// is recomputed from the content first: Sign refuses a document whose stored
+// digest does not match it, since signing it would vouch for content the
+// digest does not describe. The signature is outside the canonical
+// serialization, so signing does not change the digest.
+func (d *Document) Sign(priv ed25519.PrivateKey) error {
+	if len(priv) != ed25519.PrivateKeySize {
+		return fmt.Errorf("sign: the private key has %d bytes, want %d", len(priv), ed25519.PrivateKeySize)
+	}
+	digest, err := d.ComputeDigest()
+	if err != nil {
+		return fmt.Errorf("sign: %w", err)
+	}
+	if digest != d.Digest {
+		return fmt.Errorf("sign: the stored digest %q does not match the content (%s)", d.Digest, digest)
+	}
+	pub := priv.Public().(ed25519.PublicKey)
+	d.Signature = &Signature{
+		Algorithm: SignatureAlgorithm,
+		PublicKey: base64.StdEncoding.EncodeToString(pub),
+		Value:     base64.StdEncoding.EncodeToString(ed25519.Sign(priv, []byte(digest))),
+	}
+	return nil
+}
+
+// Signer returns the public key that d's signature names, without checking
+// the signature; ErrUnsigned when there is none.
+func (d *Document) Signer() (ed25519.PublicKey, error) {
+	s := d.Signature
+	if s == nil {
+		return nil, ErrUnsigned
+	}
+	if s.Algorithm != SignatureAlgorithm {
+		return nil, fmt.Errorf("%w: algorithm %q, want %q", ErrBadSignature, s.Algorithm, SignatureAlgorithm)
+	}
+	pub, err := base64.StdEncoding.Strict().DecodeString(s.PublicKey)
+	if err != nil || len(pub) != ed25519.PublicKeySize {
+		return nil, fmt.Errorf("%w: the public key is not %d bytes of base64", ErrBadSignature, ed25519.PublicKeySize)
+	}
+	return ed25519.PublicKey(pub), nil
+}
+
+// VerifySignature checks d's signature against the digest recomputed from
+// d's content (not the stored one, so that content and signature are tied
+// even when the stored digest is stale) and returns the signing key. The
+// errors are ErrUnsigned when d carries no signature and ErrBadSignature
+// (wrapped) when the signature is malformed or does not verify with the key
+// it names. A valid signature says only that the holder of that key signed
+// this content; whether the key is trusted is VerifyTrusted's question.
+func (d *Document) VerifySignature() (ed25519.PublicKey, error) {
+	pub, err := d.Signer()
+	if err != nil {
+		return nil, err
+	}
+	sig, err := base64.StdEncoding.Strict().DecodeString(d.Signature.Value)
+	if err != nil || len(sig) != ed25519.SignatureSize {
+		return nil, fmt.Errorf("%w: the value is not %d bytes of base64", ErrBadSignature, ed25519.SignatureSize)
+	}
+	digest, err := d.ComputeDigest()
+	if err != nil {
+		return nil, fmt.Errorf("%w: %w", ErrBadSignature, err)
+	}
+	if !ed25519.Verify(pub, []byte(digest), sig) {
+		return nil, ErrBadSignature
+	}
+	return pub, nil
+}
+
+// VerifyTrusted checks d's signature and requires its key to be one of
+// trusted. It returns the signing key, or ErrUnsigned, ErrBadSignature, or
+// ErrUntrusted wrapped with the signer's fingerprint.
+func (d *Document) VerifyTrusted(trusted []ed25519.PublicKey) (ed25519.PublicKey, error) {
+	pub, err := d.VerifySignature()
+	if err != nil {
+		return nil, err
+	}
+	for _, t := range trusted {
+		if pub.Equal(t) {
+			return pub, nil
+		}
+	}
+	return nil, fmt.Errorf("%w: %s", ErrUntrusted, Fingerprint(pub))
+}
+
+// GenerateKey returns a new ed25519 key pair from the system's
+// cryptographically secure random source.
+func GenerateKey() (ed25519.PublicKey, ed25519.PrivateKey, error) {
+	return ed25519.GenerateKey(rand.Reader)
+}
+
+// MarshalPrivateKey returns the key file text of a private key: the header
+// line and the base64 of its 32-byte seed.
+func MarshalPrivateKey(priv ed25519.PrivateKey) []byte {
+	return []byte(privateKeyHeader + "\n" + base64.StdEncoding.EncodeToString(priv.Seed()) + "\n")
+}
+
+// MarshalPublicKey returns the key file text of a public key: the header
+// line, the base64 of the 32-byte key, and its fingerprint as a comment.
+func MarshalPublicKey(pub ed25519.PublicKey) []byte {
+	return []byte(publicKeyHeader + "\n" + base64.StdEncoding.EncodeToString(pub) + "\n# fingerprint " + Fingerprint(pub) + "\n")
+}
+
+// keyBody returns the base64 line of a key file after checking its header.
+// Blank lines and lines starting with "#" after the header are ignored.
+func keyBody(data []byte, header, other string) ([]byte, error) {
+	lines := strings.Split(strings.ReplaceAll(string(data), "\r\n", "\n"), "\n")
+	first := strings.TrimSpace(lines[0])
+	switch first {
+	case header:
+	case other:
+		return nil, fmt.Errorf("this is a %s, not a %s", other[len("lyacert ed25519 "):], header[len("lyacert ed25519 "):])
+	default:
+		return nil, fmt.Errorf("not a lyacert key file: the first line must be %q", header)
+	}
+	var body []string
+	for _, l := range lines[1:] {
+		l = strings.TrimSpace(l)
+		if l != "" && !strings.HasPrefix(l, "#") {
+			body = append(body, l)
+		}
+	}
+	if len(body) != 1 {
+		return nil, fmt.Errorf("a key file has one line of base64 after the header, found %d", len(body))
+	}
+	b, err := base64.StdEncoding.Strict().DecodeString(body[0])
+	if err != nil {
+		return nil, fmt.Errorf("the key is not valid base64: %w", err)
+	}
+	return b, nil
+}
+
+// ParsePrivateKey reads the text written by MarshalPrivateKey.
+func ParsePrivateKey(data []byte) (ed25519.PrivateKey, error) {
+	seed, err := keyBody(data, privateKeyHeader, publicKeyHeader)
+	if err != nil {
+		return nil, err
+	}
+	if len(seed) != ed25519.SeedSize {
+		return nil, fmt.Errorf("the private key has %d bytes, want %d", len(seed), ed25519.SeedSize)
+	}
+	return ed25519.NewKeyFromSeed(seed), nil
+}
+
+// ParsePublicKey reads the text written by MarshalPublicKey.
+func ParsePublicKey(data []byte) (ed25519.PublicKey, error) {
+	b, err := keyBody(data, publicKeyHeader, privateKeyHeader)
+	if err != nil {
+		return nil, err
+	}
+	if len(b) != ed25519.PublicKeySize {
+		return nil, fmt.Errorf("the public key has %d bytes, want %d", len(b), ed25519.PublicKeySize)
+	}
+	return ed25519.PublicKey(b), nil
+}
+
+// ReadPrivateKeyFile reads a private key file.
+func ReadPrivateKeyFile(path string) (ed25519.PrivateKey, error) {
+	b, err := os.ReadFile(path)
+	if err != nil {
+		return nil, err
+	}
+	k, err := ParsePrivateKey(b)
+	if err != nil {
+		return nil, fmt.Errorf("%s: %w", path, err)
+	}
+	return k, nil
+}
+
+// ReadPublicKeyFile reads a public key file.
+func ReadPublicKeyFile(path string) (ed25519.PublicKey, error) {
+	b, err := os.ReadFile(path)
+	if err != nil {
+		return nil, err
+	}
+	k, err := ParsePublicKey(b)
+	if err != nil {
+		return nil, fmt.Errorf("%s: %w", path, err)
+	}
+	return k, nil
+}
+
+// WriteKeyPair writes the private key to path (mode 0600) and the public key
+// to path + ".pub" (mode 0644). It never overwrites: when either file exists
+// it writes nothing and returns an error wrapping os.ErrExist. Each file is
+// written to a temporary file and hard-linked into place, which fails rather
+// than replaces when the name was taken in the meantime, so a reader never
+// sees a half-written key.
+func WriteKeyPair(path string, pub ed25519.PublicKey, priv ed25519.PrivateKey) error {
+	pubPath := path + ".pub"
+	for _, p := range []string{path, pubPath} {
+		if _, err := os.Lstat(p); err == nil {
+			return fmt.Errorf("%s: %w; refusing to overwrite a key", p, os.ErrExist)
+		}
+	}
+	if err := createExclusive(path, MarshalPrivateKey(priv), 0o600); err != nil {
+		return err
+	}
+	if err := createExclusive(pubPath, MarshalPublicKey(pub), 0o644); err != nil {
+		os.Remove(path) // ours: created just above
+		return err
+	}
+	return nil
+}
+
+// createExclusive writes data to a new file at path: through a temporary
+// file that is linked to path only when complete; the link fails if path
+// exists.
+func createExclusive(path string, data []byte, perm os.FileMode) error {
+	f, err := os.CreateTemp(filepath.Dir(path), "."+filepath.Base(path)+".tmp*")
+	if err != nil {
+		return err
+	}
+	tmp := f.Name()
+	defer os.Remove(tmp)
+	// CreateTemp makes the file 0600, so a private key is never readable by
+	// others, not even while it is being written.
+	_, werr := f.Write(data)
+	if werr == nil {
+		werr = f.Sync()
+	}
+	if cerr := f.Close(); werr == nil {
+		werr = cerr
+	}
+	if werr == nil {
+		werr = os.Chmod(tmp, perm)
+	}
+	if werr != nil {
+		return werr
+	}
+	if err := os.Link(tmp, path); err != nil {
+		if errors.Is(err, os.ErrExist) {
+			return fmt.Errorf("%s: %w; refusing to overwrite a key", path, os.ErrExist)
+		}
+		return err
+	}
+	return nil
+}
+
+// signature records the check of a present signature. Verify does not
+// require one; a present one must verify, since a reader would otherwise take
+// a forged or stale signature at face value.
+func (c *checker) signature() {
+	pub, err := c.doc.VerifySignature()
+	if err != nil {
+		c.add("signature", false, "%v", err)
+		return
+	}
+	c.add("signature", true, "the ed25519 signature of the digest is valid (key %s)", Fingerprint(pub))
+}

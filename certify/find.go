@@ -1,0 +1,484 @@
+package certify
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"math/big"
+	"slices"
+	"strings"
+	"time"
+
+	"gonum.org/v1/gonum/mat"
+
+	"lyacert/certificates"
+	"lyacert/certify/lyap"
+	"lyacert/model"
+	"lyacert/poly"
+)
+
+// Certification methods.
+const (
+	// MethodFull: V = (x − x*)ᵀP(x − x*) was run through Check, the full
+	// nonlinear argument of the model's derivative (local or global claim).
+	MethodFull = "full"
+	// MethodLinearization: Lyapunov's indirect method at the equilibrium, in
+	// a certificates.Linearization document (local stability or instability).
+	MethodLinearization = "linearization"
+)
+
+// CertifyOptions tune CertifyEquilibrium.
+type CertifyOptions struct {
+	// Q is the diagonal of Q in AᵀP + PA = −Q (AᵀPA − P = −Q); nil means
+	// the identity. Every entry must be positive.
+	Q []*big.Rat
+	// Full runs the full nonlinear check at exact equilibria that the
+	// linearization shows stable (MethodFull); otherwise every certificate
+	// is a linearization certificate.
+	Full bool
+	// Source names the model in the certificate (carries no claim).
+	Source string
+	// Issued is the certificate's issue time; "" leaves it empty, which
+	// makes the certificate, and so its digest, a function of the model
+	// alone (sweeps use that for reproducible output).
+	Issued string
+
+	texts *docTexts // shared by the certificates of one model
+}
+
+// docTexts are the parts of a linearization certificate that depend on the
+// model only: the equations and the canonical model text without a
+// candidate and without an "at" line.
+type docTexts struct {
+	equations []string
+	base      string
+}
+
+func newDocTexts(m *model.Model) *docTexts {
+	t := &docTexts{}
+	for i := range m.States {
+		t.equations = append(t.equations, m.F[i].String())
+	}
+	mc := *m
+	mc.V, mc.AtGiven = nil, false
+	t.base = mc.Canonical()
+	return t
+}
+
+// Certification is the outcome of certifying one equilibrium.
+type Certification struct {
+	Method string
+	// Verdict and Claim as in certificates: holds with local-asymptotic or
+	// global-asymptotic, fails with unstable, or undecided with none.
+	Verdict, Claim string
+	// Reason explains the verdict in one sentence for people.
+	Reason string
+	// P is the rational Lyapunov matrix (nil when none was found) and
+	// Tolerance the relative rounding tolerance that produced it.
+	P         [][]*big.Rat
+	Tolerance float64
+	// V is (x − x*)ᵀP(x − x*) at an exact equilibrium (nil otherwise).
+	V *poly.RatFunc
+	// Decay is the exact enclosure of −(JᵀP + PJ) (or P − JᵀPJ) over the
+	// equilibrium's box, or its value at an exact equilibrium.
+	Decay [][]poly.Interval
+	// Check is the full check's result (MethodFull only).
+	Check *Result
+	// Doc has passed certificates.Verify; Verified is that result. Nil when
+	// nothing was certified (verdict undecided).
+	Doc      *certificates.Document
+	Verified certificates.Result
+}
+
+// rationalizeTolerances are the relative tolerances tried, in order, when P
+// is rounded to rationals: the first P that passes the exact tests is kept,
+// so P has the shortest entries that work (0 means the float itself).
+var rationalizeTolerances = []float64{1e-3, 1e-6, 1e-9, 1e-12, 0}
+
+// CertifyEquilibrium certifies one equilibrium of a model without free
+// parameters through its linearization J: it solves AᵀP + PA = −Q
+// (AᵀPA − P = −Q in discrete time) for A = J in floating point
+// (Bartels–Stewart; Kitagawa/Barraud), rounds P to rationals with
+// continued fractions of growing length until exact LDLᵀ shows that
+// M = −(JᵀP + PJ) (P − JᵀPJ) is positive definite — over the whole Krawczyk
+// box for an enclosed equilibrium — and P is either positive definite
+// (stable) or has a negative pivot (unstable), and writes a certificate that
+// certificates.Verify accepts. With opts.Full an exact stable equilibrium is
+// then certified by Check on V = (x − x*)ᵀP(x − x*), which can give a global
+// claim.
+//
+// Nothing is claimed when the equilibrium is only approximate, when the
+// Lyapunov equation is singular (eigenvalues on the imaginary axis or the
+// unit circle, where the linearization decides nothing) or when no rounding
+// passes; the verdict is then undecided with the reason. An error is
+// returned only for a certificate the checker rejects (ErrUnverified, a bug).
+func CertifyEquilibrium(m *model.Model, e *Equilibrium, opts CertifyOptions) (*Certification, error) {
+	n := len(m.States)
+	undecided := func(format string, args ...any) (*Certification, error) {
+		return &Certification{Method: MethodLinearization, Verdict: certificates.VerdictUndecided, Claim: certificates.ClaimNone,
+			Reason: fmt.Sprintf(format, args...)}, nil
+	}
+	if e.Status == EquilibriumApproximate {
+		return undecided("not certified: the Krawczyk test could not prove an equilibrium near this point (singular or ill-conditioned Jacobian)")
+	}
+	if err := requireFixed(m, "certification"); err != nil {
+		return nil, err
+	}
+	q := mat.NewDense(n, n, nil)
+	for i := 0; i < n; i++ {
+		qi := 1.0
+		if opts.Q != nil {
+			qi, _ = opts.Q[i].Float64()
+		}
+		q.Set(i, i, qi)
+	}
+	pf, err := solveLyapunov(e.Jacobian, q, m.Discrete)
+	if err != nil {
+		where := "on or too near the imaginary axis (λi + λj ≈ 0)"
+		if m.Discrete {
+			where = "on or too near the unit circle (λi·λj ≈ 1)"
+		}
+		if !errors.Is(err, lyap.ErrSingular) {
+			where = "that the solver could not handle (" + err.Error() + ")"
+		}
+		return undecided("not certified: the linearization has eigenvalues %s, so it decides neither stability nor instability", where)
+	}
+	box := e.Box
+	if e.Status == EquilibriumExact {
+		box = make([]poly.Interval, n)
+		for i, v := range e.Point {
+			box[i] = poly.Point(v)
+		}
+	}
+	f := make([]*poly.Poly, n)
+	for i := range m.F {
+		f[i] = m.F[i].Num
+	}
+	pmax := 0.0
+	for i := 0; i < n; i++ {
+		for j := 0; j < n; j++ {
+			pmax = math.Max(pmax, math.Abs(pf.At(i, j)))
+		}
+	}
+	for _, tol := range rationalizeTolerances {
+		p := make([][]*big.Rat, n)
+		for i := range p {
+			p[i] = make([]*big.Rat, n)
+		}
+		for i := 0; i < n; i++ {
+			for j := i; j < n; j++ {
+				v := rationalize(pf.At(i, j), tol*pmax)
+				p[i][j], p[j][i] = v, v
+			}
+		}
+		var decay [][]poly.Interval
+		if e.ExactJacobian != nil {
+			decay = pointIntervals(certificates.DecayAt(e.ExactJacobian, m.Discrete, p))
+		} else {
+			decay = certificates.DecayEnclosure(f, m.Discrete, p, box)
+		}
+		if !certificates.PositiveDefiniteOn(decay) {
+			continue
+		}
+		k, pivot := certificates.FirstNonPositivePivot(p)
+		if k >= 0 && pivot.Sign() == 0 {
+			continue
+		}
+		c := &Certification{Method: MethodLinearization, P: p, Tolerance: tol, Decay: decay}
+		if k < 0 {
+			c.Verdict, c.Claim = certificates.VerdictHolds, certificates.ClaimLocal
+			c.Reason = "the linearization is stable: P ≻ 0 and " + decayName(m) + " ≻ 0 exactly (Lyapunov's indirect method)"
+		} else {
+			c.Verdict, c.Claim = certificates.VerdictFails, certificates.ClaimUnstable
+			c.Reason = fmt.Sprintf("the equilibrium is unstable: %s ≻ 0 exactly and P has a negative pivot (%d), so −V grows near the equilibrium (Lyapunov's instability theorem)", decayName(m), k+1)
+		}
+		if e.Status == EquilibriumExact && opts.Full {
+			v := quadraticAbout(m.Ring, p, e.Point)
+			c.V = &v
+		}
+		if k < 0 && opts.Full && e.Status == EquilibriumExact {
+			if err := c.full(m, e, opts); err != nil {
+				return nil, err
+			}
+			if c.Doc != nil {
+				return c, nil
+			}
+		}
+		doc := linearizationDoc(m, e, p, decay, c.Claim, c.Verdict, opts)
+		if err := doc.Seal(); err != nil {
+			return nil, err
+		}
+		c.Doc = doc
+		c.Verified = certificates.Verify(doc)
+		if !c.Verified.Valid {
+			return nil, fmt.Errorf("%w: %s", ErrUnverified, failedChecks(c.Verified))
+		}
+		return c, nil
+	}
+	return undecided("not certified: no rounding of the float solution P passed the exact tests (P definite or with a negative pivot, and %s ≻ 0)", decayName(m))
+}
+
+// solveLyapunov solves the Lyapunov (Stein) equation for A in floating
+// point. When it is singular — eigenvalues with λi + λj = 0 (λiλj = 1),
+// which includes saddles with opposite eigenvalues as well as centres — it
+// retries with A + sI ((1 + s)·A) for a few small s: the P found then
+// solves AᵀP + PA = −(Q + 2sP) instead, which the exact tests judge like any
+// other proposal (a centre still fails them).
+func solveLyapunov(a, q *mat.Dense, discrete bool) (*mat.SymDense, error) {
+	solve := func(a *mat.Dense) (*mat.SymDense, error) {
+		if discrete {
+			return lyap.Discrete(a, q)
+		}
+		return lyap.Continuous(a, q)
+	}
+	p, err := solve(a)
+	if err == nil || !errors.Is(err, lyap.ErrSingular) {
+		return p, err
+	}
+	n, _ := a.Dims()
+	norm := 1 + mat.Norm(a, math.Inf(1))
+	for _, s := range []float64{1e-3, -1e-3, 1e-2, -1e-2, 1e-1, -1e-1} {
+		var b mat.Dense
+		if discrete {
+			b.Scale(1+s, a)
+		} else {
+			b.CloneFrom(a)
+			for i := 0; i < n; i++ {
+				b.Set(i, i, b.At(i, i)+s*norm)
+			}
+		}
+		if p, e2 := solve(&b); e2 == nil {
+			return p, nil
+		}
+	}
+	return nil, err
+}
+
+func pointIntervals(a [][]*big.Rat) [][]poly.Interval {
+	out := make([][]poly.Interval, len(a))
+	for i := range a {
+		for _, v := range a[i] {
+			out[i] = append(out[i], poly.Point(v))
+		}
+	}
+	return out
+}
+
+func decayName(m *model.Model) string {
+	if m.Discrete {
+		return "P − AᵀPA"
+	}
+	return "−(AᵀP + PA)"
+}
+
+func failedChecks(r certificates.Result) string {
+	var failed []string
+	for _, c := range r.Checks {
+		if !c.OK {
+			failed = append(failed, c.Name+": "+c.Reason)
+		}
+	}
+	return strings.Join(failed, "; ")
+}
+
+// full runs Check on V = (x − x*)ᵀP(x − x*) with the model's equilibrium set
+// to x*. It leaves c.Doc nil when Check does not confirm the claim (the
+// linearization certificate is used then).
+func (c *Certification) full(m *model.Model, e *Equilibrium, opts CertifyOptions) error {
+	mc := *m
+	mc.V = c.V
+	mc.At = make([]poly.RatFunc, len(e.Point))
+	for i, v := range e.Point {
+		mc.At[i] = poly.RatConst(m.Ring, v)
+	}
+	mc.AtGiven = true
+	res, err := Check(&mc, opts.Source)
+	if err != nil {
+		return err
+	}
+	if res.Verdict != certificates.VerdictHolds {
+		return nil
+	}
+	if opts.Issued == "" {
+		res.Doc.Issued = ""
+		if err := res.Doc.Seal(); err != nil {
+			return err
+		}
+		res.Check = certificates.Verify(res.Doc)
+		if !res.Check.Valid {
+			return fmt.Errorf("%w: %s", ErrUnverified, failedChecks(res.Check))
+		}
+	}
+	c.Method, c.Check, c.Doc, c.Verified = MethodFull, res, res.Doc, res.Check
+	c.Verdict, c.Claim = res.Verdict, res.Claim
+	if res.Claim == certificates.ClaimGlobal {
+		c.Reason = "V and its derivative are exactly quadratic with definite forms (Lyapunov's direct method, global)"
+	} else {
+		c.Reason = "the quadratic parts of V and of −" + dotWord(m) + " are positive definite (Lyapunov's direct method, local)"
+	}
+	return nil
+}
+
+func dotWord(m *model.Model) string {
+	if m.Discrete {
+		return "ΔV"
+	}
+	return "V̇"
+}
+
+// quadraticAbout returns (x − x*)ᵀP(x − x*) in the model's ring.
+func quadraticAbout(r *poly.Ring, p [][]*big.Rat, at []*big.Rat) poly.RatFunc {
+	n := len(p)
+	d := make([]*poly.Poly, n)
+	for i := range d {
+		d[i] = new(poly.Poly).Sub(poly.Var(r, i), poly.Const(r, at[i]))
+	}
+	v := poly.Zero(r)
+	for i := 0; i < n; i++ {
+		for j := 0; j < n; j++ {
+			if p[i][j].Sign() == 0 {
+				continue
+			}
+			t := new(poly.Poly).Mul(d[i], d[j])
+			v.Add(v, t.Scale(t, p[i][j]))
+		}
+	}
+	return poly.FromPoly(v)
+}
+
+// linearizationDoc builds the certificates.Linearization document: the
+// model without a candidate, its equilibrium as the "at" point (exact) or
+// as the box (enclosed), P, the Krawczyk data and the enclosure of M.
+func linearizationDoc(m *model.Model, e *Equilibrium, p [][]*big.Rat, decay [][]poly.Interval, claim, verdict string, opts CertifyOptions) *certificates.Document {
+	n := len(m.States)
+	texts := opts.texts
+	if texts == nil {
+		texts = newDocTexts(m)
+	}
+	// The canonical text of the model without a candidate, with the exact
+	// equilibrium as its "at" line (model.Canonical's form) or with none.
+	text := texts.base
+	lz := &certificates.Linearization{}
+	eqText := make([]string, n)
+	if e.Status == EquilibriumExact {
+		parts := make([]string, n)
+		for i, v := range e.Point {
+			eqText[i] = poly.RatConst(m.Ring, v).String()
+			parts[i] = m.States[i] + " = " + eqText[i]
+		}
+		text += "at " + strings.Join(parts, ", ") + "\n"
+	} else {
+		for i, iv := range e.Box {
+			lz.Box = append(lz.Box, certificates.IntervalText(iv))
+			eqText[i] = certificates.BoxText(lz.Box[i])
+			lz.Krawczyk = append(lz.Krawczyk, certificates.IntervalText(e.K[i]))
+		}
+		lz.Preconditioner = ratMatrixText(e.Y)
+	}
+	lz.P = ratMatrixText(p)
+	lz.Decay = make([][][2]string, n)
+	for i := range decay {
+		for j := range decay[i] {
+			lz.Decay[i] = append(lz.Decay[i], certificates.IntervalText(decay[i][j]))
+		}
+	}
+	d := &certificates.Document{
+		Format:        certificates.Format,
+		Tool:          "lyacert " + Version,
+		Issued:        opts.Issued,
+		Source:        opts.Source,
+		Description:   m.Description,
+		Model:         text,
+		Claim:         claim,
+		Verdict:       verdict,
+		Linearization: lz,
+	}
+	d.System.Time = "continuous"
+	if m.Discrete {
+		d.System.Time = "discrete"
+	}
+	d.System.States = slices.Clone(m.States)
+	d.System.Params = []certificates.ParamDoc{}
+	for _, pr := range m.Params {
+		d.System.Params = append(d.System.Params, certificates.ParamDoc{Name: pr.Name, Range: model.RangeText(pr)})
+	}
+	d.System.Equations = slices.Clone(texts.equations)
+	d.System.Equilibrium = eqText
+	return d
+}
+
+func ratMatrixText(a [][]*big.Rat) [][]string {
+	out := make([][]string, len(a))
+	for i := range a {
+		for _, v := range a[i] {
+			out[i] = append(out[i], v.RatString())
+		}
+	}
+	return out
+}
+
+// FindOptions tune Find.
+type FindOptions struct {
+	Q      []*big.Rat // diagonal of Q; nil for the identity
+	All    bool       // certify every equilibrium, not only the model's
+	Source string
+}
+
+// FindResult is what Find found and certified.
+type FindResult struct {
+	Model  *model.Model
+	Search *EquilibriumSearch
+	// Target is the index in Search.Equilibria of the model's equilibrium
+	// (its "at" point, or the origin), −1 when the origin is not one.
+	Target int
+	// Certs[i] certifies Search.Equilibria[i]; nil when not attempted.
+	Certs []*Certification
+}
+
+// ErrNoTarget reports a model whose origin is not an equilibrium and that
+// names none.
+var ErrNoTarget = errors.New("the origin is not an equilibrium of this model")
+
+// Find lists the equilibria of a model without free parameters and
+// certifies the model's own (its "at" point, or the origin), or every one
+// with opts.All. Rational equilibria that the linearization shows stable go
+// through the full check (Check on V = (x − x*)ᵀP(x − x*)); the others get
+// linearization certificates. Input errors (free parameters, an "at" point
+// that is not an equilibrium, no target) are returned as errors.
+func Find(m *model.Model, opts FindOptions) (*FindResult, error) {
+	if err := requireFixed(m, "find"); err != nil {
+		return nil, err
+	}
+	if m.AtGiven {
+		if err := m.CheckEquilibrium(); err != nil {
+			return nil, err
+		}
+	}
+	search, err := FindEquilibria(m)
+	if err != nil {
+		return nil, err
+	}
+	res := &FindResult{Model: m, Search: search, Target: -1, Certs: make([]*Certification, len(search.Equilibria))}
+	target := atPoint(m)
+	for i, e := range search.Equilibria {
+		if e.Status == EquilibriumExact && slices.EqualFunc(e.Point, target, func(a, b *big.Rat) bool { return a.Cmp(b) == 0 }) {
+			res.Target = i
+		}
+	}
+	if res.Target < 0 && !opts.All {
+		return nil, &poly.Error{Pos: poly.Pos{File: m.File, Line: 1, Col: 1},
+			Msg: ErrNoTarget.Error() + "; name one with an \"at\" line, or certify every equilibrium found with --all"}
+	}
+	co := CertifyOptions{Q: opts.Q, Full: true, Source: opts.Source, Issued: time.Now().UTC().Format(time.RFC3339)}
+	for i := range search.Equilibria {
+		if !opts.All && i != res.Target {
+			continue
+		}
+		c, err := CertifyEquilibrium(m, &search.Equilibria[i], co)
+		if err != nil {
+			return nil, err
+		}
+		res.Certs[i] = c
+	}
+	return res, nil
+}

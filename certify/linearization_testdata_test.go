@@ -1,0 +1,65 @@
+package certify
+
+import (
+	"path/filepath"
+	"testing"
+
+	"lyacert/certificates"
+)
+
+// linearizationCases are the linearization certificates kept in
+// testdata/certificates (rewritten with -update, like certificateCases):
+// exact and enclosed equilibria, stable and unstable, in continuous and
+// discrete time.
+var linearizationCases = []struct {
+	name, model string
+	set         []string
+	eq          int    // index in the ordered list of equilibria
+	claim       string // expected
+}{
+	{"lin-lorenz-r20-cminus", "lorenz-classic.lya", []string{"r=20"}, 0, certificates.ClaimLocal},
+	{"lin-lorenz-r20-origin", "lorenz-classic.lya", []string{"r=20"}, 1, certificates.ClaimUnstable},
+	{"lin-lorenz-r28-cplus", "lorenz-classic.lya", []string{"r=28"}, 2, certificates.ClaimUnstable},
+	{"lin-quadmap", "quadmap.lya", nil, 0, certificates.ClaimLocal},
+	{"lin-logistic", "logistic.lya", []string{"r=5/2"}, 1, certificates.ClaimLocal},
+}
+
+func TestTestdataLinearizationCertificates(t *testing.T) {
+	for _, c := range linearizationCases {
+		t.Run(c.name, func(t *testing.T) {
+			m := loadCase(t, c.model, c.set)
+			s, err := FindEquilibria(m)
+			if err != nil {
+				t.Fatal(err)
+			}
+			ct, err := CertifyEquilibrium(m, &s.Equilibria[c.eq], CertifyOptions{Source: c.model, Issued: "2026-12-01T00:00:00Z"})
+			if err != nil {
+				t.Fatal(err)
+			}
+			if ct.Claim != c.claim || ct.Doc == nil {
+				t.Fatalf("claim %s (%s), want %s", ct.Claim, ct.Reason, c.claim)
+			}
+			ct.Doc.Tool = "lyacert"
+			if err := ct.Doc.Seal(); err != nil {
+				t.Fatal(err)
+			}
+			path := filepath.Join("..", "testdata", "certificates", c.name+".json")
+			if *update {
+				if err := ct.Doc.WriteFile(path); err != nil {
+					t.Fatal(err)
+				}
+				return
+			}
+			doc, err := certificates.ReadFile(path)
+			if err != nil {
+				t.Fatalf("%v (run go test ./certify -run TestTestdataLinearizationCertificates -update)", err)
+			}
+			if r := certificates.Verify(doc); !r.Valid {
+				t.Fatalf("stored certificate no longer verifies: %v", failed(r))
+			}
+			if ct.Doc.Digest != doc.Digest {
+				t.Errorf("the engine now writes a different certificate; rerun with -update and review the diff")
+			}
+		})
+	}
+}

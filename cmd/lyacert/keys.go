@@ -1,0 +1,206 @@
+package main
+
+import (
+	"crypto/ed25519"
+	"errors"
+	"fmt"
+	"io"
+	"strings"
+
+	"lyacert/certificates"
+)
+
+// keyCmd groups the key commands.
+type keyCmd struct {
+	New keyNewCmd `cmd:"" help:"Write a new ed25519 key pair: NAME (private, mode 0600) and NAME.pub (public). Never overwrites."`
+}
+
+type keyNewCmd struct {
+	Out string `short:"o" name:"out" required:"" placeholder:"NAME" help:"File name of the private key; the public key goes to NAME.pub."`
+}
+
+type signCmd struct {
+	Cert string `arg:"" placeholder:"CERT" help:"Certificate file (JSON)."`
+	Key  string `name:"key" required:"" placeholder:"KEY" help:"Private key file (from lyacert key new)."`
+	Out  string `short:"o" name:"out" placeholder:"OUT" help:"Write the signed certificate here; by default CERT is rewritten in place (atomically)."`
+}
+
+func init() {
+	register("key", "Manage the ed25519 keys that sign certificates.", func() any { return &keyCmd{} })
+	register("sign", "Sign a certificate's digest with an ed25519 private key.", func() any { return &signCmd{} })
+}
+
+// Run writes a new key pair.
+func (c *keyNewCmd) Run(e *env) error { return exit(c.run(e)) }
+
+// Run signs a certificate.
+func (c *signCmd) Run(e *env) error { return exit(c.run(e)) }
+
+func (c *keyNewCmd) run(e *env) int {
+	pub, priv, err := certificates.GenerateKey()
+	if err != nil {
+		fmt.Fprintln(e.stderr, "lyacert: generating a key:", err)
+		return exitInput
+	}
+	if err := certificates.WriteKeyPair(c.Out, pub, priv); err != nil {
+		fmt.Fprintln(e.stderr, "lyacert:", err)
+		return exitInput
+	}
+	fmt.Fprintf(e.stdout, "wrote the private key %s (keep it secret) and the public key %s.pub\n  fingerprint %s\n", c.Out, c.Out, certificates.Fingerprint(pub))
+	return exitHolds
+}
+
+func (c *signCmd) run(e *env) int {
+	key, err := certificates.ReadPrivateKeyFile(c.Key)
+	if err != nil {
+		fmt.Fprintln(e.stderr, "lyacert:", err)
+		return exitInput
+	}
+	name, src, err := readInput(c.Cert, e.stdin)
+	if err != nil {
+		fmt.Fprintln(e.stderr, "lyacert:", err)
+		return exitInput
+	}
+	doc, err := certificates.Read(strings.NewReader(string(src)))
+	if err != nil {
+		fmt.Fprintf(e.stderr, "lyacert: %s: %v\n", name, err)
+		return exitInput
+	}
+	// A signature vouches for the content: only a certificate that the
+	// checker accepts is signed.
+	old := doc.Signature
+	doc.Signature = nil
+	if res := certificates.Verify(doc); !res.Valid {
+		renderVerify(e.stderr, name, doc, res)
+		fmt.Fprintf(e.stderr, "lyacert: %s: not signed: the checker rejects the certificate\n", name)
+		return exitFails
+	}
+	if err := doc.Sign(key); err != nil {
+		fmt.Fprintf(e.stderr, "lyacert: %s: %v\n", name, err)
+		return exitFails
+	}
+	if old != nil {
+		if pub, err := (&certificates.Document{Signature: old}).Signer(); err == nil {
+			fmt.Fprintf(e.stderr, "lyacert: %s: replacing the signature by key %s\n", name, certificates.Fingerprint(pub))
+		} else {
+			fmt.Fprintf(e.stderr, "lyacert: %s: replacing a malformed signature\n", name)
+		}
+	}
+	out := c.Out
+	if out == "" {
+		out = c.Cert
+	}
+	if out == "-" {
+		b, err := doc.Marshal()
+		if err != nil {
+			fmt.Fprintln(e.stderr, "lyacert:", err)
+			return exitInput
+		}
+		e.stdout.Write(b)
+		return exitHolds
+	}
+	if err := doc.WriteFile(out); err != nil {
+		fmt.Fprintln(e.stderr, "lyacert: writing the certificate:", err)
+		return exitInput
+	}
+	fmt.Fprintf(e.stdout, "signed %s with key %s\n  digest %s\n", out, certificates.Fingerprint(key.Public().(ed25519.PublicKey)), doc.Digest)
+	return exitHolds
+}
+
+// loadSigningKey reads the key of check --sign; signing needs a certificate
+// file to sign.
+func loadSigningKey(path, out string, e *env) (ed25519.PrivateKey, int) {
+	if path == "" {
+		return nil, 0
+	}
+	if out == "" {
+		fmt.Fprintln(e.stderr, "lyacert: --sign needs -o CERT: it signs the certificate file that check writes")
+		return nil, exitInput
+	}
+	key, err := certificates.ReadPrivateKeyFile(path)
+	if err != nil {
+		fmt.Fprintln(e.stderr, "lyacert:", err)
+		return nil, exitInput
+	}
+	return key, 0
+}
+
+// signWritten signs the certificate that check has just written to out (it
+// was re-checked by Verify before it was written) and rewrites it
+// atomically. code is check's exit code, returned unless signing fails.
+func signWritten(out string, key ed25519.PrivateKey, code int, asJSON bool, e *env) int {
+	if key == nil || code == exitInput {
+		return code
+	}
+	doc, err := certificates.ReadFile(out)
+	if err == nil {
+		err = doc.Sign(key)
+	}
+	if err == nil {
+		err = doc.WriteFile(out)
+	}
+	if err != nil {
+		fmt.Fprintln(e.stderr, "lyacert: signing the certificate:", err)
+		return exitInput
+	}
+	w := e.stdout
+	if asJSON {
+		w = e.stderr // keep standard output one JSON document
+	}
+	fmt.Fprintf(w, "Signed %s with key %s.\n", out, certificates.Fingerprint(key.Public().(ed25519.PublicKey)))
+	return code
+}
+
+// readTrusted reads the public keys of verify --trust.
+func readTrusted(paths []string) ([]ed25519.PublicKey, error) {
+	var keys []ed25519.PublicKey
+	for _, p := range paths {
+		k, err := certificates.ReadPublicKeyFile(p)
+		if err != nil {
+			return nil, err
+		}
+		keys = append(keys, k)
+	}
+	return keys, nil
+}
+
+// applyTrust adds the trust check of verify --trust to the checker's
+// result: a valid signature by one of the trusted keys is required. Without
+// trusted keys the result is unchanged (Verify has already checked a
+// present signature).
+func applyTrust(doc *certificates.Document, res certificates.Result, trusted []ed25519.PublicKey) certificates.Result {
+	if len(trusted) == 0 {
+		return res
+	}
+	pub, err := doc.VerifyTrusted(trusted)
+	ch := certificates.Check{Name: "trust", OK: err == nil}
+	switch {
+	case err == nil:
+		ch.Reason = "signed by the trusted key " + certificates.Fingerprint(pub)
+	case errors.Is(err, certificates.ErrUnsigned):
+		ch.Reason = "no signature, but --trust requires one by a trusted key"
+	default:
+		ch.Reason = err.Error()
+	}
+	res.Checks = append(res.Checks, ch)
+	if !ch.OK {
+		res.Valid = false
+	}
+	return res
+}
+
+// renderSigner says who signed a valid certificate, after verify's text.
+func renderSigner(w io.Writer, doc *certificates.Document, res certificates.Result, trusted bool) {
+	if !res.Valid {
+		return
+	}
+	pub, err := doc.Signer()
+	switch {
+	case err != nil:
+		fmt.Fprintln(w, "  not signed")
+	case trusted:
+		fmt.Fprintf(w, "  signed by the trusted key %s\n", certificates.Fingerprint(pub))
+	default:
+		fmt.Fprintf(w, "  signed by key %s (signature valid; use --trust KEY.pub to require a trusted signer)\n", certificates.Fingerprint(pub))
+	}
+}

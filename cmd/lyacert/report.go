@@ -1,0 +1,131 @@
+package main
+
+import (
+	"bytes"
+	"errors"
+	"fmt"
+	"os"
+	"path/filepath"
+	"strings"
+
+	"lyacert/certificates"
+	"lyacert/certify"
+	"lyacert/examples"
+	"lyacert/model"
+	"lyacert/report"
+)
+
+type reportCmd struct {
+	Cert       string `arg:"" placeholder:"CERT" help:"Certificate file (JSON), or - for standard input."`
+	Format     string `name:"format" default:"md" enum:"md,tex,html" help:"Report format: md (GitHub Markdown), tex (LaTeX), html (one self-contained page)."`
+	Standalone bool   `name:"standalone" help:"With --format tex: a whole LaTeX document instead of a fragment."`
+	Out        string `short:"o" name:"out" placeholder:"FILE" help:"Write the report to this file (atomically) instead of standard output; a Markdown report's plot goes beside it."`
+}
+
+func init() {
+	register("report", "Write a report of a certificate for reviews, safety cases and papers (md, tex, html).", func() any { return &reportCmd{} })
+}
+
+// Run writes a report.
+func (c *reportCmd) Run(e *env) error { return exit(c.run(e)) }
+
+func checkerName() string { return "lyacert " + certify.Version }
+
+func (c *reportCmd) run(e *env) int {
+	format, err := report.ParseFormat(c.Format)
+	if err != nil {
+		fmt.Fprintln(e.stderr, "lyacert:", err)
+		return exitInput
+	}
+	if c.Standalone && format != report.LaTeX {
+		fmt.Fprintln(e.stderr, "lyacert: --standalone applies to --format tex only")
+		return exitInput
+	}
+	name, src, err := readInput(c.Cert, e.stdin)
+	if err != nil {
+		fmt.Fprintln(e.stderr, "lyacert:", err)
+		return exitInput
+	}
+	doc, err := certificates.Read(bytes.NewReader(src))
+	if err != nil {
+		fmt.Fprintf(e.stderr, "lyacert: %s: %v\n", name, err)
+		return exitInput
+	}
+	opts := report.Options{Format: format, Standalone: c.Standalone, Checker: checkerName(), CertName: name}
+	if c.Out != "" {
+		opts.Figure = figureBeside(c.Out)
+	}
+	return writeReport(doc, opts, c.Out, e)
+}
+
+// figureBeside writes a report's plots next to the report file, named after
+// it, and references them by their base name.
+func figureBeside(out string) func(string, []byte) (string, error) {
+	return func(name string, data []byte) (string, error) {
+		base := strings.TrimSuffix(filepath.Base(out), filepath.Ext(out)) + "-" + name
+		if err := certificates.WriteFileAtomic(filepath.Join(filepath.Dir(out), base), data, 0o644); err != nil {
+			return "", fmt.Errorf("writing the plot: %w", err)
+		}
+		return base, nil
+	}
+}
+
+// writeReport renders the report to out (standard output when empty) and
+// returns the exit code of the certificate's verdict.
+func writeReport(doc *certificates.Document, opts report.Options, out string, e *env) int {
+	var buf bytes.Buffer
+	if err := report.Render(&buf, doc, opts); err != nil {
+		fmt.Fprintf(e.stderr, "lyacert: %s: %v\n", opts.CertName, err)
+		if errors.Is(err, report.ErrInvalid) {
+			return exitFails
+		}
+		return exitInput
+	}
+	if out == "" {
+		e.stdout.Write(buf.Bytes())
+	} else if err := certificates.WriteFileAtomic(out, buf.Bytes(), 0o644); err != nil {
+		fmt.Fprintln(e.stderr, "lyacert: writing the report:", err)
+		return exitInput
+	}
+	if doc.Verdict == certificates.VerdictHolds {
+		return exitHolds
+	}
+	return exitFails
+}
+
+// writeDemoReports writes the demo's certificate and its report in every
+// format into dir: coolant.json, coolant.md (with coolant-region.svg),
+// coolant.tex (a whole document) and coolant.html.
+func writeDemoReports(dir string, e *env) error {
+	m, err := model.Parse(examples.CoolantName, examples.Coolant)
+	if err != nil {
+		return err
+	}
+	res, err := certify.Check(m, examples.CoolantName)
+	if err != nil {
+		return err
+	}
+	if err := os.MkdirAll(dir, 0o755); err != nil {
+		return err
+	}
+	base := strings.TrimSuffix(examples.CoolantName, filepath.Ext(examples.CoolantName))
+	cert := filepath.Join(dir, base+".json")
+	if err := res.Doc.WriteFile(cert); err != nil {
+		return err
+	}
+	var written []string
+	for _, f := range report.Formats {
+		out := filepath.Join(dir, base+"."+string(f))
+		opts := report.Options{Format: f, Standalone: f == report.LaTeX, Checker: checkerName(), CertName: base + ".json", Figure: figureBeside(out)}
+		var buf bytes.Buffer
+		if err := report.Render(&buf, res.Doc, opts); err != nil {
+			return err
+		}
+		if err := certificates.WriteFileAtomic(out, buf.Bytes(), 0o644); err != nil {
+			return err
+		}
+		written = append(written, out)
+	}
+	fmt.Fprintf(e.stderr, "reports written: %s (certificate %s)\n", strings.Join(written, ", "), cert)
+	return nil
+}

@@ -1,0 +1,397 @@
+package main
+
+import (
+	"bufio"
+	"context"
+	"errors"
+	"fmt"
+	"io"
+	"os"
+	"os/signal"
+	"path/filepath"
+	"slices"
+	"strings"
+	"syscall"
+	"time"
+
+	"github.com/schollz/progressbar/v3"
+
+	"lyacert/certificates"
+	"lyacert/certify"
+	"lyacert/model"
+)
+
+type sweepCmd struct {
+	common
+	File         string        `arg:"" help:"Model file (.lya), or - for standard input."`
+	Grid         []string      `name:"grid" required:"" placeholder:"NAME=LO:HI:N" help:"Sweep a parameter over N exact values from LO to HI inclusive (repeatable; the last one varies fastest)."`
+	Set          []string      `name:"set" placeholder:"NAME=VALUE" help:"Fix a parameter to an exact value for the whole sweep (repeatable)."`
+	Q            string        `name:"q" placeholder:"DIAG" default:"identity" help:"Q of the Lyapunov equation, as for find."`
+	Out          string        `short:"o" name:"out" placeholder:"OUT.jsonl" help:"Write the lines to this file (through OUT.jsonl.partial, renamed when the sweep is complete); standard output when omitted."`
+	Plot         string        `name:"plot" placeholder:"FILE" help:"Plot the verdicts over one or two swept parameters (.svg, .png or .pdf)."`
+	Timeout      time.Duration `name:"timeout" placeholder:"DURATION" help:"Stop cleanly after this long (e.g. 30m); continue later with --resume."`
+	Resume       bool          `name:"resume" help:"Continue the output file of an interrupted sweep without redoing finished grid points."`
+	Shard        string        `name:"shard" placeholder:"i/N" default:"0/1" help:"Run the i-th of N slices of the grid (the points with index mod N = i); merge the outputs with lyacert merge."`
+	Jobs         int           `name:"jobs" placeholder:"N" help:"Number of workers (default: every core)."`
+	MaxPoints    int           `name:"max-points" placeholder:"N" help:"Stop cleanly after N grid points of this run (continue with --resume)."`
+	Certificates string        `name:"certificates" placeholder:"DIR" help:"Write the certificate behind every line into DIR as INDEX-EQ.json."`
+	Full         bool          `name:"full" help:"At rational stable equilibria run the full nonlinear check of V (can give a global claim; slower)."`
+}
+
+func init() {
+	register("sweep", "Find and certify the equilibria at every point of a parameter grid, in parallel and resumably.", func() any { return &sweepCmd{} })
+}
+
+// Run sweeps a parameter grid.
+func (c *sweepCmd) Run(e *env) error { return exit(c.run(e)) }
+
+// barProgress adapts a progress bar to certify.Progress.
+type barProgress struct{ bar *progressbar.ProgressBar }
+
+func (b barProgress) Add(n int) { b.bar.Add(n) }
+
+func isTerminal(w io.Writer) bool {
+	f, ok := w.(*os.File)
+	if !ok {
+		return false
+	}
+	st, err := f.Stat()
+	return err == nil && st.Mode()&os.ModeCharDevice != 0
+}
+
+func (c *sweepCmd) run(e *env) int {
+	fail := func(format string, args ...any) int {
+		fmt.Fprintf(e.stderr, "lyacert: "+format+"\n", args...)
+		return exitInput
+	}
+	name, src, err := readInput(c.File, e.stdin)
+	if err != nil {
+		return fail("%v", err)
+	}
+	settings, err := parseSettings(c.Set)
+	if err != nil {
+		return fail("%v", err)
+	}
+	var grid certify.Grid
+	for _, g := range c.Grid {
+		a, err := certify.ParseGridAxis(g)
+		if err != nil {
+			return fail("%v", err)
+		}
+		grid = append(grid, a)
+	}
+	shard, err := certify.ParseShard(c.Shard)
+	if err != nil {
+		return fail("%v", err)
+	}
+	if err := certify.CheckSweep(name, src, settings, grid); err != nil {
+		printInputError(e.stderr, err)
+		return exitInput
+	}
+	m, _ := model.Parse(name, src, settings...)
+	q, err := parseQ(c.Q, len(m.States))
+	if err != nil {
+		return fail("%v", err)
+	}
+	if c.Plot != "" && len(grid) > 2 {
+		return fail("--plot draws one or two swept parameters, not %d", len(grid))
+	}
+	if c.Plot != "" && !slices.Contains([]string{".svg", ".png", ".pdf"}, strings.ToLower(filepath.Ext(c.Plot))) {
+		return fail("--plot %s: the file must end in .svg, .png or .pdf", c.Plot)
+	}
+	if c.Resume && c.Out == "" {
+		return fail("--resume continues an output file: give it with -o")
+	}
+	if c.MaxPoints < 0 || c.Jobs < 0 {
+		return fail("--max-points and --jobs must not be negative")
+	}
+	size, _ := grid.Size()
+
+	// Output: a file written through OUT.partial, or standard output.
+	var previous []sweepBlock
+	var out io.Writer = e.stdout
+	var file *os.File
+	partial := c.Out + ".partial"
+	if c.Out != "" {
+		previous, file, err = openSweepOutput(c.Out, partial, c.Resume, grid, shard, size)
+		if err != nil {
+			return fail("%v", err)
+		}
+		defer file.Close()
+		out = file
+	}
+	done := map[int]bool{}
+	for _, b := range previous {
+		done[b.index] = true
+	}
+	if c.Certificates != "" {
+		if err := os.MkdirAll(c.Certificates, 0o755); err != nil {
+			return fail("%v", err)
+		}
+	}
+
+	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
+	defer stop()
+	if c.Timeout > 0 {
+		var cancel context.CancelFunc
+		ctx, cancel = context.WithTimeout(ctx, c.Timeout)
+		defer cancel()
+	}
+	todo := 0
+	for k := 0; k < size; k++ {
+		if shard.Owns(k) && !done[k] {
+			todo++
+		}
+	}
+	if c.MaxPoints > 0 {
+		todo = min(todo, c.MaxPoints)
+	}
+	var progress certify.Progress
+	if isTerminal(e.stderr) && todo > 0 {
+		bar := progressbar.NewOptions(todo, progressbar.OptionSetWriter(e.stderr), progressbar.OptionSetDescription("sweep"),
+			progressbar.OptionShowCount(), progressbar.OptionShowIts(), progressbar.OptionSetItsString("points"),
+			progressbar.OptionThrottle(200*time.Millisecond), progressbar.OptionClearOnFinish())
+		progress = barProgress{bar}
+		defer bar.Finish()
+	}
+
+	w := bufio.NewWriterSize(out, 1<<16)
+	points := []gridPoint{}
+	for _, b := range previous {
+		points = append(points, gridPointOf(b))
+	}
+	lastSync := time.Now()
+	flush := func() error {
+		if err := w.Flush(); err != nil {
+			return err
+		}
+		if file != nil {
+			return file.Sync()
+		}
+		return nil
+	}
+	start := time.Now()
+	sum, err := certify.Sweep(ctx, certify.SweepOptions{
+		File: name, Src: src, Settings: settings, Grid: grid, Shard: shard, Q: q, Full: c.Full,
+		Jobs: c.Jobs, Skip: func(k int) bool { return done[k] }, MaxPoints: c.MaxPoints, Progress: progress,
+	}, func(sp certify.SweepPoint) error {
+		// One grid point's lines are written together and complete.
+		for i := range sp.Lines {
+			if _, err := w.Write(sp.Lines[i].Marshal()); err != nil {
+				return err
+			}
+			if d := sp.Docs[i]; d != nil && c.Certificates != "" {
+				path := filepath.Join(c.Certificates, fmt.Sprintf("%d-%d.json", sp.Index, sp.Lines[i].Eq))
+				if err := d.WriteFile(path); err != nil {
+					return err
+				}
+			}
+		}
+		points = append(points, gridPointOf(blockOf(sp)))
+		if file == nil || time.Since(lastSync) > time.Second {
+			lastSync = time.Now()
+			return flush()
+		}
+		return nil
+	})
+	elapsed := time.Since(start)
+	if ferr := flush(); err == nil {
+		err = ferr
+	}
+	if err != nil {
+		fmt.Fprintln(e.stderr, "lyacert: sweep:", err)
+		return exitInput
+	}
+	complete := sum.Remaining == 0
+	if file != nil && complete {
+		if err := file.Close(); err != nil {
+			return fail("%v", err)
+		}
+		if err := os.Rename(partial, c.Out); err != nil {
+			return fail("%v", err)
+		}
+	}
+	plotted := ""
+	if c.Plot != "" && len(points) > 0 {
+		if err := plotSweep(c.Plot, name, points); err != nil {
+			return fail("plot: %v", err)
+		}
+		plotted = c.Plot
+	}
+	verdicts := map[string]int{}
+	allHold := len(points) > 0
+	for _, b := range previous {
+		for _, r := range b.records {
+			verdicts[r.line.Verdict]++
+		}
+	}
+	for k, v := range sum.Verdicts {
+		verdicts[k] += v
+	}
+	for _, p := range points {
+		if p.cat != catStable {
+			allHold = false
+		}
+	}
+	report := e.stdout
+	if c.Out == "" {
+		report = e.stderr
+	}
+	s := sweepSummary{
+		Model: name, Params: axisNames(grid), GridPoints: size, Shard: c.Shard, ShardPoints: len(points) + sum.Remaining,
+		Done: len(points), ThisRun: sum.Points, Remaining: sum.Remaining, Verdicts: verdicts, Complete: complete,
+		Output: c.Out, Plot: plotted, Certificates: c.Certificates, Boundaries: boundaries(points),
+		Seconds: elapsed.Seconds(),
+	}
+	if !complete {
+		s.Output = partial
+	}
+	if c.JSON {
+		writeJSON(report, s)
+	} else {
+		renderSweepSummary(report, s, ctx.Err())
+	}
+	if !complete || !allHold {
+		return exitFails
+	}
+	return exitHolds
+}
+
+func blockOf(sp certify.SweepPoint) sweepBlock {
+	b := sweepBlock{index: sp.Index}
+	for _, l := range sp.Lines {
+		b.records = append(b.records, sweepRecord{line: l})
+	}
+	return b
+}
+
+func axisNames(g certify.Grid) []string {
+	var out []string
+	for _, a := range g {
+		out = append(out, a.Name)
+	}
+	return out
+}
+
+// openSweepOutput opens OUT.partial for appending. Without resume it must
+// not exist (it would be the progress of an interrupted sweep). With
+// resume the lines already there, or in a complete OUT, are read back and
+// checked against this sweep (same grid, same shard, in order); an
+// interrupted last line or grid point is cut off, nothing else is touched.
+func openSweepOutput(out, partial string, resume bool, grid certify.Grid, shard certify.Shard, size int) ([]sweepBlock, *os.File, error) {
+	if !resume {
+		f, err := os.OpenFile(partial, os.O_WRONLY|os.O_CREATE|os.O_EXCL, 0o644)
+		if errors.Is(err, os.ErrExist) {
+			return nil, nil, fmt.Errorf("%s exists: an interrupted sweep left it; continue it with --resume, or delete it to start over", partial)
+		}
+		return nil, f, err
+	}
+	src := partial
+	data, err := os.ReadFile(partial)
+	if errors.Is(err, os.ErrNotExist) {
+		src = out
+		data, err = os.ReadFile(out)
+		if errors.Is(err, os.ErrNotExist) {
+			data, err = nil, nil
+		}
+	}
+	if err != nil {
+		return nil, nil, err
+	}
+	blocks, good, err := parseSweepLines(src, data)
+	if err != nil {
+		return nil, nil, fmt.Errorf("--resume: %w", err)
+	}
+	// The finished points must be this sweep's, and a prefix of its order.
+	k := 0
+	for _, b := range blocks {
+		for k < size && !shard.Owns(k) {
+			k++
+		}
+		l := b.records[0].line
+		if l.Of != size || b.index != k {
+			return nil, nil, fmt.Errorf("--resume: %s was not written by this sweep (grid point %d of %d where %d of %d was expected); refusing to touch it", src, b.index, l.Of, k, size)
+		}
+		vals := grid.Values(k)
+		for i, a := range grid {
+			if v, ok := l.Params.Get(a.Name); !ok || v != vals[i].RatString() || len(l.Params.Keys) != len(grid) {
+				return nil, nil, fmt.Errorf("--resume: %s was not written by this sweep (grid point %d has other parameter values); refusing to touch it", src, k)
+			}
+		}
+		k++
+	}
+	if src == out {
+		// A complete file stays as it is; continue in a copy.
+		if err := certificates.WriteFileAtomic(partial, data[:good], 0o644); err != nil {
+			return nil, nil, err
+		}
+	} else if good < len(data) {
+		// Cut off the interrupted tail: the last grid point is redone.
+		if err := os.Truncate(partial, int64(good)); err != nil {
+			return nil, nil, err
+		}
+	}
+	f, err := os.OpenFile(partial, os.O_WRONLY|os.O_APPEND, 0o644)
+	return blocks, f, err
+}
+
+// sweepSummary is the summary of a sweep (--json keys are a contract).
+type sweepSummary struct {
+	Model        string         `json:"model"`
+	Params       []string       `json:"params"`
+	GridPoints   int            `json:"grid_points"`
+	Shard        string         `json:"shard"`
+	ShardPoints  int            `json:"shard_points"`
+	Done         int            `json:"done"`
+	ThisRun      int            `json:"this_run"`
+	Remaining    int            `json:"remaining"`
+	Verdicts     map[string]int `json:"verdicts"`
+	Complete     bool           `json:"complete"`
+	Output       string         `json:"output,omitempty"`
+	Plot         string         `json:"plot,omitempty"`
+	Certificates string         `json:"certificates,omitempty"`
+	Boundaries   []string       `json:"boundaries,omitempty"`
+	Seconds      float64        `json:"seconds"`
+}
+
+func renderSweepSummary(w io.Writer, s sweepSummary, stopped error) {
+	fmt.Fprintf(w, "Sweep of %s over %s: %d grid points", s.Model, strings.Join(s.Params, ", "), s.GridPoints)
+	if s.Shard != "0/1" {
+		fmt.Fprintf(w, ", shard %s with %d", s.Shard, s.ShardPoints)
+	}
+	fmt.Fprintln(w)
+	rate := ""
+	if s.ThisRun > 0 && s.Seconds > 0 {
+		rate = fmt.Sprintf(", %.0f points/s", float64(s.ThisRun)/s.Seconds)
+	}
+	fmt.Fprintf(w, "  %d done (%d in this run, %.1f s%s), %d remaining\n", s.Done, s.ThisRun, s.Seconds, rate, s.Remaining)
+	var parts []string
+	for _, v := range []string{certificates.VerdictHolds, certificates.VerdictFails, certificates.VerdictUndecided} {
+		parts = append(parts, fmt.Sprintf("%s %d", v, s.Verdicts[v]))
+	}
+	fmt.Fprintf(w, "  lines by verdict: %s\n", strings.Join(parts, ", "))
+	for _, b := range s.Boundaries {
+		fmt.Fprintf(w, "  the verdict changes %s\n", b)
+	}
+	if s.Output != "" {
+		fmt.Fprintf(w, "  lines in %s\n", s.Output)
+	}
+	if s.Plot != "" {
+		fmt.Fprintf(w, "  plot in %s\n", s.Plot)
+	}
+	if s.Certificates != "" {
+		fmt.Fprintf(w, "  certificates in %s\n", s.Certificates)
+	}
+	if !s.Complete {
+		why := "stopped"
+		switch {
+		case errors.Is(stopped, context.DeadlineExceeded):
+			why = "stopped at the timeout"
+		case errors.Is(stopped, context.Canceled):
+			why = "interrupted"
+		}
+		fmt.Fprintf(w, "  %s: continue with --resume\n", why)
+	}
+	fmt.Fprintln(w, "  every line with a certificate_digest is backed by a certificate the exact checker accepted")
+	fmt.Fprintf(w, "\n%s\n", caution)
+}

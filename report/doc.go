@@ -1,0 +1,28 @@
+// Package report turns a certificate into a document that a reviewer can
+// read and re-check: GitHub-flavoured Markdown, LaTeX (a fragment for a
+// paper or a whole document) or one self-contained, printable HTML page.
+//
+// A report is made from the certificate alone. Render re-checks it with
+// certificates.Verify and refuses one that the checker rejects; the
+// verification record in the report is that fresh result. The model text
+// in the certificate is parsed again to show the equations, and every
+// formula is typeset from the exact polynomials, not from floating point:
+//
+//	canonical text            LaTeX
+//	-2*x^2 + (2*r + 2)*x*y    -2\,x^{2} + \left(2\,r + 2\right)\,x\,y
+//	x^2/sigma                 \frac{x^{2}}{\sigma}
+//	3/2                       \frac{3}{2}
+//
+// The completed squares come from the forms' LDLᵀ factors,
+// V₂ = Σₖ dₖ·(xₖ + Σᵢ>ₖ Lᵢₖ·xᵢ)² (Lagrange), zero pivots left out. An
+// irrational end of a parameter region is named (α₁, α₂, …) with its
+// polynomial and isolating interval, and given in closed form u ± v√w when
+// the polynomial is quadratic. Plots (the region strip, a paving) are drawn
+// with gonum/plot; their float64 coordinates only place the picture.
+//
+// Every string that comes from a model file or a certificate is escaped for
+// the format (texText, mdText, html/template), and the HTML page carries no
+// script and a content security policy that forbids one. Every report ends
+// with the cautions: a certificate proves a property of the model under its
+// assumptions, not of the physical system.
+package report

@@ -1,0 +1,171 @@
+package report
+
+import (
+	"embed"
+	htmltemplate "html/template"
+	"io"
+	"strings"
+	texttemplate "text/template"
+)
+
+//go:embed templates
+var templateFiles embed.FS
+
+// texAlign sets displays as the rows of an aligned environment body: one
+// "lhs &= …" row per display, a long right side continued on further rows.
+func texAlign(ds []display) string {
+	var rows []string
+	for _, d := range ds {
+		for i, l := range d.RHS {
+			if i == 0 {
+				rows = append(rows, d.LHS.tex()+" &"+d.op().tex()+" "+l.tex())
+			} else {
+				rows = append(rows, `&\quad `+continued(l, true))
+			}
+		}
+	}
+	return strings.Join(rows, " \\\\\n")
+}
+
+func htmlAlign(ds []display) string {
+	var b strings.Builder
+	b.WriteString(`<table class="align">`)
+	for _, d := range ds {
+		for i, l := range d.RHS {
+			if i == 0 {
+				b.WriteString(`<tr><td class="lhs">` + d.LHS.html() + `</td><td>` + d.op().html() + `</td><td class="rhs">` + l.html() + `</td></tr>`)
+			} else {
+				b.WriteString(`<tr><td></td><td></td><td class="rhs cont">` + continued(l, false) + `</td></tr>`)
+			}
+		}
+	}
+	b.WriteString(`</table>`)
+	return b.String()
+}
+
+func one(d display) []display { return []display{d} }
+
+func inc(i int) int { return i + 1 }
+
+// Fixed notation used in the templates.
+var (
+	gramRule = symbol{`G = L\,D\,L^{\mathsf{T}}`, "<i>G</i> = <i>L</i>\u2009<i>D</i>\u2009<i>L</i><sup>T</sup>"}
+	jac      = symbol{"J(x)", "<i>J</i>(<i>x</i>)"}
+	xGx      = symbol{`x^{\mathsf{T}} G\, x`, "<i>x</i><sup>T</sup>\u2009<i>G</i>\u2009<i>x</i>"}
+)
+
+// texReason is texText with break points inside long words (big
+// rationals, digests), so that a checker's reason never runs off the page.
+func texReason(s string) string {
+	words := strings.Split(s, " ")
+	for i, w := range words {
+		if len([]rune(w)) > 24 {
+			words[i] = texBreakable(w)
+		} else {
+			words[i] = texText(w)
+		}
+	}
+	return strings.Join(words, " ")
+}
+
+// texBreakable is texText with break points every 8 characters, for long
+// unbroken strings such as digests.
+func texBreakable(s string) string {
+	var b strings.Builder
+	for i, r := range []rune(s) {
+		if i > 0 && i%8 == 0 {
+			b.WriteString(`\allowbreak{}`)
+		}
+		b.WriteString(texText(string(r)))
+	}
+	return b.String()
+}
+
+var mdTemplate = texttemplate.Must(texttemplate.New("report.md.tmpl").Funcs(texttemplate.FuncMap{
+	"gram": func() node { return gramRule },
+	"xGx":  func() node { return xGx },
+	"jac":  func() node { return jac },
+	"inc":  inc,
+	"t":    mdText,
+	"r":    mdRich,
+	"code": mdCode,
+	"m":    func(n node) string { return "$" + n.tex() + "$" },
+	"disp": func(ds []display) string {
+		return "$$\n\\begin{aligned}\n" + texAlign(ds) + "\n\\end{aligned}\n$$"
+	},
+	"one": one,
+}).ParseFS(templateFiles, "templates/report.md.tmpl"))
+
+var texTemplate = texttemplate.Must(texttemplate.New("report.tex.tmpl").Funcs(texttemplate.FuncMap{
+	"gram":      func() node { return gramRule },
+	"xGx":       func() node { return xGx },
+	"jac":       func() node { return jac },
+	"breakable": texBreakable,
+	"reason":    texReason,
+	"t":         texText,
+	"r":         texRich,
+	"m":         func(n node) string { return "$" + n.tex() + "$" },
+	"disp": func(ds []display) string {
+		return "\\begin{align*}\n" + texAlign(ds) + "\n\\end{align*}"
+	},
+	"one":     one,
+	"picture": stripPicture,
+	"code":    func(s string) string { return `\texttt{` + texText(s) + `}` },
+}).ParseFS(templateFiles, "templates/report.tex.tmpl"))
+
+// The HTML template gets only what this package generated itself as
+// trusted HTML (mathematics built from parsed polynomials, with every name
+// escaped, and the plots drawn here); every string from the certificate or
+// the user goes in as a plain string and html/template escapes it for its
+// context.
+var htmlTemplate = htmltemplate.Must(htmltemplate.New("report.html.tmpl").Funcs(htmltemplate.FuncMap{
+	"gram": func() node { return gramRule },
+	"xGx":  func() node { return xGx },
+	"jac":  func() node { return jac },
+	"inc":  inc,
+	"r":    func(x rich) htmltemplate.HTML { return htmltemplate.HTML(htmlRich(x)) },
+	"m":    func(n node) htmltemplate.HTML { return htmltemplate.HTML(`<span class="math">` + n.html() + `</span>`) },
+	"disp": func(ds []display) htmltemplate.HTML { return htmltemplate.HTML(htmlAlign(ds)) },
+	"one":  one,
+	"svg":  func(s string) htmltemplate.HTML { return htmltemplate.HTML(s) },
+}).ParseFS(templateFiles, "templates/report.html.tmpl"))
+
+// texData adds what only LaTeX needs to the page.
+type texData struct {
+	*page
+	Standalone bool
+}
+
+func renderMarkdown(w io.Writer, p *page, opts Options) error {
+	for _, rv := range p.Regions {
+		if opts.Figure == nil {
+			rv.Note = "The strip plot of this region is in the HTML report (lyacert report --format html), or beside this file when it is written with -o."
+			continue
+		}
+		svg, err := stripSVG(rv)
+		if err != nil {
+			return err
+		}
+		ref, err := opts.Figure("region-"+rv.Name+".svg", []byte(`<?xml version="1.0" encoding="UTF-8"?>`+"\n"+svg))
+		if err != nil {
+			return err
+		}
+		rv.Figure = ref
+	}
+	return mdTemplate.Execute(w, p)
+}
+
+func renderLaTeX(w io.Writer, p *page, opts Options) error {
+	return texTemplate.Execute(w, texData{p, opts.Standalone})
+}
+
+func renderHTML(w io.Writer, p *page) error {
+	for _, rv := range p.Regions {
+		svg, err := stripSVG(rv)
+		if err != nil {
+			return err
+		}
+		rv.SVG = svg
+	}
+	return htmlTemplate.Execute(w, p)
+}

@@ -1,0 +1,732 @@
+package report
+
+import (
+	"bytes"
+	"errors"
+	"fmt"
+	"io"
+	"math/big"
+	"strings"
+
+	"lyacert/certificates"
+	"lyacert/model"
+	"lyacert/poly"
+)
+
+// Format is a report format.
+type Format string
+
+// The report formats.
+const (
+	Markdown Format = "md"   // GitHub-flavoured Markdown, math in $…$
+	LaTeX    Format = "tex"  // a LaTeX fragment (amsmath), or a whole document
+	HTML     Format = "html" // one self-contained, printable page
+)
+
+// Formats lists the report formats in the order they are documented.
+var Formats = []Format{Markdown, LaTeX, HTML}
+
+// ErrInvalid is returned for a certificate that the checker rejects: a
+// report never presents such a certificate as evidence.
+var ErrInvalid = errors.New("the certificate is invalid and proves nothing")
+
+// Options control a report.
+type Options struct {
+	// Format is the output format; the zero value is Markdown.
+	Format Format
+	// Standalone makes a LaTeX report a whole document (preamble,
+	// \begin{document} … \end{document}) rather than a fragment.
+	Standalone bool
+	// Checker names the checker and its version in the verification
+	// record, for example "lyacert 0.1.0".
+	Checker string
+	// CertName is how the report refers to the certificate file in its
+	// re-check instructions; "certificate.json" when empty.
+	CertName string
+	// Figure, when set, is given the plots that a Markdown report shows as
+	// separate files (name is a suggested file name such as
+	// "region-k.svg", data the SVG) and returns the path to reference them
+	// by. Without it
+	// a Markdown report omits its plots with a note; LaTeX and HTML
+	// reports draw theirs inline and never call it.
+	Figure func(name string, data []byte) (ref string, err error)
+}
+
+// Render writes the report of a certificate. The certificate is re-checked
+// first with certificates.Verify; the verification record in the report is
+// that fresh result, never one stored anywhere. A certificate that the
+// checker rejects gives an error wrapping ErrInvalid that lists the failed
+// checks, and nothing is written.
+func Render(w io.Writer, doc *certificates.Document, opts Options) error {
+	p, err := build(doc, opts)
+	if err != nil {
+		return err
+	}
+	var buf bytes.Buffer
+	switch opts.Format {
+	case Markdown, "":
+		err = renderMarkdown(&buf, p, opts)
+	case LaTeX:
+		err = renderLaTeX(&buf, p, opts)
+	case HTML:
+		err = renderHTML(&buf, p)
+	default:
+		return fmt.Errorf("unknown report format %q (want md, tex or html)", opts.Format)
+	}
+	if err != nil {
+		return err
+	}
+	_, err = w.Write(buf.Bytes())
+	return err
+}
+
+// ParseFormat reads a format name: md (or markdown), tex (or latex), html.
+func ParseFormat(s string) (Format, error) {
+	switch strings.ToLower(s) {
+	case "md", "markdown":
+		return Markdown, nil
+	case "tex", "latex":
+		return LaTeX, nil
+	case "html", "htm":
+		return HTML, nil
+	}
+	return "", fmt.Errorf("unknown report format %q (want md, tex or html)", s)
+}
+
+// page is everything a report shows, independent of the format.
+type page struct {
+	Title       string
+	Source      string
+	Tool        string
+	Issued      string
+	Description [][]string // paragraphs of the model file's leading comment
+	Verdict     verdictView
+	Discrete    bool
+	States      node
+	Params      []rich
+	Equations   []display
+	Equilibrium rich
+	ModelText   []string
+	V, Vdot     display
+	DerivName   node // V̇ or ΔV
+	DerivRule   rich
+	Shifted     []display
+	Quadratic   rich // whether the higher terms cancel
+	Squares     []display
+	Grams       []display
+	Minors      []rich
+	Conditions  []rich
+	Regions     []*regionView
+	Product     bool // the regions are the factors of a product region
+	Paving      *pavingView
+	Witnesses   []rich
+	Refutation  rich
+	Kernel      rich
+	// Candidate is false for a certificate without V (a linearization).
+	Candidate     bool
+	Linearization *linearizationView
+	Attraction    *attractionView
+	Record        recordView
+	Recheck       []string
+	Cautions      []string
+}
+
+// display is an equation lhs = rhs (or another relation Op), the right
+// side broken into lines.
+type display struct {
+	LHS node
+	RHS []node
+	Op  node // nil for "="
+}
+
+func (d display) op() node {
+	if d.Op == nil {
+		return symEq
+	}
+	return d.Op
+}
+
+type verdictView struct {
+	Word  string // holds, holds on part of the range, fails, undecided
+	Class string // for HTML: holds, partial, fails, undecided
+	Text  rich
+}
+
+type recordView struct {
+	Checker   string
+	Format    string
+	Digest    string
+	Valid     bool
+	Passed    int
+	Total     int
+	Checks    []certificates.Check
+	Signature string
+}
+
+// attractionView is the region-of-attraction section. Certificates carry no
+// such data yet; build leaves it nil, and the templates skip it.
+type attractionView struct {
+	Text rich
+	SVG  string
+}
+
+func build(doc *certificates.Document, opts Options) (*page, error) {
+	res := certificates.Verify(doc)
+	if !res.Valid {
+		var failed []string
+		for _, c := range res.Checks {
+			if !c.OK {
+				failed = append(failed, c.Name+": "+c.Reason)
+			}
+		}
+		if len(failed) == 0 {
+			failed = []string{"no check was applied"}
+		}
+		return nil, fmt.Errorf("%w: %s", ErrInvalid, strings.Join(failed, "; "))
+	}
+	m, err := model.Parse("certificate model", []byte(doc.Model))
+	if err != nil {
+		return nil, fmt.Errorf("%w: the model text does not parse: %w", ErrInvalid, err)
+	}
+	b := &builder{doc: doc, m: m, r: m.Ring}
+	p := &page{
+		Source: doc.Source, Tool: doc.Tool, Issued: doc.Issued,
+		Discrete: m.Discrete,
+	}
+	p.Title = "Lyapunov certificate"
+	if doc.Source != "" {
+		p.Title += ": " + doc.Source
+	}
+	p.Description = paragraphs(doc.Description)
+	b.model(p)
+	if err := b.derivation(p); err != nil {
+		return nil, err
+	}
+	if err := b.regions(p); err != nil {
+		return nil, err
+	}
+	if err := b.linearization(p); err != nil {
+		return nil, err
+	}
+	p.Paving = pavingOf(doc)
+	p.Attraction = attractionOf(doc)
+	b.verdict(p)
+	b.record(p, res, opts)
+	p.Cautions = cautions(doc)
+	return p, nil
+}
+
+func paragraphs(lines []string) [][]string {
+	var out [][]string
+	var cur []string
+	for _, l := range lines {
+		if strings.TrimSpace(l) == "" {
+			if len(cur) > 0 {
+				out = append(out, cur)
+				cur = nil
+			}
+			continue
+		}
+		cur = append(cur, l)
+	}
+	if len(cur) > 0 {
+		out = append(out, cur)
+	}
+	return out
+}
+
+type builder struct {
+	doc *certificates.Document
+	m   *model.Model
+	r   *poly.Ring
+	// alphas names the irrational region ends in order of appearance.
+	alphas []alphaEnd
+}
+
+// parse reads a polynomial text of the certificate; Verify has read it
+// already, so an error here is an internal inconsistency.
+func (b *builder) parse(s string) (poly.RatFunc, error) {
+	f, err := poly.Parse(b.r, s)
+	if err != nil {
+		return f, fmt.Errorf("reading %q from the certificate: %w", s, err)
+	}
+	return f, nil
+}
+
+func (b *builder) derivName() node {
+	if b.m.Discrete {
+		return deltaVSym
+	}
+	return vdotSym
+}
+
+func (b *builder) model(p *page) {
+	m := b.m
+	var states list
+	for _, s := range m.States {
+		states = append(states, name{s})
+	}
+	p.States = states
+	for _, pr := range m.Params {
+		p.Params = append(p.Params, paramRich(pr))
+	}
+	for i, s := range m.States {
+		p.Equations = append(p.Equations, display{dotted{name{s}, m.Discrete}, lines(ratFuncNode(m.F[i]), 4), nil})
+	}
+	var at list
+	for i, s := range m.States {
+		at = append(at, relation{name{s}, symEq, ratFuncNode(m.At[i])})
+	}
+	if m.AtGiven {
+		p.Equilibrium = rich{"The equilibrium, as stated in the model: ", at, "."}
+	} else {
+		p.Equilibrium = rich{"The equilibrium is the origin: ", at, "."}
+	}
+	p.ModelText = strings.Split(strings.TrimRight(m.Canonical(), "\n"), "\n")
+}
+
+// paramRich states a parameter's assumption: p ∈ [a, b], p > a, p = c
+// (fixed), or any real value.
+func paramRich(pr model.Param) rich {
+	n := name{pr.Name}
+	if pr.Fixed != nil {
+		return rich{relation{n, symEq, ratNode(pr.Fixed)}, " (fixed)"}
+	}
+	lo, hi := pr.Range.Lo, pr.Range.Hi
+	switch {
+	case lo.Inf < 0 && hi.Inf > 0:
+		return rich{n, " any real value"}
+	case hi.Inf > 0 && lo.Open:
+		return rich{relation{n, symGreater, ratNode(lo.Value)}}
+	case hi.Inf > 0:
+		return rich{relation{n, symGeq, ratNode(lo.Value)}}
+	case lo.Inf < 0 && hi.Open:
+		return rich{relation{n, symLess, ratNode(hi.Value)}}
+	case lo.Inf < 0:
+		return rich{relation{n, symLeq, ratNode(hi.Value)}}
+	}
+	iv := interval{lo: ratNode(lo.Value), hi: ratNode(hi.Value), loClosed: !lo.Open, hiClosed: !hi.Open}
+	return rich{relation{n, symIn, iv}}
+}
+
+func (b *builder) derivation(p *page) error {
+	d, m := b.doc, b.m
+	dn := b.derivName()
+	p.DerivName = dn
+	if d.V == "" {
+		return nil // no candidate: the certificate rests on its linearization
+	}
+	p.Candidate = true
+	v, err := b.parse(d.V)
+	if err != nil {
+		return err
+	}
+	vdot, err := b.parse(d.Vdot)
+	if err != nil {
+		return err
+	}
+	p.V = display{vSym, lines(ratFuncNode(v), 4), nil}
+	p.Vdot = display{dn, lines(ratFuncNode(vdot), 4), nil}
+	if m.Discrete {
+		p.DerivRule = rich{"The difference along the map, ", relation{dn, symEq, symbol{`V(f(x)) - V(x)`, "<i>V</i>(<i>f</i>(<i>x</i>)) − <i>V</i>(<i>x</i>)"}}, ", computed exactly:"}
+	} else {
+		p.DerivRule = rich{"The derivative along the flow, ", relation{dn, symEq, symbol{`\sum_i \frac{\partial V}{\partial x_i}\, f_i`, "Σ<sub><i>i</i></sub> ∂<i>V</i>/∂<i>x</i><sub><i>i</i></sub> · <i>f</i><sub><i>i</i></sub>"}}, ", computed exactly:"}
+	}
+	states := b.r.StateMask()
+	vs, ds := m.Shift(v), m.Shift(vdot)
+	if m.AtGiven {
+		p.Shifted = []display{
+			{vSym, lines(ratFuncNode(vs), 4), nil},
+			{dn, lines(ratFuncNode(ds), 4), nil},
+		}
+	}
+	if len(d.Forms) == 2 {
+		higher := ds.Sub(ds.Homogeneous(2, states)).Sub(ds.Homogeneous(1, states))
+		if higher.IsZero() {
+			p.Quadratic = rich{dn, " is a quadratic form in the states: every higher-order term cancels."}
+		} else {
+			p.Quadratic = rich{"The terms of ", dn, " of degree above two, ", ratFuncNode(higher), ", decide nothing near the equilibrium: the quadratic argument is local."}
+		}
+	}
+	for _, f := range d.Forms {
+		lhs := node(sub{vSym, "2"})
+		if f.Name != "V" {
+			lhs = neg(sub{dn, "2"})
+		}
+		sq, err := b.squares(f)
+		if err != nil {
+			return err
+		}
+		p.Squares = append(p.Squares, display{lhs, sq, nil})
+		g, err := b.matrix(f.Gram)
+		if err != nil {
+			return err
+		}
+		gname := symbol{`G_{V}`, "<i>G</i><sub><i>V</i></sub>"}
+		if f.Name != "V" {
+			gname = symbol{`G_{-` + dn.tex() + `}`, "<i>G</i><sub>−" + dn.html() + "</sub>"}
+		}
+		p.Grams = append(p.Grams, display{gname, []node{g}, nil})
+		var ms list
+		for i, s := range f.Minors {
+			mi, err := b.parse(s)
+			if err != nil {
+				return err
+			}
+			ms = append(ms, relation{sub{symbol{`\Delta`, "Δ"}, fmt.Sprint(i + 1)}, symEq, ratFuncNode(mi)})
+		}
+		who := rich{"of ", vSym, ": "}
+		if f.Name != "V" {
+			who = rich{"of ", neg(dn), ": "}
+		}
+		semidef := false
+		for _, dk := range f.D {
+			if dk == "0" {
+				semidef = true
+			}
+		}
+		if semidef {
+			who = append(who[:len(who)-1], " (on the non-zero pivots): ")
+		}
+		p.Minors = append(p.Minors, append(who, ms))
+	}
+	for _, c := range d.Conditions {
+		cr, err := b.condition(c)
+		if err != nil {
+			return err
+		}
+		p.Conditions = append(p.Conditions, cr)
+	}
+	for _, wt := range d.Witnesses {
+		word := "fail"
+		if wt.Holds {
+			word = "hold"
+		}
+		p.Witnesses = append(p.Witnesses, rich{"the conditions " + word + " at ", b.paramPoint(wt.Params)})
+	}
+	if rf := d.Refutation; rf != nil {
+		var pt list
+		for _, s := range m.States {
+			q, _ := new(big.Rat).SetString(rf.Point[s])
+			pt = append(pt, relation{name{s}, symEq, ratNode(q)})
+		}
+		vq, _ := new(big.Rat).SetString(rf.V)
+		dq, _ := new(big.Rat).SetString(rf.Vdot)
+		p.Refutation = rich{"At ", pt}
+		if len(rf.Params) > 0 {
+			p.Refutation = append(p.Refutation, ", with ", b.paramPoint(rf.Params))
+		}
+		p.Refutation = append(p.Refutation, ": ", list{relation{vSym, symEq, ratNode(vq)}, relation{b.derivName(), symEq, ratNode(dq)}},
+			", exactly. A Lyapunov function needs ", relation{vSym, symGreater, zeroNode}, " and ", relation{b.derivName(), symLess, zeroNode}, " away from the equilibrium, so this candidate fails there.")
+	}
+	if len(d.Kernel) > 0 && len(d.Forms) == 2 {
+		eqs, err := b.kernel(d.Forms[1])
+		if err != nil {
+			return err
+		}
+		p.Kernel = rich{dn, " vanishes exactly where ", eqs, " (states measured from the equilibrium). Stability holds; asymptotic stability would need more, for example the invariance principle (LaSalle)."}
+	}
+	return nil
+}
+
+// squares sets Σ dₖ·(xₖ + Σᵢ>ₖ Lᵢₖ·xᵢ)² from a form's factors, skipping
+// zero pivots (Lagrange's completing of squares read off G = L·D·Lᵀ).
+func (b *builder) squares(f certificates.Form) ([]node, error) {
+	n := len(f.D)
+	var s sum
+	for k := 0; k < n; k++ {
+		dk, err := b.parse(f.D[k])
+		if err != nil {
+			return nil, err
+		}
+		if dk.IsZero() {
+			continue
+		}
+		lin := poly.FromPoly(poly.Var(b.r, k))
+		for i := k + 1; i < n; i++ {
+			lik, err := b.parse(f.L[i][k])
+			if err != nil {
+				return nil, err
+			}
+			if !lik.IsZero() {
+				lin = lin.Add(lik.Mul(poly.FromPoly(poly.Var(b.r, i))))
+			}
+		}
+		var sq node
+		ln := ratFuncNode(lin)
+		if _, single := ln.(name); single {
+			sq = power{ln, 2}
+		} else {
+			sq = power{parens{ln}, 2}
+		}
+		// A pivot that is a sum keeps its sign inside the parentheses, so
+		// that each square visibly carries its own coefficient.
+		negd := dk.Num.NumTerms() == 1 && dk.Num.Lead().Coef.Sign() < 0
+		if negd {
+			dk = dk.Neg()
+		}
+		dn := ratFuncNode(dk)
+		var t node
+		switch x := dn.(type) {
+		case number:
+			if x.r.Cmp(big.NewRat(1, 1)) == 0 {
+				t = sq
+			} else {
+				t = product{dn, sq}
+			}
+		case sum:
+			t = product{parens{dn}, sq}
+		default:
+			t = product{dn, sq}
+		}
+		s = append(s, term{negd, t})
+	}
+	if len(s) == 0 {
+		return []node{zeroNode}, nil
+	}
+	if len(s) == 1 && !s[0].neg {
+		return []node{s[0].n}, nil
+	}
+	return lines(s, 2), nil
+}
+
+func (b *builder) matrix(rows [][]string) (matrix, error) {
+	out := make(matrix, len(rows))
+	for i, r := range rows {
+		for _, s := range r {
+			e, err := b.parse(s)
+			if err != nil {
+				return nil, err
+			}
+			out[i] = append(out[i], ratFuncNode(e))
+		}
+	}
+	return out, nil
+}
+
+// kernel sets the equations of the set where a semidefinite form vanishes:
+// the rows of Lᵀ that belong to positive pivots.
+func (b *builder) kernel(f certificates.Form) (list, error) {
+	var eqs list
+	n := len(f.D)
+	for k := 0; k < n; k++ {
+		if f.D[k] == "0" {
+			continue
+		}
+		lin := poly.FromPoly(poly.Var(b.r, k))
+		for i := k + 1; i < n; i++ {
+			lik, err := b.parse(f.L[i][k])
+			if err != nil {
+				return nil, err
+			}
+			if !lik.IsZero() {
+				lin = lin.Add(lik.Mul(poly.FromPoly(poly.Var(b.r, i))))
+			}
+		}
+		eqs = append(eqs, relation{ratFuncNode(lin), symEq, zeroNode})
+	}
+	return eqs, nil
+}
+
+// paramPoint sets parameter values in the model's order.
+func (b *builder) paramPoint(vals map[string]string) list {
+	var out list
+	for _, pr := range b.m.FreeParams() {
+		s, ok := vals[pr.Name]
+		if !ok {
+			continue
+		}
+		q, _ := new(big.Rat).SetString(s)
+		out = append(out, relation{name{pr.Name}, symEq, ratNode(q)})
+	}
+	return out
+}
+
+// condition states what one minor requires after the assumptions.
+func (b *builder) condition(c certificates.Condition) (rich, error) {
+	form := node(vSym)
+	if c.Form != "V" {
+		form = neg(b.derivName())
+	}
+	delta := sub{symbol{`\Delta`, "Δ"}, fmt.Sprint(c.Index)}
+	out := rich{"Minor ", delta, " of ", form, ": "}
+	var discharged []any
+	for _, f := range c.Factors {
+		fp, err := b.parse(f.Poly)
+		if err != nil {
+			return nil, err
+		}
+		var fn node = ratFuncNode(fp)
+		if f.Power > 1 {
+			if fp.Num.NumTerms() > 1 {
+				fn = parens{fn}
+			}
+			fn = power{fn, f.Power}
+		}
+		switch f.Status {
+		case certificates.StatusPositive:
+			discharged = append(discharged, relation{fn, symGreater, zeroNode})
+		case certificates.StatusNegative:
+			discharged = append(discharged, relation{fn, symLess, zeroNode})
+		}
+	}
+	q, err := b.parse(c.Condition)
+	if err != nil {
+		return nil, err
+	}
+	req := conditionNode(q.Num)
+	switch {
+	case req == nil:
+		out = append(out, relation{delta, symGreater, zeroNode}, " holds for every allowed parameter value")
+	case q.Num.IsConst():
+		out = append(out, relation{delta, symGreater, zeroNode}, " fails for every parameter value")
+	default:
+		out = append(out, relation{delta, symGreater, zeroNode}, " requires ", req)
+	}
+	if len(discharged) > 0 {
+		out = append(out, " (")
+		for i, d := range discharged {
+			if i > 0 {
+				out = append(out, "; ")
+			}
+			out = append(out, d)
+		}
+		out = append(out, " by the assumptions)")
+	}
+	return append(out, "."), nil
+}
+
+// conditionNode sets q > 0 readably: "r < 1" for a linear condition in one
+// parameter; nil when q is a positive constant.
+func conditionNode(q *poly.Poly) node {
+	if q.IsConst() {
+		if q.ConstTerm().Sign() > 0 {
+			return nil
+		}
+		return relation{polyNode(q), symGreater, zeroNode}
+	}
+	vars := q.VarsUsed()
+	if len(vars) == 1 && q.Degree() == 1 {
+		u, _ := q.Univariate(vars[0])
+		a, c := u.Coeffs()[1], u.Coeffs()[0]
+		x := new(big.Rat).Neg(c)
+		x.Quo(x, a)
+		op := symGreater
+		if a.Sign() < 0 {
+			op = symLess
+		}
+		return relation{name{q.Ring().Name(vars[0])}, op, ratNode(x)}
+	}
+	return relation{polyNode(q), symGreater, zeroNode}
+}
+
+var claimWords = map[string]string{
+	certificates.ClaimGlobal:   "the equilibrium is globally asymptotically stable",
+	certificates.ClaimLocal:    "the equilibrium is locally asymptotically stable",
+	certificates.ClaimStable:   "the equilibrium is stable in the sense of Lyapunov (the derivative is only semidefinite)",
+	certificates.ClaimUnstable: "the equilibrium is unstable",
+}
+
+func (b *builder) verdict(p *page) {
+	d := b.doc
+	claim := claimWords[d.Claim]
+	v := &p.Verdict
+	switch d.Verdict {
+	case certificates.VerdictHolds:
+		v.Word, v.Class = "holds", "holds"
+		v.Text = rich{"Holds: " + claim}
+		if len(b.m.FreeParams()) > 0 {
+			v.Text = append(v.Text, " for every allowed parameter value")
+		}
+		v.Text = append(v.Text, ".")
+	case certificates.VerdictOnRegion:
+		v.Word, v.Class = "holds on part of the range", "partial"
+		v.Text = rich{"Holds on part of the range: " + claim}
+		switch {
+		case len(p.Regions) > 0:
+			v.Text = append(v.Text, " for ")
+			for i, rv := range p.Regions {
+				if i > 0 {
+					v.Text = append(v.Text, " and ")
+				}
+				v.Text = append(v.Text, relation{rv.Param, symIn, rv.HoldsSet})
+			}
+			if p.Product {
+				v.Text = append(v.Text, " within the paved box")
+			}
+			v.Text = append(v.Text, "; the argument fails for the other allowed values.")
+		case p.Paving != nil:
+			v.Text = append(v.Text, " on the boxes of the paving where every condition holds; see the paving below.")
+		default:
+			v.Text = append(v.Text, " where the conditions hold; they hold at some allowed parameter values and fail at others (see the witnesses).")
+		}
+	case certificates.VerdictFails:
+		v.Word, v.Class = "fails", "fails"
+		v.Text = rich{"Fails: the candidate does not prove stability"}
+		if d.Claim == certificates.ClaimUnstable {
+			v.Text = rich{"Fails: the equilibrium is unstable, proven through its linearization"}
+		}
+		if d.Refutation != nil {
+			v.Text = append(v.Text, "; an exact counterexample is given below")
+		}
+		v.Text = append(v.Text, ".")
+	default:
+		v.Word, v.Class = "undecided", "undecided"
+		v.Text = rich{"Undecided: the quadratic test proves nothing here; no claim is made."}
+	}
+}
+
+func (b *builder) record(p *page, res certificates.Result, opts Options) {
+	d := b.doc
+	r := recordView{Checker: opts.Checker, Format: d.Format, Digest: d.Digest, Valid: res.Valid, Total: len(res.Checks), Checks: res.Checks}
+	if r.Checker == "" {
+		r.Checker = "lyacert (version not stated)"
+	}
+	for _, c := range res.Checks {
+		if c.OK {
+			r.Passed++
+		}
+	}
+	cert := opts.CertName
+	if cert == "" {
+		cert = "certificate.json"
+	}
+	p.Recheck = []string{"lyacert verify " + shellQuote(cert)}
+	if pub, err := d.Signer(); err == nil {
+		fp := certificates.Fingerprint(pub)
+		r.Signature = "Signed with ed25519 by the key with fingerprint " + fp + "; the signature verifies against the digest. " +
+			"A signature says who issued the certificate, not that it is correct: the checks above say that."
+		p.Recheck = append(p.Recheck, "lyacert verify --trust SIGNER.pub "+shellQuote(cert))
+	} else {
+		r.Signature = "Not signed."
+	}
+	p.Record = r
+}
+
+// shellQuote quotes a file name for a POSIX shell when it needs it.
+func shellQuote(s string) string {
+	safe := s != ""
+	for _, r := range s {
+		if !(r >= 'a' && r <= 'z' || r >= 'A' && r <= 'Z' || r >= '0' && r <= '9' || strings.ContainsRune("-_./+:@", r)) {
+			safe = false
+		}
+	}
+	if safe {
+		return s
+	}
+	return "'" + strings.ReplaceAll(s, "'", `'\''`) + "'"
+}
+
+func cautions(d *certificates.Document) []string {
+	out := []string{
+		"This certificate proves a property of the model stated above, under its stated assumptions on the parameters; it is not a statement about the physical system.",
+		"Modelling error, unmodelled dynamics, saturation, delay and sampling can void it, as can parameter values outside the stated ranges.",
+	}
+	if d.Claim == certificates.ClaimLocal {
+		out = append(out, "The claim is local: it holds in some neighbourhood of the equilibrium whose size this certificate does not give.")
+	}
+	out = append(out,
+		"The checker re-derives the mathematics from the certificate alone; it cannot tell whether the model describes the system.",
+		"Defer to the applicable standards and to licensed engineering judgement.")
+	return out
+}

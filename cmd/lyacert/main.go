@@ -8,6 +8,7 @@ import (
 	"fmt"
 	"io"
 	"os"
+	"slices"
 	"strings"
 
 	"github.com/alecthomas/kong"
@@ -33,14 +34,16 @@ the squares, says for which parameter values the argument holds, and writes a
 certificate that "lyacert verify" re-checks from scratch.
 
 Examples:
-  lyacert demo                                 run the built-in demo model
-  lyacert check model.lya                      check the candidate V in model.lya
+  lyacert demo                                   run the built-in demo model
+  lyacert check model.lya                        check the candidate V in model.lya
   lyacert check model.lya --set r=1/2 -o c.json  fix a parameter, write a certificate
-  lyacert check - < model.lya                  read the model from standard input
-  lyacert verify c.json                        re-check a certificate
-  lyacert check model.lya --json               machine-readable output
-  lyacert find model.lya --set r=20 --all      find, classify and certify the equilibria
-  lyacert sweep model.lya --grid r=0:30:61 -o out.jsonl  certify over a parameter grid
+  lyacert check model.lya --box a=0:2 --plot region.svg   pave a region in two parameters
+  lyacert check - < model.lya                    read the model from standard input
+  lyacert verify c.json                          re-check a certificate
+  lyacert find model.lya --set r=20 -o c.json    find equilibria, certify one from the linearization
+  lyacert sweep model.lya --grid r=0:30:61 -o r.jsonl   certify over a parameter grid
+  lyacert report c.json --format html -o c.html  a report for a review or a safety case
+  lyacert check model.lya --json                 machine-readable output
 
 Exit codes: 0 the claim holds for every allowed parameter value; 1 it does not
 (or only on part of the range, or undecided); 2 bad input or usage.`
@@ -60,6 +63,27 @@ var commands []command
 
 func register(name, help string, make func() any) {
 	commands = append(commands, command{name, help, make})
+}
+
+// helpOrder lists the commands in the order --help shows them: the main job
+// first; commands not listed follow in name order.
+var helpOrder = []string{"check", "verify", "demo", "find", "sweep", "merge", "report", "sign", "key"}
+
+func orderedCommands() []command {
+	rank := func(name string) int {
+		if i := slices.Index(helpOrder, name); i >= 0 {
+			return i
+		}
+		return len(helpOrder)
+	}
+	out := slices.Clone(commands)
+	slices.SortStableFunc(out, func(a, b command) int {
+		if d := rank(a.name) - rank(b.name); d != 0 {
+			return d
+		}
+		return strings.Compare(a.name, b.name)
+	})
+	return out
 }
 
 type common struct {
@@ -104,7 +128,7 @@ func run(args []string, e *env) (code int) {
 		kong.UsageOnError(),
 		kong.Bind(e),
 	}
-	for _, cmd := range commands {
+	for _, cmd := range orderedCommands() {
 		opts = append(opts, kong.DynamicCommand(cmd.name, cmd.help, "", cmd.make()))
 	}
 	parser, err := kong.New(&c, opts...)

@@ -384,6 +384,7 @@ func (res *Result) witnesses(vars []int) {
 		base[p.Name] = grids[i][len(grids[i])/2]
 	}
 	var hold, fail *certificates.Witness
+	failStrict := false
 	idx := make([]int, len(free))
 	for count := 0; count < 4096; count++ {
 		point := make([]*big.Rat, r.NumVars())
@@ -398,7 +399,7 @@ func (res *Result) witnesses(vars []int) {
 				vals[p.Name] = point[j].RatString()
 			}
 		}
-		all := true
+		all, strict := true, false
 		values := []string{}
 		for _, c := range res.Conds {
 			x := c.Q.Eval(point)
@@ -406,15 +407,18 @@ func (res *Result) witnesses(vars []int) {
 			if x.Sign() <= 0 {
 				all = false
 			}
+			strict = strict || x.Sign() < 0
 		}
 		w := &certificates.Witness{Params: vals, Values: values, Holds: all}
 		if all && hold == nil {
 			hold = w
 		}
-		if !all && fail == nil {
-			fail = w
+		// Prefer a point where a condition is strictly negative: the
+		// refutation found there is strict too.
+		if !all && (fail == nil || (!failStrict && strict)) {
+			fail, failStrict = w, strict
 		}
-		if hold != nil && fail != nil {
+		if hold != nil && fail != nil && failStrict {
 			break
 		}
 		// next grid point (odometer)

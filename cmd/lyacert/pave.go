@@ -232,7 +232,16 @@ func percent(share string) string {
 	if !ok {
 		return share
 	}
-	return q.Mul(q, big.NewRat(100, 1)).FloatString(2) + "%"
+	pc := new(big.Rat).Mul(q, big.NewRat(100, 1))
+	s := pc.FloatString(2)
+	// Never round a share that is not exactly 0 or 100% to look like one.
+	switch {
+	case s == "100.00" && pc.Cmp(big.NewRat(100, 1)) < 0:
+		return ">99.99%"
+	case s == "0.00" && pc.Sign() > 0:
+		return "<0.01%"
+	}
+	return s + "%"
 }
 
 // Colours that stay apart in greyscale print, as in the reports: dark green

@@ -366,7 +366,20 @@ func (p *Poly) NumTerms() int { return len(p.terms) }
 
 // IsConst reports whether p is a constant (including zero).
 func (p *Poly) IsConst() bool {
-	return p.Degree() <= 0
+	switch len(p.terms) {
+	case 0:
+		return true
+	case 1:
+		for k := range p.terms {
+			for i := 0; i < len(k); i++ {
+				if k[i] != 0 {
+					return false
+				}
+			}
+		}
+		return true
+	}
+	return false
 }
 
 // ConstTerm returns the constant coefficient of p.
@@ -404,9 +417,9 @@ func (p *Poly) DegreeIn(in []bool) int {
 	d := -1
 	for k := range p.terms {
 		s := 0
-		for i, e := range unkey(k) {
+		for i := 0; i < len(k)/2; i++ {
 			if in == nil || in[i] {
-				s += e
+				s += int(k[2*i])<<8 | int(k[2*i+1])
 			}
 		}
 		d = max(d, s)

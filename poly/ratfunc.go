@@ -89,6 +89,12 @@ func findFactor(ds []DenFactor, p *Poly) int {
 
 // Mul returns f·g.
 func (f RatFunc) Mul(g RatFunc) RatFunc {
+	switch {
+	case g.IsPoly() && g.Num.IsConst():
+		return f.ScaleRat(g.Num.ConstTerm())
+	case f.IsPoly() && f.Num.IsConst():
+		return g.ScaleRat(f.Num.ConstTerm())
+	}
 	out := RatFunc{Num: new(Poly).Mul(f.Num, g.Num)}
 	out.Den = mergeDen(f.Den, g.Den, func(a, b int) int { return a + b })
 	return out.cancel()
@@ -201,6 +207,10 @@ func DenominatorFactors(p *Poly) (*big.Rat, []DenFactor) {
 func (f RatFunc) Quo(g RatFunc) RatFunc {
 	if g.IsZero() {
 		panic("poly: division by zero")
+	}
+	if g.IsPoly() && g.Num.IsConst() {
+		// Division by a constant: scale, no denominator.
+		return f.ScaleRat(new(big.Rat).Inv(g.Num.ConstTerm()))
 	}
 	mask := g.Num.ring.StateMask()
 	if g.Num.DegreeIn(mask) > 0 {

@@ -1,0 +1,45 @@
+package certificates
+
+import (
+	"bytes"
+	"path/filepath"
+	"testing"
+)
+
+// The fast canonical form equals the reference (decode into interfaces,
+// encode again with sorted keys) on every certificate in testdata and on
+// copies with awkward strings.
+func TestCanonicalMatchesReference(t *testing.T) {
+	files, _ := filepath.Glob(filepath.Join("..", "testdata", "certificates", "*.json"))
+	if len(files) == 0 {
+		t.Fatal("no certificates")
+	}
+	for _, f := range files {
+		doc, err := ReadFile(f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, src := range []string{doc.Source, `a "quoted" <script>&amp; \ back\slash`, "tab\tnewline\n\u2028 é ∂"} {
+			doc.Source = src
+			doc.Description = append(doc.Description, src)
+			fast, err1 := doc.Canonical()
+			ref, err2 := doc.canonicalReference()
+			if err1 != nil || err2 != nil {
+				t.Fatal(err1, err2)
+			}
+			if !bytes.Equal(fast, ref) {
+				t.Fatalf("%s: canonical forms differ\nfast %s\nref  %s", f, fast, ref)
+			}
+		}
+	}
+}
+
+func BenchmarkCanonical(b *testing.B) {
+	doc, err := ReadFile(filepath.Join("..", "testdata", "certificates", "coolant.json"))
+	if err != nil {
+		b.Fatal(err)
+	}
+	for b.Loop() {
+		doc.Canonical()
+	}
+}

@@ -90,7 +90,12 @@ type ParamDoc struct {
 // Name is "V" or "-Vdot". A zero pivot is allowed only with a zero column of L
 // below it (the semidefinite case).
 type Form struct {
-	Name   string     `json:"name"`
+	Name string `json:"name"`
+	// Basis, when present, lists monomials z in the states (each with
+	// coefficient 1, a pure power of every state among them) and the form
+	// is the whole function, all degrees: V or −V̇ = zᵀGz exactly. Without
+	// a basis, z is the states and the form is the quadratic part.
+	Basis  []string   `json:"basis,omitempty"`
 	Gram   [][]string `json:"gram"`
 	L      [][]string `json:"l"`
 	D      []string   `json:"d"`

@@ -91,6 +91,7 @@ type checkedForm struct {
 	minors  []poly.RatFunc
 	nonzero int
 	semidef bool
+	basis   bool // a Gram matrix of the whole function in a monomial basis
 }
 
 func (c *checker) add(name string, ok bool, format string, args ...any) bool {
@@ -174,12 +175,21 @@ func (c *checker) run() {
 	higherV := !vs.Sub(vq).IsZero()
 	higherD := !ds.Sub(dq).IsZero()
 	grams := []poly.Matrix{poly.GramMatrix(vq, n), poly.GramMatrix(dq.Neg(), n)}
+	wholes := []poly.RatFunc{vs, ds.Neg()}
 	names := []string{"V", "-Vdot"}
 	if !c.add("forms", len(d.Forms) == 2, "two quadratic forms, V and -Vdot") {
 		return
 	}
 	for i, f := range d.Forms {
-		cf, ok := c.form(names[i], f, grams[i])
+		g := grams[i]
+		if len(f.Basis) > 0 {
+			var ok bool
+			if g, ok = c.basisGram(names[i], f, wholes[i]); !ok {
+				return
+			}
+		}
+		cf, ok := c.form(names[i], f, g)
+		cf.basis = len(f.Basis) > 0
 		if !ok {
 			return
 		}
@@ -382,16 +392,23 @@ func (c *checker) claim(higherV, higherD bool) bool {
 		}
 		return c.add("claim", len(d.Kernel) == 0, "no kernel without a claim")
 	}
+	if (fv.basis && fv.semidef) || (fd.basis && fd.semidef) {
+		return c.add("claim", false, "a form in a monomial basis must be definite")
+	}
 	switch d.Claim {
 	case ClaimGlobal:
-		return c.add("claim", !higherV && !higherD && !fv.semidef && !fd.semidef,
-			"global asymptotic stability needs V and V̇ exactly quadratic with definite forms") &&
+		// A definite Gram matrix in a basis with a pure power of every
+		// state makes the whole function positive away from the origin
+		// (and V radially unbounded); without a basis the function must be
+		// exactly its quadratic part.
+		return c.add("claim", (!higherV || fv.basis) && (!higherD || fd.basis) && !fv.semidef && !fd.semidef,
+			"global asymptotic stability needs V and −V̇ positive definite as wholes: exactly quadratic, or a definite Gram matrix in a monomial basis") &&
 			c.add("claim", len(d.Kernel) == 0, "no kernel for a definite form")
 	case ClaimLocal:
 		return c.add("claim", !fv.semidef && !fd.semidef, "local asymptotic stability needs definite quadratic parts") &&
 			c.add("claim", len(d.Kernel) == 0, "no kernel for a definite form")
 	case ClaimStable:
-		if !c.add("claim", !fv.semidef && fd.semidef && !higherD,
+		if !c.add("claim", !fv.semidef && fd.semidef && !higherD && !fd.basis,
 			"stability from a semidefinite V̇ needs V̇ exactly quadratic and V's quadratic part definite") {
 			return false
 		}
@@ -742,4 +759,59 @@ func parseDecimal(s string) (*big.Rat, *big.Rat, bool) {
 	}
 	half := decimal.New(5, dv.Exponent()-1)
 	return dv.Rat(), half.Rat(), true
+}
+
+// basisGram checks a Gram matrix stated in a monomial basis z: every basis
+// element is a monomial in the states with coefficient 1, they are distinct,
+// a pure power of every state is among them, and zᵀGz equals the whole
+// function exactly. Then G ≻ 0 gives zᵀGz > 0 unless z = 0, and z = 0 only
+// at the origin (the pure powers vanish only there): the function is
+// positive definite, and at least λ_min(G)·Σ xᵢ^(2kᵢ), so radially
+// unbounded.
+func (c *checker) basisGram(name string, f Form, whole poly.RatFunc) (poly.Matrix, bool) {
+	n := len(f.Basis)
+	z := make([]*poly.Poly, n)
+	pure := make([]bool, len(c.m.States))
+	seen := map[string]bool{}
+	for i, s := range f.Basis {
+		b, ok := c.parse("basis "+name, s)
+		if !ok {
+			return nil, false
+		}
+		mono := b.IsPoly() && b.Num.IsMonomial() && b.Num.Lead().Coef.Cmp(big.NewRat(1, 1)) == 0 &&
+			b.Num.DegreeIn(c.r.ParamMask()) == 0 && b.Num.Degree() >= 1
+		if !c.add("basis "+name, mono && !seen[b.Num.String()], "basis element %s is a new monomial in the states with coefficient 1", s) {
+			return nil, false
+		}
+		seen[b.Num.String()] = true
+		if vars := b.Num.VarsUsed(); len(vars) == 1 {
+			pure[vars[0]] = true
+		}
+		z[i] = b.Num
+	}
+	for i, s := range c.m.States {
+		if !c.add("basis "+name, pure[i], "the basis has a pure power of %s", s) {
+			return nil, false
+		}
+	}
+	if !c.add("basis "+name, len(f.Gram) == n, "the Gram matrix has one row per basis element") {
+		return nil, false
+	}
+	g := poly.NewMatrix(c.r, n)
+	for i := range f.Gram {
+		if !c.add("basis "+name, len(f.Gram[i]) == n, "Gram row %d has one entry per basis element", i+1) {
+			return nil, false
+		}
+		for j, s := range f.Gram[i] {
+			e, ok := c.parse("basis "+name, s)
+			if !ok || !c.add("basis "+name, e.DegreeIn(c.r.StateMask()) <= 0, "Gram entry %d,%d is free of states", i+1, j+1) {
+				return nil, false
+			}
+			g[i][j] = e
+		}
+	}
+	if !c.add("basis "+name, poly.QuadraticFormIn(g, z).Equal(whole), "zᵀGz equals the whole function exactly (all degrees)") {
+		return nil, false
+	}
+	return g, true
 }

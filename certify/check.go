@@ -21,7 +21,10 @@ const Version = "0.1.0"
 
 // Form is one quadratic form of the argument with its factorization.
 type Form struct {
-	Name   string // "V" or "-Vdot"
+	Name string // "V" or "-Vdot"
+	// Basis is nil for the quadratic part (z = the states), else the
+	// monomials z of a Gram matrix of the whole function: V or −V̇ = zᵀGz.
+	Basis  []*poly.Poly
 	Gram   poly.Matrix
 	LDL    LDL
 	Minors []poly.RatFunc
@@ -182,6 +185,14 @@ func runCheck(m *model.Model, source string, ps *paveState) (*Result, error) {
 	}
 	if res.Verdict == certificates.VerdictFails || res.Verdict == certificates.VerdictUndecided {
 		res.Claim = certificates.ClaimNone
+	}
+	if up := res.tryBasis(); up != nil {
+		quad := "local asymptotic stability"
+		if res.Verdict != certificates.VerdictHolds {
+			quad = "nothing"
+		}
+		up.Notes = append(up.Notes, "the quadratic parts alone give "+quad+"; the Gram matrices of the whole functions in monomial bases give the global claim")
+		res = up
 	}
 	return finish(res, source)
 }
@@ -684,6 +695,9 @@ func (res *Result) document(source string) *certificates.Document {
 	d.Forms = []certificates.Form{}
 	for _, f := range res.Forms {
 		fd := certificates.Form{Name: f.Name, Gram: f.Gram.Strings(), L: f.LDL.L.Strings()}
+		for _, z := range f.Basis {
+			fd.Basis = append(fd.Basis, z.String())
+		}
 		for _, p := range f.LDL.D {
 			fd.D = append(fd.D, p.String())
 		}

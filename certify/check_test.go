@@ -102,12 +102,16 @@ func TestStrogatzSection72(t *testing.T) {
 	if want := parseIn(t, res.Model, "-2*x^2 + (8 - 2*a)*x*y - 2*a*y^4"); !res.Vdot.Equal(want) {
 		t.Errorf("V̇ = %s, want %s", res.Vdot, want)
 	}
-	// With a = 4 the cross term vanishes; the quadratic part is only
-	// semidefinite and the quartic term decides, so the quadratic test is
-	// inconclusive and must say so rather than claim or refute.
+	// With a = 4 the cross term vanishes: V̇ = −2x² − 8y⁴. The quadratic
+	// part is only semidefinite, but −V̇ as a whole is a definite Gram form
+	// in the basis (x, y²): the origin is globally asymptotically stable
+	// (Strogatz §7.2 reaches the same conclusion by hand).
 	res = check(t, "strogatz72.lya", "a=4")
-	if res.Verdict != certificates.VerdictUndecided || res.Claim != certificates.ClaimNone {
+	if res.Verdict != certificates.VerdictHolds || res.Claim != certificates.ClaimGlobal {
 		t.Errorf("a = 4: %s %s", res.Claim, res.Verdict)
+	}
+	if b := res.Forms[1].Basis; len(b) != 2 || b[0].String() != "x" || b[1].String() != "y^2" {
+		t.Errorf("basis %v, want (x, y^2)", b)
 	}
 }
 
@@ -132,6 +136,8 @@ func TestOtherVerdicts(t *testing.T) {
 		refuted              bool
 	}{
 		{"local.lya", certificates.ClaimLocal, certificates.VerdictHolds, false},
+		{"cubic.lya", certificates.ClaimGlobal, certificates.VerdictHolds, false},
+		{"quartic.lya", certificates.ClaimGlobal, certificates.VerdictHolds, false},
 		{"unstable.lya", certificates.ClaimNone, certificates.VerdictFails, true},
 		{"twogains.lya", certificates.ClaimGlobal, certificates.VerdictOnRegion, true},
 		{"shifted.lya", certificates.ClaimLocal, certificates.VerdictHolds, false},

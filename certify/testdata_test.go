@@ -33,6 +33,9 @@ var certificateCases = []struct {
 	{"shifted", "shifted.lya", nil},
 	{"linearpart", "linearpart.lya", nil},
 	{"discrete", "discrete.lya", nil},
+	{"strogatz72-a4", "strogatz72.lya", []string{"a=4"}},
+	{"cubic", "cubic.lya", nil},
+	{"quartic", "quartic.lya", nil},
 }
 
 func loadCase(t testing.TB, file string, set []string) *model.Model {

@@ -113,3 +113,19 @@ func (a Matrix) Strings() [][]string {
 	}
 	return out
 }
+
+// QuadraticFormIn returns zᵀ G z for the vector z of polynomials (a monomial
+// basis, say): Σᵢⱼ Gᵢⱼ zᵢ zⱼ.
+func QuadraticFormIn(g Matrix, z []*Poly) RatFunc {
+	r := z[0].Ring()
+	sum := FromPoly(Zero(r))
+	for i := range g {
+		for j := range g {
+			if g[i][j].IsZero() {
+				continue
+			}
+			sum = sum.Add(g[i][j].Mul(FromPoly(new(Poly).Mul(z[i], z[j]))))
+		}
+	}
+	return sum
+}

@@ -344,6 +344,9 @@ func (b *builder) derivation(p *page) error {
 		higher := ds.Sub(ds.Homogeneous(2, states)).Sub(ds.Homogeneous(1, states))
 		if higher.IsZero() {
 			p.Quadratic = rich{dn, " is a quadratic form in the states: every higher-order term cancels."}
+		} else if z := d.Forms[1].Basis; len(z) > 0 {
+			p.Quadratic = rich{"The terms of ", dn, " of degree above two, ", ratFuncNode(higher), ", are taken into account: ", neg(dn),
+				" as a whole is a Gram form in the monomial basis (" + strings.Join(z, ", ") + "), and its matrix being positive definite with a pure power of every state in the basis makes it positive away from the equilibrium."}
 		} else {
 			p.Quadratic = rich{"The terms of ", dn, " of degree above two, ", ratFuncNode(higher), ", decide nothing near the equilibrium: the quadratic argument is local."}
 		}
@@ -352,6 +355,12 @@ func (b *builder) derivation(p *page) error {
 		lhs := node(sub{vSym, "2"})
 		if f.Name != "V" {
 			lhs = neg(sub{dn, "2"})
+		}
+		if len(f.Basis) > 0 { // the whole function, in a monomial basis
+			lhs = vSym
+			if f.Name != "V" {
+				lhs = neg(dn)
+			}
 		}
 		sq, err := b.squares(f)
 		if err != nil {
@@ -442,14 +451,27 @@ func (b *builder) squares(f certificates.Form) ([]node, error) {
 		if dk.IsZero() {
 			continue
 		}
-		lin := poly.FromPoly(poly.Var(b.r, k))
+		z := func(i int) (poly.RatFunc, error) {
+			if len(f.Basis) > 0 {
+				return b.parse(f.Basis[i])
+			}
+			return poly.FromPoly(poly.Var(b.r, i)), nil
+		}
+		lin, err := z(k)
+		if err != nil {
+			return nil, err
+		}
 		for i := k + 1; i < n; i++ {
 			lik, err := b.parse(f.L[i][k])
 			if err != nil {
 				return nil, err
 			}
 			if !lik.IsZero() {
-				lin = lin.Add(lik.Mul(poly.FromPoly(poly.Var(b.r, i))))
+				zi, err := z(i)
+				if err != nil {
+					return nil, err
+				}
+				lin = lin.Add(lik.Mul(zi))
 			}
 		}
 		var sq node
@@ -513,14 +535,27 @@ func (b *builder) kernel(f certificates.Form) (list, error) {
 		if f.D[k] == "0" {
 			continue
 		}
-		lin := poly.FromPoly(poly.Var(b.r, k))
+		z := func(i int) (poly.RatFunc, error) {
+			if len(f.Basis) > 0 {
+				return b.parse(f.Basis[i])
+			}
+			return poly.FromPoly(poly.Var(b.r, i)), nil
+		}
+		lin, err := z(k)
+		if err != nil {
+			return nil, err
+		}
 		for i := k + 1; i < n; i++ {
 			lik, err := b.parse(f.L[i][k])
 			if err != nil {
 				return nil, err
 			}
 			if !lik.IsZero() {
-				lin = lin.Add(lik.Mul(poly.FromPoly(poly.Var(b.r, i))))
+				zi, err := z(i)
+				if err != nil {
+					return nil, err
+				}
+				lin = lin.Add(lik.Mul(zi))
 			}
 		}
 		eqs = append(eqs, relation{ratFuncNode(lin), symEq, zeroNode})

@@ -28,6 +28,7 @@ type checkOutput struct {
 
 type formOutput struct {
 	Name   string     `json:"name"`
+	Basis  []string   `json:"basis,omitempty"`
 	Gram   [][]string `json:"gram"`
 	L      [][]string `json:"l"`
 	D      []string   `json:"d"`

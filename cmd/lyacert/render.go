@@ -72,6 +72,8 @@ func renderCheck(w io.Writer, res *certify.Result, written string) {
 	case len(res.Forms) == 0:
 	case res.HigherD.IsZero():
 		fmt.Fprintf(w, "  %s is a quadratic form in the states: every higher-order term cancels.\n", dv)
+	case len(res.Forms) == 2 && res.Forms[1].Basis != nil:
+		fmt.Fprintf(w, "  higher-order terms of %s: %s\n  (taken into account: the Gram matrix below is of −%s as a whole)\n", dv, res.HigherD, dv)
 	default:
 		fmt.Fprintf(w, "  higher-order terms of %s: %s\n  (they decide nothing near the equilibrium; the claim below is local)\n", dv, res.HigherD)
 	}
@@ -83,9 +85,26 @@ func renderCheck(w io.Writer, res *certify.Result, written string) {
 	if len(res.Forms) > 0 {
 		fmt.Fprintln(w, "Completing the squares (exact LDLᵀ of the Gram matrices)")
 		for _, f := range res.Forms {
+			if f.Basis != nil {
+				zs := make([]string, len(f.Basis))
+				for i, z := range f.Basis {
+					zs[i] = z.String()
+				}
+				who := "V"
+				if f.Name != "V" {
+					who = "−" + dv
+				}
+				fmt.Fprintf(w, "  %s as a whole is zᵀGz in the monomial basis z = (%s)\n", who, strings.Join(zs, ", "))
+			}
+		}
+		for _, f := range res.Forms {
 			lhs := "V₂"
 			if f.Name != "V" {
 				lhs = "−" + dv + "₂"
+			}
+			if f.Basis != nil {
+				// the whole function, in a monomial basis
+				lhs = strings.TrimSuffix(lhs, "₂")
 			}
 			fmt.Fprintf(w, "  %s = %s\n", lhs, squares(m, f))
 		}
@@ -130,14 +149,20 @@ func squares(m *model.Model, f certify.Form) string {
 		if f.LDL.Zero[k] {
 			continue
 		}
-		lin := poly.FromPoly(poly.Var(r, k))
+		z := func(i int) poly.RatFunc {
+			if f.Basis != nil {
+				return poly.FromPoly(f.Basis[i])
+			}
+			return poly.FromPoly(poly.Var(r, i))
+		}
+		lin := z(k)
 		for i := k + 1; i < len(f.LDL.D); i++ {
 			if !f.LDL.L[i][k].IsZero() {
-				lin = lin.Add(f.LDL.L[i][k].Mul(poly.FromPoly(poly.Var(r, i))))
+				lin = lin.Add(f.LDL.L[i][k].Mul(z(i)))
 			}
 		}
 		sq := lin.String()
-		if lin.Num.NumTerms() > 1 {
+		if lin.Num.NumTerms() > 1 || strings.ContainsAny(sq, "*^/") {
 			sq = "(" + sq + ")"
 		}
 		sq += "^2"

@@ -1,0 +1,171 @@
+package certify
+
+import (
+	"math/big"
+	"slices"
+
+	"lyacert/certificates"
+	"lyacert/poly"
+)
+
+// monomialGram writes a polynomial p in the states (coefficients in the
+// parameters) as zᵀGz for a basis z of monomials: the z with z² a monomial
+// of p. Each monomial m of p goes to the diagonal when m = z², otherwise its
+// coefficient is shared equally by the pairs zᵢzⱼ = m. This is one Gram
+// matrix among many (finding the best is a semidefinite program); it is
+// exact, and when it is positive definite and z holds a pure power of every
+// state, p > 0 away from the origin. ok is false when some monomial of p is
+// no product of two basis elements or a state has no pure power in z.
+func monomialGram(p poly.RatFunc, nstates int) (basis []*poly.Poly, g poly.Matrix, ok bool) {
+	r := p.Ring()
+	mask := r.StateMask()
+	type term struct {
+		e []int
+		c poly.RatFunc
+	}
+	var terms []term
+	seen := map[string]bool{}
+	for _, t := range p.Num.Terms() {
+		se := make([]int, r.NumVars())
+		for i := 0; i < nstates; i++ {
+			se[i] = t.Exp[i]
+		}
+		k := poly.Monomial(r, se, big.NewRat(1, 1)).String()
+		if seen[k] {
+			continue
+		}
+		seen[k] = true
+		terms = append(terms, term{se, p.Coefficient(se, mask)})
+	}
+	var half [][]int
+	for _, t := range terms {
+		even, zero := true, true
+		h := make([]int, len(t.e))
+		for i, x := range t.e {
+			even = even && x%2 == 0
+			zero = zero && x == 0
+			h[i] = x / 2
+		}
+		if even && !zero {
+			half = append(half, h)
+		}
+	}
+	// Graded order, lower degrees first, for a readable basis.
+	slices.SortFunc(half, func(a, b []int) int {
+		da, db := 0, 0
+		for i := range a {
+			da += a[i]
+			db += b[i]
+		}
+		if da != db {
+			return da - db
+		}
+		for i := range a {
+			if a[i] != b[i] {
+				return b[i] - a[i]
+			}
+		}
+		return 0
+	})
+	for i := 0; i < nstates; i++ {
+		if !slices.ContainsFunc(half, func(h []int) bool {
+			for j, x := range h {
+				if (j == i) != (x > 0) {
+					return false
+				}
+			}
+			return true
+		}) {
+			return nil, nil, false
+		}
+	}
+	n := len(half)
+	g = poly.NewMatrix(r, n)
+	for _, t := range terms {
+		var pairs [][2]int
+		diag := -1
+		for i := 0; i < n; i++ {
+			for j := i; j < n; j++ {
+				sum := true
+				for k := range t.e {
+					if half[i][k]+half[j][k] != t.e[k] {
+						sum = false
+						break
+					}
+				}
+				if !sum {
+					continue
+				}
+				if i == j {
+					diag = i
+				} else {
+					pairs = append(pairs, [2]int{i, j})
+				}
+			}
+		}
+		switch {
+		case diag >= 0:
+			g[diag][diag] = g[diag][diag].Add(t.c)
+		case len(pairs) == 0:
+			return nil, nil, false
+		default:
+			share := t.c.ScaleRat(big.NewRat(1, int64(2*len(pairs))))
+			for _, pr := range pairs {
+				g[pr[0]][pr[1]] = g[pr[0]][pr[1]].Add(share)
+				g[pr[1]][pr[0]] = g[pr[0]][pr[1]]
+			}
+		}
+	}
+	basis = make([]*poly.Poly, n)
+	for i, h := range half {
+		basis[i] = poly.Monomial(r, h, big.NewRat(1, 1))
+	}
+	if !poly.QuadraticFormIn(g, basis).Equal(p) {
+		return nil, nil, false // cannot happen: every term was placed
+	}
+	return basis, g, true
+}
+
+// tryBasis upgrades a local or inconclusive quadratic result: V and −V̇ as
+// wholes, each as a Gram matrix in a monomial basis where it has terms of
+// degree above two. It returns the upgraded result when that holds for every
+// allowed parameter value (global asymptotic stability), else nil.
+func (res *Result) tryBasis() *Result {
+	applicable := len(res.Forms) == 2 &&
+		((res.Claim == certificates.ClaimLocal && res.Verdict == certificates.VerdictHolds) ||
+			res.Verdict == certificates.VerdictUndecided)
+	if !applicable || (res.HigherV.IsZero() && res.HigherD.IsZero()) {
+		return nil
+	}
+	m := res.Model
+	n := len(m.States)
+	nr := &Result{Model: m, V: res.V, Vdot: res.Vdot, Shifted: res.Shifted, HigherV: res.HigherV, HigherD: res.HigherD, pave: res.pave}
+	wholes := []poly.RatFunc{res.Shifted.V, res.Shifted.Vdot.Neg()}
+	higher := []bool{!res.HigherV.IsZero(), !res.HigherD.IsZero()}
+	for i, f := range res.Forms {
+		if !higher[i] {
+			if f.LDL.Semidefinite() {
+				return nil
+			}
+			nr.Forms = append(nr.Forms, f)
+			continue
+		}
+		basis, g, ok := monomialGram(wholes[i], n)
+		if !ok {
+			return nil
+		}
+		var l LDL
+		if ok, _ := l.Factorize(g); !ok || l.Semidefinite() {
+			return nil
+		}
+		nr.Forms = append(nr.Forms, Form{Name: f.Name, Basis: basis, Gram: g, LDL: l, Minors: l.Minors()})
+	}
+	nr.Claim = certificates.ClaimGlobal
+	nr.conditions()
+	nr.decide()
+	if nr.Verdict != certificates.VerdictHolds {
+		return nil
+	}
+	nr.Reason = "V and −V̇ are positive definite as wholes: each is zᵀGz with G ≻ 0 in a monomial basis z holding a pure power of every state"
+	return nr
+}

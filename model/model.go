@@ -158,6 +158,10 @@ func Parse(file string, src []byte, settings ...Setting) (*Model, error) {
 	paramIdx := map[string]int{}
 	for _, l := range lines {
 		t := l.toks[0]
+		if t.Kind == poly.Invalid {
+			errs.Add(t.Pos, "unexpected character %q at the start of a declaration", t.Text)
+			continue
+		}
 		if t.Kind != poly.Name || (t.Text != "state" && t.Text != "param") || isAssign(l.toks) {
 			continue
 		}
@@ -216,8 +220,10 @@ func Parse(file string, src []byte, settings ...Setting) (*Model, error) {
 			}
 		}
 	}
-	if len(m.States) == 0 {
+	if len(m.States) == 0 && len(errs) == 0 {
 		errs.Add(poly.Pos{File: file, Line: 1, Col: 1}, "no states: declare them with a line such as \"state x, y\"")
+	}
+	if len(m.States) == 0 {
 		return nil, errs.Err()
 	}
 	for _, s := range settings {

@@ -210,7 +210,7 @@ func DecayAt(j [][]*big.Rat, discrete bool, p [][]*big.Rat) [][]*big.Rat {
 			t := new(big.Rat)
 			for l := 0; l < n; l++ {
 				if p[i][l].Sign() != 0 && j[l][k].Sign() != 0 {
-					s.Add(s, t.Mul(p[i][l], j[l][k]))
+					poly.AddRat(s, s, poly.MulRat(t, p[i][l], j[l][k]))
 				}
 			}
 			pj[i][k] = s
@@ -228,13 +228,13 @@ func DecayAt(j [][]*big.Rat, discrete bool, p [][]*big.Rat) [][]*big.Rat {
 				// (JᵀPJ)ᵢₖ = Σₗ Jₗᵢ (PJ)ₗₖ
 				for l := 0; l < n; l++ {
 					if j[l][i].Sign() != 0 {
-						v.Sub(v, t.Mul(j[l][i], pj[l][k]))
+						poly.SubRat(v, v, poly.MulRat(t, j[l][i], pj[l][k]))
 					}
 				}
-				v.Add(v, p[i][k])
+				poly.AddRat(v, v, p[i][k])
 			} else {
 				// (JᵀP)ᵢₖ = (PJ)ₖᵢ
-				v.Neg(v.Add(pj[k][i], pj[i][k]))
+				v.Neg(poly.AddRat(v, pj[k][i], pj[i][k]))
 			}
 			m[i][k], m[k][i] = v, v
 		}
@@ -252,25 +252,32 @@ func PositiveDefiniteOn(e [][]poly.Interval) bool {
 	n := len(e)
 	mc := make([][]*big.Rat, n)
 	rho := new(big.Rat)
+	half := big.NewRat(1, 2)
 	for i := range e {
 		mc[i] = make([]*big.Rat, n)
 		row := new(big.Rat)
 		for j := range e[i] {
-			w, ok := e[i][j].Width()
+			x := e[i][j]
+			if x.Lo.Inf == 0 && x.Hi.Inf == 0 && (x.Lo.Value == x.Hi.Value || x.Lo.Value.Cmp(x.Hi.Value) == 0) {
+				// A point: its own midpoint, radius 0.
+				mc[i][j] = new(big.Rat).Set(x.Lo.Value)
+				continue
+			}
+			w, ok := x.Width()
 			if !ok {
 				return false
 			}
-			mc[i][j] = e[i][j].Mid()
-			row.Add(row, w.Quo(w, big.NewRat(2, 1)))
+			mc[i][j] = x.Mid()
+			poly.AddRat(row, row, poly.MulRat(w, w, half))
 		}
 		if row.Cmp(rho) > 0 {
 			rho = row
 		}
 	}
 	for i := range mc {
-		mc[i][i].Sub(mc[i][i], rho)
+		poly.SubRat(mc[i][i], mc[i][i], rho)
 	}
-	k, _ := FirstNonPositivePivot(mc)
+	k, _ := nonPositivePivot(mc) // mc is this function's own copy
 	return k < 0
 }
 
@@ -289,6 +296,13 @@ func FirstNonPositivePivot(a [][]*big.Rat) (int, *big.Rat) {
 			w[i][j] = new(big.Rat).Set(a[i][j])
 		}
 	}
+	return nonPositivePivot(w)
+}
+
+// nonPositivePivot is FirstNonPositivePivot overwriting w with the Schur
+// complements.
+func nonPositivePivot(w [][]*big.Rat) (int, *big.Rat) {
+	n := len(w)
 	t := new(big.Rat)
 	for k := 0; k < n; k++ {
 		d := w[k][k]
@@ -300,9 +314,9 @@ func FirstNonPositivePivot(a [][]*big.Rat) (int, *big.Rat) {
 			if w[i][k].Sign() == 0 {
 				continue
 			}
-			l := new(big.Rat).Quo(w[i][k], d)
+			l := poly.QuoRat(new(big.Rat), w[i][k], d)
 			for j := k + 1; j < n; j++ {
-				w[i][j].Sub(w[i][j], t.Mul(l, w[k][j]))
+				poly.SubRat(w[i][j], w[i][j], poly.MulRat(t, l, w[k][j]))
 			}
 		}
 	}
@@ -311,7 +325,7 @@ func FirstNonPositivePivot(a [][]*big.Rat) (int, *big.Rat) {
 
 // IntervalText returns the closed interval [lo, hi] of a certificate.
 func IntervalText(x poly.Interval) [2]string {
-	return [2]string{x.Lo.Value.RatString(), x.Hi.Value.RatString()}
+	return [2]string{poly.RatString(x.Lo.Value), poly.RatString(x.Hi.Value)}
 }
 
 // BoxText is how the system section restates the equilibrium of a box
@@ -321,7 +335,7 @@ func BoxText(x [2]string) string { return "[" + x[0] + ", " + x[1] + "]" }
 // canonicalRat reads a number that must be in RatString form.
 func canonicalRat(s string) (*big.Rat, bool) {
 	q, ok := parseRat(s)
-	if !ok || q.RatString() != s {
+	if !ok || poly.RatString(q) != s {
 		return nil, false
 	}
 	return q, true

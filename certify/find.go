@@ -363,7 +363,7 @@ func linearizationDoc(m *model.Model, e *Equilibrium, p [][]*big.Rat, decay [][]
 	if e.Status == EquilibriumExact {
 		parts := make([]string, n)
 		for i, v := range e.Point {
-			eqText[i] = poly.RatConst(m.Ring, v).String()
+			eqText[i] = poly.RatString(v) // the text of the constant RatConst(v)
 			parts[i] = m.States[i] + " = " + eqText[i]
 		}
 		text += "at " + strings.Join(parts, ", ") + "\n"
@@ -411,7 +411,7 @@ func ratMatrixText(a [][]*big.Rat) [][]string {
 	out := make([][]string, len(a))
 	for i := range a {
 		for _, v := range a[i] {
-			out[i] = append(out[i], v.RatString())
+			out[i] = append(out[i], poly.RatString(v))
 		}
 	}
 	return out

@@ -63,9 +63,10 @@ func (a GridAxis) Value(k int) *big.Rat {
 	if a.N == 1 {
 		return new(big.Rat).Set(a.Lo)
 	}
-	v := new(big.Rat).Sub(a.Hi, a.Lo)
-	v.Mul(v, big.NewRat(int64(k), int64(a.N-1)))
-	return v.Add(v, a.Lo)
+	v := poly.SubRat(new(big.Rat), a.Hi, a.Lo)
+	poly.MulRat(v, v, new(big.Rat).SetInt64(int64(k)))
+	poly.QuoRat(v, v, new(big.Rat).SetInt64(int64(a.N-1)))
+	return poly.AddRat(v, v, a.Lo)
 }
 
 // Grid is the Cartesian product of its axes. Point indices run in row-major
@@ -397,7 +398,7 @@ func sweepPoint(opts SweepOptions, base *model.Model, index, size int) SweepPoin
 	for i, a := range opts.Grid {
 		settings = append(settings, model.Setting{Name: a.Name, Value: vals[i]})
 		params.Keys = append(params.Keys, a.Name)
-		params.Values = append(params.Values, vals[i].RatString())
+		params.Values = append(params.Values, poly.RatString(vals[i]))
 	}
 	sp := SweepPoint{Index: index}
 	none := func(reason string) SweepPoint {

@@ -132,13 +132,13 @@ func NewCenteredForm(p *Poly, vars []int, box []Interval) (*CenteredForm, error)
 	// Integer coefficients: multiply by the lcm of the denominators.
 	lcm := big.NewInt(1)
 	g := new(big.Int)
-	for _, t := range q.Terms() {
+	for _, t := range q.sortedTerms() {
 		d := t.Coef.Denom()
 		g.GCD(nil, nil, lcm, d)
 		lcm.Mul(lcm, new(big.Int).Quo(d, g))
 	}
 	f := &CenteredForm{shape: sh, coef: make([]big.Int, size), base: new(big.Rat).SetFrac(big.NewInt(1), lcm)}
-	for _, t := range q.Terms() {
+	for _, t := range q.sortedTerms() {
 		k := 0
 		for i, v := range vars {
 			k += t.Exp[v] * sh.stride[i]

@@ -8,7 +8,7 @@ import "math/big"
 // term evaluated with exact powers (Moore 1966): sound, not always tight.
 func (p *Poly) Enclose(box []Interval) Interval {
 	sum := Point(new(big.Rat))
-	for _, t := range p.Terms() {
+	for _, t := range p.sortedTerms() {
 		v := Point(t.Coef)
 		for i, e := range t.Exp {
 			if e == 0 {

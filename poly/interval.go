@@ -140,7 +140,7 @@ func ivBoundString(b Bound) string {
 	case b.Inf > 0:
 		return "+inf"
 	default:
-		return b.Value.RatString()
+		return RatString(b.Value)
 	}
 }
 
@@ -440,7 +440,7 @@ func (x Interval) Width() (*big.Rat, bool) {
 	if x.Lo.Inf != 0 || x.Hi.Inf != 0 {
 		return nil, false
 	}
-	return new(big.Rat).Sub(x.Hi.Value, x.Lo.Value), true
+	return SubRat(new(big.Rat), x.Hi.Value, x.Lo.Value), true
 }
 
 // Mid returns (lo + hi)/2. It panics if x is unbounded.
@@ -448,9 +448,15 @@ func (x Interval) Mid() *big.Rat {
 	if x.Lo.Inf != 0 || x.Hi.Inf != 0 {
 		panic("poly: Mid of unbounded interval " + x.String())
 	}
-	m := new(big.Rat).Add(x.Lo.Value, x.Hi.Value)
-	return m.Quo(m, big.NewRat(2, 1))
+	if x.Lo.Value.Cmp(x.Hi.Value) == 0 {
+		return new(big.Rat).Set(x.Lo.Value)
+	}
+	m := AddRat(new(big.Rat), x.Lo.Value, x.Hi.Value)
+	return MulRat(m, m, ratHalf)
 }
+
+// ratHalf is 1/2; never modified.
+var ratHalf = big.NewRat(1, 2)
 
 // Split halves x at its midpoint m: the left half ends at m closed, the
 // right half starts at m open, so the halves partition x exactly (each

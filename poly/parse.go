@@ -267,6 +267,9 @@ func (p *ExprParser) primary() RatFunc {
 
 // ParseNumber reads a decimal literal exactly ("3", "0.35", "1e-3", "2.5E+2").
 func ParseNumber(s string) (*big.Rat, error) {
+	if q, ok := parseShortDecimal(s); ok {
+		return q, nil
+	}
 	d, err := decimal.NewFromString(s)
 	if err != nil {
 		return nil, fmt.Errorf("malformed number %q", s)
@@ -275,4 +278,31 @@ func ParseNumber(s string) (*big.Rat, error) {
 		return nil, fmt.Errorf("number %q out of range", s)
 	}
 	return d.Rat(), nil
+}
+
+// parseShortDecimal reads "digits" or "digits.digits" with at most 18
+// digits in all, which int64 holds exactly, as ParseNumber would; false for
+// any other text (ParseNumber's general path decides those).
+func parseShortDecimal(s string) (*big.Rat, bool) {
+	var n, den int64 = 0, 1
+	digits, dot := 0, -1
+	for i := 0; i < len(s); i++ {
+		c := s[i]
+		switch {
+		case c >= '0' && c <= '9':
+			n = 10*n + int64(c-'0')
+			digits++
+			if dot >= 0 {
+				den *= 10
+			}
+		case c == '.' && dot < 0:
+			dot = i
+		default:
+			return nil, false
+		}
+	}
+	if digits == 0 || digits > 18 || dot == 0 || dot == len(s)-1 {
+		return nil, false
+	}
+	return setSmallFrac(new(big.Rat), n, den), true
 }

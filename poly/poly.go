@@ -14,6 +14,7 @@ type Ring struct {
 	names   []string
 	index   map[string]int
 	nstates int
+	zeroKey string // key of the constant monomial
 }
 
 // NewRing returns the ring with the given states followed by the parameters.
@@ -27,6 +28,7 @@ func NewRing(states, params []string) *Ring {
 		r.index[n] = len(r.names)
 		r.names = append(r.names, n)
 	}
+	r.zeroKey = string(make([]byte, 2*len(r.names)))
 	return r
 }
 
@@ -61,8 +63,13 @@ type Term struct {
 // Methods follow math/big: the receiver holds the result and is returned;
 // operands may alias the receiver. A nil *Poly is never valid; use Zero.
 type Poly struct {
-	ring  *Ring
-	terms map[string]*big.Rat // key: encoded exponents
+	ring *Ring
+	// terms maps encoded exponents to non-zero coefficients. Once the
+	// operation that built it has returned, neither the map nor any
+	// coefficient in it is ever modified: every operation builds a new map
+	// and assigns it to its receiver. Polynomials may therefore share maps
+	// and coefficients, which makes Set and Clone cheap.
+	terms map[string]*big.Rat
 }
 
 // Zero returns the zero polynomial of r.
@@ -72,19 +79,27 @@ func Zero(r *Ring) *Poly { return &Poly{ring: r, terms: map[string]*big.Rat{}} }
 func Const(r *Ring, c *big.Rat) *Poly {
 	p := Zero(r)
 	if c.Sign() != 0 {
-		p.terms[key(make([]int, r.NumVars()))] = new(big.Rat).Set(c)
+		p.terms[r.zeroKey] = new(big.Rat).Set(c)
 	}
 	return p
 }
 
 // ConstInt returns the constant polynomial n.
-func ConstInt(r *Ring, n int64) *Poly { return Const(r, big.NewRat(n, 1)) }
+func ConstInt(r *Ring, n int64) *Poly {
+	p := Zero(r)
+	if n != 0 {
+		p.terms[r.zeroKey] = new(big.Rat).SetInt64(n)
+	}
+	return p
+}
 
 // Var returns the polynomial consisting of variable i.
 func Var(r *Ring, i int) *Poly {
 	e := make([]int, r.NumVars())
 	e[i] = 1
-	return Monomial(r, e, big.NewRat(1, 1))
+	p := Zero(r)
+	p.terms[key(e)] = new(big.Rat).SetInt64(1)
+	return p
 }
 
 // Monomial returns c times the monomial with exponents e.
@@ -128,16 +143,11 @@ func (p *Poly) check(q *Poly) {
 	}
 }
 
-// Set sets z to a copy of x and returns z.
+// Set sets z to a copy of x and returns z. The copy shares x's terms, which
+// no operation modifies (see Poly), so it costs no allocation of
+// coefficients.
 func (z *Poly) Set(x *Poly) *Poly {
-	if z == x {
-		return z
-	}
-	t := make(map[string]*big.Rat, len(x.terms))
-	for k, c := range x.terms {
-		t[k] = new(big.Rat).Set(c)
-	}
-	z.ring, z.terms = x.ring, t
+	z.ring, z.terms = x.ring, x.terms
 	return z
 }
 
@@ -153,22 +163,29 @@ func (z *Poly) Sub(x, y *Poly) *Poly { return z.combine(x, y, -1) }
 func (z *Poly) combine(x, y *Poly, sign int) *Poly {
 	x.check(y)
 	t := make(map[string]*big.Rat, len(x.terms)+len(y.terms))
+	// Coefficients are shared where they are not changed (see Poly).
 	for k, c := range x.terms {
-		t[k] = new(big.Rat).Set(c)
+		t[k] = c
 	}
 	for k, c := range y.terms {
 		s, ok := t[k]
-		if !ok {
-			s = new(big.Rat)
-			t[k] = s
-		}
-		if sign > 0 {
-			s.Add(s, c)
-		} else {
-			s.Sub(s, c)
-		}
-		if s.Sign() == 0 {
-			delete(t, k)
+		switch {
+		case !ok && sign > 0:
+			t[k] = c
+		case !ok:
+			t[k] = new(big.Rat).Neg(c)
+		default:
+			var v *big.Rat
+			if sign > 0 {
+				v = AddRat(new(big.Rat), s, c)
+			} else {
+				v = SubRat(new(big.Rat), s, c)
+			}
+			if v.Sign() == 0 {
+				delete(t, k)
+			} else {
+				t[k] = v
+			}
 		}
 	}
 	z.ring, z.terms = x.ring, t
@@ -177,15 +194,28 @@ func (z *Poly) combine(x, y *Poly, sign int) *Poly {
 
 // Neg sets z = -x and returns z.
 func (z *Poly) Neg(x *Poly) *Poly {
-	return z.Scale(x, big.NewRat(-1, 1))
+	t := make(map[string]*big.Rat, len(x.terms))
+	for k, a := range x.terms {
+		t[k] = new(big.Rat).Neg(a)
+	}
+	z.ring, z.terms = x.ring, t
+	return z
 }
 
 // Scale sets z = c·x and returns z.
 func (z *Poly) Scale(x *Poly, c *big.Rat) *Poly {
+	if c.IsInt() && c.Num().IsInt64() {
+		switch c.Num().Int64() {
+		case 1:
+			return z.Set(x)
+		case -1:
+			return z.Neg(x)
+		}
+	}
 	t := make(map[string]*big.Rat, len(x.terms))
 	if c.Sign() != 0 {
 		for k, a := range x.terms {
-			t[k] = new(big.Rat).Mul(a, c)
+			t[k] = MulRat(new(big.Rat), a, c)
 		}
 	}
 	z.ring, z.terms = x.ring, t
@@ -198,7 +228,7 @@ func (z *Poly) Mul(x, y *Poly) *Poly {
 	t := make(map[string]*big.Rat, len(x.terms)*len(y.terms))
 	n := x.ring.NumVars()
 	buf := make([]byte, 2*n)
-	var prod big.Rat
+	prod := new(big.Rat)
 	for kx, cx := range x.terms {
 		for ky, cy := range y.terms {
 			for i := 0; i < n; i++ {
@@ -208,15 +238,18 @@ func (z *Poly) Mul(x, y *Poly) *Poly {
 				}
 				buf[2*i], buf[2*i+1] = byte(e>>8), byte(e)
 			}
-			k := string(buf)
-			prod.Mul(cx, cy)
-			if s, ok := t[k]; ok {
-				s.Add(s, &prod)
+			MulRat(prod, cx, cy)
+			// The lookup with string(buf) does not allocate; only a new
+			// key is stored as a string.
+			if s, ok := t[string(buf)]; ok {
+				// s was made by this product, so it may be updated.
+				AddRat(s, s, prod)
 				if s.Sign() == 0 {
-					delete(t, k)
+					delete(t, string(buf))
 				}
 			} else {
-				t[k] = new(big.Rat).Set(&prod)
+				t[string(buf)] = prod
+				prod = new(big.Rat)
 			}
 		}
 	}
@@ -251,7 +284,8 @@ func (z *Poly) Derivative(x *Poly, i int) *Poly {
 		if e[i] == 0 {
 			continue
 		}
-		d := new(big.Rat).Mul(c, big.NewRat(int64(e[i]), 1))
+		d := new(big.Rat).SetInt64(int64(e[i]))
+		MulRat(d, d, c)
 		e[i]--
 		t[key(e)] = d
 	}
@@ -284,21 +318,34 @@ func (z *Poly) Compose(x *Poly, sub []*Poly) *Poly {
 		}
 		return powers[i][k]
 	}
-	for _, t := range x.Terms() {
-		rest := slices.Clone(t.Exp)
-		term := Zero(r)
+	// The terms of the image of each term of x are summed into one map;
+	// a coefficient met twice is replaced by a new sum (see Poly).
+	for k, c := range x.terms {
+		exp := unkey(k)
+		rest := slices.Clone(exp)
 		for i := range rest {
 			if sub[i] != nil {
 				rest[i] = 0
 			}
 		}
-		term = Monomial(r, rest, t.Coef)
-		for i, e := range t.Exp {
+		term := &Poly{ring: r, terms: map[string]*big.Rat{key(rest): c}}
+		for i, e := range exp {
 			if sub[i] != nil && e > 0 {
 				term.Mul(term, pow(i, e))
 			}
 		}
-		result.Add(result, term)
+		for tk, tc := range term.terms {
+			s, ok := result.terms[tk]
+			if !ok {
+				result.terms[tk] = tc
+				continue
+			}
+			if v := AddRat(new(big.Rat), s, tc); v.Sign() != 0 {
+				result.terms[tk] = v
+			} else {
+				delete(result.terms, tk)
+			}
+		}
 	}
 	return z.Set(result)
 }
@@ -307,13 +354,12 @@ func (z *Poly) Compose(x *Poly, sub []*Poly) *Poly {
 // rational values and returns z.
 func (z *Poly) EvalVars(x *Poly, vals map[int]*big.Rat) *Poly {
 	t := make(map[string]*big.Rat, len(x.terms))
-	var f big.Rat
 	for k, c := range x.terms {
 		e := unkey(k)
-		v := new(big.Rat).Set(c)
+		v := c // shared until it changes (see Poly)
 		for i, val := range vals {
 			if e[i] > 0 {
-				v.Mul(v, f.Set(ratPow(val, e[i])))
+				v = MulRat(new(big.Rat), v, ratPow(val, e[i]))
 				e[i] = 0
 			}
 		}
@@ -322,7 +368,8 @@ func (z *Poly) EvalVars(x *Poly, vals map[int]*big.Rat) *Poly {
 		}
 		nk := key(e)
 		if s, ok := t[nk]; ok {
-			s.Add(s, v)
+			s = AddRat(new(big.Rat), s, v)
+			t[nk] = s
 			if s.Sign() == 0 {
 				delete(t, nk)
 			}
@@ -340,19 +387,32 @@ func (p *Poly) Eval(x []*big.Rat) *big.Rat {
 		panic("poly: point dimension mismatch")
 	}
 	sum := new(big.Rat)
+	prod := new(big.Rat)
 	for k, c := range p.terms {
-		v := new(big.Rat).Set(c)
-		for i, e := range unkey(k) {
-			if e > 0 {
-				v.Mul(v, ratPow(x[i], e))
+		v := c // shared until the first factor (see Poly)
+		for i := 0; i < len(k)/2; i++ {
+			if e := int(k[2*i])<<8 | int(k[2*i+1]); e > 0 {
+				v = MulRat(prod, v, ratPow(x[i], e))
 			}
 		}
-		sum.Add(sum, v)
+		AddRat(sum, sum, v)
 	}
 	return sum
 }
 
+// ratPow returns x^n for n ≥ 1; the result may be x itself and must not be
+// modified.
 func ratPow(x *big.Rat, n int) *big.Rat {
+	if n == 1 {
+		return x
+	}
+	if n <= 4 {
+		z := MulRat(new(big.Rat), x, x)
+		for ; n > 2; n-- {
+			MulRat(z, z, x)
+		}
+		return z
+	}
 	num := new(big.Int).Exp(x.Num(), big.NewInt(int64(n)), nil)
 	den := new(big.Int).Exp(x.Denom(), big.NewInt(int64(n)), nil)
 	return new(big.Rat).SetFrac(num, den)
@@ -382,9 +442,18 @@ func (p *Poly) IsConst() bool {
 	return false
 }
 
+// constCoef returns the constant coefficient of p, shared with p (see
+// Poly): it must not be modified.
+func (p *Poly) constCoef() *big.Rat {
+	if c, ok := p.terms[p.ring.zeroKey]; ok {
+		return c
+	}
+	return new(big.Rat)
+}
+
 // ConstTerm returns the constant coefficient of p.
 func (p *Poly) ConstTerm() *big.Rat {
-	c, ok := p.terms[key(make([]int, p.ring.NumVars()))]
+	c, ok := p.terms[p.ring.zeroKey]
 	if !ok {
 		return new(big.Rat)
 	}
@@ -439,7 +508,7 @@ func (p *Poly) Homogeneous(d int, in []bool) *Poly {
 			}
 		}
 		if s == d {
-			z.terms[k] = new(big.Rat).Set(c)
+			z.terms[k] = c // shared (see Poly)
 		}
 	}
 	return z
@@ -481,7 +550,7 @@ func (p *Poly) Coefficient(e []int, in []bool) *Poly {
 			}
 		}
 		if match {
-			z.terms[key(te)] = new(big.Rat).Set(c)
+			z.terms[key(te)] = c // shared (see Poly)
 		}
 	}
 	return z
@@ -529,9 +598,19 @@ func gradedLess(a, b []int) bool {
 
 // Terms returns the terms of p in descending graded lexicographic order.
 func (p *Poly) Terms() []Term {
+	ts := p.sortedTerms()
+	for i := range ts {
+		ts[i].Coef = new(big.Rat).Set(ts[i].Coef)
+	}
+	return ts
+}
+
+// sortedTerms is Terms with the coefficients shared with p (see Poly): they
+// must not be modified.
+func (p *Poly) sortedTerms() []Term {
 	ts := make([]Term, 0, len(p.terms))
 	for k, c := range p.terms {
-		ts = append(ts, Term{Exp: unkey(k), Coef: new(big.Rat).Set(c)})
+		ts = append(ts, Term{Exp: unkey(k), Coef: c})
 	}
 	slices.SortFunc(ts, func(a, b Term) int {
 		switch {
@@ -547,6 +626,14 @@ func (p *Poly) Terms() []Term {
 
 // Lead returns the leading term of p in graded lexicographic order; p must be non-zero.
 func (p *Poly) Lead() Term {
+	t := p.lead()
+	t.Coef = new(big.Rat).Set(t.Coef)
+	return t
+}
+
+// lead is Lead with the coefficient shared with p (see Poly): it must not
+// be modified.
+func (p *Poly) lead() Term {
 	var best []int
 	var bc *big.Rat
 	for k, c := range p.terms {
@@ -558,7 +645,7 @@ func (p *Poly) Lead() Term {
 	if best == nil {
 		panic("poly: leading term of zero")
 	}
-	return Term{Exp: best, Coef: new(big.Rat).Set(bc)}
+	return Term{Exp: best, Coef: bc}
 }
 
 // DivExact sets z = x / y when y divides x exactly and reports whether it does.
@@ -574,9 +661,9 @@ func (z *Poly) DivExact(x, y *Poly) bool {
 	}
 	rem := x.Clone()
 	quo := Zero(x.ring)
-	ly := y.Lead()
+	ly := y.lead()
 	for !rem.IsZero() {
-		lr := rem.Lead()
+		lr := rem.lead()
 		e := make([]int, len(lr.Exp))
 		for i := range e {
 			e[i] = lr.Exp[i] - ly.Exp[i]
@@ -620,7 +707,7 @@ func (p *Poly) Content() (*big.Rat, *Poly) {
 // with p = c·q and q having a positive leading coefficient.
 func (p *Poly) PrimitivePart() (*big.Rat, *Poly) {
 	c, q := p.Content()
-	if !q.IsZero() && q.Lead().Coef.Sign() < 0 {
+	if !q.IsZero() && q.lead().Coef.Sign() < 0 {
 		c.Neg(c)
 		q.Neg(q)
 	}
@@ -642,7 +729,7 @@ func (p *Poly) Format(names []string) string {
 
 // formatTerms prints p term by term, parameters and states alike.
 func (p *Poly) formatTerms(names []string) string {
-	ts := p.Terms()
+	ts := p.sortedTerms()
 	if len(ts) == 0 {
 		return "0"
 	}
@@ -650,7 +737,10 @@ func (p *Poly) formatTerms(names []string) string {
 	for i, t := range ts {
 		c := t.Coef
 		neg := c.Sign() < 0
-		abs := new(big.Rat).Abs(c)
+		abs := c // shared, only read
+		if neg {
+			abs = new(big.Rat).Neg(c)
+		}
 		switch {
 		case i == 0 && neg:
 			b.WriteString("-")
@@ -660,14 +750,14 @@ func (p *Poly) formatTerms(names []string) string {
 			b.WriteString(" + ")
 		}
 		mono := formatMonomial(t.Exp, names)
-		one := abs.Cmp(big.NewRat(1, 1)) == 0
+		one := isOne(abs)
 		switch {
 		case mono == "":
-			b.WriteString(abs.RatString())
+			b.WriteString(RatString(abs))
 		case one:
 			b.WriteString(mono)
 		default:
-			b.WriteString(abs.RatString())
+			b.WriteString(RatString(abs))
 			b.WriteString("*")
 			b.WriteString(mono)
 		}
@@ -709,12 +799,13 @@ func (p *Poly) Relabel(r *Ring, m []int) *Poly {
 		}
 		nk := key(ne)
 		if s, ok := z.terms[nk]; ok {
-			s.Add(s, c)
+			s = AddRat(new(big.Rat), s, c)
+			z.terms[nk] = s
 			if s.Sign() == 0 {
 				delete(z.terms, nk)
 			}
 		} else {
-			z.terms[nk] = new(big.Rat).Set(c)
+			z.terms[nk] = c // shared (see Poly)
 		}
 	}
 	return z

@@ -91,9 +91,9 @@ func findFactor(ds []DenFactor, p *Poly) int {
 func (f RatFunc) Mul(g RatFunc) RatFunc {
 	switch {
 	case g.IsPoly() && g.Num.IsConst():
-		return f.ScaleRat(g.Num.ConstTerm())
+		return f.ScaleRat(g.Num.constCoef())
 	case f.IsPoly() && f.Num.IsConst():
-		return g.ScaleRat(f.Num.ConstTerm())
+		return g.ScaleRat(f.Num.constCoef())
 	}
 	out := RatFunc{Num: new(Poly).Mul(f.Num, g.Num)}
 	out.Den = mergeDen(f.Den, g.Den, func(a, b int) int { return a + b })
@@ -117,6 +117,9 @@ func mergeDen(a, b []DenFactor, combine func(int, int) int) []DenFactor {
 
 // Add returns f + g.
 func (f RatFunc) Add(g RatFunc) RatFunc {
+	if f.IsPoly() && g.IsPoly() {
+		return RatFunc{Num: new(Poly).Add(f.Num, g.Num)}
+	}
 	common := mergeDen(f.Den, g.Den, func(a, b int) int { return max(a, b) })
 	num := Zero(f.Num.ring)
 	for _, h := range []RatFunc{f, g} {
@@ -143,7 +146,12 @@ func (f RatFunc) Neg() RatFunc {
 }
 
 // Sub returns f - g.
-func (f RatFunc) Sub(g RatFunc) RatFunc { return f.Add(g.Neg()) }
+func (f RatFunc) Sub(g RatFunc) RatFunc {
+	if f.IsPoly() && g.IsPoly() {
+		return RatFunc{Num: new(Poly).Sub(f.Num, g.Num)}
+	}
+	return f.Add(g.Neg())
+}
 
 // ScaleRat returns c·f.
 func (f RatFunc) ScaleRat(c *big.Rat) RatFunc {
@@ -195,7 +203,7 @@ func DenominatorFactors(p *Poly) (*big.Rat, []DenFactor) {
 		for i := range e {
 			e[i] -= minExp[i]
 		}
-		rest.terms[key(e)] = new(big.Rat).Set(a)
+		rest.terms[key(e)] = a // shared (see Poly)
 	}
 	if !rest.IsConst() {
 		out = append(out, DenFactor{rest, 1})
@@ -210,7 +218,7 @@ func (f RatFunc) Quo(g RatFunc) RatFunc {
 	}
 	if g.IsPoly() && g.Num.IsConst() {
 		// Division by a constant: scale, no denominator.
-		return f.ScaleRat(new(big.Rat).Inv(g.Num.ConstTerm()))
+		return f.ScaleRat(new(big.Rat).Inv(g.Num.constCoef()))
 	}
 	mask := g.Num.ring.StateMask()
 	if g.Num.DegreeIn(mask) > 0 {
@@ -239,6 +247,9 @@ func (f RatFunc) Derivative(i int) RatFunc {
 
 // Equal reports whether f and g are equal as rational functions.
 func (f RatFunc) Equal(g RatFunc) bool {
+	if f.IsPoly() && g.IsPoly() {
+		return f.Num.Equal(g.Num)
+	}
 	a := new(Poly).Mul(f.Num, g.DenPoly())
 	b := new(Poly).Mul(g.Num, f.DenPoly())
 	return a.Equal(b)
@@ -247,9 +258,17 @@ func (f RatFunc) Equal(g RatFunc) bool {
 // ComposeStates returns f with each state i replaced by sub[i] (nil keeps the
 // state), simultaneously. The substitutes may carry denominators.
 func (f RatFunc) ComposeStates(sub []RatFunc, has []bool) RatFunc {
+	if f.IsPoly() {
+		// Constant substitutes (a point, as in a residual) are an
+		// evaluation: the same polynomial without the detour through
+		// rational functions.
+		if vals, ok := constSubstitutes(sub, has); ok {
+			return RatFunc{Num: new(Poly).EvalVars(f.Num, vals)}
+		}
+	}
 	r := f.Num.ring
 	result := RatFunc{Num: Zero(r)}
-	for _, t := range f.Num.Terms() {
+	for _, t := range f.Num.sortedTerms() {
 		rest := append([]int(nil), t.Exp...)
 		for i := range rest {
 			if has[i] {
@@ -266,6 +285,22 @@ func (f RatFunc) ComposeStates(sub []RatFunc, has []bool) RatFunc {
 	}
 	den := RatFunc{Num: ConstInt(r, 1), Den: f.Den}
 	return result.Mul(den)
+}
+
+// constSubstitutes returns the values of the substitutes selected by has
+// when every one of them is a constant polynomial.
+func constSubstitutes(sub []RatFunc, has []bool) (map[int]*big.Rat, bool) {
+	vals := map[int]*big.Rat{}
+	for i, h := range has {
+		if !h {
+			continue
+		}
+		if !sub[i].IsPoly() || !sub[i].Num.IsConst() {
+			return nil, false
+		}
+		vals[i] = sub[i].Num.ConstTerm()
+	}
+	return vals, true
 }
 
 // EvalVars substitutes rational values for the variables in vals.
@@ -340,7 +375,7 @@ func (f RatFunc) Format(names []string) string {
 	}
 	var groups []*group
 	index := map[string]*group{}
-	for _, t := range f.Num.Terms() {
+	for _, t := range f.Num.sortedTerms() {
 		se := make([]int, len(t.Exp))
 		pe := make([]int, len(t.Exp))
 		for i, x := range t.Exp {
@@ -357,7 +392,9 @@ func (f RatFunc) Format(names []string) string {
 			index[k] = g
 			groups = append(groups, g)
 		}
-		g.coef.Add(g.coef, Monomial(r, pe, t.Coef))
+		// Distinct terms with the same state monomial differ in their
+		// parameter monomial, so the key is new; t.Coef is Terms' copy.
+		g.coef.terms[key(pe)] = t.Coef
 	}
 	slices.SortStableFunc(groups, func(a, b *group) int {
 		switch {
@@ -371,7 +408,7 @@ func (f RatFunc) Format(names []string) string {
 	var b strings.Builder
 	for i, g := range groups {
 		c := RatFunc{Num: g.coef, Den: f.Den}.cancel()
-		neg := c.Num.Lead().Coef.Sign() < 0
+		neg := c.Num.lead().Coef.Sign() < 0
 		if neg {
 			c.Num = new(Poly).Neg(c.Num)
 		}
@@ -386,11 +423,11 @@ func (f RatFunc) Format(names []string) string {
 		mono := formatMonomial(g.exp, names)
 		switch {
 		case c.Num.NumTerms() == 1:
-			t := c.Num.Lead()
+			t := c.Num.lead()
 			parts := []string{}
 			pm := formatMonomial(t.Exp, names)
-			if t.Coef.Cmp(big.NewRat(1, 1)) != 0 || (pm == "" && mono == "") {
-				parts = append(parts, t.Coef.RatString())
+			if !isOne(t.Coef) || (pm == "" && mono == "") {
+				parts = append(parts, RatString(t.Coef))
 			}
 			if pm != "" {
 				parts = append(parts, pm)

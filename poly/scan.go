@@ -115,7 +115,7 @@ func (t Token) String() string {
 // not) into tokens; the position of the first character is start. A "#"
 // ends the line. Invalid characters become Invalid tokens.
 func Scan(line string, start Pos) []Token {
-	var toks []Token
+	toks := make([]Token, 0, len(line)/2+2)
 	col := 0
 	i := 0
 	for i < len(line) {
@@ -169,7 +169,7 @@ func Scan(line string, start Pos) []Token {
 			col += 2
 			continue
 		case strings.ContainsRune("+-*/^()=,'[]<>", r):
-			toks = append(toks, Token{Op, string(r), pos})
+			toks = append(toks, Token{Op, line[i : i+w], pos}) // the rune's own text
 		case r == '′' || r == '’':
 			toks = append(toks, Token{Op, "'", pos})
 		default:

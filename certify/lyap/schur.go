@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"sync"
 
 	"gonum.org/v1/gonum/blas"
 	"gonum.org/v1/gonum/blas/blas64"
@@ -37,7 +38,14 @@ func newRealSchur(a *mat.Dense) (*realSchur, error) {
 	copyDense(h, a)
 
 	tau := make([]float64, max(n-1, 0))
-	work := []float64{0}
+	// The LAPACK workspace is scratch only, and Dgehrd's optimal size is
+	// large (its blocked code's, thousands of entries even for n = 3), so
+	// it is reused across calls. grow gives every call the same length as
+	// a fresh buffer would have, so the results do not depend on the reuse.
+	pooled := workPool.Get().(*[]float64)
+	defer workPool.Put(pooled)
+	work := (*pooled)[:1]
+	defer func() { *pooled = work[:cap(work)] }()
 	impl.Dgehrd(n, 0, n-1, h, n, tau, work, -1)
 	work = grow(work, int(work[0]))
 	impl.Dgehrd(n, 0, n-1, h, n, tau, work, len(work))
@@ -154,6 +162,8 @@ func gemmSub(tA, tB blas.Transpose, alpha float64, a, b blas64.General, c blas64
 	blas64.Gemm(tA, tB, alpha, a, b, 1, c)
 }
 
+// grow returns w when it has at least n entries (at least 1), otherwise a
+// slice of n entries, w's storage when its capacity allows.
 func grow(w []float64, n int) []float64 {
 	if n < 1 {
 		n = 1
@@ -161,8 +171,14 @@ func grow(w []float64, n int) []float64 {
 	if len(w) >= n {
 		return w
 	}
+	if cap(w) >= n {
+		return w[:n]
+	}
 	return make([]float64, n)
 }
+
+// workPool holds LAPACK workspaces for reuse (newRealSchur).
+var workPool = sync.Pool{New: func() any { return &[]float64{0} }}
 
 // copyDense copies a (any stride) into the dense row-major slice dst.
 func copyDense(dst []float64, a *mat.Dense) {

@@ -282,7 +282,7 @@ func renderFind(w io.Writer, res *certify.FindResult, q []*big.Rat, written []st
 	}
 	fmt.Fprintln(w)
 	eqs := res.Search.Equilibria
-	how := "the exact elimination found every isolated equilibrium"
+	how := "the list is complete by exact elimination; completeness is not part of any certificate"
 	if !res.Search.Complete {
 		how = "exact elimination did not finish; Newton's method from many starting points may have missed some"
 	}
@@ -298,7 +298,7 @@ func renderFind(w io.Writer, res *certify.FindResult, q []*big.Rat, written []st
 		}
 		fmt.Fprintf(w, "  %d  %s%s\n", i+1, equilibriumText(m, e), mark)
 		fmt.Fprintf(w, "     %s; %s\n", statusText(e.Status), e.Class)
-		fmt.Fprintf(w, "     eigenvalues %s\n", strings.Join(eigenText(e.Eigenvalues), ", "))
+		fmt.Fprintf(w, "     eigenvalues %s (floating point: the class is a guide, the certificate below decides)\n", strings.Join(eigenText(e.Eigenvalues), ", "))
 	}
 	for i, ct := range res.Certs {
 		if ct == nil {

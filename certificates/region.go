@@ -130,7 +130,7 @@ func less(lo, hi end) bool {
 	return l.Cmp(h) < 0
 }
 
-func (c *checker) region(used map[int]bool, someNonPositiveConst bool) bool {
+func (c *checker) region(used map[int]bool) bool {
 	d, rg := c.doc, c.doc.Region
 	if !c.add("region", len(rg.Product) == 0, "a one-parameter region has no product form") {
 		return false
@@ -167,7 +167,6 @@ func (c *checker) region(used map[int]bool, someNonPositiveConst bool) bool {
 	if want == VerdictFails {
 		return c.add("verdict", d.Refutation != nil, "a failing verdict comes with a refutation")
 	}
-	_ = someNonPositiveConst
 	return true
 }
 

@@ -613,16 +613,13 @@ func FactorStatus(f *poly.Poly, power int, box []poly.Interval) string {
 func (c *checker) verdict() bool {
 	d := c.doc
 	used := map[int]bool{}
-	allPositiveConst, someNonPositiveConst := true, false
+	// Every condition discharged: each is a positive constant.
+	allPositiveConst := true
 	for _, q := range c.conds {
 		for _, v := range q.Num.VarsUsed() {
 			used[v] = true
 		}
-		if q.Num.IsConst() {
-			if q.Num.ConstTerm().Sign() <= 0 {
-				someNonPositiveConst = true
-			}
-		} else {
+		if !q.Num.IsConst() || q.Num.ConstTerm().Sign() <= 0 {
 			allPositiveConst = false
 		}
 	}
@@ -630,7 +627,7 @@ func (c *checker) verdict() bool {
 		return c.paving(used)
 	}
 	if d.Region != nil {
-		return c.region(used, someNonPositiveConst)
+		return c.region(used)
 	}
 	if len(d.Witnesses) > 0 {
 		return c.witnesses(used)
@@ -639,8 +636,8 @@ func (c *checker) verdict() bool {
 	case VerdictHolds:
 		return c.add("verdict", allPositiveConst, "every condition is discharged by the assumptions")
 	case VerdictFails:
-		return c.add("verdict", someNonPositiveConst || d.Refutation != nil, "a condition fails for every parameter value, or a refutation is given") &&
-			c.add("verdict", d.Refutation != nil, "a failing verdict comes with a refutation")
+		// The refutation, checked after the verdict, is what makes it fail.
+		return c.add("verdict", d.Refutation != nil, "a failing verdict comes with a refutation")
 	case VerdictUndecided:
 		return c.add("verdict", true, "nothing is claimed")
 	}

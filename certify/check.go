@@ -30,6 +30,26 @@ type Form struct {
 	Minors []poly.RatFunc
 }
 
+// SquareBase returns zₖ + Σᵢ>ₖ Lᵢₖ·zᵢ, the expression squared in the k-th
+// term of the completed squares Σ Dₖ·(zₖ + Σᵢ>ₖ Lᵢₖ·zᵢ)², with z the basis
+// (the states when there is none). For a semidefinite form, the bases of
+// the non-zero pivots vanish exactly on the kernel.
+func (f Form) SquareBase(k int) poly.RatFunc {
+	z := func(i int) poly.RatFunc {
+		if f.Basis != nil {
+			return poly.FromPoly(f.Basis[i])
+		}
+		return poly.FromPoly(poly.Var(f.Gram[0][0].Ring(), i))
+	}
+	lin := z(k)
+	for i := k + 1; i < len(f.LDL.D); i++ {
+		if !f.LDL.L[i][k].IsZero() {
+			lin = lin.Add(f.LDL.L[i][k].Mul(z(i)))
+		}
+	}
+	return lin
+}
+
 // Condition is what one minor requires, after the assumptions have
 // discharged the factors whose sign they fix.
 type Condition struct {
@@ -679,19 +699,12 @@ func (res *Result) document(source string) *certificates.Document {
 		Claim:       res.Claim,
 		Verdict:     res.Verdict,
 	}
-	d.System.Time = "continuous"
-	if m.Discrete {
-		d.System.Time = "discrete"
-	}
-	d.System.States = slices.Clone(m.States)
-	d.System.Params = []certificates.ParamDoc{}
-	for _, p := range m.Params {
-		d.System.Params = append(d.System.Params, certificates.ParamDoc{Name: p.Name, Range: model.RangeText(p)})
-	}
+	var eqs, at []string
 	for i := range m.States {
-		d.System.Equations = append(d.System.Equations, m.F[i].String())
-		d.System.Equilibrium = append(d.System.Equilibrium, m.At[i].String())
+		eqs = append(eqs, m.F[i].String())
+		at = append(at, m.At[i].String())
 	}
+	d.System = systemDoc(m, eqs, at)
 	d.Forms = []certificates.Form{}
 	for _, f := range res.Forms {
 		fd := certificates.Form{Name: f.Name, Gram: f.Gram.Strings(), L: f.LDL.L.Strings()}
@@ -786,4 +799,18 @@ func minimalRefutation(m *model.Model, res *Result, vals map[string]string, x []
 		pt[name] = x[i].RatString()
 	}
 	return &certificates.Refutation{Params: params, Point: pt, V: at(res.V, keep).String(), Vdot: at(res.Vdot, keep).String()}
+}
+
+// systemDoc restates the model in a certificate: time, states, assumptions,
+// the equations' and the equilibrium's texts.
+func systemDoc(m *model.Model, equations, equilibrium []string) certificates.System {
+	sys := certificates.System{Time: "continuous", States: slices.Clone(m.States), Params: []certificates.ParamDoc{},
+		Equations: equations, Equilibrium: equilibrium}
+	if m.Discrete {
+		sys.Time = "discrete"
+	}
+	for _, p := range m.Params {
+		sys.Params = append(sys.Params, certificates.ParamDoc{Name: p.Name, Range: model.RangeText(p)})
+	}
+	return sys
 }

@@ -393,17 +393,7 @@ func linearizationDoc(m *model.Model, e *Equilibrium, p [][]*big.Rat, decay [][]
 		Verdict:       verdict,
 		Linearization: lz,
 	}
-	d.System.Time = "continuous"
-	if m.Discrete {
-		d.System.Time = "discrete"
-	}
-	d.System.States = slices.Clone(m.States)
-	d.System.Params = []certificates.ParamDoc{}
-	for _, pr := range m.Params {
-		d.System.Params = append(d.System.Params, certificates.ParamDoc{Name: pr.Name, Range: model.RangeText(pr)})
-	}
-	d.System.Equations = slices.Clone(texts.equations)
-	d.System.Equilibrium = eqText
+	d.System = systemDoc(m, slices.Clone(texts.equations), eqText)
 	return d
 }
 

@@ -451,28 +451,9 @@ func (b *builder) squares(f certificates.Form) ([]node, error) {
 		if dk.IsZero() {
 			continue
 		}
-		z := func(i int) (poly.RatFunc, error) {
-			if len(f.Basis) > 0 {
-				return b.parse(f.Basis[i])
-			}
-			return poly.FromPoly(poly.Var(b.r, i)), nil
-		}
-		lin, err := z(k)
+		lin, err := b.squareBase(f, k)
 		if err != nil {
 			return nil, err
-		}
-		for i := k + 1; i < n; i++ {
-			lik, err := b.parse(f.L[i][k])
-			if err != nil {
-				return nil, err
-			}
-			if !lik.IsZero() {
-				zi, err := z(i)
-				if err != nil {
-					return nil, err
-				}
-				lin = lin.Add(lik.Mul(zi))
-			}
 		}
 		var sq node
 		ln := ratFuncNode(lin)
@@ -535,28 +516,9 @@ func (b *builder) kernel(f certificates.Form) (list, error) {
 		if f.D[k] == "0" {
 			continue
 		}
-		z := func(i int) (poly.RatFunc, error) {
-			if len(f.Basis) > 0 {
-				return b.parse(f.Basis[i])
-			}
-			return poly.FromPoly(poly.Var(b.r, i)), nil
-		}
-		lin, err := z(k)
+		lin, err := b.squareBase(f, k)
 		if err != nil {
 			return nil, err
-		}
-		for i := k + 1; i < n; i++ {
-			lik, err := b.parse(f.L[i][k])
-			if err != nil {
-				return nil, err
-			}
-			if !lik.IsZero() {
-				zi, err := z(i)
-				if err != nil {
-					return nil, err
-				}
-				lin = lin.Add(lik.Mul(zi))
-			}
 		}
 		eqs = append(eqs, relation{ratFuncNode(lin), symEq, zeroNode})
 	}
@@ -764,4 +726,34 @@ func cautions(d *certificates.Document) []string {
 		"The checker re-derives the mathematics from the certificate alone; it cannot tell whether the model describes the system.",
 		"Defer to the applicable standards and to licensed engineering judgement.")
 	return out
+}
+
+// squareBase returns zₖ + Σᵢ>ₖ Lᵢₖ·zᵢ from a form's factors, z the form's
+// monomial basis or, without one, the states.
+func (b *builder) squareBase(f certificates.Form, k int) (poly.RatFunc, error) {
+	z := func(i int) (poly.RatFunc, error) {
+		if len(f.Basis) > 0 {
+			return b.parse(f.Basis[i])
+		}
+		return poly.FromPoly(poly.Var(b.r, i)), nil
+	}
+	lin, err := z(k)
+	if err != nil {
+		return lin, err
+	}
+	for i := k + 1; i < len(f.D); i++ {
+		lik, err := b.parse(f.L[i][k])
+		if err != nil {
+			return lin, err
+		}
+		if lik.IsZero() {
+			continue
+		}
+		zi, err := z(i)
+		if err != nil {
+			return lin, err
+		}
+		lin = lin.Add(lik.Mul(zi))
+	}
+	return lin, nil
 }

@@ -106,7 +106,7 @@ func renderCheck(w io.Writer, res *certify.Result, written string) {
 				// the whole function, in a monomial basis
 				lhs = strings.TrimSuffix(lhs, "₂")
 			}
-			fmt.Fprintf(w, "  %s = %s\n", lhs, squares(m, f))
+			fmt.Fprintf(w, "  %s = %s\n", lhs, squares(f))
 		}
 		fmt.Fprintln(w)
 		fmt.Fprintln(w, "Leading principal minors (Sylvester: positive definite iff all > 0)")
@@ -142,25 +142,13 @@ func renderCheck(w io.Writer, res *certify.Result, written string) {
 }
 
 // squares writes Σ dₖ·(xₖ + Σᵢ>ₖ Lᵢₖ xᵢ)² as a person would.
-func squares(m *model.Model, f certify.Form) string {
-	r := m.Ring
+func squares(f certify.Form) string {
 	var parts []string
 	for k, d := range f.LDL.D {
 		if f.LDL.Zero[k] {
 			continue
 		}
-		z := func(i int) poly.RatFunc {
-			if f.Basis != nil {
-				return poly.FromPoly(f.Basis[i])
-			}
-			return poly.FromPoly(poly.Var(r, i))
-		}
-		lin := z(k)
-		for i := k + 1; i < len(f.LDL.D); i++ {
-			if !f.LDL.L[i][k].IsZero() {
-				lin = lin.Add(f.LDL.L[i][k].Mul(z(i)))
-			}
-		}
+		lin := f.SquareBase(k)
 		sq := lin.String()
 		if lin.Num.NumTerms() > 1 || strings.ContainsAny(sq, "*^/") {
 			sq = "(" + sq + ")"
@@ -336,13 +324,7 @@ func renderVerdict(w io.Writer, res *certify.Result) {
 			if f.LDL.Zero[k] {
 				continue
 			}
-			lin := poly.FromPoly(poly.Var(res.Model.Ring, k))
-			for i := k + 1; i < len(f.LDL.D); i++ {
-				if !f.LDL.L[i][k].IsZero() {
-					lin = lin.Add(f.LDL.L[i][k].Mul(poly.FromPoly(poly.Var(res.Model.Ring, i))))
-				}
-			}
-			eqs = append(eqs, lin.String()+" = 0")
+			eqs = append(eqs, f.SquareBase(k).String()+" = 0")
 		}
 		fmt.Fprintf(w, "  %s = 0 exactly where %s (states measured from the equilibrium).\n", dotName(res.Model), strings.Join(eqs, ", "))
 		fmt.Fprintln(w, "  Asymptotic stability would need more (for example the invariance principle).")

@@ -25,3 +25,19 @@ func TestForgedVerdictRejected(t *testing.T) {
 		}
 	}
 }
+
+// Nothing unchecked may ride along: witness points beside a one-parameter
+// region are refused rather than ignored.
+func TestStrayWitnessRejected(t *testing.T) {
+	doc, err := ReadFile(filepath.Join("..", "testdata", "certificates", "lorenz.json"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	doc.Witnesses = []Witness{{Params: map[string]string{"r": "5"}, Values: []string{"1"}, Holds: true}}
+	if err := doc.Seal(); err != nil {
+		t.Fatal(err)
+	}
+	if Verify(doc).Valid {
+		t.Error("an unchecked witness beside a region is accepted")
+	}
+}

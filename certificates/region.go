@@ -135,6 +135,11 @@ func (c *checker) region(used map[int]bool) bool {
 	if !c.add("region", len(rg.Product) == 0, "a one-parameter region has no product form") {
 		return false
 	}
+	// Witness points are not checked on this path; none may stand here
+	// unchecked for a report to show.
+	if !c.add("region", len(d.Witnesses) == 0, "a one-parameter region has no witness points") {
+		return false
+	}
 	pi, ok := c.r.Index(rg.Param)
 	if !c.add("region", ok && !c.r.IsState(pi), "the region's parameter %q is a free parameter", rg.Param) {
 		return false

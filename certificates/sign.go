@@ -3,18 +3,14 @@ package certificates
 import (
 	"crypto/ed25519"
 	"crypto/rand"
-	"crypto/sha256"
 	"encoding/base64"
-	"encoding/hex"
 	"errors"
 	"fmt"
+	"lyacert/checker"
 	"os"
 	"path/filepath"
 	"strings"
 )
-
-// SignatureAlgorithm is the only signature algorithm a certificate may carry.
-const SignatureAlgorithm = "ed25519"
 
 // Key file headers: the first line of a key file says what it holds, so
 // that a private key is never taken for a public one or the reverse.
@@ -23,29 +19,13 @@ const (
 	publicKeyHeader  = "lyacert ed25519 public key"
 )
 
-// Errors of signature checking. Each says a different thing to a reader: no
-// signature at all, a signature that does not fit the content (or the key it
-// names), and a sound signature by a key the reader does not trust.
-var (
-	ErrUnsigned     = errors.New("no signature")
-	ErrBadSignature = errors.New("signature does not match: the certificate was altered or signed by another key")
-	ErrUntrusted    = errors.New("signed by a key that is not trusted")
-)
-
-// Fingerprint returns the first 16 hex digits of the SHA-256 of the raw
-// 32-byte public key: a short name for a key that people can compare.
-func Fingerprint(pub ed25519.PublicKey) string {
-	sum := sha256.Sum256(pub)
-	return hex.EncodeToString(sum[:8])
-}
-
 // Sign signs d's canonical digest with priv and stores the signature in d.
 // The signed message is the digest string ("sha256:…") as bytes. The digest
 // is recomputed from the content first: Sign refuses a document whose stored
 // digest does not match it, since signing it would vouch for content the
 // digest does not describe. The signature is outside the canonical
 // serialization, so signing does not change the digest.
-func (d *Document) Sign(priv ed25519.PrivateKey) error {
+func Sign(d *checker.Document, priv ed25519.PrivateKey) error {
 	if len(priv) != ed25519.PrivateKeySize {
 		return fmt.Errorf("sign: the private key has %d bytes, want %d", len(priv), ed25519.PrivateKeySize)
 	}
@@ -57,71 +37,12 @@ func (d *Document) Sign(priv ed25519.PrivateKey) error {
 		return fmt.Errorf("sign: the stored digest %q does not match the content (%s)", d.Digest, digest)
 	}
 	pub := priv.Public().(ed25519.PublicKey)
-	d.Signature = &Signature{
-		Algorithm: SignatureAlgorithm,
+	d.Signature = &checker.Signature{
+		Algorithm: checker.SignatureAlgorithm,
 		PublicKey: base64.StdEncoding.EncodeToString(pub),
 		Value:     base64.StdEncoding.EncodeToString(ed25519.Sign(priv, []byte(digest))),
 	}
 	return nil
-}
-
-// Signer returns the public key that d's signature names, without checking
-// the signature; ErrUnsigned when there is none.
-func (d *Document) Signer() (ed25519.PublicKey, error) {
-	s := d.Signature
-	if s == nil {
-		return nil, ErrUnsigned
-	}
-	if s.Algorithm != SignatureAlgorithm {
-		return nil, fmt.Errorf("%w: algorithm %q, want %q", ErrBadSignature, s.Algorithm, SignatureAlgorithm)
-	}
-	pub, err := base64.StdEncoding.Strict().DecodeString(s.PublicKey)
-	if err != nil || len(pub) != ed25519.PublicKeySize {
-		return nil, fmt.Errorf("%w: the public key is not %d bytes of base64", ErrBadSignature, ed25519.PublicKeySize)
-	}
-	return ed25519.PublicKey(pub), nil
-}
-
-// VerifySignature checks d's signature against the digest recomputed from
-// d's content (not the stored one, so that content and signature are tied
-// even when the stored digest is stale) and returns the signing key. The
-// errors are ErrUnsigned when d carries no signature and ErrBadSignature
-// (wrapped) when the signature is malformed or does not verify with the key
-// it names. A valid signature says only that the holder of that key signed
-// this content; whether the key is trusted is VerifyTrusted's question.
-func (d *Document) VerifySignature() (ed25519.PublicKey, error) {
-	pub, err := d.Signer()
-	if err != nil {
-		return nil, err
-	}
-	sig, err := base64.StdEncoding.Strict().DecodeString(d.Signature.Value)
-	if err != nil || len(sig) != ed25519.SignatureSize {
-		return nil, fmt.Errorf("%w: the value is not %d bytes of base64", ErrBadSignature, ed25519.SignatureSize)
-	}
-	digest, err := d.ComputeDigest()
-	if err != nil {
-		return nil, fmt.Errorf("%w: %w", ErrBadSignature, err)
-	}
-	if !ed25519.Verify(pub, []byte(digest), sig) {
-		return nil, ErrBadSignature
-	}
-	return pub, nil
-}
-
-// VerifyTrusted checks d's signature and requires its key to be one of
-// trusted. It returns the signing key, or ErrUnsigned, ErrBadSignature, or
-// ErrUntrusted wrapped with the signer's fingerprint.
-func (d *Document) VerifyTrusted(trusted []ed25519.PublicKey) (ed25519.PublicKey, error) {
-	pub, err := d.VerifySignature()
-	if err != nil {
-		return nil, err
-	}
-	for _, t := range trusted {
-		if pub.Equal(t) {
-			return pub, nil
-		}
-	}
-	return nil, fmt.Errorf("%w: %s", ErrUntrusted, Fingerprint(pub))
 }
 
 // GenerateKey returns a new ed25519 key pair from the system's
@@ -139,7 +60,7 @@ func MarshalPrivateKey(priv ed25519.PrivateKey) []byte {
 // MarshalPublicKey returns the key file text of a public key: the header
 // line, the base64 of the 32-byte key, and its fingerprint as a comment.
 func MarshalPublicKey(pub ed25519.PublicKey) []byte {
-	return []byte(publicKeyHeader + "\n" + base64.StdEncoding.EncodeToString(pub) + "\n# fingerprint " + Fingerprint(pub) + "\n")
+	return []byte(publicKeyHeader + "\n" + base64.StdEncoding.EncodeToString(pub) + "\n# fingerprint " + checker.Fingerprint(pub) + "\n")
 }
 
 // keyBody returns the base64 line of a key file after checking its header.
@@ -276,16 +197,4 @@ func createExclusive(path string, data []byte, perm os.FileMode) error {
 		return err
 	}
 	return nil
-}
-
-// signature records the check of a present signature. Verify does not
-// require one; a present one must verify, since a reader would otherwise take
-// a forged or stale signature at face value.
-func (c *checker) signature() {
-	pub, err := c.doc.VerifySignature()
-	if err != nil {
-		c.add("signature", false, "%v", err)
-		return
-	}
-	c.add("signature", true, "the ed25519 signature of the digest is valid (key %s)", Fingerprint(pub))
 }

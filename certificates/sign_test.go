@@ -5,6 +5,7 @@ import (
 	"encoding/base64"
 	"encoding/hex"
 	"errors"
+	"lyacert/checker"
 	"os"
 	"path/filepath"
 	"strings"
@@ -20,13 +21,13 @@ func testKey(t *testing.T, seedByte byte) ed25519.PrivateKey {
 	return ed25519.NewKeyFromSeed(seed)
 }
 
-func signedCoolant(t *testing.T, priv ed25519.PrivateKey) *Document {
+func signedCoolant(t *testing.T, priv ed25519.PrivateKey) *checker.Document {
 	t.Helper()
 	d, err := ReadFile("../testdata/certificates/coolant.json")
 	if err != nil {
 		t.Fatal(err)
 	}
-	if err := d.Sign(priv); err != nil {
+	if err := Sign(d, priv); err != nil {
 		t.Fatal(err)
 	}
 	return d
@@ -38,39 +39,39 @@ func TestSignatures(t *testing.T) {
 	bobPub := bob.Public().(ed25519.PublicKey)
 	tests := []struct {
 		name    string
-		alter   func(d *Document)
+		alter   func(d *checker.Document)
 		trusted []ed25519.PublicKey
 		want    error // nil: valid and trusted
 	}{
 		// common practice, no source: the four cases a reader meets.
-		{"good", func(*Document) {}, []ed25519.PublicKey{alicePub}, nil},
-		{"good among several trusted", func(*Document) {}, []ed25519.PublicKey{bobPub, alicePub}, nil},
-		{"altered after signing, digest re-sealed", func(d *Document) {
+		{"good", func(*checker.Document) {}, []ed25519.PublicKey{alicePub}, nil},
+		{"good among several trusted", func(*checker.Document) {}, []ed25519.PublicKey{bobPub, alicePub}, nil},
+		{"altered after signing, digest re-sealed", func(d *checker.Document) {
 			d.Issued = "2030-01-01T00:00:00Z"
-			if err := d.Seal(); err != nil {
+			if err := Seal(d); err != nil {
 				t.Fatal(err)
 			}
-		}, []ed25519.PublicKey{alicePub}, ErrBadSignature},
-		{"altered after signing, digest stale", func(d *Document) { d.Source = "other.lya" }, []ed25519.PublicKey{alicePub}, ErrBadSignature},
-		{"wrong key", func(*Document) {}, []ed25519.PublicKey{bobPub}, ErrUntrusted},
-		{"no trusted key", func(*Document) {}, nil, ErrUntrusted},
-		{"absent", func(d *Document) { d.Signature = nil }, []ed25519.PublicKey{alicePub}, ErrUnsigned},
-		{"public key swapped", func(d *Document) {
+		}, []ed25519.PublicKey{alicePub}, checker.ErrBadSignature},
+		{"altered after signing, digest stale", func(d *checker.Document) { d.Source = "other.lya" }, []ed25519.PublicKey{alicePub}, checker.ErrBadSignature},
+		{"wrong key", func(*checker.Document) {}, []ed25519.PublicKey{bobPub}, checker.ErrUntrusted},
+		{"no trusted key", func(*checker.Document) {}, nil, checker.ErrUntrusted},
+		{"absent", func(d *checker.Document) { d.Signature = nil }, []ed25519.PublicKey{alicePub}, checker.ErrUnsigned},
+		{"public key swapped", func(d *checker.Document) {
 			d.Signature.PublicKey = base64.StdEncoding.EncodeToString(bobPub)
-		}, []ed25519.PublicKey{bobPub}, ErrBadSignature},
-		{"re-signed by another key", func(d *Document) {
-			if err := d.Sign(bob); err != nil {
+		}, []ed25519.PublicKey{bobPub}, checker.ErrBadSignature},
+		{"re-signed by another key", func(d *checker.Document) {
+			if err := Sign(d, bob); err != nil {
 				t.Fatal(err)
 			}
-		}, []ed25519.PublicKey{alicePub}, ErrUntrusted},
-		{"value not base64", func(d *Document) { d.Signature.Value = "!!" }, []ed25519.PublicKey{alicePub}, ErrBadSignature},
-		{"value truncated", func(d *Document) { d.Signature.Value = d.Signature.Value[:20] }, []ed25519.PublicKey{alicePub}, ErrBadSignature},
-		{"other algorithm", func(d *Document) { d.Signature.Algorithm = "rsa" }, []ed25519.PublicKey{alicePub}, ErrBadSignature},
-		{"one bit of the signature flipped", func(d *Document) {
+		}, []ed25519.PublicKey{alicePub}, checker.ErrUntrusted},
+		{"value not base64", func(d *checker.Document) { d.Signature.Value = "!!" }, []ed25519.PublicKey{alicePub}, checker.ErrBadSignature},
+		{"value truncated", func(d *checker.Document) { d.Signature.Value = d.Signature.Value[:20] }, []ed25519.PublicKey{alicePub}, checker.ErrBadSignature},
+		{"other algorithm", func(d *checker.Document) { d.Signature.Algorithm = "rsa" }, []ed25519.PublicKey{alicePub}, checker.ErrBadSignature},
+		{"one bit of the signature flipped", func(d *checker.Document) {
 			b, _ := base64.StdEncoding.DecodeString(d.Signature.Value)
 			b[5] ^= 1
 			d.Signature.Value = base64.StdEncoding.EncodeToString(b)
-		}, []ed25519.PublicKey{alicePub}, ErrBadSignature},
+		}, []ed25519.PublicKey{alicePub}, checker.ErrBadSignature},
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
@@ -87,27 +88,27 @@ func TestSignatures(t *testing.T) {
 			}
 			// The checker records a present signature among its checks and
 			// fails on a bad one; it does not require one.
-			res := Verify(d)
+			res := checker.Verify(d)
 			sig := findCheck(res, "signature")
 			switch {
 			case d.Signature == nil && sig != nil:
 				t.Errorf("unsigned document has a signature check %+v", *sig)
 			case d.Signature != nil && sig == nil:
 				t.Errorf("signed document has no signature check")
-			case sig != nil && sig.OK != !errors.Is(err, ErrBadSignature):
+			case sig != nil && sig.OK != !errors.Is(err, checker.ErrBadSignature):
 				t.Errorf("signature check %+v, VerifyTrusted said %v", *sig, err)
 			}
-			if errors.Is(err, ErrBadSignature) && res.Valid {
-				t.Errorf("Verify accepts a document with a bad signature")
+			if errors.Is(err, checker.ErrBadSignature) && res.Valid {
+				t.Errorf("checker.Verify accepts a document with a bad signature")
 			}
 		})
 	}
 }
 
-func findCheck(r Result, name string) *Check {
-	for i := range r.Checks {
-		if r.Checks[i].Name == name {
-			return &r.Checks[i]
+func findCheck(r checker.Outcome, name string) *checker.Record {
+	for i := range r.Records {
+		if r.Records[i].Name == name {
+			return &r.Records[i]
 		}
 	}
 	return nil
@@ -116,11 +117,11 @@ func findCheck(r Result, name string) *Check {
 func TestErrorMessagesAreDistinct(t *testing.T) {
 	d := signedCoolant(t, testKey(t, 1))
 	_, err := d.VerifyTrusted([]ed25519.PublicKey{testKey(t, 2).Public().(ed25519.PublicKey)})
-	want := "signed by a key that is not trusted: " + Fingerprint(testKey(t, 1).Public().(ed25519.PublicKey))
+	want := "signed by a key that is not trusted: " + checker.Fingerprint(testKey(t, 1).Public().(ed25519.PublicKey))
 	if err == nil || err.Error() != want {
 		t.Errorf("untrusted: %v, want %q", err, want)
 	}
-	msgs := map[string]bool{ErrUnsigned.Error(): true, ErrBadSignature.Error(): true, ErrUntrusted.Error(): true}
+	msgs := map[string]bool{checker.ErrUnsigned.Error(): true, checker.ErrBadSignature.Error(): true, checker.ErrUntrusted.Error(): true}
 	if len(msgs) != 3 {
 		t.Errorf("the three signature errors share a message")
 	}
@@ -149,7 +150,7 @@ func TestSignRefusesStaleDigest(t *testing.T) {
 		t.Fatal(err)
 	}
 	d.Source = "changed.lya"
-	if err := d.Sign(testKey(t, 1)); err == nil || !strings.Contains(err.Error(), "does not match the content") {
+	if err := Sign(d, testKey(t, 1)); err == nil || !strings.Contains(err.Error(), "does not match the content") {
 		t.Errorf("Sign of a document with a stale digest: %v", err)
 	}
 }
@@ -262,11 +263,11 @@ func TestParseKeyErrors(t *testing.T) {
 func TestFingerprint(t *testing.T) {
 	// common practice, no source: 16 hex digits, stable for a key.
 	pub := testKey(t, 9).Public().(ed25519.PublicKey)
-	fp := Fingerprint(pub)
+	fp := checker.Fingerprint(pub)
 	if len(fp) != 16 || strings.Trim(fp, "0123456789abcdef") != "" {
 		t.Errorf("fingerprint %q is not 16 lowercase hex digits", fp)
 	}
-	if fp != Fingerprint(append(ed25519.PublicKey(nil), pub...)) {
+	if fp != checker.Fingerprint(append(ed25519.PublicKey(nil), pub...)) {
 		t.Error("fingerprint not stable")
 	}
 }

@@ -4,7 +4,7 @@ import (
 	"math/big"
 	"slices"
 
-	"lyacert/certificates"
+	"lyacert/checker"
 	"lyacert/poly"
 )
 
@@ -132,8 +132,8 @@ func monomialGram(p poly.RatFunc, nstates int) (basis []*poly.Poly, g poly.Matri
 // allowed parameter value (global asymptotic stability), else nil.
 func (res *Result) tryBasis() *Result {
 	applicable := len(res.Forms) == 2 &&
-		((res.Claim == certificates.ClaimLocal && res.Verdict == certificates.VerdictHolds) ||
-			res.Verdict == certificates.VerdictUndecided)
+		((res.Claim == checker.KindLocal && res.Verdict == checker.VerdictHolds) ||
+			res.Verdict == checker.VerdictUndecided)
 	if !applicable || (res.HigherV.IsZero() && res.HigherD.IsZero()) {
 		return nil
 	}
@@ -160,10 +160,10 @@ func (res *Result) tryBasis() *Result {
 		}
 		nr.Forms = append(nr.Forms, Form{Name: f.Name, Basis: basis, Gram: g, LDL: l, Minors: l.Minors()})
 	}
-	nr.Claim = certificates.ClaimGlobal
+	nr.Claim = checker.KindGlobal
 	nr.conditions()
 	nr.decide()
-	if nr.Verdict != certificates.VerdictHolds {
+	if nr.Verdict != checker.VerdictHolds {
 		return nil
 	}
 	nr.Reason = "V and −V̇ are positive definite as wholes: each is zᵀGz with G ≻ 0 in a monomial basis z holding a pure power of every state"

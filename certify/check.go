@@ -4,19 +4,20 @@ import (
 	"context"
 	"errors"
 	"fmt"
+	"lyacert/certificates"
+	"lyacert/checker"
 	"maps"
 	"math/big"
 	"slices"
 	"strings"
 	"time"
 
-	"lyacert/certificates"
 	"lyacert/certify/pave"
 	"lyacert/model"
 	"lyacert/poly"
 )
 
-// Version is the tool version written into certificates.
+// Version is the tool version written into checker.
 const Version = "0.1.0"
 
 // Form is one quadratic form of the argument with its factorization.
@@ -67,9 +68,18 @@ type FactorStatus struct {
 	Status string
 }
 
+// Region is where the conditions hold: the exact pieces of one parameter's
+// range, or a paving of several parameters' box (with its product form).
+type Region struct {
+	Param     string
+	Intervals []checker.Interval
+	Pieces    []checker.Piece
+	Paving    *checker.Paving
+}
+
 // Result is the outcome of Check: the derivation, the verdict, and the
 // certificate document that backs it (already re-checked by
-// certificates.Verify).
+// checker.Verify).
 type Result struct {
 	Model   *model.Model
 	V       poly.RatFunc
@@ -85,12 +95,12 @@ type Result struct {
 	Reason string
 	// Notes are further remarks for people (no claims).
 	Notes      []string
-	Region     *certificates.Region
-	Witnesses  []certificates.Witness
-	Refutation *certificates.Refutation
+	Region     *Region
+	Witnesses  []checker.Witness
+	Refutation *checker.Refutation
 	Kernel     [][]poly.RatFunc
-	Doc        *certificates.Document
-	Check      certificates.Result
+	Doc        *checker.Document
+	Check      checker.Outcome
 	// Paving is the engine's paving of a region in several parameters
 	// (Region.Paving is its exact record in the certificate); nil when
 	// none was made.
@@ -106,7 +116,7 @@ type Result struct {
 // parameter space they hold (exactly for one parameter; by a paving of the
 // parameters' box for several, see CheckPaving, with the default
 // PaveOptions), looks for an exact refutation where they fail,
-// and writes a certificate that certificates.Verify re-checks before Check
+// and writes a certificate that checker.Verify re-checks before Check
 // returns. An error is returned for input the argument cannot apply to.
 func Check(m *model.Model, source string) (*Result, error) {
 	return CheckPaving(context.Background(), m, source, PaveOptions{})
@@ -133,11 +143,11 @@ func runCheck(m *model.Model, source string, ps *paveState) (*Result, error) {
 	res.HigherD = ds.Sub(dq).Sub(ds.Homogeneous(1, states))
 
 	if lin := vs.Homogeneous(1, states); !lin.IsZero() {
-		res.Claim, res.Verdict = certificates.ClaimNone, certificates.VerdictFails
+		res.Claim, res.Verdict = checker.KindNone, checker.VerdictFails
 		res.Reason = "V has a linear part at the equilibrium, so the equilibrium is not a minimum of V"
 		res.Refutation = refuteLinear(m, vs, lin)
 		if res.Refutation == nil {
-			res.Verdict = certificates.VerdictUndecided
+			res.Verdict = checker.VerdictUndecided
 		}
 		return finish(res, source)
 	}
@@ -152,11 +162,11 @@ func runCheck(m *model.Model, source string, ps *paveState) (*Result, error) {
 			// A zero pivot with a non-zero column: indefinite wherever
 			// that entry is non-zero.
 			res.Forms = nil
-			res.Claim, res.Verdict = certificates.ClaimNone, certificates.VerdictFails
+			res.Claim, res.Verdict = checker.KindNone, checker.VerdictFails
 			res.Reason = fmt.Sprintf("the quadratic part of %s has a zero diagonal entry with a non-zero coupling (state %s), so it is indefinite", formWord(f.name), m.States[col])
 			res.Refutation = refuteAnywhere(m, res)
 			if res.Refutation == nil {
-				res.Verdict = certificates.VerdictUndecided
+				res.Verdict = checker.VerdictUndecided
 			}
 			return finish(res, source)
 		}
@@ -165,23 +175,23 @@ func runCheck(m *model.Model, source string, ps *paveState) (*Result, error) {
 	fv, fd := res.Forms[0], res.Forms[1]
 	switch {
 	case fv.LDL.Semidefinite():
-		res.Claim = certificates.ClaimNone
-		res.Verdict = certificates.VerdictUndecided
+		res.Claim = checker.KindNone
+		res.Verdict = checker.VerdictUndecided
 		res.Reason = "the quadratic part of V is singular, so the quadratic test cannot show V positive definite"
 	case fd.LDL.Semidefinite() && !res.HigherD.IsZero():
-		res.Claim = certificates.ClaimNone
-		res.Verdict = certificates.VerdictUndecided
+		res.Claim = checker.KindNone
+		res.Verdict = checker.VerdictUndecided
 		res.Reason = "the quadratic part of V̇ is singular and V̇ has higher-order terms, so the quadratic test is inconclusive"
 	case fd.LDL.Semidefinite() && !semidefDefined(m, fd.LDL):
-		res.Claim = certificates.ClaimNone
-		res.Verdict = certificates.VerdictUndecided
+		res.Claim = checker.KindNone
+		res.Verdict = checker.VerdictUndecided
 		res.Reason = "the semidefinite factorization of −V̇ is not defined for every allowed parameter value"
 	case fd.LDL.Semidefinite():
-		res.Claim = certificates.ClaimStable
+		res.Claim = checker.KindStable
 	case res.HigherV.IsZero() && res.HigherD.IsZero():
-		res.Claim = certificates.ClaimGlobal
+		res.Claim = checker.KindGlobal
 	default:
-		res.Claim = certificates.ClaimLocal
+		res.Claim = checker.KindLocal
 	}
 	if res.Verdict == "" {
 		res.conditions()
@@ -192,23 +202,23 @@ func runCheck(m *model.Model, source string, ps *paveState) (*Result, error) {
 	} else {
 		res.conditions()
 	}
-	if res.Claim == certificates.ClaimStable && (res.Verdict == certificates.VerdictHolds || res.Verdict == certificates.VerdictOnRegion) {
+	if res.Claim == checker.KindStable && (res.Verdict == checker.VerdictHolds || res.Verdict == checker.VerdictOnRegion) {
 		res.Kernel = fd.LDL.Kernel()
 	}
-	if res.Verdict == certificates.VerdictFails || res.Verdict == certificates.VerdictOnRegion {
+	if res.Verdict == checker.VerdictFails || res.Verdict == checker.VerdictOnRegion {
 		res.Refutation = refuteAnywhere(m, res)
-		if res.Verdict == certificates.VerdictFails && res.Refutation == nil {
-			res.Verdict = certificates.VerdictUndecided
+		if res.Verdict == checker.VerdictFails && res.Refutation == nil {
+			res.Verdict = checker.VerdictUndecided
 			res.Reason += "; no exact refutation point was found"
 			res.Region = nil
 		}
 	}
-	if res.Verdict == certificates.VerdictFails || res.Verdict == certificates.VerdictUndecided {
-		res.Claim = certificates.ClaimNone
+	if res.Verdict == checker.VerdictFails || res.Verdict == checker.VerdictUndecided {
+		res.Claim = checker.KindNone
 	}
 	if up := res.tryBasis(); up != nil {
 		quad := "local asymptotic stability"
-		if res.Verdict != certificates.VerdictHolds {
+		if res.Verdict != checker.VerdictHolds {
 			quad = "nothing"
 		}
 		up.Notes = append(up.Notes, "the quadratic parts alone give "+quad+"; the Gram matrices of the whole functions in monomial bases give the global claim")
@@ -262,12 +272,12 @@ func (res *Result) conditions() {
 			q := poly.ConstInt(r, 1)
 			sign := c.Sign()
 			for _, fa := range factors {
-				st := certificates.FactorStatus(fa.P, fa.Power, box)
+				st := checker.FactorStatus(fa.P, fa.Power, box)
 				cond.Factors = append(cond.Factors, FactorStatus{fa, st})
 				switch st {
-				case certificates.StatusNegative:
+				case checker.StatusNegative:
 					sign = -sign
-				case certificates.StatusCondition:
+				case checker.StatusCondition:
 					q.Mul(q, new(poly.Poly).Pow(fa.P, fa.Power))
 				}
 			}
@@ -306,7 +316,7 @@ func (res *Result) decide() {
 	free := m.FreeParams()
 	switch {
 	case someNonPos:
-		res.Verdict = certificates.VerdictFails
+		res.Verdict = checker.VerdictFails
 		res.Reason = "a condition fails for every allowed parameter value"
 		if len(free) == 1 {
 			res.regionFor(free[0].Name)
@@ -314,7 +324,7 @@ func (res *Result) decide() {
 	case allPos && len(free) == 1:
 		res.regionFor(free[0].Name)
 	case allPos:
-		res.Verdict = certificates.VerdictHolds
+		res.Verdict = checker.VerdictHolds
 		if len(free) > 0 {
 			res.Reason = "every condition is discharged by the assumptions"
 		}
@@ -337,7 +347,7 @@ func (res *Result) regionFor(name string) {
 		conds = append(conds, u)
 	}
 	pieces := OneParamRegion(m.Ring, i, conds, p.Range)
-	res.Region = &certificates.Region{Param: name, Intervals: Intervals(pieces), Pieces: pieces}
+	res.Region = &Region{Param: name, Intervals: Intervals(pieces), Pieces: pieces}
 	holds, fails := false, false
 	for _, pc := range pieces {
 		holds = holds || pc.Holds
@@ -350,13 +360,13 @@ func (res *Result) regionFor(name string) {
 	}
 	switch {
 	case !fails:
-		res.Verdict = certificates.VerdictHolds
+		res.Verdict = checker.VerdictHolds
 		res.Reason = fmt.Sprintf("the conditions hold for every allowed %s", name)
 	case !holds:
-		res.Verdict = certificates.VerdictFails
+		res.Verdict = checker.VerdictFails
 		res.Reason = fmt.Sprintf("the conditions fail for every allowed %s", name)
 	default:
-		res.Verdict = certificates.VerdictOnRegion
+		res.Verdict = checker.VerdictOnRegion
 		res.Reason = fmt.Sprintf("the conditions hold only on part of the range of %s", name)
 	}
 }
@@ -414,7 +424,7 @@ func (res *Result) witnesses(vars []int) {
 		grids[i] = samples(p.Range)
 		base[p.Name] = grids[i][len(grids[i])/2]
 	}
-	var hold, fail *certificates.Witness
+	var hold, fail *checker.Witness
 	failStrict := false
 	idx := make([]int, len(free))
 	for count := 0; count < 4096; count++ {
@@ -440,7 +450,7 @@ func (res *Result) witnesses(vars []int) {
 			}
 			strict = strict || x.Sign() < 0
 		}
-		w := &certificates.Witness{Params: vals, Values: values, Holds: all}
+		w := &checker.Witness{Params: vals, Values: values, Holds: all}
 		if all && hold == nil {
 			hold = w
 		}
@@ -466,7 +476,7 @@ func (res *Result) witnesses(vars []int) {
 			break
 		}
 	}
-	for _, w := range []*certificates.Witness{hold, fail} {
+	for _, w := range []*checker.Witness{hold, fail} {
 		if w != nil {
 			res.Witnesses = append(res.Witnesses, *w)
 		}
@@ -476,11 +486,11 @@ func (res *Result) witnesses(vars []int) {
 		names[i] = r.Name(v)
 	}
 	if hold != nil && fail != nil {
-		res.Verdict = certificates.VerdictOnRegion
+		res.Verdict = checker.VerdictOnRegion
 		res.Reason = fmt.Sprintf("the conditions in %s hold at some parameter values and fail at others", strings.Join(names, ", "))
 		return
 	}
-	res.Verdict = certificates.VerdictUndecided
+	res.Verdict = checker.VerdictUndecided
 	res.Reason = fmt.Sprintf("the conditions involve several parameters (%s); they are exact, but no region is computed here", strings.Join(names, ", "))
 }
 
@@ -548,7 +558,7 @@ func failingParams(res *Result) (map[string]string, []*big.Rat, bool) {
 
 // refuteAnywhere looks for a state point where V ≤ 0 or V̇ ≥ 0 (other than
 // the equilibrium) at parameter values where the conditions fail.
-func refuteAnywhere(m *model.Model, res *Result) *certificates.Refutation {
+func refuteAnywhere(m *model.Model, res *Result) *checker.Refutation {
 	vals, point, ok := failingParams(res)
 	if !ok {
 		return nil
@@ -599,7 +609,7 @@ func refuteAnywhere(m *model.Model, res *Result) *certificates.Refutation {
 
 // alongRay evaluates V and V̇ at equilibrium + t·y for t = 1, 1/2, 1/4, ...
 // (and −t) and returns the first point that refutes the candidate.
-func alongRay(m *model.Model, res *Result, vals map[string]string, params []*big.Rat, y []*big.Rat, strict bool) *certificates.Refutation {
+func alongRay(m *model.Model, res *Result, vals map[string]string, params []*big.Rat, y []*big.Rat, strict bool) *checker.Refutation {
 	n := len(m.States)
 	x := slices.Clone(params)
 	at := make([]*big.Rat, n)
@@ -640,7 +650,7 @@ func alongRay(m *model.Model, res *Result, vals map[string]string, params []*big
 
 // refuteLinear finds a point near the equilibrium where V < 0, moving
 // against the gradient of V's linear part.
-func refuteLinear(m *model.Model, vs, lin poly.RatFunc) *certificates.Refutation {
+func refuteLinear(m *model.Model, vs, lin poly.RatFunc) *checker.Refutation {
 	res := &Result{Model: m}
 	vals, point, _ := failingParams(res)
 	n := len(m.States)
@@ -661,83 +671,124 @@ func refuteLinear(m *model.Model, vs, lin poly.RatFunc) *certificates.Refutation
 }
 
 // finish builds the certificate and re-checks it; a claim that the checker
-// does not accept is an internal error, never printed.
+// does not accept, or a verdict it does not derive, is an internal error,
+// never printed.
 func finish(res *Result, source string) (*Result, error) {
 	doc := res.document(source)
-	if err := doc.Seal(); err != nil {
+	if err := certificates.Seal(doc); err != nil {
 		return nil, err
 	}
 	res.Doc = doc
-	res.Check = certificates.Verify(doc)
-	if !res.Check.Valid {
+	res.Check = checker.Verify(doc)
+	if err := Agrees(res.Check, res.Verdict, res.Claim); err != nil {
+		return nil, err
+	}
+	return res, nil
+}
+
+// Agrees returns ErrUnverified, with the failed checks, unless the kernel
+// accepted the certificate and derived the verdict and kind the engine found.
+func Agrees(out checker.Outcome, verdict, kind string) error {
+	if !out.Valid {
 		var failed []string
-		for _, c := range res.Check.Checks {
+		for _, c := range out.Records {
 			if !c.OK {
 				failed = append(failed, c.Name+": "+c.Reason)
 			}
 		}
-		return nil, fmt.Errorf("%w: %s", ErrUnverified, strings.Join(failed, "; "))
+		return fmt.Errorf("%w: %s", ErrUnverified, strings.Join(failed, "; "))
 	}
-	return res, nil
+	if out.Verdict != verdict || out.Kind != kind {
+		return fmt.Errorf("%w: the checker derives %s (%s), the engine found %s (%s)", ErrUnverified, out.Verdict, out.Kind, verdict, kind)
+	}
+	return nil
 }
 
 // ErrUnverified reports a certificate that the exact checker rejected: a bug
 // in the engine, never a claim.
 var ErrUnverified = errors.New("internal error: the exact checker rejected the certificate the engine built")
 
-func (res *Result) document(source string) *certificates.Document {
-	m := res.Model
-	d := &certificates.Document{
-		Format:      certificates.Format,
+// NewDocument starts a certificate of m with its restatement and no claims.
+func NewDocument(m *model.Model, source string, equilibrium []string) *checker.Document {
+	var eqs []string
+	for i := range m.States {
+		eqs = append(eqs, m.F[i].String())
+	}
+	if equilibrium == nil {
+		for i := range m.States {
+			equilibrium = append(equilibrium, m.At[i].String())
+		}
+	}
+	return &checker.Document{
+		Format:      checker.Format,
 		Tool:        "lyacert " + Version,
 		Issued:      time.Now().UTC().Format(time.RFC3339),
 		Source:      source,
-		Description: m.Description,
+		Description: nonNil(m.Description),
 		Model:       m.Canonical(),
-		V:           res.V.String(),
-		Vdot:        res.Vdot.String(),
-		Claim:       res.Claim,
-		Verdict:     res.Verdict,
+		System:      systemDoc(m, eqs, equilibrium),
+		Claims:      []checker.Claim{},
 	}
-	var eqs, at []string
-	for i := range m.States {
-		eqs = append(eqs, m.F[i].String())
-		at = append(at, m.At[i].String())
+}
+
+func nonNil(s []string) []string {
+	if s == nil {
+		return []string{}
 	}
-	d.System = systemDoc(m, eqs, at)
-	d.Forms = []certificates.Form{}
+	return s
+}
+
+func (res *Result) document(source string) *checker.Document {
+	d := NewDocument(res.Model, source, nil)
+	add := func(c checker.Claim) { d.Claims = append(d.Claims, c) }
+	add(&checker.OrbitalDerivative{V: res.V.String(), Vdot: res.Vdot.String()})
 	for _, f := range res.Forms {
-		fd := certificates.Form{Name: f.Name, Gram: f.Gram.Strings(), L: f.LDL.L.Strings()}
-		for _, z := range f.Basis {
-			fd.Basis = append(fd.Basis, z.String())
-		}
+		lf := checker.LDLForm{Of: f.Name, Gram: f.Gram.Strings(), L: f.LDL.L.Strings(), D: []string{}, Minors: []string{}}
 		for _, p := range f.LDL.D {
-			fd.D = append(fd.D, p.String())
+			lf.D = append(lf.D, p.String())
 		}
-		fd.Minors = []string{}
 		for _, mi := range f.Minors {
-			fd.Minors = append(fd.Minors, mi.String())
+			lf.Minors = append(lf.Minors, mi.String())
 		}
-		d.Forms = append(d.Forms, fd)
+		if f.Basis == nil {
+			add(&checker.QuadraticPart{LDLForm: lf})
+			continue
+		}
+		mg := &checker.MonomialGram{LDLForm: lf}
+		for _, z := range f.Basis {
+			mg.Basis = append(mg.Basis, z.String())
+		}
+		add(mg)
 	}
-	d.Conditions = []certificates.Condition{}
 	for _, c := range res.Conds {
-		cd := certificates.Condition{Form: c.Form, Index: c.Index, Minor: c.Minor.String(), Constant: c.Constant.RatString(), Condition: c.Q.String()}
-		cd.Factors = []certificates.FactorDoc{}
+		cd := &checker.MinorCondition{Form: c.Form, Index: c.Index, Minor: c.Minor.String(), Constant: c.Constant.RatString(), Condition: c.Q.String(), Factors: []checker.Factor{}}
 		for _, f := range c.Factors {
-			cd.Factors = append(cd.Factors, certificates.FactorDoc{Poly: f.P.String(), Power: f.Power, Status: f.Status})
+			cd.Factors = append(cd.Factors, checker.Factor{Poly: f.P.String(), Power: f.Power, Status: f.Status})
 		}
-		d.Conditions = append(d.Conditions, cd)
+		add(cd)
 	}
-	d.Region = res.Region
-	d.Witnesses = res.Witnesses
-	d.Refutation = res.Refutation
-	for _, k := range res.Kernel {
-		var row []string
-		for _, e := range k {
-			row = append(row, e.String())
+	if len(res.Kernel) > 0 {
+		ns := &checker.NullSpace{Of: "-Vdot"}
+		for _, k := range res.Kernel {
+			var row []string
+			for _, e := range k {
+				row = append(row, e.String())
+			}
+			ns.Vectors = append(ns.Vectors, row)
 		}
-		d.Kernel = append(d.Kernel, row)
+		add(ns)
+	}
+	switch rg := res.Region; {
+	case rg != nil && rg.Paving != nil:
+		add(rg.Paving)
+	case rg != nil:
+		add(&checker.SturmRegion{Param: rg.Param, Intervals: rg.Intervals, Pieces: rg.Pieces})
+	}
+	if len(res.Witnesses) > 0 {
+		add(&checker.WitnessPoints{Points: res.Witnesses})
+	}
+	if res.Refutation != nil {
+		add(res.Refutation)
 	}
 	return d
 }
@@ -745,7 +796,7 @@ func (res *Result) document(source string) *certificates.Document {
 // minimalRefutation states a refuting point with only the parameters that V
 // or V̇ there depends on; the values are functions of the others, which do
 // not occur in them.
-func minimalRefutation(m *model.Model, res *Result, vals map[string]string, x []*big.Rat) *certificates.Refutation {
+func minimalRefutation(m *model.Model, res *Result, vals map[string]string, x []*big.Rat) *checker.Refutation {
 	r := m.Ring
 	n := len(m.States)
 	keep := map[int]*big.Rat{}
@@ -798,19 +849,19 @@ func minimalRefutation(m *model.Model, res *Result, vals map[string]string, x []
 	for i, name := range m.States {
 		pt[name] = x[i].RatString()
 	}
-	return &certificates.Refutation{Params: params, Point: pt, V: at(res.V, keep).String(), Vdot: at(res.Vdot, keep).String()}
+	return &checker.Refutation{Params: params, Point: pt, V: at(res.V, keep).String(), Vdot: at(res.Vdot, keep).String()}
 }
 
 // systemDoc restates the model in a certificate: time, states, assumptions,
 // the equations' and the equilibrium's texts.
-func systemDoc(m *model.Model, equations, equilibrium []string) certificates.System {
-	sys := certificates.System{Time: "continuous", States: slices.Clone(m.States), Params: []certificates.ParamDoc{},
+func systemDoc(m *model.Model, equations, equilibrium []string) checker.System {
+	sys := checker.System{Time: "continuous", States: slices.Clone(m.States), Params: []checker.ParamDoc{},
 		Equations: equations, Equilibrium: equilibrium}
 	if m.Discrete {
 		sys.Time = "discrete"
 	}
 	for _, p := range m.Params {
-		sys.Params = append(sys.Params, certificates.ParamDoc{Name: p.Name, Range: model.RangeText(p)})
+		sys.Params = append(sys.Params, checker.ParamDoc{Name: p.Name, Range: model.RangeText(p)})
 	}
 	return sys
 }

@@ -10,7 +10,7 @@ import (
 
 	"gonum.org/v1/gonum/mat"
 
-	"lyacert/certificates"
+	"lyacert/checker"
 	"lyacert/model"
 	"lyacert/poly"
 )
@@ -39,7 +39,7 @@ func parseIn(t testing.TB, m *model.Model, s string) poly.RatFunc {
 // and at r = 1 the result is semidefinite.
 func TestLorenzRegion(t *testing.T) {
 	res := check(t, "lorenz.lya")
-	if res.Claim != certificates.ClaimGlobal || res.Verdict != certificates.VerdictOnRegion {
+	if res.Claim != checker.KindGlobal || res.Verdict != checker.VerdictOnRegion {
 		t.Fatalf("claim %s verdict %s", res.Claim, res.Verdict)
 	}
 	want := parseIn(t, res.Model, "-2*x^2 + 2*(r + 1)*x*y - 2*y^2 - 2*b*z^2")
@@ -56,7 +56,7 @@ func TestLorenzRegion(t *testing.T) {
 	var named []string
 	for _, c := range res.Conds {
 		for _, f := range c.Factors {
-			if f.Status == certificates.StatusPositive {
+			if f.Status == checker.StatusPositive {
 				named = append(named, f.P.String())
 			}
 		}
@@ -70,7 +70,7 @@ func TestLorenzRegion(t *testing.T) {
 
 	// At r = 1 exactly: semidefinite, stable, V̇ = 0 on x = y, z = 0.
 	res = check(t, "lorenz.lya", "r=1")
-	if res.Claim != certificates.ClaimStable || res.Verdict != certificates.VerdictHolds {
+	if res.Claim != checker.KindStable || res.Verdict != checker.VerdictHolds {
 		t.Fatalf("r = 1: claim %s verdict %s", res.Claim, res.Verdict)
 	}
 	if len(res.Kernel) != 1 || res.Kernel[0][0].String() != "1" || res.Kernel[0][1].String() != "1" || res.Kernel[0][2].String() != "0" {
@@ -78,7 +78,7 @@ func TestLorenzRegion(t *testing.T) {
 	}
 
 	// Inside the region: holds.
-	if res := check(t, "lorenz.lya", "r=1/2"); res.Verdict != certificates.VerdictHolds || res.Claim != certificates.ClaimGlobal {
+	if res := check(t, "lorenz.lya", "r=1/2"); res.Verdict != checker.VerdictHolds || res.Claim != checker.KindGlobal {
 		t.Errorf("r = 1/2: %s %s", res.Claim, res.Verdict)
 	}
 }
@@ -90,7 +90,7 @@ func TestOgata(t *testing.T) {
 	if want := parseIn(t, res.Model, "-x1^2 - x2^2"); !res.Vdot.Equal(want) {
 		t.Errorf("V̇ = %s, want %s", res.Vdot, want)
 	}
-	if res.Verdict != certificates.VerdictHolds || res.Claim != certificates.ClaimGlobal {
+	if res.Verdict != checker.VerdictHolds || res.Claim != checker.KindGlobal {
 		t.Errorf("%s %s", res.Claim, res.Verdict)
 	}
 }
@@ -107,7 +107,7 @@ func TestStrogatzSection72(t *testing.T) {
 	// in the basis (x, y²): the origin is globally asymptotically stable
 	// (Strogatz §7.2 reaches the same conclusion by hand).
 	res = check(t, "strogatz72.lya", "a=4")
-	if res.Verdict != certificates.VerdictHolds || res.Claim != certificates.ClaimGlobal {
+	if res.Verdict != checker.VerdictHolds || res.Claim != checker.KindGlobal {
 		t.Errorf("a = 4: %s %s", res.Claim, res.Verdict)
 	}
 	if b := res.Forms[1].Basis; len(b) != 2 || b[0].String() != "x" || b[1].String() != "y^2" {
@@ -122,7 +122,7 @@ func TestDampedOscillator(t *testing.T) {
 	if want := parseIn(t, res.Model, "-c*y^2"); !res.Vdot.Equal(want) {
 		t.Errorf("V̇ = %s, want %s", res.Vdot, want)
 	}
-	if res.Claim != certificates.ClaimStable || res.Verdict != certificates.VerdictHolds {
+	if res.Claim != checker.KindStable || res.Verdict != checker.VerdictHolds {
 		t.Errorf("%s %s", res.Claim, res.Verdict)
 	}
 	if len(res.Kernel) != 1 || res.Kernel[0][0].String() != "1" || res.Kernel[0][1].String() != "0" {
@@ -135,14 +135,14 @@ func TestOtherVerdicts(t *testing.T) {
 		file, claim, verdict string
 		refuted              bool
 	}{
-		{"local.lya", certificates.ClaimLocal, certificates.VerdictHolds, false},
-		{"cubic.lya", certificates.ClaimGlobal, certificates.VerdictHolds, false},
-		{"quartic.lya", certificates.ClaimGlobal, certificates.VerdictHolds, false},
-		{"unstable.lya", certificates.ClaimNone, certificates.VerdictFails, true},
-		{"twogains.lya", certificates.ClaimGlobal, certificates.VerdictOnRegion, true},
-		{"shifted.lya", certificates.ClaimLocal, certificates.VerdictHolds, false},
-		{"linearpart.lya", certificates.ClaimNone, certificates.VerdictFails, true},
-		{"discrete.lya", certificates.ClaimGlobal, certificates.VerdictHolds, false},
+		{"local.lya", checker.KindLocal, checker.VerdictHolds, false},
+		{"cubic.lya", checker.KindGlobal, checker.VerdictHolds, false},
+		{"quartic.lya", checker.KindGlobal, checker.VerdictHolds, false},
+		{"unstable.lya", checker.KindNone, checker.VerdictFails, true},
+		{"twogains.lya", checker.KindGlobal, checker.VerdictOnRegion, true},
+		{"shifted.lya", checker.KindLocal, checker.VerdictHolds, false},
+		{"linearpart.lya", checker.KindNone, checker.VerdictFails, true},
+		{"discrete.lya", checker.KindGlobal, checker.VerdictHolds, false},
 	} {
 		res := check(t, c.file)
 		if res.Claim != c.claim || res.Verdict != c.verdict || (res.Refutation != nil) != c.refuted {
@@ -332,7 +332,7 @@ func BenchmarkCheckDemo(b *testing.B) {
 func BenchmarkVerify(b *testing.B) {
 	res := check(b, "")
 	for b.Loop() {
-		if !certificates.Verify(res.Doc).Valid {
+		if !checker.Verify(res.Doc).Valid {
 			b.Fatal("invalid")
 		}
 	}

@@ -3,6 +3,7 @@ package certify
 import (
 	"cmp"
 	"fmt"
+	"lyacert/checker"
 	"math"
 	"math/big"
 	"math/cmplx"
@@ -12,7 +13,6 @@ import (
 
 	"gonum.org/v1/gonum/mat"
 
-	"lyacert/certificates"
 	"lyacert/model"
 	"lyacert/poly"
 )
@@ -94,12 +94,12 @@ func FindEquilibria(m *model.Model) (*EquilibriumSearch, error) {
 	if err := requireFixed(m, "finding equilibria"); err != nil {
 		return nil, err
 	}
-	g, err := certificates.EquilibriumEquations(m.F, m.Discrete)
+	g, err := checker.EquilibriumEquations(m.F, m.Discrete)
 	if err != nil {
 		return nil, err
 	}
 	n := len(g)
-	jac := certificates.Jacobian(g)
+	jac := poly.Jacobian(g)
 	el := &eliminator{n: n, r: m.Ring}
 	el.solve(g, make([]*poly.Poly, n))
 	search := &EquilibriumSearch{Complete: !el.incomplete, NonIsolated: el.nonIsolated}

@@ -3,6 +3,8 @@ package certify
 import (
 	"errors"
 	"fmt"
+	"lyacert/certificates"
+	"lyacert/checker"
 	"math"
 	"math/big"
 	"slices"
@@ -11,7 +13,6 @@ import (
 
 	"gonum.org/v1/gonum/mat"
 
-	"lyacert/certificates"
 	"lyacert/certify/lyap"
 	"lyacert/model"
 	"lyacert/poly"
@@ -23,7 +24,7 @@ const (
 	// nonlinear argument of the model's derivative (local or global claim).
 	MethodFull = "full"
 	// MethodLinearization: Lyapunov's indirect method at the equilibrium, in
-	// a certificates.Linearization document (local stability or instability).
+	// a checker.Linearization document (local stability or instability).
 	MethodLinearization = "linearization"
 )
 
@@ -84,10 +85,10 @@ type Certification struct {
 	Decay [][]poly.Interval
 	// Check is the full check's result (MethodFull only).
 	Check *Result
-	// Doc has passed certificates.Verify; Verified is that result. Nil when
+	// Doc has passed checker.Verify; Verified is that result. Nil when
 	// nothing was certified (verdict undecided).
-	Doc      *certificates.Document
-	Verified certificates.Result
+	Doc      *checker.Document
+	Verified checker.Outcome
 }
 
 // rationalizeTolerances are the relative tolerances tried, in order, when P
@@ -103,7 +104,7 @@ var rationalizeTolerances = []float64{1e-3, 1e-6, 1e-9, 1e-12, 0}
 // M = −(JᵀP + PJ) (P − JᵀPJ) is positive definite — over the whole Krawczyk
 // box for an enclosed equilibrium — and P is either positive definite
 // (stable) or has a negative pivot (unstable), and writes a certificate that
-// certificates.Verify accepts. With opts.Full an exact stable equilibrium is
+// checker.Verify accepts. With opts.Full an exact stable equilibrium is
 // then certified by Check on V = (x − x*)ᵀP(x − x*), which can give a global
 // claim.
 //
@@ -115,7 +116,7 @@ var rationalizeTolerances = []float64{1e-3, 1e-6, 1e-9, 1e-12, 0}
 func CertifyEquilibrium(m *model.Model, e *Equilibrium, opts CertifyOptions) (*Certification, error) {
 	n := len(m.States)
 	undecided := func(format string, args ...any) (*Certification, error) {
-		return &Certification{Method: MethodLinearization, Verdict: certificates.VerdictUndecided, Claim: certificates.ClaimNone,
+		return &Certification{Method: MethodLinearization, Verdict: checker.VerdictUndecided, Claim: checker.KindNone,
 			Reason: fmt.Sprintf(format, args...)}, nil
 	}
 	if e.Status == EquilibriumApproximate {
@@ -173,23 +174,23 @@ func CertifyEquilibrium(m *model.Model, e *Equilibrium, opts CertifyOptions) (*C
 		}
 		var decay [][]poly.Interval
 		if e.ExactJacobian != nil {
-			decay = pointIntervals(certificates.DecayAt(e.ExactJacobian, m.Discrete, p))
+			decay = pointIntervals(DecayAt(e.ExactJacobian, m.Discrete, p))
 		} else {
-			decay = certificates.DecayEnclosure(f, m.Discrete, p, box)
+			decay = checker.DecayEnclosure(f, m.Discrete, p, box)
 		}
-		if !certificates.PositiveDefiniteOn(decay) {
+		if !checker.PositiveDefiniteOn(decay) {
 			continue
 		}
-		k, pivot := certificates.FirstNonPositivePivot(p)
+		k, pivot := poly.FirstNonPositivePivot(p)
 		if k >= 0 && pivot.Sign() == 0 {
 			continue
 		}
 		c := &Certification{Method: MethodLinearization, P: p, Tolerance: tol, Decay: decay}
 		if k < 0 {
-			c.Verdict, c.Claim = certificates.VerdictHolds, certificates.ClaimLocal
+			c.Verdict, c.Claim = checker.VerdictHolds, checker.KindLocal
 			c.Reason = "the linearization is stable: P ≻ 0 and " + decayName(m) + " ≻ 0 exactly (Lyapunov's indirect method)"
 		} else {
-			c.Verdict, c.Claim = certificates.VerdictFails, certificates.ClaimUnstable
+			c.Verdict, c.Claim = checker.VerdictFails, checker.KindUnstable
 			c.Reason = fmt.Sprintf("the equilibrium is unstable: %s ≻ 0 exactly and P has a negative pivot (%d), so −V grows near the equilibrium (Lyapunov's instability theorem)", decayName(m), k+1)
 		}
 		if e.Status == EquilibriumExact && opts.Full {
@@ -204,14 +205,14 @@ func CertifyEquilibrium(m *model.Model, e *Equilibrium, opts CertifyOptions) (*C
 				return c, nil
 			}
 		}
-		doc := linearizationDoc(m, e, p, decay, c.Claim, c.Verdict, opts)
-		if err := doc.Seal(); err != nil {
+		doc := linearizationDoc(m, e, p, decay, opts)
+		if err := certificates.Seal(doc); err != nil {
 			return nil, err
 		}
 		c.Doc = doc
-		c.Verified = certificates.Verify(doc)
-		if !c.Verified.Valid {
-			return nil, fmt.Errorf("%w: %s", ErrUnverified, failedChecks(c.Verified))
+		c.Verified = checker.Verify(doc)
+		if err := Agrees(c.Verified, c.Verdict, c.Claim); err != nil {
+			return nil, err
 		}
 		return c, nil
 	}
@@ -271,16 +272,6 @@ func decayName(m *model.Model) string {
 	return "−(AᵀP + PA)"
 }
 
-func failedChecks(r certificates.Result) string {
-	var failed []string
-	for _, c := range r.Checks {
-		if !c.OK {
-			failed = append(failed, c.Name+": "+c.Reason)
-		}
-	}
-	return strings.Join(failed, "; ")
-}
-
 // full runs Check on V = (x − x*)ᵀP(x − x*) with the model's equilibrium set
 // to x*. It leaves c.Doc nil when Check does not confirm the claim (the
 // linearization certificate is used then).
@@ -296,22 +287,22 @@ func (c *Certification) full(m *model.Model, e *Equilibrium, opts CertifyOptions
 	if err != nil {
 		return err
 	}
-	if res.Verdict != certificates.VerdictHolds {
+	if res.Verdict != checker.VerdictHolds {
 		return nil
 	}
 	if opts.Issued == "" {
 		res.Doc.Issued = ""
-		if err := res.Doc.Seal(); err != nil {
+		if err := certificates.Seal(res.Doc); err != nil {
 			return err
 		}
-		res.Check = certificates.Verify(res.Doc)
-		if !res.Check.Valid {
-			return fmt.Errorf("%w: %s", ErrUnverified, failedChecks(res.Check))
+		res.Check = checker.Verify(res.Doc)
+		if err := Agrees(res.Check, res.Verdict, res.Claim); err != nil {
+			return err
 		}
 	}
 	c.Method, c.Check, c.Doc, c.Verified = MethodFull, res, res.Doc, res.Check
 	c.Verdict, c.Claim = res.Verdict, res.Claim
-	if res.Claim == certificates.ClaimGlobal {
+	if res.Claim == checker.KindGlobal {
 		c.Reason = "V and its derivative are exactly quadratic with definite forms (Lyapunov's direct method, global)"
 	} else {
 		c.Reason = "the quadratic parts of V and of −" + dotWord(m) + " are positive definite (Lyapunov's direct method, local)"
@@ -346,10 +337,10 @@ func quadraticAbout(r *poly.Ring, p [][]*big.Rat, at []*big.Rat) poly.RatFunc {
 	return poly.FromPoly(v)
 }
 
-// linearizationDoc builds the certificates.Linearization document: the
+// linearizationDoc builds the checker.Linearization document: the
 // model without a candidate, its equilibrium as the "at" point (exact) or
 // as the box (enclosed), P, the Krawczyk data and the enclosure of M.
-func linearizationDoc(m *model.Model, e *Equilibrium, p [][]*big.Rat, decay [][]poly.Interval, claim, verdict string, opts CertifyOptions) *certificates.Document {
+func linearizationDoc(m *model.Model, e *Equilibrium, p [][]*big.Rat, decay [][]poly.Interval, opts CertifyOptions) *checker.Document {
 	n := len(m.States)
 	texts := opts.texts
 	if texts == nil {
@@ -358,7 +349,8 @@ func linearizationDoc(m *model.Model, e *Equilibrium, p [][]*big.Rat, decay [][]
 	// The canonical text of the model without a candidate, with the exact
 	// equilibrium as its "at" line (model.Canonical's form) or with none.
 	text := texts.base
-	lz := &certificates.Linearization{}
+	lz := &checker.Linearization{}
+	var kz *checker.KrawczykEnclosure
 	eqText := make([]string, n)
 	if e.Status == EquilibriumExact {
 		parts := make([]string, n)
@@ -368,32 +360,34 @@ func linearizationDoc(m *model.Model, e *Equilibrium, p [][]*big.Rat, decay [][]
 		}
 		text += "at " + strings.Join(parts, ", ") + "\n"
 	} else {
+		kz = &checker.KrawczykEnclosure{Preconditioner: ratMatrixText(e.Y)}
 		for i, iv := range e.Box {
-			lz.Box = append(lz.Box, certificates.IntervalText(iv))
-			eqText[i] = certificates.BoxText(lz.Box[i])
-			lz.Krawczyk = append(lz.Krawczyk, certificates.IntervalText(e.K[i]))
+			kz.Box = append(kz.Box, checker.IntervalText(iv))
+			eqText[i] = checker.BoxText(kz.Box[i])
+			kz.Krawczyk = append(kz.Krawczyk, checker.IntervalText(e.K[i]))
 		}
-		lz.Preconditioner = ratMatrixText(e.Y)
 	}
 	lz.P = ratMatrixText(p)
 	lz.Decay = make([][][2]string, n)
 	for i := range decay {
 		for j := range decay[i] {
-			lz.Decay[i] = append(lz.Decay[i], certificates.IntervalText(decay[i][j]))
+			lz.Decay[i] = append(lz.Decay[i], checker.IntervalText(decay[i][j]))
 		}
 	}
-	d := &certificates.Document{
-		Format:        certificates.Format,
-		Tool:          "lyacert " + Version,
-		Issued:        opts.Issued,
-		Source:        opts.Source,
-		Description:   m.Description,
-		Model:         text,
-		Claim:         claim,
-		Verdict:       verdict,
-		Linearization: lz,
+	d := &checker.Document{
+		Format:      checker.Format,
+		Tool:        "lyacert " + Version,
+		Issued:      opts.Issued,
+		Source:      opts.Source,
+		Description: nonNil(m.Description),
+		Model:       text,
+		System:      systemDoc(m, slices.Clone(texts.equations), eqText),
+		Claims:      []checker.Claim{},
 	}
-	d.System = systemDoc(m, slices.Clone(texts.equations), eqText)
+	if kz != nil {
+		d.Claims = append(d.Claims, kz)
+	}
+	d.Claims = append(d.Claims, lz)
 	return d
 }
 
@@ -433,7 +427,7 @@ var ErrNoTarget = errors.New("the origin is not an equilibrium of this model")
 // certifies the model's own (its "at" point, or the origin), or every one
 // with opts.All. Rational equilibria that the linearization shows stable go
 // through the full check (Check on V = (x − x*)ᵀP(x − x*)); the others get
-// linearization certificates. Input errors (free parameters, an "at" point
+// linearization checker. Input errors (free parameters, an "at" point
 // that is not an equilibrium, no target) are returned as errors.
 func Find(m *model.Model, opts FindOptions) (*FindResult, error) {
 	if err := requireFixed(m, "find"); err != nil {

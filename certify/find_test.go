@@ -8,7 +8,7 @@ import (
 	"path/filepath"
 	"testing"
 
-	"lyacert/certificates"
+	"lyacert/checker"
 	"lyacert/model"
 )
 
@@ -56,21 +56,21 @@ func TestFindLinearExact(t *testing.T) {
 	}{
 		// Ogata, Modern Control Engineering: A = [[0, 1], [−1, −1]], Q = I
 		// gives P = [[3/2, 1/2], [1/2, 1]].
-		{"ogata", "state x, y\nx' = y\ny' = -x - y\n", [][]string{{"3/2", "1/2"}, {"1/2", "1"}}, certificates.ClaimGlobal, certificates.VerdictHolds},
+		{"ogata", "state x, y\nx' = y\ny' = -x - y\n", [][]string{{"3/2", "1/2"}, {"1/2", "1"}}, checker.KindGlobal, checker.VerdictHolds},
 		// hand computation: A = diag(−1, −2), AᵀP + PA = −I gives P = diag(1/2, 1/4).
-		{"diagonal", "state x, y\nx' = -x\ny' = -2*y\n", [][]string{{"1/2", "0"}, {"0", "1/4"}}, certificates.ClaimGlobal, certificates.VerdictHolds},
+		{"diagonal", "state x, y\nx' = -x\ny' = -2*y\n", [][]string{{"1/2", "0"}, {"0", "1/4"}}, checker.KindGlobal, checker.VerdictHolds},
 		// hand computation: A = diag(1, −1) is a saddle. λ₁ + λ₂ = 0 makes the
 		// Lyapunov equation singular, so P comes from the shifted equation
 		// (A + sI)ᵀP + P(A + sI) = −I: P ≈ diag(−1/2, 1/2), a negative pivot,
 		// and −(AᵀP + PA) ≈ I ≻ 0: unstable. P is not compared.
-		{"saddle", "state x, y\nx' = x\ny' = -y\n", nil, certificates.ClaimUnstable, certificates.VerdictFails},
+		{"saddle", "state x, y\nx' = x\ny' = -y\n", nil, checker.KindUnstable, checker.VerdictFails},
 		// hand computation: A = [[0, 1], [−1, 0]] is a centre; no P passes
 		// the exact tests (the linearization decides nothing).
-		{"centre", "state x, y\nx' = y\ny' = -x\n", nil, certificates.ClaimNone, certificates.VerdictUndecided},
+		{"centre", "state x, y\nx' = y\ny' = -x\n", nil, checker.KindNone, checker.VerdictUndecided},
 		// hand computation (Stein equation): A = [[1/2, 1], [0, 1/2]],
 		// AᵀPA − P = −I gives P = [[4/3, 8/9], [8/9, 116/27]]; the shortest
 		// rounding that passes the exact tests has 43/10 for 116/27.
-		{"map", "state x, y\nnext x = x/2 + y\nnext y = y/2\n", [][]string{{"4/3", "8/9"}, {"8/9", "43/10"}}, certificates.ClaimGlobal, certificates.VerdictHolds},
+		{"map", "state x, y\nnext x = x/2 + y\nnext y = y/2\n", [][]string{{"4/3", "8/9"}, {"8/9", "43/10"}}, checker.KindGlobal, checker.VerdictHolds},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
@@ -90,13 +90,13 @@ func TestFindLinearExact(t *testing.T) {
 					}
 				}
 			}
-			if c.verdict == certificates.VerdictUndecided {
+			if c.verdict == checker.VerdictUndecided {
 				if ct.Doc != nil {
 					t.Fatalf("a certificate for an undecided verdict")
 				}
 				return
 			}
-			if ct.Doc == nil || !certificates.Verify(ct.Doc).Valid {
+			if ct.Doc == nil || !checker.Verify(ct.Doc).Valid {
 				t.Fatalf("no valid certificate")
 			}
 		})
@@ -146,7 +146,7 @@ func TestFindEquilibria(t *testing.T) {
 				switch e.Status {
 				case EquilibriumExact:
 					exact++
-					g, _ := certificates.EquilibriumEquations(m.F, m.Discrete)
+					g, _ := checker.EquilibriumEquations(m.F, m.Discrete)
 					for _, gi := range g {
 						if gi.Eval(e.Point).Sign() != 0 {
 							t.Errorf("exact point %v is not an equilibrium", e.Approx)
@@ -205,10 +205,10 @@ func sweepLines(t *testing.T, opts SweepOptions) []SweepLine {
 			if (l.Digest != nil) != (sp.Docs[i] != nil) {
 				t.Errorf("point %d: digest without certificate or the reverse", l.Index)
 			}
-			if d := sp.Docs[i]; d != nil && (d.Digest != *l.Digest || !certificates.Verify(d).Valid) {
+			if d := sp.Docs[i]; d != nil && (d.Digest != *l.Digest || !checker.Verify(d).Valid) {
 				t.Errorf("point %d: the certificate behind the line does not verify", l.Index)
 			}
-			if l.Verdict != certificates.VerdictUndecided && l.Digest == nil {
+			if l.Verdict != checker.VerdictUndecided && l.Digest == nil {
 				t.Errorf("point %d: verdict %s without a certificate", l.Index, l.Verdict)
 			}
 		}
@@ -243,13 +243,13 @@ func TestRouthHurwitzSweep(t *testing.T) {
 			prod := new(big.Rat).Mul(a2, qrat(a1))
 			boundary := a2.Sign() == 0 || a0.Sign() == 0 || prod.Cmp(a0) == 0
 			hurwitz := a2.Sign() > 0 && a0.Sign() > 0 && prod.Cmp(a0) > 0
-			holds := l.Verdict == certificates.VerdictHolds
+			holds := l.Verdict == checker.VerdictHolds
 			switch {
 			case boundary && holds:
 				t.Errorf("a1=%s a2=%s a0=%s: on the boundary, yet certified stable", a1, a2v, a0v)
 			case !boundary && holds != hurwitz:
 				t.Errorf("a1=%s a2=%s a0=%s: certified stable %v, Hurwitz %v (%s)", a1, a2v, a0v, holds, hurwitz, l.Reason)
-			case !boundary && !hurwitz && l.Claim != certificates.ClaimUnstable:
+			case !boundary && !hurwitz && l.Claim != checker.KindUnstable:
 				t.Errorf("a1=%s a2=%s a0=%s: not Hurwitz but not certified unstable (%s)", a1, a2v, a0v, l.Reason)
 			}
 			if i%5 != 0 || a0.Sign() == 0 {
@@ -261,7 +261,7 @@ func TestRouthHurwitzSweep(t *testing.T) {
 			if err != nil {
 				t.Fatal(err)
 			}
-			if got := res.Certs[res.Target].Verdict == certificates.VerdictHolds; got != holds {
+			if got := res.Certs[res.Target].Verdict == checker.VerdictHolds; got != holds {
 				t.Errorf("a1=%s a2=%s a0=%s: find certifies %v, the sweep %v", a1, a2v, a0v, got, holds)
 			}
 		}
@@ -281,7 +281,7 @@ func TestLorenzSweep(t *testing.T) {
 	for _, l := range lines {
 		rv, _ := l.Params.Get("r")
 		r := qrat(rv)
-		holds := l.Verdict == certificates.VerdictHolds
+		holds := l.Verdict == checker.VerdictHolds
 		if r.Cmp(one) == 0 {
 			if holds {
 				t.Errorf("r = 1 (pitchfork): certified stable")
@@ -303,7 +303,7 @@ func TestLorenzSweep(t *testing.T) {
 			t.Errorf("r = %s: C± certified stable %v (%s)", rv, holds, l.Reason)
 		case !origin && r.Cmp(hopf) > 0:
 			seenAbove = true
-			if l.Claim != certificates.ClaimUnstable {
+			if l.Claim != checker.KindUnstable {
 				t.Errorf("r = %s: C± not certified unstable above 470/19 (%s)", rv, l.Reason)
 			}
 		}
@@ -320,19 +320,19 @@ func TestDiscreteTimeCheck(t *testing.T) {
 		// hand computation (Stein equation AᵀPA − P = −I for A = [[1/2, 1],
 		// [0, 1/2]]): P = [[4/3, 8/9], [8/9, 116/27]], so ΔV = −x² − y².
 		{"stein", "state x, y\nnext x = x/2 + y\nnext y = y/2\nV = 4/3*x^2 + 16/9*x*y + 116/27*y^2\n",
-			certificates.VerdictHolds, certificates.ClaimGlobal},
+			checker.VerdictHolds, checker.KindGlobal},
 		// the same map with V = x² + y²: AᵀA − I = [[−3/4, 1/2], [1/2, 1/4]]
 		// is indefinite, so ΔV takes both signs (hand computation).
 		{"indefinite", "state x, y\nnext x = x/2 + y\nnext y = y/2\nV = x^2 + y^2\n",
-			certificates.VerdictFails, certificates.ClaimNone},
+			checker.VerdictFails, checker.KindNone},
 		// hand computation: a nonlinear term of degree 2 in the map leaves
 		// the quadratic part of ΔV = −3/4·x² + ..., a local claim.
 		{"nonlinear", "state x, y\nnext x = x/2 + y^2\nnext y = y/2\nV = x^2 + y^2\n",
-			certificates.VerdictHolds, certificates.ClaimLocal},
+			checker.VerdictHolds, checker.KindLocal},
 		// the logistic map x ↦ 5/2·x(1 − x) at its fixed point 3/5, where
 		// f' = 2 − r = −1/2 (May 1976): V = (x − 3/5)², ΔV's quadratic part −3/4·(x − 3/5)².
 		{"logistic", "state x\nnext x = 5/2*x*(1 - x)\nV = (x - 3/5)^2\nat x = 3/5\n",
-			certificates.VerdictHolds, certificates.ClaimLocal},
+			checker.VerdictHolds, checker.KindLocal},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {

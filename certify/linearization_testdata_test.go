@@ -5,6 +5,7 @@ import (
 	"testing"
 
 	"lyacert/certificates"
+	"lyacert/checker"
 )
 
 // linearizationCases are the linearization certificates kept in
@@ -17,11 +18,11 @@ var linearizationCases = []struct {
 	eq          int    // index in the ordered list of equilibria
 	claim       string // expected
 }{
-	{"lin-lorenz-r20-cminus", "lorenz-classic.lya", []string{"r=20"}, 0, certificates.ClaimLocal},
-	{"lin-lorenz-r20-origin", "lorenz-classic.lya", []string{"r=20"}, 1, certificates.ClaimUnstable},
-	{"lin-lorenz-r28-cplus", "lorenz-classic.lya", []string{"r=28"}, 2, certificates.ClaimUnstable},
-	{"lin-quadmap", "quadmap.lya", nil, 0, certificates.ClaimLocal},
-	{"lin-logistic", "logistic.lya", []string{"r=5/2"}, 1, certificates.ClaimLocal},
+	{"lin-lorenz-r20-cminus", "lorenz-classic.lya", []string{"r=20"}, 0, checker.KindLocal},
+	{"lin-lorenz-r20-origin", "lorenz-classic.lya", []string{"r=20"}, 1, checker.KindUnstable},
+	{"lin-lorenz-r28-cplus", "lorenz-classic.lya", []string{"r=28"}, 2, checker.KindUnstable},
+	{"lin-quadmap", "quadmap.lya", nil, 0, checker.KindLocal},
+	{"lin-logistic", "logistic.lya", []string{"r=5/2"}, 1, checker.KindLocal},
 }
 
 func TestTestdataLinearizationCertificates(t *testing.T) {
@@ -40,12 +41,12 @@ func TestTestdataLinearizationCertificates(t *testing.T) {
 				t.Fatalf("claim %s (%s), want %s", ct.Claim, ct.Reason, c.claim)
 			}
 			ct.Doc.Tool = "lyacert"
-			if err := ct.Doc.Seal(); err != nil {
+			if err := certificates.Seal(ct.Doc); err != nil {
 				t.Fatal(err)
 			}
 			path := filepath.Join("..", "testdata", "certificates", c.name+".json")
 			if *update {
-				if err := ct.Doc.WriteFile(path); err != nil {
+				if err := certificates.WriteFile(ct.Doc, path); err != nil {
 					t.Fatal(err)
 				}
 				return
@@ -54,7 +55,7 @@ func TestTestdataLinearizationCertificates(t *testing.T) {
 			if err != nil {
 				t.Fatalf("%v (run go test ./certify -run TestTestdataLinearizationCertificates -update)", err)
 			}
-			if r := certificates.Verify(doc); !r.Valid {
+			if r := checker.Verify(doc); !r.Valid {
 				t.Fatalf("stored certificate no longer verifies: %v", failed(r))
 			}
 			if ct.Doc.Digest != doc.Digest {

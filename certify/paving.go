@@ -4,12 +4,13 @@ import (
 	"context"
 	"errors"
 	"fmt"
+	"lyacert/certificates"
+	"lyacert/checker"
 	"maps"
 	"math/big"
 	"slices"
 	"strings"
 
-	"lyacert/certificates"
 	"lyacert/certify/pave"
 	"lyacert/model"
 	"lyacert/poly"
@@ -51,7 +52,7 @@ type paveState struct {
 // conditions that remain involve two or more parameters (or Box names more
 // parameters), and every one of them has a bounded range or a Box, the
 // region is paved (set inversion, pave.PaveRegion), its inside boxes are
-// re-checked exactly by certificates.Verify, and when every condition
+// re-checked exactly by checker.Verify, and when every condition
 // involves at most one parameter the region is also given in closed form as
 // a product of one-parameter regions. A parameter without a bounded range
 // leaves the exact conditions and witness points, with Result.PavingNote
@@ -169,22 +170,23 @@ func (res *Result) paveRegion(vars []int) {
 		return
 	}
 	res.Paving = pv
-	doc := &certificates.Paving{
+	doc := &checker.Paving{
 		Resolution: new(big.Rat).SetFrac(big.NewInt(1), new(big.Int).Lsh(big.NewInt(1), uint(level))).RatString(),
 		Tree:       pv.Tree,
 	}
 	for _, s := range box {
 		doc.Params = append(doc.Params, r.Name(s.Var))
-		doc.Box = append(doc.Box, certificates.Interval{
+		doc.Box = append(doc.Box, checker.Interval{
 			Lo: s.Range.Lo.Value.RatString(), Hi: s.Range.Hi.Value.RatString(),
 			LoClosed: !s.Range.Lo.Open, HiClosed: !s.Range.Hi.Open,
 		})
 	}
-	if err := doc.Derive(); err != nil {
+	sum, err := certificates.Summarize(doc)
+	if err != nil {
 		res.pave.err = fmt.Errorf("internal error: the paving tree is malformed: %w", err)
 		return
 	}
-	res.Region = &certificates.Region{Intervals: []certificates.Interval{}, Pieces: []certificates.Piece{}, Paving: doc}
+	res.Region = &Region{Paving: doc}
 
 	// The product form, when every condition involves at most one parameter.
 	separable := true
@@ -201,7 +203,7 @@ func (res *Result) paveRegion(vars []int) {
 				}
 			}
 			pieces := OneParamRegion(r, s.Var, us, s.Range)
-			res.Region.Product = append(res.Region.Product, certificates.Region{Param: r.Name(s.Var), Intervals: Intervals(pieces), Pieces: pieces})
+			doc.Product = append(doc.Product, checker.SturmRegion{Param: r.Name(s.Var), Intervals: Intervals(pieces), Pieces: pieces})
 			holds, fails := false, false
 			for _, pc := range pieces {
 				holds = holds || pc.Holds
@@ -237,23 +239,23 @@ func (res *Result) paveRegion(vars []int) {
 			cover = cover && sameRange(s.Range, p.Range)
 		}
 	}
-	holdsSomewhere := doc.Inside > 0 || wHolds || (separable && !productEmpty)
-	failsSomewhere := doc.Outside > 0 || wFails || (separable && productFails)
+	holdsSomewhere := sum.Inside > 0 || wHolds || (separable && !productEmpty)
+	failsSomewhere := sum.Outside > 0 || wFails || (separable && productFails)
 	names := strings.Join(doc.Params, ", ")
 	summary := fmt.Sprintf("paving of (%s) at resolution %s: %d inside, %d outside, %d undecided boxes",
-		names, doc.Resolution, doc.Inside, doc.Outside, doc.Undecided)
+		names, doc.Resolution, sum.Inside, sum.Outside, sum.Undecided)
 	switch {
-	case cover && separable && productAll, cover && !separable && doc.Outside == 0 && doc.Undecided == 0:
-		res.Verdict = certificates.VerdictHolds
+	case cover && separable && productAll, cover && !separable && sum.Outside == 0 && sum.Undecided == 0:
+		res.Verdict = checker.VerdictHolds
 		res.Reason = fmt.Sprintf("the conditions hold for every allowed value of %s (%s)", names, summary)
-	case cover && separable && productEmpty, cover && !separable && doc.Inside == 0 && doc.Undecided == 0:
-		res.Verdict = certificates.VerdictFails
+	case cover && separable && productEmpty, cover && !separable && sum.Inside == 0 && sum.Undecided == 0:
+		res.Verdict = checker.VerdictFails
 		res.Reason = fmt.Sprintf("the conditions fail for every allowed value of %s (%s)", names, summary)
 	case holdsSomewhere && failsSomewhere:
-		res.Verdict = certificates.VerdictOnRegion
+		res.Verdict = checker.VerdictOnRegion
 		res.Reason = fmt.Sprintf("the conditions hold on part of the box and fail on another part (%s)", summary)
 	default:
-		res.Verdict = certificates.VerdictUndecided
+		res.Verdict = checker.VerdictUndecided
 		res.Reason = fmt.Sprintf("the paving proves neither where the conditions hold and fail across the allowed range (%s)", summary)
 	}
 	if !cover {
@@ -271,11 +273,11 @@ func sameRange(side, r poly.Interval) bool {
 // failingWitness returns a point where some condition fails: the centre of
 // the first outside box of the paving, or a point of a failing piece of the
 // product form, with the parameters the conditions involve.
-func (res *Result) failingWitness(vars []int, box []pave.Side) (certificates.Witness, bool) {
+func (res *Result) failingWitness(vars []int, box []pave.Side) (checker.Witness, bool) {
 	r := res.Model.Ring
-	try := func(point map[int]*big.Rat) (certificates.Witness, bool) {
+	try := func(point map[int]*big.Rat) (checker.Witness, bool) {
 		vals := map[int]*big.Rat{}
-		w := certificates.Witness{Params: map[string]string{}, Values: []string{}}
+		w := checker.Witness{Params: map[string]string{}, Values: []string{}}
 		for _, v := range vars {
 			vals[v] = point[v]
 			w.Params[r.Name(v)] = point[v].RatString()
@@ -295,7 +297,7 @@ func (res *Result) failingWitness(vars []int, box []pave.Side) (certificates.Wit
 	}
 	if leaves, err := res.Region.Paving.Leaves(); err == nil {
 		for _, lf := range leaves {
-			if lf.Class != certificates.PaveOutside {
+			if lf.Class != checker.PaveOutside {
 				continue
 			}
 			point := map[int]*big.Rat{}
@@ -309,7 +311,7 @@ func (res *Result) failingWitness(vars []int, box []pave.Side) (certificates.Wit
 			break
 		}
 	}
-	for k, f := range res.Region.Product {
+	for k, f := range res.Region.Paving.Product {
 		for _, pc := range f.Pieces {
 			isPoint := pc.Lo == pc.Hi && pc.LoPoly == pc.HiPoly && pc.LoClosed && pc.HiClosed
 			if pc.Holds || (isPoint && pc.LoPoly != "") {
@@ -322,5 +324,5 @@ func (res *Result) failingWitness(vars []int, box []pave.Side) (certificates.Wit
 			}
 		}
 	}
-	return certificates.Witness{}, false
+	return checker.Witness{}, false
 }

@@ -4,6 +4,7 @@ import (
 	"context"
 	"encoding/json"
 	"errors"
+	"lyacert/certificates"
 	"math"
 	"math/big"
 	"math/rand/v2"
@@ -14,8 +15,8 @@ import (
 
 	"gonum.org/v1/gonum/mat"
 
-	"lyacert/certificates"
 	"lyacert/certify/pave"
+	"lyacert/checker"
 	"lyacert/model"
 )
 
@@ -56,7 +57,7 @@ func pavingBox(kv ...string) map[string][2]*big.Rat {
 	return out
 }
 
-func leavesOf(t *testing.T, res *Result) []certificates.PavingLeaf {
+func leavesOf(t *testing.T, res *Result) []checker.PavingLeaf {
 	t.Helper()
 	if res.Region == nil || res.Region.Paving == nil {
 		t.Fatalf("no paving (verdict %s: %s; %s)", res.Verdict, res.Reason, res.PavingNote)
@@ -72,25 +73,25 @@ func leavesOf(t *testing.T, res *Result) []certificates.PavingLeaf {
 func TestPavingLorenz(t *testing.T) {
 	cases := []struct {
 		box     map[string][2]*big.Rat
-		product [][]certificates.Interval // holding intervals of r, then b
+		product [][]checker.Interval // holding intervals of r, then b
 		resol   string
 		verdict string
 	}{
 		{ // Strogatz §9.2; r = 1 lies on a grid line of this box
 			box: pavingBox("r", "0", "2", "b", "0", "4"),
-			product: [][]certificates.Interval{
+			product: [][]checker.Interval{
 				{{Lo: "0", Hi: "1", LoClosed: true}},
 				{{Lo: "0", Hi: "4", HiClosed: true}}, // b > 0 keeps the lower end open
 			},
-			resol: "1/64", verdict: certificates.VerdictOnRegion,
+			resol: "1/64", verdict: checker.VerdictOnRegion,
 		},
 		{ // Strogatz §9.2; r = 1 falls inside boxes of this one
 			box: pavingBox("r", "1/2", "3", "b", "1", "5/2"),
-			product: [][]certificates.Interval{
+			product: [][]checker.Interval{
 				{{Lo: "1/2", Hi: "1", LoClosed: true}},
 				{{Lo: "1", Hi: "5/2", LoClosed: true, HiClosed: true}},
 			},
-			resol: "1/32", verdict: certificates.VerdictOnRegion,
+			resol: "1/32", verdict: checker.VerdictOnRegion,
 		},
 	}
 	m := pavingModel(t, "lorenz.lya")
@@ -110,19 +111,20 @@ func TestPavingLorenz(t *testing.T) {
 		k := 0 // r is the first paved parameter
 		for _, lf := range leavesOf(t, res) {
 			switch {
-			case lf.Class == certificates.PaveOutside && lf.Lo[k].Cmp(one) < 0:
+			case lf.Class == checker.PaveOutside && lf.Lo[k].Cmp(one) < 0:
 				t.Errorf("outside box with r from %s < 1", lf.Lo[k].RatString())
-			case lf.Class == certificates.PaveInside && lf.Hi[k].Cmp(one) >= 0:
+			case lf.Class == checker.PaveInside && lf.Hi[k].Cmp(one) >= 0:
 				t.Errorf("inside box reaching r = %s ≥ 1", lf.Hi[k].RatString())
 			}
 		}
-		if pv.Inside == 0 || pv.Outside == 0 {
-			t.Errorf("box %v: %d inside, %d outside boxes", tc.box, pv.Inside, pv.Outside)
+		sum := summary(t, pv)
+		if sum.Inside == 0 || sum.Outside == 0 {
+			t.Errorf("box %v: %d inside, %d outside boxes", tc.box, sum.Inside, sum.Outside)
 		}
-		if len(res.Region.Product) != 2 {
-			t.Fatalf("product %v", res.Region.Product)
+		if len(res.Region.Paving.Product) != 2 {
+			t.Fatalf("product %v", res.Region.Paving.Product)
 		}
-		for i, f := range res.Region.Product {
+		for i, f := range res.Region.Paving.Product {
 			got, _ := json.Marshal(f.Intervals)
 			want, _ := json.Marshal(tc.product[i])
 			if string(got) != string(want) {
@@ -149,9 +151,9 @@ func TestPavingEllipseArea(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		pv := r.Region.Paving
-		in, _ := rat(pv.InsideFraction).Float64()
-		und, _ := rat(pv.UndecidedFraction).Float64()
+		sum := summary(t, r.Region.Paving)
+		in, _ := rat(sum.InsideFraction).Float64()
+		und, _ := rat(sum.UndecidedFraction).Float64()
 		if in > exact+1e-12 || in+und < exact-1e-12 {
 			t.Errorf("resolution %s: inside %.6f, undecided %.6f do not bracket π/12 = %.6f", res, in, und, exact)
 		}
@@ -159,7 +161,7 @@ func TestPavingEllipseArea(t *testing.T) {
 			t.Errorf("resolution %s: undecided share %.6f did not shrink (was %.6f)", res, und, prev)
 		}
 		prev = und
-		if r.Verdict != certificates.VerdictOnRegion {
+		if r.Verdict != checker.VerdictOnRegion {
 			t.Errorf("resolution %s: verdict %s", res, r.Verdict)
 		}
 	}
@@ -182,7 +184,7 @@ func TestPavingAgainstEigenSym(t *testing.T) {
 		pv := res.Region.Paving
 		checked := map[byte]int{}
 		for _, lf := range leavesOf(t, res) {
-			if lf.Class == certificates.PaveUndecided || rng.IntN(4) != 0 {
+			if lf.Class == checker.PaveUndecided || rng.IntN(4) != 0 {
 				continue
 			}
 			x := make([]*big.Rat, m.Ring.NumVars())
@@ -200,18 +202,18 @@ func TestPavingAgainstEigenSym(t *testing.T) {
 				minEig = math.Min(minEig, smallestEigenvalue(t, f, x))
 			}
 			switch lf.Class {
-			case certificates.PaveInside:
+			case checker.PaveInside:
 				if !(minEig > 0) {
 					t.Errorf("%s: inside at %v, but the smallest eigenvalue is %g", file, x, minEig)
 				}
-			case certificates.PaveOutside:
+			case checker.PaveOutside:
 				if minEig > 1e-9 {
 					t.Errorf("%s: outside at %v, but both forms are positive definite (smallest eigenvalue %g)", file, x, minEig)
 				}
 			}
 			checked[lf.Class]++
 		}
-		if checked[certificates.PaveInside] == 0 || (checked[certificates.PaveOutside] == 0 && pv.Outside > 0) {
+		if checked[checker.PaveInside] == 0 || (checked[checker.PaveOutside] == 0 && summary(t, pv).Outside > 0) {
 			t.Errorf("%s: checked %v", file, checked)
 		}
 	}
@@ -314,68 +316,71 @@ func TestPavingTamper(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	raw, err := res.Doc.Marshal()
+	raw, err := certificates.Marshal(res.Doc)
 	if err != nil {
 		t.Fatal(err)
 	}
-	reject := func(what string, change func(p *certificates.Paving)) {
+	pv, _ := checker.First[*checker.Paving](res.Doc)
+	volume := summary(t, pv).Volume
+	// A changed box may still be paved correctly: then the certificate is
+	// valid but about another box, which its volume shows; anything else
+	// must be rejected.
+	reject := func(what string, change func(p *checker.Paving)) {
 		t.Helper()
-		doc, err := certificates.Read(strings.NewReader(string(raw)))
+		doc, err := checker.Read(strings.NewReader(string(raw)))
 		if err != nil {
 			t.Fatal(err)
 		}
-		change(doc.Region.Paving)
-		if err := doc.Seal(); err != nil {
+		p, _ := checker.First[*checker.Paving](doc)
+		change(p)
+		if err := certificates.Seal(doc); err != nil {
 			t.Fatal(err)
 		}
-		if certificates.Verify(doc).Valid {
+		if checker.Verify(doc).Valid {
+			if s, err := certificates.Summarize(p); err == nil && s.Volume != volume && strings.HasPrefix(what, "box") {
+				return
+			}
 			t.Errorf("%s: the changed certificate is accepted", what)
 		}
 	}
-	pv := res.Doc.Region.Paving
 	for i := range len(pv.Tree) {
 		for _, c := range "SIOU" {
 			if byte(c) == pv.Tree[i] {
 				continue
 			}
-			reject("tree", func(p *certificates.Paving) { p.Tree = p.Tree[:i] + string(c) + p.Tree[i+1:] })
+			reject("tree", func(p *checker.Paving) { p.Tree = p.Tree[:i] + string(c) + p.Tree[i+1:] })
 		}
 	}
-	reject("tree end", func(p *certificates.Paving) { p.Tree += "I" })
-	reject("tree cut", func(p *certificates.Paving) { p.Tree = p.Tree[:len(p.Tree)-1] })
+	reject("tree end", func(p *checker.Paving) { p.Tree += "I" })
+	reject("tree cut", func(p *checker.Paving) { p.Tree = p.Tree[:len(p.Tree)-1] })
 	bump := func(s string) string {
 		q := rat(s)
 		return q.Add(q, big.NewRat(1, 64)).RatString()
 	}
 	for i := range pv.Box {
-		reject("box lo", func(p *certificates.Paving) { p.Box[i].Lo = bump(p.Box[i].Lo) })
-		reject("box hi", func(p *certificates.Paving) { p.Box[i].Hi = bump(p.Box[i].Hi) })
-		reject("box lo closed", func(p *certificates.Paving) { p.Box[i].LoClosed = !p.Box[i].LoClosed })
-		reject("box hi closed", func(p *certificates.Paving) { p.Box[i].HiClosed = !p.Box[i].HiClosed })
+		reject("box lo", func(p *checker.Paving) { p.Box[i].Lo = bump(p.Box[i].Lo) })
+		reject("box hi", func(p *checker.Paving) { p.Box[i].Hi = bump(p.Box[i].Hi) })
+		reject("box lo closed", func(p *checker.Paving) { p.Box[i].LoClosed = !p.Box[i].LoClosed })
+		reject("box hi closed", func(p *checker.Paving) { p.Box[i].HiClosed = !p.Box[i].HiClosed })
 	}
-	reject("params", func(p *certificates.Paving) { p.Params[0], p.Params[1] = p.Params[1], p.Params[0] })
-	reject("volume", func(p *certificates.Paving) { p.Volume = bump(p.Volume) })
-	reject("resolution", func(p *certificates.Paving) { p.Resolution = "1/8" })
-	reject("resolution", func(p *certificates.Paving) { p.Resolution = "1/32" })
-	reject("resolution", func(p *certificates.Paving) { p.Resolution = "2/32" })
-	reject("inside", func(p *certificates.Paving) { p.Inside++ })
-	reject("outside", func(p *certificates.Paving) { p.Outside-- })
-	reject("undecided", func(p *certificates.Paving) { p.Undecided++ })
-	reject("inside fraction", func(p *certificates.Paving) { p.InsideFraction = bump(p.InsideFraction) })
-	reject("outside fraction", func(p *certificates.Paving) { p.OutsideFraction = bump(p.OutsideFraction) })
-	reject("undecided fraction", func(p *certificates.Paving) { p.UndecidedFraction = bump(p.UndecidedFraction) })
-	for i := range pv.InsideBoxes {
-		for j := range pv.InsideBoxes[i].Lo {
-			reject("inside box lo", func(p *certificates.Paving) { p.InsideBoxes[i].Lo[j] = bump(p.InsideBoxes[i].Lo[j]) })
-			reject("inside box hi", func(p *certificates.Paving) { p.InsideBoxes[i].Hi[j] = bump(p.InsideBoxes[i].Hi[j]) })
-		}
+	reject("params", func(p *checker.Paving) { p.Params[0], p.Params[1] = p.Params[1], p.Params[0] })
+	reject("resolution", func(p *checker.Paving) { p.Resolution = "1/8" })
+	reject("resolution", func(p *checker.Paving) { p.Resolution = "1/32" })
+	reject("resolution", func(p *checker.Paving) { p.Resolution = "2/32" })
+}
+
+func summary(t *testing.T, pv *checker.Paving) certificates.PavingSummary {
+	t.Helper()
+	s, err := certificates.Summarize(pv)
+	if err != nil {
+		t.Fatal(err)
 	}
-	reject("inside boxes dropped", func(p *certificates.Paving) { p.InsideBoxes = p.InsideBoxes[1:] })
+	return s
 }
 
 // BenchmarkPave: a two-parameter model with three conditions of degree
 // ≤ 4 (crossgain.lya), resolution 1/1024, the checker's exact re-check of
-// every box included (CheckPaving runs certificates.Verify).
+// every box included (CheckPaving runs checker.Verify).
 func BenchmarkPave(b *testing.B) {
 	m := pavingModel(b, "crossgain.lya")
 	boxes := 0

@@ -3,7 +3,7 @@ package certify
 import (
 	"math/big"
 
-	"lyacert/certificates"
+	"lyacert/checker"
 	"lyacert/poly"
 )
 
@@ -40,7 +40,7 @@ func (b breakpoint) upperRat() *big.Rat {
 // throughout. The breakpoints are the real roots of the product of the
 // conditions (Sturm isolation), rational ones exact; between and at them the
 // signs are decided exactly.
-func OneParamRegion(r *poly.Ring, param int, conds []poly.Univariate, dom poly.Interval) []certificates.Piece {
+func OneParamRegion(r *poly.Ring, param int, conds []poly.Univariate, dom poly.Interval) []checker.Piece {
 	prod := poly.UnivariateFromInts(1)
 	for _, q := range conds {
 		if q.Degree() >= 1 {
@@ -56,28 +56,28 @@ func OneParamRegion(r *poly.Ring, param int, conds []poly.Univariate, dom poly.I
 		}
 	}
 	separate(bps)
-	var pieces []certificates.Piece
+	var pieces []checker.Piece
 	lo := rangeEnd(dom.Lo)
 	for _, bp := range bps {
 		atLo := dom.Lo.Inf == 0 && bp.rational() && bp.root.Exact.Cmp(dom.Lo.Value) == 0
 		if !atLo {
-			iv := certificates.Interval{}
+			iv := checker.Interval{}
 			setLo(&iv, lo)
 			setHi(&iv, endOf(r, param, bp, false))
-			pieces = append(pieces, certificates.Piece{Interval: iv})
+			pieces = append(pieces, checker.Piece{Interval: iv})
 		}
-		pt := certificates.Interval{}
+		pt := checker.Interval{}
 		setLo(&pt, endOf(r, param, bp, true))
 		setHi(&pt, endOf(r, param, bp, true))
-		pieces = append(pieces, certificates.Piece{Interval: pt})
+		pieces = append(pieces, checker.Piece{Interval: pt})
 		lo = endOf(r, param, bp, false)
 	}
 	last := bps == nil || !(dom.Hi.Inf == 0 && bps[len(bps)-1].rational() && bps[len(bps)-1].root.Exact.Cmp(dom.Hi.Value) == 0)
 	if last {
-		iv := certificates.Interval{}
+		iv := checker.Interval{}
 		setLo(&iv, lo)
 		setHi(&iv, rangeEnd(dom.Hi))
-		pieces = append(pieces, certificates.Piece{Interval: iv})
+		pieces = append(pieces, checker.Piece{Interval: iv})
 	}
 	// Decide each piece: interval pieces at an interior rational sample,
 	// point pieces at the point (an irrational breakpoint is a root of some
@@ -89,7 +89,7 @@ func OneParamRegion(r *poly.Ring, param int, conds []poly.Univariate, dom poly.I
 }
 
 type pend struct {
-	iv     certificates.Interval // only the Lo-side fields are used
+	iv     checker.Interval // only the Lo-side fields are used
 	closed bool
 }
 
@@ -122,11 +122,11 @@ func endOf(r *poly.Ring, param int, bp breakpoint, closed bool) pend {
 	return e
 }
 
-func setLo(iv *certificates.Interval, e pend) {
+func setLo(iv *checker.Interval, e pend) {
 	iv.Lo, iv.LoPoly, iv.LoIsolating, iv.LoClosed = e.iv.Lo, e.iv.LoPoly, e.iv.LoIsolating, e.closed
 }
 
-func setHi(iv *certificates.Interval, e pend) {
+func setHi(iv *checker.Interval, e pend) {
 	iv.Hi, iv.HiPoly, iv.HiIsolating, iv.HiClosed = e.iv.Lo, e.iv.LoPoly, e.iv.LoIsolating, e.closed
 }
 
@@ -176,7 +176,7 @@ func separate(bps []breakpoint) {
 }
 
 // holdsOn decides whether every condition is > 0 on a piece.
-func holdsOn(conds []poly.Univariate, iv certificates.Interval) bool {
+func holdsOn(conds []poly.Univariate, iv checker.Interval) bool {
 	point := iv.Lo == iv.Hi && iv.LoPoly == iv.HiPoly && iv.LoClosed && iv.HiClosed
 	if point {
 		if iv.LoPoly != "" {
@@ -200,7 +200,7 @@ func holdsOn(conds []poly.Univariate, iv certificates.Interval) bool {
 }
 
 // samplePoint returns a rational strictly inside an interval piece.
-func samplePoint(iv certificates.Interval) *big.Rat {
+func samplePoint(iv checker.Interval) *big.Rat {
 	lo := innerRat(iv.Lo, iv.LoIsolating, true)
 	hi := innerRat(iv.Hi, iv.HiIsolating, false)
 	switch {
@@ -233,8 +233,8 @@ func innerRat(v string, iso *[2]string, lower bool) *big.Rat {
 }
 
 // Intervals returns the holding pieces.
-func Intervals(pieces []certificates.Piece) []certificates.Interval {
-	out := []certificates.Interval{}
+func Intervals(pieces []checker.Piece) []checker.Interval {
+	out := []checker.Interval{}
 	for _, p := range pieces {
 		if p.Holds {
 			out = append(out, p.Interval)

@@ -14,7 +14,7 @@ import (
 	"strings"
 	"sync"
 
-	"lyacert/certificates"
+	"lyacert/checker"
 	"lyacert/model"
 	"lyacert/poly"
 )
@@ -222,7 +222,7 @@ func (l *SweepLine) Marshal() []byte {
 type SweepPoint struct {
 	Index int
 	Lines []SweepLine
-	Docs  []*certificates.Document
+	Docs  []*checker.Document
 }
 
 // Progress receives the number of grid points completed.
@@ -301,7 +301,7 @@ func CheckSweep(file string, src []byte, settings []model.Setting, grid Grid) er
 // point in increasing index order (whatever order the workers finish in).
 // Cancelling ctx stops the sweep cleanly: points already emitted stay
 // emitted, and the summary counts the rest as remaining. Every line that
-// claims something is backed by a certificate that certificates.Verify has
+// claims something is backed by a certificate that checker.Verify has
 // accepted (CertifyEquilibrium). An error from emit stops the sweep and is
 // returned.
 func Sweep(ctx context.Context, opts SweepOptions, emit func(SweepPoint) error) (SweepSummary, error) {
@@ -402,8 +402,8 @@ func sweepPoint(opts SweepOptions, base *model.Model, index, size int) SweepPoin
 	}
 	sp := SweepPoint{Index: index}
 	none := func(reason string) SweepPoint {
-		sp.Lines = []SweepLine{{Index: index, Of: size, Params: params, Verdict: certificates.VerdictUndecided, Claim: certificates.ClaimNone, Reason: reason}}
-		sp.Docs = []*certificates.Document{nil}
+		sp.Lines = []SweepLine{{Index: index, Of: size, Params: params, Verdict: checker.VerdictUndecided, Claim: checker.KindNone, Reason: reason}}
+		sp.Docs = []*checker.Document{nil}
 		return sp
 	}
 	m, err := fixParams(base, settings)
@@ -437,10 +437,10 @@ func sweepPoint(opts SweepOptions, base *model.Model, index, size int) SweepPoin
 			}
 		}
 		c, err := CertifyEquilibrium(m, e, co)
-		var doc *certificates.Document
+		var doc *checker.Document
 		switch {
 		case err != nil:
-			line.Verdict, line.Claim, line.Reason = certificates.VerdictUndecided, certificates.ClaimNone, "not certified: "+oneLine(err)
+			line.Verdict, line.Claim, line.Reason = checker.VerdictUndecided, checker.KindNone, "not certified: "+oneLine(err)
 		default:
 			line.Verdict, line.Claim, line.Reason = c.Verdict, c.Claim, c.Reason
 			if c.Doc != nil {

@@ -6,7 +6,7 @@ import (
 )
 
 // BenchmarkSweep measures the throughput of Sweep with exact checks: every
-// line is backed by a certificate that certificates.Verify accepted. One
+// line is backed by a certificate that checker.Verify accepted. One
 // operation is a whole grid; points/s is reported.
 func BenchmarkSweep(b *testing.B) {
 	cases := []struct {

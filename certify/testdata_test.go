@@ -8,6 +8,7 @@ import (
 	"testing"
 
 	"lyacert/certificates"
+	"lyacert/checker"
 	"lyacert/examples"
 	"lyacert/model"
 )
@@ -79,10 +80,10 @@ func TestTestdataCertificates(t *testing.T) {
 			if *update {
 				res.Doc.Issued = "2026-12-01T00:00:00Z"
 				res.Doc.Tool = "lyacert"
-				if err := res.Doc.Seal(); err != nil {
+				if err := certificates.Seal(res.Doc); err != nil {
 					t.Fatal(err)
 				}
-				if err := res.Doc.WriteFile(path); err != nil {
+				if err := certificates.WriteFile(res.Doc, path); err != nil {
 					t.Fatal(err)
 				}
 				return
@@ -91,11 +92,11 @@ func TestTestdataCertificates(t *testing.T) {
 			if err != nil {
 				t.Fatalf("%v (run go test ./certify -run TestTestdataCertificates -update)", err)
 			}
-			if r := certificates.Verify(doc); !r.Valid {
+			if r := checker.Verify(doc); !r.Valid {
 				t.Fatalf("stored certificate no longer verifies: %v", failed(r))
 			}
 			res.Doc.Issued, res.Doc.Tool = doc.Issued, doc.Tool
-			if err := res.Doc.Seal(); err != nil {
+			if err := certificates.Seal(res.Doc); err != nil {
 				t.Fatal(err)
 			}
 			if res.Doc.Digest != doc.Digest {
@@ -105,9 +106,9 @@ func TestTestdataCertificates(t *testing.T) {
 	}
 }
 
-func failed(r certificates.Result) string {
+func failed(r checker.Outcome) string {
 	var out []string
-	for _, c := range r.Checks {
+	for _, c := range r.Records {
 		if !c.OK {
 			out = append(out, c.Name+": "+c.Reason)
 		}

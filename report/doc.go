@@ -3,7 +3,7 @@
 // paper or a whole document) or one self-contained, printable HTML page.
 //
 // A report is made from the certificate alone. Render re-checks it with
-// certificates.Verify and refuses one that the checker rejects; the
+// checker.Verify and refuses one that the checker rejects; the
 // verification record in the report is that fresh result. The model text
 // in the certificate is parsed again to show the equations, and every
 // formula is typeset from the exact polynomials, not from floating point:

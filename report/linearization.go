@@ -2,11 +2,10 @@ package report
 
 import (
 	"html"
+	"lyacert/checker"
 	"math"
 	"math/big"
 	"strings"
-
-	"lyacert/certificates"
 )
 
 // linearizationView is the section of a certificate that rests on the
@@ -69,13 +68,12 @@ func shortRat(s string) (*big.Rat, bool) {
 }
 
 func (b *builder) linearization(p *page) error {
-	lz := b.doc.Linearization
+	lz, kz := b.doc.Linearization, b.doc.Krawczyk
 	if lz == nil {
 		return nil
 	}
 	m := b.m
 	v := &linearizationView{}
-	n := len(m.States)
 	rounded := false
 	// An enclosure is shown exactly when its ends are short, otherwise with
 	// outward-rounded decimals of at least digits significant digits, as
@@ -108,10 +106,10 @@ func (b *builder) linearization(p *page) error {
 		return interval{lo: symbol{a, minusSign(a)}, hi: symbol{b, minusSign(b)}, loClosed: true, hiClosed: true}
 	}
 	star := func(s string) node { return symbol{texName(s) + "^{*}", htmlName(s) + "<sup>*</sup>"} }
-	if len(lz.Box) == n {
+	if kz != nil {
 		var box list
 		for i, s := range m.States {
-			box = append(box, relation{star(s), symIn, ivNode(lz.Box[i], 10)})
+			box = append(box, relation{star(s), symIn, ivNode(kz.Box[i], 10)})
 		}
 		v.Equilibrium = rich{"The equilibrium ", symbol{"x^{*}", "<i>x</i><sup>*</sup>"}, " is the only one in the box ", box, "."}
 		v.Krawczyk = rich{"The Krawczyk operator of the box lies in its interior, which proves that the box holds exactly one equilibrium (Krawczyk 1969; Moore 1977); the certificate states the operator's exact image and the preconditioner used."}
@@ -144,7 +142,7 @@ func (b *builder) linearization(p *page) error {
 		}
 	}
 	lhs := symbol{"M(x^{*})", "<i>M</i>(<i>x</i><sup>*</sup>)"}
-	if len(lz.Box) == n {
+	if kz != nil {
 		// M over the whole box, entry by entry: it holds M(x*) wherever in
 		// the box x* is.
 		v.Decay = []display{{LHS: mSym, RHS: []node{dm}, Op: symIn}}
@@ -153,13 +151,13 @@ func (b *builder) linearization(p *page) error {
 	}
 	v.Rounded = rounded
 	switch b.doc.Claim {
-	case certificates.ClaimUnstable:
+	case checker.KindUnstable:
 		v.Conclusion = rich{"The matrix ", lhs, " is positive definite (for every matrix in the enclosure), and ", pSym, " has a negative pivot in its exact ", symbol{`L\,D\,L^{\mathsf{T}}`, "<i>L</i><i>D</i><i>L</i><sup>T</sup>"}, " factorization: ", symbol{"W = -V", "<i>W</i> = −<i>V</i>"}, " increases near the equilibrium and is positive arbitrarily close to it, so the equilibrium is unstable (Lyapunov's instability theorem)."}
 	default:
 		v.Conclusion = rich{"The matrices ", pSym, " and ", lhs, " are positive definite (exact ", symbol{`L\,D\,L^{\mathsf{T}}`, "<i>L</i><i>D</i><i>L</i><sup>T</sup>"}, " with positive pivots; for ", lhs, " every matrix in the enclosure), so ", vSym, " decreases near the equilibrium: it is locally asymptotically stable (Lyapunov's indirect method)."}
 	}
 	p.Linearization = v
-	if len(lz.Box) == n {
+	if kz != nil {
 		p.Equilibrium = rich{"The equilibrium is not a rational point: see the linearization below for the box that holds it."}
 	}
 	return nil

@@ -4,6 +4,8 @@ import (
 	"bytes"
 	"fmt"
 	"image/color"
+	"lyacert/certificates"
+	"lyacert/checker"
 	"math"
 	"math/big"
 	"regexp"
@@ -15,8 +17,6 @@ import (
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 	"gonum.org/v1/plot/vg/vgsvg"
-
-	"lyacert/certificates"
 )
 
 var (
@@ -221,7 +221,7 @@ const maxDrawnLeaves = 20000
 // newPavingView shows a several-parameter paving: its box, its resolution,
 // the classes' counts and exact shares of the volume, and a picture of the
 // leaves projected on the first two paved parameters.
-func newPavingView(pv *certificates.Paving) *pavingView {
+func newPavingView(pv *checker.Paving) *pavingView {
 	v := &pavingView{}
 	for _, s := range pv.Params {
 		v.Params = append(v.Params, name{s})
@@ -250,10 +250,15 @@ func newPavingView(pv *certificates.Paving) *pavingView {
 		}
 		return r
 	}
+	sum, err := certificates.Summarize(pv)
+	if err != nil {
+		v.Note = "The paving could not be summarized: " + err.Error()
+		return v
+	}
 	v.Counts = []rich{
-		share(pv.Inside, pv.InsideFraction, "where every condition holds"),
-		share(pv.Outside, pv.OutsideFraction, "where some condition fails throughout"),
-		share(pv.Undecided, pv.UndecidedFraction, "left undecided at the resolution"),
+		share(sum.Inside, sum.InsideFraction, "where every condition holds"),
+		share(sum.Outside, sum.OutsideFraction, "where some condition fails throughout"),
+		share(sum.Undecided, sum.UndecidedFraction, "left undecided at the resolution"),
 	}
 	leaves, err := pv.Leaves()
 	v.Leaves = len(leaves)
@@ -273,7 +278,7 @@ func newPavingView(pv *certificates.Paving) *pavingView {
 
 // pavingSVG draws the leaves of a paving, projected on its first two
 // parameters (on the first alone, as a strip, when there is one).
-func pavingSVG(params []string, leaves []certificates.PavingLeaf) (string, error) {
+func pavingSVG(params []string, leaves []checker.PavingLeaf) (string, error) {
 	p := plot.New()
 	p.X.Label.Text = plainName(params[0])
 	if len(params) > 1 {
@@ -289,8 +294,8 @@ func pavingSVG(params []string, leaves []certificates.PavingLeaf) (string, error
 	f := func(q *big.Rat) float64 { x, _ := q.Float64(); return x }
 	// Undecided and outside boxes last, so that in a projection they show
 	// over inside ones: the picture errs on the side of caution.
-	order := map[byte]int{certificates.PaveInside: 0, certificates.PaveOutside: 1, certificates.PaveUndecided: 2}
-	sorted := append([]certificates.PavingLeaf(nil), leaves...)
+	order := map[byte]int{checker.PaveInside: 0, checker.PaveOutside: 1, checker.PaveUndecided: 2}
+	sorted := append([]checker.PavingLeaf(nil), leaves...)
 	sort.SliceStable(sorted, func(i, j int) bool { return order[sorted[i].Class] < order[sorted[j].Class] })
 	for _, lf := range sorted {
 		x0, x1 := f(lf.Lo[0]), f(lf.Hi[0])
@@ -306,9 +311,9 @@ func pavingSVG(params []string, leaves []certificates.PavingLeaf) (string, error
 		pg.LineStyle.Width = vg.Points(0.2)
 		pg.LineStyle.Color = color.Gray{0x60}
 		switch lf.Class {
-		case certificates.PaveInside:
+		case checker.PaveInside:
 			pg.Color = holdsColor
-		case certificates.PaveOutside:
+		case checker.PaveOutside:
 			pg.Color = failsColor
 		default:
 			// A thick outline keeps even the smallest undecided box

@@ -2,10 +2,9 @@ package report
 
 import (
 	"fmt"
+	"lyacert/checker"
 	"math/big"
 	"strconv"
-
-	"lyacert/certificates"
 )
 
 // regionView is the one-parameter region: the pieces of the parameter's
@@ -51,11 +50,13 @@ func (b *builder) regions(p *page) error {
 	if rg == nil {
 		return nil
 	}
-	var rs []certificates.Region
+	var rs []checker.SturmRegion
 	if rg.Param != "" {
-		rs = append(rs, *rg)
+		rs = append(rs, checker.SturmRegion{Param: rg.Param, Intervals: rg.Intervals, Pieces: rg.Pieces})
 	}
-	rs = append(rs, rg.Product...)
+	if rg.Paving != nil {
+		rs = append(rs, rg.Paving.Product...)
+	}
 	for _, r := range rs {
 		rv, err := b.region(r)
 		if err != nil {
@@ -63,11 +64,11 @@ func (b *builder) regions(p *page) error {
 		}
 		p.Regions = append(p.Regions, rv)
 	}
-	p.Product = len(rg.Product) > 0
+	p.Product = rg.Paving != nil && len(rg.Paving.Product) > 0
 	return nil
 }
 
-func (b *builder) region(rg certificates.Region) (*regionView, error) {
+func (b *builder) region(rg checker.SturmRegion) (*regionView, error) {
 	first := len(b.alphas)
 	pi, ok := b.r.Index(rg.Param)
 	if !ok {
@@ -223,7 +224,7 @@ func minusSign(s string) string {
 }
 
 // pavingOf shows the paving of a several-parameter region, if any.
-func pavingOf(d *certificates.Document) *pavingView {
+func pavingOf(d *docView) *pavingView {
 	if d.Region == nil || d.Region.Paving == nil {
 		return nil
 	}
@@ -232,4 +233,4 @@ func pavingOf(d *certificates.Document) *pavingView {
 
 // attractionOf is the hook for a region-of-attraction section: certificates
 // carry no such data yet, so there is none.
-func attractionOf(*certificates.Document) *attractionView { return nil }
+func attractionOf(*checker.Document) *attractionView { return nil }

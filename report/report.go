@@ -5,10 +5,11 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"lyacert/certificates"
+	"lyacert/checker"
 	"math/big"
 	"strings"
 
-	"lyacert/certificates"
 	"lyacert/model"
 	"lyacert/poly"
 )
@@ -53,11 +54,11 @@ type Options struct {
 }
 
 // Render writes the report of a certificate. The certificate is re-checked
-// first with certificates.Verify; the verification record in the report is
+// first with checker.Verify; the verification record in the report is
 // that fresh result, never one stored anywhere. A certificate that the
 // checker rejects gives an error wrapping ErrInvalid that lists the failed
 // checks, and nothing is written.
-func Render(w io.Writer, doc *certificates.Document, opts Options) error {
+func Render(w io.Writer, doc *checker.Document, opts Options) error {
 	p, err := build(doc, opts)
 	if err != nil {
 		return err
@@ -159,7 +160,7 @@ type recordView struct {
 	Valid     bool
 	Passed    int
 	Total     int
-	Checks    []certificates.Check
+	Checks    []checker.Record
 	Signature string
 }
 
@@ -170,11 +171,11 @@ type attractionView struct {
 	SVG  string
 }
 
-func build(doc *certificates.Document, opts Options) (*page, error) {
-	res := certificates.Verify(doc)
+func build(doc *checker.Document, opts Options) (*page, error) {
+	res := checker.Verify(doc)
 	if !res.Valid {
 		var failed []string
-		for _, c := range res.Checks {
+		for _, c := range res.Records {
 			if !c.OK {
 				failed = append(failed, c.Name+": "+c.Reason)
 			}
@@ -188,7 +189,7 @@ func build(doc *certificates.Document, opts Options) (*page, error) {
 	if err != nil {
 		return nil, fmt.Errorf("%w: the model text does not parse: %w", ErrInvalid, err)
 	}
-	b := &builder{doc: doc, m: m, r: m.Ring}
+	b := &builder{doc: &docView{Document: doc, Contents: certificates.ContentsOf(doc), Claim: res.Kind, Verdict: res.Verdict}, m: m, r: m.Ring}
 	p := &page{
 		Source: doc.Source, Tool: doc.Tool, Issued: doc.Issued,
 		Discrete: m.Discrete,
@@ -208,11 +209,11 @@ func build(doc *certificates.Document, opts Options) (*page, error) {
 	if err := b.linearization(p); err != nil {
 		return nil, err
 	}
-	p.Paving = pavingOf(doc)
+	p.Paving = pavingOf(b.doc)
 	p.Attraction = attractionOf(doc)
 	b.verdict(p)
 	b.record(p, res, opts)
-	p.Cautions = cautions(doc)
+	p.Cautions = cautions(b.doc)
 	return p, nil
 }
 
@@ -235,8 +236,16 @@ func paragraphs(lines []string) [][]string {
 	return out
 }
 
+// docView is a verified certificate with its claims gathered by kind and the
+// verdict the checker derived.
+type docView struct {
+	*checker.Document
+	certificates.Contents
+	Claim, Verdict string
+}
+
 type builder struct {
-	doc *certificates.Document
+	doc *docView
 	m   *model.Model
 	r   *poly.Ring
 	// alphas names the irrational region ends in order of appearance.
@@ -440,7 +449,7 @@ func (b *builder) derivation(p *page) error {
 
 // squares sets Σ dₖ·(xₖ + Σᵢ>ₖ Lᵢₖ·xᵢ)² from a form's factors, skipping
 // zero pivots (Lagrange's completing of squares read off G = L·D·Lᵀ).
-func (b *builder) squares(f certificates.Form) ([]node, error) {
+func (b *builder) squares(f certificates.FormView) ([]node, error) {
 	n := len(f.D)
 	var s sum
 	for k := 0; k < n; k++ {
@@ -509,7 +518,7 @@ func (b *builder) matrix(rows [][]string) (matrix, error) {
 
 // kernel sets the equations of the set where a semidefinite form vanishes:
 // the rows of Lᵀ that belong to positive pivots.
-func (b *builder) kernel(f certificates.Form) (list, error) {
+func (b *builder) kernel(f certificates.FormView) (list, error) {
 	var eqs list
 	n := len(f.D)
 	for k := 0; k < n; k++ {
@@ -540,7 +549,7 @@ func (b *builder) paramPoint(vals map[string]string) list {
 }
 
 // condition states what one minor requires after the assumptions.
-func (b *builder) condition(c certificates.Condition) (rich, error) {
+func (b *builder) condition(c checker.MinorCondition) (rich, error) {
 	form := node(vSym)
 	if c.Form != "V" {
 		form = neg(b.derivName())
@@ -561,9 +570,9 @@ func (b *builder) condition(c certificates.Condition) (rich, error) {
 			fn = power{fn, f.Power}
 		}
 		switch f.Status {
-		case certificates.StatusPositive:
+		case checker.StatusPositive:
 			discharged = append(discharged, relation{fn, symGreater, zeroNode})
-		case certificates.StatusNegative:
+		case checker.StatusNegative:
 			discharged = append(discharged, relation{fn, symLess, zeroNode})
 		}
 	}
@@ -618,10 +627,10 @@ func conditionNode(q *poly.Poly) node {
 }
 
 var claimWords = map[string]string{
-	certificates.ClaimGlobal:   "the equilibrium is globally asymptotically stable",
-	certificates.ClaimLocal:    "the equilibrium is locally asymptotically stable",
-	certificates.ClaimStable:   "the equilibrium is stable in the sense of Lyapunov (the derivative is only semidefinite)",
-	certificates.ClaimUnstable: "the equilibrium is unstable",
+	checker.KindGlobal:   "the equilibrium is globally asymptotically stable",
+	checker.KindLocal:    "the equilibrium is locally asymptotically stable",
+	checker.KindStable:   "the equilibrium is stable in the sense of Lyapunov (the derivative is only semidefinite)",
+	checker.KindUnstable: "the equilibrium is unstable",
 }
 
 func (b *builder) verdict(p *page) {
@@ -629,14 +638,14 @@ func (b *builder) verdict(p *page) {
 	claim := claimWords[d.Claim]
 	v := &p.Verdict
 	switch d.Verdict {
-	case certificates.VerdictHolds:
+	case checker.VerdictHolds:
 		v.Word, v.Class = "holds", "holds"
 		v.Text = rich{"Holds: " + claim}
 		if len(b.m.FreeParams()) > 0 {
 			v.Text = append(v.Text, " for every allowed parameter value")
 		}
 		v.Text = append(v.Text, ".")
-	case certificates.VerdictOnRegion:
+	case checker.VerdictOnRegion:
 		v.Word, v.Class = "holds on part of the range", "partial"
 		v.Text = rich{"Holds on part of the range: " + claim}
 		switch {
@@ -657,10 +666,10 @@ func (b *builder) verdict(p *page) {
 		default:
 			v.Text = append(v.Text, " where the conditions hold; they hold at some allowed parameter values and fail at others (see the witnesses).")
 		}
-	case certificates.VerdictFails:
+	case checker.VerdictFails:
 		v.Word, v.Class = "fails", "fails"
 		v.Text = rich{"Fails: the candidate does not prove stability"}
-		if d.Claim == certificates.ClaimUnstable {
+		if d.Claim == checker.KindUnstable {
 			v.Text = rich{"Fails: the equilibrium is unstable, proven through its linearization"}
 		}
 		if d.Refutation != nil {
@@ -673,13 +682,13 @@ func (b *builder) verdict(p *page) {
 	}
 }
 
-func (b *builder) record(p *page, res certificates.Result, opts Options) {
+func (b *builder) record(p *page, res checker.Outcome, opts Options) {
 	d := b.doc
-	r := recordView{Checker: opts.Checker, Format: d.Format, Digest: d.Digest, Valid: res.Valid, Total: len(res.Checks), Checks: res.Checks}
+	r := recordView{Checker: opts.Checker, Format: d.Format, Digest: d.Digest, Valid: res.Valid, Total: len(res.Records), Checks: res.Records}
 	if r.Checker == "" {
 		r.Checker = "lyacert (version not stated)"
 	}
-	for _, c := range res.Checks {
+	for _, c := range res.Records {
 		if c.OK {
 			r.Passed++
 		}
@@ -690,7 +699,7 @@ func (b *builder) record(p *page, res certificates.Result, opts Options) {
 	}
 	p.Recheck = []string{"lyacert verify " + shellQuote(cert)}
 	if pub, err := d.Signer(); err == nil {
-		fp := certificates.Fingerprint(pub)
+		fp := checker.Fingerprint(pub)
 		r.Signature = "Signed with ed25519 by the key with fingerprint " + fp + "; the signature verifies against the digest. " +
 			"A signature says who issued the certificate, not that it is correct: the checks above say that."
 		p.Recheck = append(p.Recheck, "lyacert verify --trust SIGNER.pub "+shellQuote(cert))
@@ -714,12 +723,12 @@ func shellQuote(s string) string {
 	return "'" + strings.ReplaceAll(s, "'", `'\''`) + "'"
 }
 
-func cautions(d *certificates.Document) []string {
+func cautions(d *docView) []string {
 	out := []string{
 		"This certificate proves a property of the model stated above, under its stated assumptions on the parameters; it is not a statement about the physical system.",
 		"Modelling error, unmodelled dynamics, saturation, delay and sampling can void it, as can parameter values outside the stated ranges.",
 	}
-	if d.Claim == certificates.ClaimLocal {
+	if d.Claim == checker.KindLocal {
 		out = append(out, "The claim is local: it holds in some neighbourhood of the equilibrium whose size this certificate does not give.")
 	}
 	out = append(out,
@@ -730,7 +739,7 @@ func cautions(d *certificates.Document) []string {
 
 // squareBase returns zₖ + Σᵢ>ₖ Lᵢₖ·zᵢ from a form's factors, z the form's
 // monomial basis or, without one, the states.
-func (b *builder) squareBase(f certificates.Form, k int) (poly.RatFunc, error) {
+func (b *builder) squareBase(f certificates.FormView, k int) (poly.RatFunc, error) {
 	z := func(i int) (poly.RatFunc, error) {
 		if len(f.Basis) > 0 {
 			return b.parse(f.Basis[i])

@@ -5,6 +5,7 @@ import (
 	"crypto/ed25519"
 	"errors"
 	"flag"
+	"lyacert/checker"
 	"os"
 	"path/filepath"
 	"regexp"
@@ -22,7 +23,7 @@ var update = flag.Bool("update", false, "rewrite the golden files and the certif
 
 // checker is the checker name written into golden reports, fixed so that a
 // version change does not touch them.
-const checker = "lyacert (golden)"
+const checkerName = "lyacert (golden)"
 
 // escapeSource is the certificate's source field in the escaping test: it is
 // free text in a certificate, unlike a variable name.
@@ -41,7 +42,7 @@ func signingKey() ed25519.PrivateKey {
 // (with -update): the escaping model, and the demo certificate signed.
 func generate(t *testing.T) {
 	t.Helper()
-	issue := func(file, source string) *certificates.Document {
+	issue := func(file, source string) *checker.Document {
 		src, err := os.ReadFile(file)
 		if err != nil {
 			t.Fatal(err)
@@ -56,30 +57,30 @@ func generate(t *testing.T) {
 		}
 		d := res.Doc
 		d.Issued = "2026-12-01T00:00:00Z"
-		if err := d.Seal(); err != nil {
+		if err := certificates.Seal(d); err != nil {
 			t.Fatal(err)
 		}
 		return d
 	}
 	esc := issue("testdata/models/escape.lya", escapeSource)
-	if err := esc.WriteFile("testdata/certificates/escape.json"); err != nil {
+	if err := certificates.WriteFile(esc, "testdata/certificates/escape.json"); err != nil {
 		t.Fatal(err)
 	}
 	signed, err := certificates.ReadFile("../testdata/certificates/coolant.json")
 	if err != nil {
 		t.Fatal(err)
 	}
-	if err := signed.Sign(signingKey()); err != nil {
+	if err := certificates.Sign(signed, signingKey()); err != nil {
 		t.Fatal(err)
 	}
-	if err := signed.WriteFile("testdata/certificates/signed-coolant.json"); err != nil {
+	if err := certificates.WriteFile(signed, "testdata/certificates/signed-coolant.json"); err != nil {
 		t.Fatal(err)
 	}
 }
 
 type certFile struct {
 	name string // base name without .json
-	doc  *certificates.Document
+	doc  *checker.Document
 }
 
 // certs returns every certificate of the shared test data and of this
@@ -109,7 +110,7 @@ func certs(t *testing.T) []certFile {
 func render(t *testing.T, c certFile, f report.Format, standalone bool) []byte {
 	t.Helper()
 	var buf bytes.Buffer
-	err := report.Render(&buf, c.doc, report.Options{Format: f, Standalone: standalone, Checker: checker, CertName: c.name + ".json"})
+	err := report.Render(&buf, c.doc, report.Options{Format: f, Standalone: standalone, Checker: checkerName, CertName: c.name + ".json"})
 	if err != nil {
 		t.Fatalf("%s (%s): %v", c.name, f, err)
 	}
@@ -174,30 +175,31 @@ func firstDiff(got, want []byte) string {
 // and the cautions.
 func TestEverySection(t *testing.T) {
 	for _, c := range certs(t) {
-		res := certificates.Verify(c.doc)
+		res := checker.Verify(c.doc)
+		cs := certificates.ContentsOf(c.doc)
 		for _, f := range report.Formats {
 			out := string(render(t, c, f, f == report.LaTeX))
 			out = strings.ReplaceAll(out, `\allowbreak{}`, "")
 			for _, want := range []string{
 				"Verdict:", "Model and assumptions", "Equilibrium", "Verification record", "How to re-check",
 				"lyacert verify " + c.name + ".json", "Cautions", "licensed engineering judgement",
-				"not a statement about the physical system", "saturation, delay and sampling", c.doc.Digest, checker,
+				"not a statement about the physical system", "saturation, delay and sampling", c.doc.Digest, checkerName,
 			} {
 				if !strings.Contains(out, want) {
 					t.Errorf("%s (%s): missing %q", c.name, f, want)
 				}
 			}
-			if n := strings.Count(out, "ok"); n < len(res.Checks) {
-				t.Errorf("%s (%s): %d checks listed as ok, want %d", c.name, f, n, len(res.Checks))
+			if n := strings.Count(out, "ok"); n < len(res.Records) {
+				t.Errorf("%s (%s): %d checks listed as ok, want %d", c.name, f, n, len(res.Records))
 			}
-			hasRegion := c.doc.Region != nil && c.doc.Region.Param != ""
+			hasRegion := cs.Region != nil && cs.Region.Param != ""
 			if got := strings.Contains(out, "Parameter region"); got != hasRegion {
 				t.Errorf("%s (%s): region section present %v, want %v", c.name, f, got, hasRegion)
 			}
-			if got := strings.Contains(out, "Refutation"); got != (c.doc.Refutation != nil) {
+			if got := strings.Contains(out, "Refutation"); got != (cs.Refutation != nil) {
 				t.Errorf("%s (%s): refutation section present %v", c.name, f, got)
 			}
-			if got := strings.Contains(out, "Completed squares"); got != (len(c.doc.Forms) > 0) {
+			if got := strings.Contains(out, "Completed squares"); got != (len(cs.Forms) > 0) {
 				t.Errorf("%s (%s): squares section present %v", c.name, f, got)
 			}
 			if c.doc.Signature != nil && !strings.Contains(out, "fingerprint") {
@@ -267,15 +269,17 @@ func TestInvalidCertificateIsRefused(t *testing.T) {
 	c := certs(t)[0]
 	tests := []struct {
 		name  string
-		alter func(d *certificates.Document)
+		alter func(d *checker.Document)
 	}{
 		// common practice, no source: a report never presents a
 		// certificate the checker rejects.
-		{"changed candidate", func(d *certificates.Document) { d.V = "x^2" }},
-		{"changed verdict", func(d *certificates.Document) { d.Verdict = certificates.VerdictHolds }},
-		{"stale digest", func(d *certificates.Document) { d.Digest = "sha256:00" }},
-		{"bad signature", func(d *certificates.Document) {
-			if err := d.Sign(signingKey()); err != nil {
+		{"changed candidate", func(d *checker.Document) {
+			d.Claims = append([]checker.Claim{&checker.OrbitalDerivative{V: "x^2", Vdot: "0"}}, d.Claims[1:]...)
+		}},
+		{"claim deleted", func(d *checker.Document) { d.Claims = d.Claims[1:] }},
+		{"stale digest", func(d *checker.Document) { d.Digest = "sha256:00" }},
+		{"bad signature", func(d *checker.Document) {
+			if err := certificates.Sign(d, signingKey()); err != nil {
 				t.Fatal(err)
 			}
 			d.Signature.Value = d.Signature.Value[:10]
@@ -370,9 +374,9 @@ func BenchmarkRender(b *testing.B) {
 // the record must be the same on every run (no map order in it).
 func TestVerificationRecordIsStable(t *testing.T) {
 	for _, c := range certs(t) {
-		first := certificates.Verify(c.doc).Checks
+		first := checker.Verify(c.doc).Records
 		for range 30 {
-			again := certificates.Verify(c.doc).Checks
+			again := checker.Verify(c.doc).Records
 			if len(again) != len(first) {
 				t.Fatalf("%s: %d checks, then %d", c.name, len(first), len(again))
 			}

@@ -12,8 +12,8 @@ import (
 	"sync"
 	"sync/atomic"
 
-	"lyacert/certificates"
 	"lyacert/certify/interval"
+	"lyacert/checker"
 	"lyacert/poly"
 )
 
@@ -50,11 +50,11 @@ const DefaultMaxBoxes = 4 << 20
 var ErrTooManyBoxes = errors.New("the paving needs more boxes than allowed; use a coarser resolution or a smaller box")
 
 // Paving is the result of PaveRegion: the tree in the encoding of
-// certificates.Paving, and statistics.
+// checker.Paving, and statistics.
 type Paving struct {
 	Box   []Side
 	Level int    // the resolution is 2^-Level of each side
-	Tree  string // depth-first codes, see certificates.Paving
+	Tree  string // depth-first codes, see checker.Paving
 	// Boxes is the number of boxes of the tree (len(Tree)).
 	Boxes int
 	// Inside, Outside, Undecided count the leaves of each class.
@@ -66,18 +66,18 @@ type Paving struct {
 
 // Level returns the smallest L ≥ 0 with 2^-L ≤ res: boxes are halved until
 // each side is at most res times the corresponding side of the box. It
-// returns an error unless 2^-certificates.MaxPavingLevel ≤ res.
+// returns an error unless 2^-checker.MaxPavingLevel ≤ res.
 func Level(res *big.Rat) (int, error) {
 	if res == nil || res.Sign() <= 0 {
 		return 0, fmt.Errorf("the resolution must be > 0")
 	}
-	for l := 0; l <= certificates.MaxPavingLevel; l++ {
+	for l := 0; l <= checker.MaxPavingLevel; l++ {
 		// 2^-l ≤ res ⇔ num·2^l ≥ den
 		if new(big.Int).Lsh(res.Num(), uint(l)).Cmp(res.Denom()) >= 0 {
 			return l, nil
 		}
 	}
-	return 0, fmt.Errorf("resolution %s is finer than 2^-%d", res.RatString(), certificates.MaxPavingLevel)
+	return 0, fmt.Errorf("resolution %s is finer than 2^-%d", res.RatString(), checker.MaxPavingLevel)
 }
 
 // PaveRegion paves the box for the set where every condition is > 0 (set
@@ -88,7 +88,7 @@ func Level(res *big.Rat) (int, error) {
 // box is first classified by a float64 pass with outward rounding (package
 // interval): the natural extension of every condition intersected with its
 // mean-value form. The float pass only proposes. Every leaf is then
-// decided by the exact test that certificates.Verify applies: the centred
+// decided by the exact test that checker.Verify applies: the centred
 // form of each condition (poly.CenteredForm), exact, with the box's faces
 // on an open end of the box excluded. A box proposed inside or outside
 // that the exact test does not confirm is treated as undecided: halved, or
@@ -105,8 +105,8 @@ func PaveRegion(ctx context.Context, conds []*poly.Poly, box []Side, level int, 
 	if n == 0 || n > poly.MaxCenteredDims {
 		return nil, fmt.Errorf("a paving needs 1 to %d parameters, not %d", poly.MaxCenteredDims, n)
 	}
-	if level < 0 || level > certificates.MaxPavingLevel {
-		return nil, fmt.Errorf("resolution level %d outside [0, %d]", level, certificates.MaxPavingLevel)
+	if level < 0 || level > checker.MaxPavingLevel {
+		return nil, fmt.Errorf("resolution level %d outside [0, %d]", level, checker.MaxPavingLevel)
 	}
 	vars := make([]int, n)
 	sides := make([]poly.Interval, n)
@@ -169,8 +169,8 @@ func PaveRegion(ctx context.Context, conds []*poly.Poly, box []Side, level int, 
 			tasks = append(tasks, task{g: g, forms: forms})
 			return nil
 		}
-		segs = append(segs, segment{code: certificates.PaveSplit})
-		dim := certificates.PavingSplitDim(g.k)
+		segs = append(segs, segment{code: checker.PaveSplit})
+		dim := checker.PavingSplitDim(g.k)
 		lo, hi := g.halves(dim)
 		if err := top(lo, halves(forms, dim, false)); err != nil {
 			return err
@@ -265,11 +265,11 @@ func PaveRegion(ctx context.Context, conds []*poly.Poly, box []Side, level int, 
 	}
 	for _, c := range []byte(pv.Tree) {
 		switch c {
-		case certificates.PaveInside:
+		case checker.PaveInside:
 			pv.Inside++
-		case certificates.PaveOutside:
+		case checker.PaveOutside:
 			pv.Outside++
-		case certificates.PaveUndecided:
+		case checker.PaveUndecided:
 			pv.Undecided++
 		}
 	}
@@ -370,14 +370,14 @@ func (w *worker) floatClass(g grid) byte {
 	for _, fp := range w.fps {
 		y := fp.enclose(w.x, ps, pm)
 		if y.Hi <= 0 {
-			return certificates.PaveOutside
+			return checker.PaveOutside
 		}
 		inside = inside && y.Lo > 0
 	}
 	if inside {
-		return certificates.PaveInside
+		return checker.PaveInside
 	}
-	return certificates.PaveUndecided
+	return checker.PaveUndecided
 }
 
 // exactClass decides the box by the centred forms, as the checker does.
@@ -386,14 +386,14 @@ func (w *worker) exactClass(g grid, forms []*poly.CenteredForm) byte {
 	inside := true
 	for _, f := range forms {
 		if f.NonPositive() {
-			return certificates.PaveOutside
+			return checker.PaveOutside
 		}
 		inside = inside && f.PositiveOn(faces)
 	}
 	if inside {
-		return certificates.PaveInside
+		return checker.PaveInside
 	}
-	return certificates.PaveUndecided
+	return checker.PaveUndecided
 }
 
 func openFaces(g grid, open poly.OpenFaces) poly.OpenFaces {
@@ -415,10 +415,10 @@ func (w *worker) classify(g grid, forms []*poly.CenteredForm) (code byte, split 
 	if w.boxes.Add(1) > w.max {
 		return 0, false, ErrTooManyBoxes
 	}
-	splittable := g.k[certificates.PavingSplitDim(g.k)] < w.level
-	if fc := w.floatClass(g); fc != certificates.PaveUndecided {
+	splittable := g.k[checker.PavingSplitDim(g.k)] < w.level
+	if fc := w.floatClass(g); fc != checker.PaveUndecided {
 		ec := w.exactClass(g, forms)
-		if ec != certificates.PaveUndecided {
+		if ec != checker.PaveUndecided {
 			return ec, false, nil
 		}
 		w.rejected++
@@ -447,7 +447,7 @@ func (w *worker) subtree(ctx context.Context, g grid, forms []*poly.CenteredForm
 		b.WriteByte(code)
 		return nil
 	}
-	b.WriteByte(certificates.PaveSplit)
+	b.WriteByte(checker.PaveSplit)
 	// Children's forms live in per-depth buffers: the lower child's subtree
 	// only uses deeper ones, so the upper child can reuse the same slot.
 	d := g.depth() + 1
@@ -459,7 +459,7 @@ func (w *worker) subtree(ctx context.Context, g grid, forms []*poly.CenteredForm
 		w.bufs = append(w.bufs, fs)
 	}
 	child := w.bufs[d]
-	dim := certificates.PavingSplitDim(g.k)
+	dim := checker.PavingSplitDim(g.k)
 	lo, hi := g.halves(dim)
 	for j, f := range forms {
 		child[j].Half(f, dim, false)

@@ -3,13 +3,14 @@ package pave
 import (
 	"context"
 	"errors"
+	"lyacert/certificates"
 	"math"
 	"math/big"
 	"math/rand/v2"
 	"testing"
 
-	"lyacert/certificates"
 	"lyacert/certify/interval"
+	"lyacert/checker"
 	"lyacert/poly"
 )
 
@@ -132,7 +133,7 @@ func discBox() ([]*poly.Poly, []Side) {
 }
 
 // Every leaf is what the checker's exact test says, the tree has the shape
-// certificates.Paving documents, and points of inside (outside) leaves
+// checker.Paving documents, and points of inside (outside) leaves
 // satisfy (violate) the condition.
 func TestPaveRegionLeaves(t *testing.T) {
 	conds, box := discBox()
@@ -140,15 +141,16 @@ func TestPaveRegionLeaves(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	doc := certificates.Paving{Params: []string{"a", "b"}, Resolution: "1/32", Tree: pv.Tree}
+	doc := checker.Paving{Params: []string{"a", "b"}, Resolution: "1/32", Tree: pv.Tree}
 	for _, s := range box {
-		doc.Box = append(doc.Box, certificates.Interval{Lo: s.Range.Lo.Value.RatString(), Hi: s.Range.Hi.Value.RatString(), LoClosed: !s.Range.Lo.Open, HiClosed: !s.Range.Hi.Open})
+		doc.Box = append(doc.Box, checker.Interval{Lo: s.Range.Lo.Value.RatString(), Hi: s.Range.Hi.Value.RatString(), LoClosed: !s.Range.Lo.Open, HiClosed: !s.Range.Hi.Open})
 	}
-	if err := doc.Derive(); err != nil {
+	sum, err := certificates.Summarize(&doc)
+	if err != nil {
 		t.Fatal(err)
 	}
-	if doc.Inside != pv.Inside || doc.Outside != pv.Outside || doc.Undecided != pv.Undecided || pv.Inside == 0 || pv.Outside == 0 || pv.Undecided == 0 {
-		t.Fatalf("counts %d/%d/%d, derived %d/%d/%d", pv.Inside, pv.Outside, pv.Undecided, doc.Inside, doc.Outside, doc.Undecided)
+	if sum.Inside != pv.Inside || sum.Outside != pv.Outside || sum.Undecided != pv.Undecided || pv.Inside == 0 || pv.Outside == 0 || pv.Undecided == 0 {
+		t.Fatalf("counts %d/%d/%d, derived %d/%d/%d", pv.Inside, pv.Outside, pv.Undecided, sum.Inside, sum.Outside, sum.Undecided)
 	}
 	leaves, err := doc.Leaves()
 	if err != nil {
@@ -163,17 +165,17 @@ func TestPaveRegionLeaves(t *testing.T) {
 			}
 			v := conds[0].Eval(pt)
 			switch {
-			case lf.Class == certificates.PaveInside && v.Sign() <= 0:
+			case lf.Class == checker.PaveInside && v.Sign() <= 0:
 				t.Errorf("inside leaf %v has %s at %v", lf, v.RatString(), pt)
-			case lf.Class == certificates.PaveOutside && v.Sign() > 0:
+			case lf.Class == checker.PaveOutside && v.Sign() > 0:
 				t.Errorf("outside leaf %v has %s at %v", lf, v.RatString(), pt)
 			}
 		}
 	}
 	// Outward rounding and the exact test agree on this box: the exact
 	// area share π·1²/(4·3.5) lies between inside and inside + undecided.
-	in, _ := new(big.Rat).SetString(doc.InsideFraction)
-	und, _ := new(big.Rat).SetString(doc.UndecidedFraction)
+	in, _ := new(big.Rat).SetString(sum.InsideFraction)
+	und, _ := new(big.Rat).SetString(sum.UndecidedFraction)
 	fi, _ := in.Float64()
 	fu, _ := und.Float64()
 	if exact := math.Pi / 14; fi > exact || fi+fu < exact {

@@ -4,14 +4,15 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"lyacert/certificates"
 	"math"
 	"math/big"
 	"path/filepath"
 	"strconv"
 	"strings"
 
-	"lyacert/certificates"
 	"lyacert/certify"
+	"lyacert/checker"
 	"lyacert/model"
 )
 
@@ -124,7 +125,7 @@ func (c *findCmd) run(e *env) int {
 				ext := filepath.Ext(path)
 				path = strings.TrimSuffix(path, ext) + "-" + strconv.Itoa(k) + ext
 			}
-			if err := ct.Doc.WriteFile(path); err != nil {
+			if err := certificates.WriteFile(ct.Doc, path); err != nil {
 				fmt.Fprintln(e.stderr, "lyacert: writing the certificate:", err)
 				return exitInput
 			}
@@ -137,7 +138,7 @@ func (c *findCmd) run(e *env) int {
 	} else {
 		renderFind(e.stdout, res, q, written, verdict)
 	}
-	if verdict == certificates.VerdictHolds {
+	if verdict == checker.VerdictHolds {
 		return exitHolds
 	}
 	return exitFails
@@ -151,28 +152,28 @@ func findVerdict(res *certify.FindResult) (string, string) {
 		return ct.Verdict, ct.Claim
 	}
 	all, fails := true, false
-	claim := certificates.ClaimGlobal
+	claim := checker.KindGlobal
 	for _, ct := range res.Certs {
 		if ct == nil {
 			continue
 		}
-		if ct.Verdict != certificates.VerdictHolds {
+		if ct.Verdict != checker.VerdictHolds {
 			all = false
 		}
-		if ct.Verdict == certificates.VerdictFails {
+		if ct.Verdict == checker.VerdictFails {
 			fails = true
 		}
-		if ct.Claim != certificates.ClaimGlobal {
-			claim = certificates.ClaimLocal
+		if ct.Claim != checker.KindGlobal {
+			claim = checker.KindLocal
 		}
 	}
 	switch {
 	case all && countCerts(res) > 0:
-		return certificates.VerdictHolds, claim
+		return checker.VerdictHolds, claim
 	case fails:
-		return certificates.VerdictFails, certificates.ClaimNone
+		return checker.VerdictFails, checker.KindNone
 	}
-	return certificates.VerdictUndecided, certificates.ClaimNone
+	return checker.VerdictUndecided, checker.KindNone
 }
 
 func countCerts(res *certify.FindResult) int {
@@ -341,26 +342,26 @@ func renderFind(w io.Writer, res *certify.FindResult, q []*big.Rat, written []st
 			name += " over the whole box"
 		}
 		pd := "P ≻ 0"
-		if ct.Verdict == certificates.VerdictFails {
+		if ct.Verdict == checker.VerdictFails {
 			pd = "P has a negative pivot"
 		}
 		fmt.Fprintf(w, "  exact LDLᵀ: %s ≻ 0 and %s\n", name, pd)
-		if ct.V != nil && ct.Verdict == certificates.VerdictHolds {
+		if ct.V != nil && ct.Verdict == checker.VerdictHolds {
 			fmt.Fprintf(w, "  V = %s\n", ct.V)
 		}
 		if ct.Method == certify.MethodFull {
 			fmt.Fprintf(w, "  full check of V along the model (Lyapunov's direct method): claim %s\n", ct.Claim)
 		}
 		switch ct.Verdict {
-		case certificates.VerdictHolds:
+		case checker.VerdictHolds:
 			fmt.Fprintf(w, "  Verdict: holds. %s.\n", upper(ct.Reason))
-		case certificates.VerdictFails:
+		case checker.VerdictFails:
 			fmt.Fprintf(w, "  Verdict: fails. %s.\n", upper(ct.Reason))
 		default:
 			fmt.Fprintf(w, "  Verdict: undecided. %s.\n", upper(ct.Reason))
 		}
 		if ct.Doc != nil {
-			fmt.Fprintf(w, "  Certificate (%s) re-checked by the exact checker: %d checks passed", ct.Method, len(ct.Verified.Checks))
+			fmt.Fprintf(w, "  Certificate (%s) re-checked by the exact checker: %d checks passed", ct.Method, len(ct.Verified.Records))
 			if written[i] != "" {
 				fmt.Fprintf(w, "; written to %s", written[i])
 			}
@@ -452,7 +453,7 @@ func findJSON(res *certify.FindResult, q []*big.Rat, written []string, verdict, 
 			eo.Exact = ex
 		}
 		for _, iv := range e.Box {
-			eo.Box = append(eo.Box, certificates.IntervalText(iv))
+			eo.Box = append(eo.Box, checker.IntervalText(iv))
 		}
 		if ct := res.Certs[i]; ct != nil {
 			co := &certOutput{Method: ct.Method, Verdict: ct.Verdict, Claim: ct.Claim, Reason: ct.Reason, Certificate: written[i]}
@@ -468,7 +469,7 @@ func findJSON(res *certify.FindResult, q []*big.Rat, written []string, verdict, 
 			}
 			if ct.Doc != nil {
 				co.Digest = ct.Doc.Digest
-				co.Checks = len(ct.Verified.Checks)
+				co.Checks = len(ct.Verified.Records)
 			}
 			eo.Certification = co
 		}

@@ -8,6 +8,7 @@ import (
 	"strings"
 
 	"lyacert/certificates"
+	"lyacert/checker"
 )
 
 // keyCmd groups the key commands.
@@ -26,7 +27,7 @@ type signCmd struct {
 }
 
 func init() {
-	register("key", "Manage the ed25519 keys that sign certificates.", func() any { return &keyCmd{} })
+	register("key", "Manage the ed25519 keys that sign checker.", func() any { return &keyCmd{} })
 	register("sign", "Sign a certificate's digest with an ed25519 private key.", func() any { return &signCmd{} })
 }
 
@@ -46,7 +47,7 @@ func (c *keyNewCmd) run(e *env) int {
 		fmt.Fprintln(e.stderr, "lyacert:", err)
 		return exitInput
 	}
-	fmt.Fprintf(e.stdout, "wrote the private key %s (keep it secret) and the public key %s.pub\n  fingerprint %s\n", c.Out, c.Out, certificates.Fingerprint(pub))
+	fmt.Fprintf(e.stdout, "wrote the private key %s (keep it secret) and the public key %s.pub\n  fingerprint %s\n", c.Out, c.Out, checker.Fingerprint(pub))
 	return exitHolds
 }
 
@@ -61,7 +62,7 @@ func (c *signCmd) run(e *env) int {
 		fmt.Fprintln(e.stderr, "lyacert:", err)
 		return exitInput
 	}
-	doc, err := certificates.Read(strings.NewReader(string(src)))
+	doc, err := checker.Read(strings.NewReader(string(src)))
 	if err != nil {
 		fmt.Fprintf(e.stderr, "lyacert: %s: %v\n", name, err)
 		return exitInput
@@ -70,18 +71,18 @@ func (c *signCmd) run(e *env) int {
 	// checker accepts is signed.
 	old := doc.Signature
 	doc.Signature = nil
-	if res := certificates.Verify(doc); !res.Valid {
+	if res := checker.Verify(doc); !res.Valid {
 		renderVerify(e.stderr, name, doc, res)
 		fmt.Fprintf(e.stderr, "lyacert: %s: not signed: the checker rejects the certificate\n", name)
 		return exitFails
 	}
-	if err := doc.Sign(key); err != nil {
+	if err := certificates.Sign(doc, key); err != nil {
 		fmt.Fprintf(e.stderr, "lyacert: %s: %v\n", name, err)
 		return exitFails
 	}
 	if old != nil {
-		if pub, err := (&certificates.Document{Signature: old}).Signer(); err == nil {
-			fmt.Fprintf(e.stderr, "lyacert: %s: replacing the signature by key %s\n", name, certificates.Fingerprint(pub))
+		if pub, err := (&checker.Document{Signature: old}).Signer(); err == nil {
+			fmt.Fprintf(e.stderr, "lyacert: %s: replacing the signature by key %s\n", name, checker.Fingerprint(pub))
 		} else {
 			fmt.Fprintf(e.stderr, "lyacert: %s: replacing a malformed signature\n", name)
 		}
@@ -91,7 +92,7 @@ func (c *signCmd) run(e *env) int {
 		out = c.Cert
 	}
 	if out == "-" {
-		b, err := doc.Marshal()
+		b, err := certificates.Marshal(doc)
 		if err != nil {
 			fmt.Fprintln(e.stderr, "lyacert:", err)
 			return exitInput
@@ -99,11 +100,11 @@ func (c *signCmd) run(e *env) int {
 		e.stdout.Write(b)
 		return exitHolds
 	}
-	if err := doc.WriteFile(out); err != nil {
+	if err := certificates.WriteFile(doc, out); err != nil {
 		fmt.Fprintln(e.stderr, "lyacert: writing the certificate:", err)
 		return exitInput
 	}
-	fmt.Fprintf(e.stdout, "signed %s with key %s\n  digest %s\n", out, certificates.Fingerprint(key.Public().(ed25519.PublicKey)), doc.Digest)
+	fmt.Fprintf(e.stdout, "signed %s with key %s\n  digest %s\n", out, checker.Fingerprint(key.Public().(ed25519.PublicKey)), doc.Digest)
 	return exitHolds
 }
 
@@ -134,10 +135,10 @@ func signWritten(out string, key ed25519.PrivateKey, code int, asJSON bool, e *e
 	}
 	doc, err := certificates.ReadFile(out)
 	if err == nil {
-		err = doc.Sign(key)
+		err = certificates.Sign(doc, key)
 	}
 	if err == nil {
-		err = doc.WriteFile(out)
+		err = certificates.WriteFile(doc, out)
 	}
 	if err != nil {
 		fmt.Fprintln(e.stderr, "lyacert: signing the certificate:", err)
@@ -147,7 +148,7 @@ func signWritten(out string, key ed25519.PrivateKey, code int, asJSON bool, e *e
 	if asJSON {
 		w = e.stderr // keep standard output one JSON document
 	}
-	fmt.Fprintf(w, "Signed %s with key %s.\n", out, certificates.Fingerprint(key.Public().(ed25519.PublicKey)))
+	fmt.Fprintf(w, "Signed %s with key %s.\n", out, checker.Fingerprint(key.Public().(ed25519.PublicKey)))
 	return code
 }
 
@@ -168,21 +169,21 @@ func readTrusted(paths []string) ([]ed25519.PublicKey, error) {
 // result: a valid signature by one of the trusted keys is required. Without
 // trusted keys the result is unchanged (Verify has already checked a
 // present signature).
-func applyTrust(doc *certificates.Document, res certificates.Result, trusted []ed25519.PublicKey) certificates.Result {
+func applyTrust(doc *checker.Document, res checker.Outcome, trusted []ed25519.PublicKey) checker.Outcome {
 	if len(trusted) == 0 {
 		return res
 	}
 	pub, err := doc.VerifyTrusted(trusted)
-	ch := certificates.Check{Name: "trust", OK: err == nil}
+	ch := checker.Record{Name: "trust", OK: err == nil}
 	switch {
 	case err == nil:
-		ch.Reason = "signed by the trusted key " + certificates.Fingerprint(pub)
-	case errors.Is(err, certificates.ErrUnsigned):
+		ch.Reason = "signed by the trusted key " + checker.Fingerprint(pub)
+	case errors.Is(err, checker.ErrUnsigned):
 		ch.Reason = "no signature, but --trust requires one by a trusted key"
 	default:
 		ch.Reason = err.Error()
 	}
-	res.Checks = append(res.Checks, ch)
+	res.Records = append(res.Records, ch)
 	if !ch.OK {
 		res.Valid = false
 	}
@@ -190,7 +191,7 @@ func applyTrust(doc *certificates.Document, res certificates.Result, trusted []e
 }
 
 // renderSigner says who signed a valid certificate, after verify's text.
-func renderSigner(w io.Writer, doc *certificates.Document, res certificates.Result, trusted bool) {
+func renderSigner(w io.Writer, doc *checker.Document, res checker.Outcome, trusted bool) {
 	if !res.Valid {
 		return
 	}
@@ -199,8 +200,8 @@ func renderSigner(w io.Writer, doc *certificates.Document, res certificates.Resu
 	case err != nil:
 		fmt.Fprintln(w, "  not signed")
 	case trusted:
-		fmt.Fprintf(w, "  signed by the trusted key %s\n", certificates.Fingerprint(pub))
+		fmt.Fprintf(w, "  signed by the trusted key %s\n", checker.Fingerprint(pub))
 	default:
-		fmt.Fprintf(w, "  signed by key %s (signature valid; use --trust KEY.pub to require a trusted signer)\n", certificates.Fingerprint(pub))
+		fmt.Fprintf(w, "  signed by key %s (signature valid; use --trust KEY.pub to require a trusted signer)\n", checker.Fingerprint(pub))
 	}
 }

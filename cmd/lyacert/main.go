@@ -7,14 +7,15 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"lyacert/certificates"
 	"os"
 	"slices"
 	"strings"
 
 	"github.com/alecthomas/kong"
 
-	"lyacert/certificates"
 	"lyacert/certify"
+	"lyacert/checker"
 	"lyacert/examples"
 	"lyacert/model"
 	"lyacert/poly"
@@ -262,7 +263,7 @@ func checkModel(name string, src []byte, settings []model.Setting, out string, a
 	}
 	written := ""
 	if out != "" {
-		if err := res.Doc.WriteFile(out); err != nil {
+		if err := certificates.WriteFile(res.Doc, out); err != nil {
 			fmt.Fprintln(e.stderr, "lyacert: writing the certificate:", err)
 			return exitInput
 		}
@@ -276,7 +277,7 @@ func checkModel(name string, src []byte, settings []model.Setting, out string, a
 	if code := pf.finish(res, e); code != 0 {
 		return code
 	}
-	if res.Verdict == certificates.VerdictHolds {
+	if res.Verdict == checker.VerdictHolds {
 		return exitHolds
 	}
 	return exitFails
@@ -299,7 +300,7 @@ func (c *verifyCmd) run(e *env) int {
 		fmt.Fprintln(e.stderr, "lyacert:", err)
 		return exitInput
 	}
-	doc, err := certificates.Read(strings.NewReader(string(src)))
+	doc, err := checker.Read(strings.NewReader(string(src)))
 	if err != nil {
 		fmt.Fprintf(e.stderr, "lyacert: %s: %v\n", name, err)
 		return exitInput
@@ -309,7 +310,7 @@ func (c *verifyCmd) run(e *env) int {
 		fmt.Fprintln(e.stderr, "lyacert:", err)
 		return exitInput
 	}
-	res := applyTrust(doc, certificates.Verify(doc), trusted)
+	res := applyTrust(doc, checker.Verify(doc), trusted)
 	if c.JSON {
 		writeJSON(e.stdout, verifyJSON(doc, res))
 	} else {

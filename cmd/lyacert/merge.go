@@ -9,6 +9,7 @@ import (
 	"strings"
 
 	"lyacert/certificates"
+	"lyacert/checker"
 )
 
 type mergeCmd struct {
@@ -80,7 +81,7 @@ func (c *mergeCmd) run(e *env) int {
 		b := byIndex[k]
 		for _, r := range b.records {
 			buf.Write(r.raw)
-			if r.line.Verdict != certificates.VerdictHolds {
+			if r.line.Verdict != checker.VerdictHolds {
 				allHold = false
 			}
 		}

@@ -6,6 +6,7 @@ import (
 	"fmt"
 	"image/color"
 	"io"
+	"lyacert/checker"
 	"math/big"
 	"os"
 	"os/signal"
@@ -152,12 +153,13 @@ func (pf *paveFlags) finish(res *certify.Result, e *env) int {
 // classes with their exact shares, and the product form when there is one.
 func renderPaving(w io.Writer, res *certify.Result) {
 	pv := res.Region.Paving
+	sum, _ := certificates.Summarize(pv) // verified: well formed
 	fmt.Fprintf(w, "Region of (%s) by set inversion (every inside box re-checked exactly)\n", strings.Join(pv.Params, ", "))
 	var sides []string
 	for i, s := range pv.Box {
 		sides = append(sides, pv.Params[i]+" ∈ "+intervalText(s))
 	}
-	fmt.Fprintf(w, "  box          %s (volume %s)\n", strings.Join(sides, ", "), pv.Volume)
+	fmt.Fprintf(w, "  box          %s (volume %s)\n", strings.Join(sides, ", "), sum.Volume)
 	fmt.Fprintf(w, "  resolution   %s of each side\n", pv.Resolution)
 	for _, c := range []struct {
 		name  string
@@ -165,20 +167,20 @@ func renderPaving(w io.Writer, res *certify.Result) {
 		share string
 		note  string
 	}{
-		{"inside", pv.Inside, pv.InsideFraction, ", merged into " + boxes(len(pv.InsideBoxes)) + " in the certificate"},
-		{"outside", pv.Outside, pv.OutsideFraction, ""},
-		{"undecided", pv.Undecided, pv.UndecidedFraction, ""},
+		{"inside", sum.Inside, sum.InsideFraction, ", merged into " + boxes(len(sum.InsideBoxes))},
+		{"outside", sum.Outside, sum.OutsideFraction, ""},
+		{"undecided", sum.Undecided, sum.UndecidedFraction, ""},
 	} {
 		fmt.Fprintf(w, "  %-12s %s, %s of the box (%s)%s\n", c.name, boxes(c.n), percent(c.share), c.share, c.note)
 	}
 	if res.Paving != nil && res.Paving.Rejected > 0 {
 		fmt.Fprintf(w, "  (%d float proposals were not confirmed by the exact test and were refined)\n", res.Paving.Rejected)
 	}
-	if len(res.Region.Product) > 0 {
+	if len(res.Region.Paving.Product) > 0 {
 		fmt.Fprintln(w, "  closed form (each condition involves one parameter):")
-		fmt.Fprintf(w, "    %s\n", productText(res.Region.Product))
+		fmt.Fprintf(w, "    %s\n", productText(res.Region.Paving.Product))
 		var isol []string
-		for _, f := range res.Region.Product {
+		for _, f := range res.Region.Paving.Product {
 			for _, iv := range f.Intervals {
 				for _, e := range [][3]string{{iv.Lo, iv.LoPoly, isoText(iv.LoIsolating)}, {iv.Hi, iv.HiPoly, isoText(iv.HiIsolating)}} {
 					if s := fmt.Sprintf("    %s is the root of %s in %s", e[0], e[1], e[2]); e[1] != "" && !containsStr(isol, s) {
@@ -202,7 +204,7 @@ func boxes(n int) string {
 }
 
 // productText writes a product region as "r ∈ [0, 1) × b ∈ (0, 4]".
-func productText(fs []certificates.Region) string {
+func productText(fs []checker.SturmRegion) string {
 	var parts []string
 	for _, f := range fs {
 		var ivs []string
@@ -220,10 +222,11 @@ func productText(fs []certificates.Region) string {
 // pavingWhere says where a paved region holds, for the verdict line.
 func pavingWhere(res *certify.Result) string {
 	pv := res.Region.Paving
-	if len(res.Region.Product) > 0 {
-		return "for " + productText(res.Region.Product)
+	if len(pv.Product) > 0 {
+		return "for " + productText(pv.Product)
 	}
-	return fmt.Sprintf("on the inside boxes of the paving (%s of the box)", percent(pv.InsideFraction))
+	sum, _ := certificates.Summarize(pv) // verified: well formed
+	return fmt.Sprintf("on the inside boxes of the paving (%s of the box)", percent(sum.InsideFraction))
 }
 
 // percent writes an exact share as a percentage for people.
@@ -247,15 +250,15 @@ func percent(share string) string {
 // Colours that stay apart in greyscale print, as in the reports: dark green
 // inside, light red outside, mid grey undecided.
 var classColors = map[byte]color.Color{
-	certificates.PaveInside:    color.RGBA{0x1b, 0x78, 0x37, 0xff},
-	certificates.PaveOutside:   color.RGBA{0xf4, 0xa5, 0x82, 0xff},
-	certificates.PaveUndecided: color.RGBA{0xbd, 0xbd, 0xbd, 0xff},
+	checker.PaveInside:    color.RGBA{0x1b, 0x78, 0x37, 0xff},
+	checker.PaveOutside:   color.RGBA{0xf4, 0xa5, 0x82, 0xff},
+	checker.PaveUndecided: color.RGBA{0xbd, 0xbd, 0xbd, 0xff},
 }
 
 var classNames = map[byte]string{
-	certificates.PaveInside:    "inside: the conditions hold (proven)",
-	certificates.PaveOutside:   "outside: a condition fails (proven)",
-	certificates.PaveUndecided: "undecided at the resolution",
+	checker.PaveInside:    "inside: the conditions hold (proven)",
+	checker.PaveOutside:   "outside: a condition fails (proven)",
+	checker.PaveUndecided: "undecided at the resolution",
 }
 
 // writePlot draws the paving's leaves, coloured by class, over the first two
@@ -263,7 +266,7 @@ var classNames = map[byte]string{
 // extension) atomically. Slices fix every parameter but two; a leaf is drawn
 // when the slice value lies in it (its lower end included, its upper end only
 // at the top of the box).
-func writePlot(path string, pv *certificates.Paving, slice []string) error {
+func writePlot(path string, pv *checker.Paving, slice []string) error {
 	format := strings.ToLower(strings.TrimPrefix(filepath.Ext(path), "."))
 	if format != "svg" && format != "png" {
 		return fmt.Errorf("%s: the file must end in .svg or .png", path)
@@ -325,7 +328,7 @@ func writePlot(path string, pv *certificates.Paving, slice []string) error {
 	p.Y.Max, _ = y1.Float64()
 	p.Y.Max += (p.Y.Max - p.Y.Min) / 5 // room for the legend above the box
 	layers := map[byte]*boxLayer{}
-	for _, c := range []byte{certificates.PaveInside, certificates.PaveOutside, certificates.PaveUndecided} {
+	for _, c := range []byte{checker.PaveInside, checker.PaveOutside, checker.PaveUndecided} {
 		layers[c] = &boxLayer{fill: classColors[c]}
 	}
 	for _, lf := range leaves {
@@ -344,7 +347,7 @@ func writePlot(path string, pv *certificates.Paving, slice []string) error {
 		r[3], _ = lf.Hi[axes[1]].Float64()
 		layers[lf.Class].boxes = append(layers[lf.Class].boxes, r)
 	}
-	for _, c := range []byte{certificates.PaveInside, certificates.PaveOutside, certificates.PaveUndecided} {
+	for _, c := range []byte{checker.PaveInside, checker.PaveOutside, checker.PaveUndecided} {
 		p.Add(layers[c])
 		p.Legend.Add(classNames[c]+", "+boxes(len(layers[c].boxes)), layers[c])
 	}

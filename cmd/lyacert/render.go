@@ -7,8 +7,8 @@ import (
 	"sort"
 	"strings"
 
-	"lyacert/certificates"
 	"lyacert/certify"
+	"lyacert/checker"
 	"lyacert/model"
 	"lyacert/poly"
 )
@@ -134,7 +134,7 @@ func renderCheck(w io.Writer, res *certify.Result, written string) {
 	for _, n := range res.Notes {
 		fmt.Fprintf(w, "Note: %s.\n", n)
 	}
-	fmt.Fprintf(w, "\nCertificate re-checked by the exact checker: %d checks passed", len(res.Check.Checks))
+	fmt.Fprintf(w, "\nCertificate re-checked by the exact checker: %d checks passed", len(res.Check.Records))
 	if written != "" {
 		fmt.Fprintf(w, "; written to %s", written)
 	}
@@ -182,9 +182,9 @@ func renderConditions(w io.Writer, res *certify.Result) {
 		var discharged []string
 		for _, f := range c.Factors {
 			switch f.Status {
-			case certificates.StatusPositive:
+			case checker.StatusPositive:
 				discharged = append(discharged, factorText(f)+" > 0 by assumption")
-			case certificates.StatusNegative:
+			case checker.StatusNegative:
 				discharged = append(discharged, factorText(f)+" < 0 by assumption")
 			}
 		}
@@ -243,7 +243,7 @@ func conditionText(q *poly.Poly) string {
 	return q.String() + " > 0"
 }
 
-func intervalText(iv certificates.Interval) string {
+func intervalText(iv checker.Interval) string {
 	if iv.Lo == iv.Hi && iv.LoPoly == iv.HiPoly && iv.LoClosed && iv.HiClosed {
 		return "{" + iv.Lo + "}"
 	}
@@ -259,9 +259,9 @@ func intervalText(iv certificates.Interval) string {
 
 func renderVerdict(w io.Writer, res *certify.Result) {
 	claim := map[string]string{
-		certificates.ClaimGlobal: "the equilibrium is globally asymptotically stable",
-		certificates.ClaimLocal:  "the equilibrium is locally asymptotically stable",
-		certificates.ClaimStable: "the equilibrium is stable (Lyapunov); V̇ ≤ 0 but not < 0",
+		checker.KindGlobal: "the equilibrium is globally asymptotically stable",
+		checker.KindLocal:  "the equilibrium is locally asymptotically stable",
+		checker.KindStable: "the equilibrium is stable (Lyapunov); V̇ ≤ 0 but not < 0",
 	}[res.Claim]
 	if res.Region != nil && res.Region.Paving != nil {
 		renderPaving(w, res)
@@ -289,13 +289,13 @@ func renderVerdict(w io.Writer, res *certify.Result) {
 		fmt.Fprintln(w)
 	}
 	switch res.Verdict {
-	case certificates.VerdictHolds:
+	case checker.VerdictHolds:
 		fmt.Fprintf(w, "Verdict: holds. %s", upper(claim))
 		if len(res.Model.FreeParams()) > 0 {
 			fmt.Fprint(w, " for every allowed parameter value")
 		}
 		fmt.Fprintln(w, ".")
-	case certificates.VerdictOnRegion:
+	case checker.VerdictOnRegion:
 		where := "where the conditions hold"
 		if res.Region != nil && res.Region.Paving != nil {
 			where = pavingWhere(res)
@@ -312,9 +312,9 @@ func renderVerdict(w io.Writer, res *certify.Result) {
 				fmt.Fprintf(w, "  conditions %s at %s\n", map[bool]string{true: "hold", false: "fail"}[wt.Holds], paramsText(wt.Params))
 			}
 		}
-	case certificates.VerdictFails:
+	case checker.VerdictFails:
 		fmt.Fprintf(w, "Verdict: fails. %s.\n", upper(res.Reason))
-	case certificates.VerdictUndecided:
+	case checker.VerdictUndecided:
 		fmt.Fprintf(w, "Verdict: undecided. %s.\n", upper(res.Reason))
 	}
 	if len(res.Kernel) > 0 {
@@ -381,18 +381,18 @@ func renderRefutation(w io.Writer, res *certify.Result) {
 	fmt.Fprintf(w, "Refutation (exact)%s: at %s, V = %s and %s = %s.\n", where, strings.Join(pt, ", "), rf.V, dotName(m), rf.Vdot)
 }
 
-func renderVerify(w io.Writer, name string, doc *certificates.Document, res certificates.Result) {
+func renderVerify(w io.Writer, name string, doc *checker.Document, res checker.Outcome) {
 	failed := 0
-	for _, c := range res.Checks {
+	for _, c := range res.Records {
 		if !c.OK {
 			failed++
 			fmt.Fprintf(w, "FAIL  %-12s %s\n", c.Name, c.Reason)
 		}
 	}
 	if res.Valid {
-		fmt.Fprintf(w, "%s: valid. %d checks passed (exact arithmetic).\n", name, len(res.Checks))
-		fmt.Fprintf(w, "  claim %s, verdict %s\n  digest %s\n", doc.Claim, doc.Verdict, doc.Digest)
+		fmt.Fprintf(w, "%s: valid. %d checks passed (exact arithmetic).\n", name, len(res.Records))
+		fmt.Fprintf(w, "  claim %s, verdict %s\n  digest %s\n", res.Kind, res.Verdict, doc.Digest)
 		return
 	}
-	fmt.Fprintf(w, "%s: INVALID. %d of %d checks failed; the certificate proves nothing.\n", name, failed, len(res.Checks))
+	fmt.Fprintf(w, "%s: INVALID. %d of %d checks failed; the certificate proves nothing.\n", name, failed, len(res.Records))
 }

@@ -10,6 +10,7 @@ import (
 
 	"lyacert/certificates"
 	"lyacert/certify"
+	"lyacert/checker"
 	"lyacert/examples"
 	"lyacert/model"
 	"lyacert/report"
@@ -46,7 +47,7 @@ func (c *reportCmd) run(e *env) int {
 		fmt.Fprintln(e.stderr, "lyacert:", err)
 		return exitInput
 	}
-	doc, err := certificates.Read(bytes.NewReader(src))
+	doc, err := checker.Read(bytes.NewReader(src))
 	if err != nil {
 		fmt.Fprintf(e.stderr, "lyacert: %s: %v\n", name, err)
 		return exitInput
@@ -72,7 +73,7 @@ func figureBeside(out string) func(string, []byte) (string, error) {
 
 // writeReport renders the report to out (standard output when empty) and
 // returns the exit code of the certificate's verdict.
-func writeReport(doc *certificates.Document, opts report.Options, out string, e *env) int {
+func writeReport(doc *checker.Document, opts report.Options, out string, e *env) int {
 	var buf bytes.Buffer
 	if err := report.Render(&buf, doc, opts); err != nil {
 		fmt.Fprintf(e.stderr, "lyacert: %s: %v\n", opts.CertName, err)
@@ -87,7 +88,7 @@ func writeReport(doc *certificates.Document, opts report.Options, out string, e 
 		fmt.Fprintln(e.stderr, "lyacert: writing the report:", err)
 		return exitInput
 	}
-	if doc.Verdict == certificates.VerdictHolds {
+	if checker.Verify(doc).Verdict == checker.VerdictHolds {
 		return exitHolds
 	}
 	return exitFails
@@ -110,7 +111,7 @@ func writeDemoReports(dir string, e *env) error {
 	}
 	base := strings.TrimSuffix(examples.CoolantName, filepath.Ext(examples.CoolantName))
 	cert := filepath.Join(dir, base+".json")
-	if err := res.Doc.WriteFile(cert); err != nil {
+	if err := certificates.WriteFile(res.Doc, cert); err != nil {
 		return err
 	}
 	var written []string

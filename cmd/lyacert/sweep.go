@@ -19,6 +19,7 @@ import (
 
 	"lyacert/certificates"
 	"lyacert/certify"
+	"lyacert/checker"
 	"lyacert/model"
 )
 
@@ -191,7 +192,7 @@ func (c *sweepCmd) run(e *env) int {
 			}
 			if d := sp.Docs[i]; d != nil && c.Certificates != "" {
 				path := filepath.Join(c.Certificates, fmt.Sprintf("%d-%d.json", sp.Index, sp.Lines[i].Eq))
-				if err := d.WriteFile(path); err != nil {
+				if err := certificates.WriteFile(d, path); err != nil {
 					return err
 				}
 			}
@@ -375,7 +376,7 @@ func renderSweepSummary(w io.Writer, s sweepSummary, stopped error) {
 	}
 	fmt.Fprintf(w, "  %d done (%d in this run, %.1f s%s), %d remaining\n", s.Done, s.ThisRun, s.Seconds, rate, s.Remaining)
 	var parts []string
-	for _, v := range []string{certificates.VerdictHolds, certificates.VerdictFails, certificates.VerdictUndecided} {
+	for _, v := range []string{checker.VerdictHolds, checker.VerdictFails, checker.VerdictUndecided} {
 		parts = append(parts, fmt.Sprintf("%s %d", v, s.Verdicts[v]))
 	}
 	fmt.Fprintf(w, "  lines by verdict: %s\n", strings.Join(parts, ", "))

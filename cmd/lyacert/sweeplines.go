@@ -8,8 +8,8 @@ import (
 	"strconv"
 	"strings"
 
-	"lyacert/certificates"
 	"lyacert/certify"
+	"lyacert/checker"
 )
 
 // sweepRecord is one line of a sweep's output as read back: its bytes,
@@ -109,9 +109,9 @@ func categoryOf(lines []certify.SweepLine) pointCategory {
 		switch {
 		case l.Eqs == 0:
 			other++
-		case l.Verdict == certificates.VerdictHolds:
+		case l.Verdict == checker.VerdictHolds:
 			holds++
-		case l.Verdict == certificates.VerdictFails:
+		case l.Verdict == checker.VerdictFails:
 			fails++
 		default:
 			other++

@@ -1,15 +1,20 @@
-package certificates
+package checker_test
 
 import (
 	"bytes"
 	"encoding/json"
 	"fmt"
+	"maps"
 	"os"
 	"path/filepath"
 	"regexp"
+	"slices"
 	"sort"
 	"strings"
 	"testing"
+
+	"lyacert/certificates"
+	"lyacert/checker"
 )
 
 // noClaim lists the fields that carry no claim; the mutation test leaves
@@ -122,11 +127,11 @@ func TestTamperedCertificatesRejected(t *testing.T) {
 			if err != nil {
 				t.Fatal(err)
 			}
-			orig, err := Read(bytes.NewReader(raw))
+			orig, err := checker.Read(bytes.NewReader(raw))
 			if err != nil {
 				t.Fatal(err)
 			}
-			if r := Verify(orig); !r.Valid {
+			if r := checker.Verify(orig); !r.Valid {
 				t.Fatalf("the original does not verify")
 			}
 			ms := mutations(t, raw)
@@ -135,15 +140,15 @@ func TestTamperedCertificatesRejected(t *testing.T) {
 			}
 			undecodable := 0
 			for _, m := range ms {
-				doc, err := Read(bytes.NewReader(m.doc))
+				doc, err := checker.Read(bytes.NewReader(m.doc))
 				if err != nil {
 					undecodable++ // no longer a certificate at all: rejected
 					continue
 				}
-				if err := doc.Seal(); err != nil {
+				if err := certificates.Seal(doc); err != nil {
 					t.Fatal(err)
 				}
-				if r := Verify(doc); r.Valid {
+				if r := checker.Verify(doc); r.Valid {
 					t.Errorf("mutation at %s is accepted", m.path)
 				}
 			}
@@ -160,18 +165,93 @@ func TestTamperedCertificatesRejected(t *testing.T) {
 func TestDigestCatchesUnsealedChange(t *testing.T) {
 	files, _ := filepath.Glob(filepath.Join("..", "testdata", "certificates", "*.json"))
 	for _, f := range files {
-		doc, err := ReadFile(f)
+		doc, err := certificates.ReadFile(f)
 		if err != nil {
 			t.Fatal(err)
 		}
 		doc.Source = doc.Source + "x"
-		r := Verify(doc)
+		r := checker.Verify(doc)
 		if r.Valid {
 			t.Errorf("%s: an unsealed change is accepted", f)
 		}
-		last := r.Checks[len(r.Checks)-1]
+		last := r.Records[len(r.Records)-1]
 		if last.Name != "digest" || last.OK {
 			t.Errorf("%s: the digest check did not fail: %+v", f, last)
 		}
 	}
+}
+
+// TestClaimEditsRejected edits the list of claims of every testdata
+// certificate, re-sealed: a claim whose rule is renamed to any other rule,
+// a claim duplicated, and a claim deleted. Renaming and duplicating must be
+// rejected. A deletion must be rejected, or leave a certificate from which
+// the kernel derives a different conclusion (a refutation or witnesses are
+// facts that a weaker certificate may lack; nothing else may go unnoticed).
+func TestClaimEditsRejected(t *testing.T) {
+	files, _ := filepath.Glob(filepath.Join("..", "testdata", "certificates", "*.json"))
+	for _, f := range files {
+		t.Run(filepath.Base(f), func(t *testing.T) {
+			raw, err := os.ReadFile(f)
+			if err != nil {
+				t.Fatal(err)
+			}
+			var top map[string]json.RawMessage
+			if err := json.Unmarshal(raw, &top); err != nil {
+				t.Fatal(err)
+			}
+			var claims []map[string]any
+			if err := json.Unmarshal(top["claims"], &claims); err != nil {
+				t.Fatal(err)
+			}
+			orig := checker.Verify(mustRead(t, raw))
+			check := func(what string, edited []map[string]any, deletion bool) {
+				t.Helper()
+				c, _ := json.Marshal(edited)
+				top["claims"] = c
+				b, _ := json.Marshal(top)
+				doc, err := checker.Read(bytes.NewReader(b))
+				if err != nil {
+					return // no longer decodes: rejected
+				}
+				if err := certificates.Seal(doc); err != nil {
+					t.Fatal(err)
+				}
+				r := checker.Verify(doc)
+				if !r.Valid {
+					return
+				}
+				if deletion && (r.Verdict != orig.Verdict || r.Kind != orig.Kind || r.Refuted != orig.Refuted || r.Region != orig.Region) {
+					return
+				}
+				t.Errorf("%s is accepted (verdict %s, kind %s)", what, r.Verdict, r.Kind)
+			}
+			for i, cl := range claims {
+				rule := cl["rule"].(string)
+				for _, other := range ruleNames {
+					if other == rule {
+						continue
+					}
+					edited := slices.Clone(claims)
+					c := maps.Clone(cl)
+					c["rule"] = other
+					edited[i] = c
+					check(fmt.Sprintf("claim %d renamed %s → %s", i+1, rule, other), edited, false)
+				}
+				check(fmt.Sprintf("claim %d (%s) duplicated", i+1, rule), slices.Insert(slices.Clone(claims), i, cl), false)
+				check(fmt.Sprintf("claim %d (%s) deleted", i+1, rule), slices.Delete(slices.Clone(claims), i, i+1), true)
+			}
+		})
+	}
+}
+
+var ruleNames = []string{"orbital-derivative", "quadratic-part-ldl", "monomial-gram-ldl", "minor-condition",
+	"semidefinite-kernel", "sturm-region", "paving", "witness-points", "refutation", "krawczyk-enclosure", "linearization"}
+
+func mustRead(t *testing.T, raw []byte) *checker.Document {
+	t.Helper()
+	d, err := checker.Read(bytes.NewReader(raw))
+	if err != nil {
+		t.Fatal(err)
+	}
+	return d
 }

@@ -1,11 +1,46 @@
-package certificates
+package checker
 
 import (
 	"fmt"
 	"math/big"
+	"strconv"
+	"strings"
 
 	"lyacert/poly"
 )
+
+// SturmRegion is the exact set of values of one parameter where every
+// condition holds: Pieces partition the parameter's allowed range (or a side
+// of a paving's box) into intervals on which every condition holds (Holds)
+// or some condition fails throughout; Intervals lists the holding pieces.
+type SturmRegion struct {
+	Param     string     `json:"param"`
+	Intervals []Interval `json:"intervals"`
+	Pieces    []Piece    `json:"pieces"`
+}
+
+func (*SturmRegion) Rule() string { return "sturm-region" }
+
+// Interval has ends that are "-inf", "inf", an exact rational, or an
+// irrational algebraic number: the unique root of LoPoly (HiPoly) in the
+// open isolating interval LoIsolating (HiIsolating), with Lo (Hi) its
+// decimal value to 15 significant digits, correctly rounded.
+type Interval struct {
+	Lo          string     `json:"lo"`
+	Hi          string     `json:"hi"`
+	LoClosed    bool       `json:"lo_closed"`
+	HiClosed    bool       `json:"hi_closed"`
+	LoPoly      string     `json:"lo_poly,omitempty"`
+	HiPoly      string     `json:"hi_poly,omitempty"`
+	LoIsolating *[2]string `json:"lo_isolating,omitempty"`
+	HiIsolating *[2]string `json:"hi_isolating,omitempty"`
+}
+
+// Piece is one interval of the partition of a parameter's range.
+type Piece struct {
+	Interval
+	Holds bool `json:"holds"`
+}
 
 // end is one end of a piece: -inf, +inf, a rational, or the unique root of
 // poly in the open interval (a, b).
@@ -51,7 +86,7 @@ func (e end) inner(upper bool) poly.UBound {
 	return poly.UBound{Value: e.b}
 }
 
-func (c *checker) readEnd(value, polyText string, iso *[2]string, closed bool, param int, what string) (end, bool) {
+func (c *run) readEnd(value, polyText string, iso *[2]string, closed bool, param int, what string) (end, bool) {
 	e := end{closed: closed, text: value}
 	switch {
 	case polyText == "" && iso == nil && value == "-inf":
@@ -130,14 +165,17 @@ func less(lo, hi end) bool {
 	return l.Cmp(h) < 0
 }
 
-func (c *checker) region(used map[int]bool) bool {
-	d, rg := c.doc, c.doc.Region
-	if !c.add("region", len(rg.Product) == 0, "a one-parameter region has no product form") {
-		return false
-	}
-	// Witness points are not checked on this path; none may stand here
-	// unchecked for a report to show.
-	if !c.add("region", len(d.Witnesses) == 0, "a one-parameter region has no witness points") {
+// sturmRegion: the exact set of values of one parameter where every
+// condition holds. The pieces tile the parameter's allowed range; on each,
+// every condition is > 0 throughout, or some condition is ≤ 0 throughout.
+// Sturm's theorem counts the distinct real roots of a condition in a piece
+// (none inside means a constant sign, read at one rational sample), and
+// locates each irrational end: the unique root of its polynomial in an
+// isolating interval, whose decimal is checked the same way.
+func (c *run) sturmRegion(cl Claim) bool {
+	rg := cl.(*SturmRegion)
+	used, ok := c.conditionsUsed("region")
+	if !ok {
 		return false
 	}
 	pi, ok := c.r.Index(rg.Param)
@@ -154,25 +192,10 @@ func (c *checker) region(used map[int]bool) bool {
 		u, _ := q.Num.Univariate(pi)
 		conds = append(conds, u)
 	}
-	dom := c.box[pi]
-	anyHolds, anyFails, ok := c.regionPieces(rg, pi, conds, dom)
-	if !ok {
-		return false
-	}
-	want := VerdictOnRegion
-	switch {
-	case !anyFails:
-		want = VerdictHolds
-	case !anyHolds:
-		want = VerdictFails
-	}
-	if !c.add("verdict", d.Verdict == want, "the verdict %q follows from the pieces", d.Verdict) {
-		return false
-	}
-	if want == VerdictFails {
-		return c.add("verdict", d.Refutation != nil, "a failing verdict comes with a refutation")
-	}
-	return true
+	holds, fails, ok := c.regionPieces(rg, pi, conds, c.box[pi])
+	c.sturm = &[2]bool{holds, fails}
+	c.seen["sturm-region"] = true
+	return ok
 }
 
 // regionPieces checks that the pieces of rg partition dom (the range of the
@@ -180,7 +203,7 @@ func (c *checker) region(used map[int]bool) bool {
 // holding piece and some condition is ≤ 0 throughout each other piece
 // (Sturm), and that Intervals lists the holding pieces. It reports whether
 // some piece holds and whether some piece fails.
-func (c *checker) regionPieces(rg *Region, pi int, conds []poly.Univariate, dom poly.Interval) (anyHolds, anyFails, ok bool) {
+func (c *run) regionPieces(rg *SturmRegion, pi int, conds []poly.Univariate, dom poly.Interval) (anyHolds, anyFails, ok bool) {
 	if !c.add("region", len(rg.Pieces) > 0, "the pieces partition the range %s of %s", dom, rg.Param) {
 		return false, false, false
 	}
@@ -372,4 +395,40 @@ func pointSign(q poly.Univariate, e end) int {
 		}
 	}
 	return 2
+}
+
+// parseDecimal reads a decimal (digits, an optional point, an optional
+// exponent) and returns it with half a unit of its last digit.
+func parseDecimal(s string) (*big.Rat, *big.Rat, bool) {
+	mant, exp, _ := strings.Cut(strings.ToLower(s), "e")
+	e := 0
+	if exp != "" {
+		var err error
+		if e, err = strconv.Atoi(exp); err != nil || e < -1000 || e > 1000 {
+			return nil, nil, false
+		}
+	}
+	if _, frac, ok := strings.Cut(mant, "."); ok {
+		e -= len(frac)
+	}
+	v, ok := parseRat(s)
+	if !ok || len(mant) > 1000 || strings.ContainsAny(s, "/") {
+		return nil, nil, false
+	}
+	// half = 5·10^(e−1)
+	half := big.NewRat(5, 1)
+	p := new(big.Rat).SetInt(new(big.Int).Exp(big.NewInt(10), big.NewInt(int64(abs(e-1))), nil))
+	if e-1 >= 0 {
+		half.Mul(half, p)
+	} else {
+		half.Quo(half, p)
+	}
+	return v, half, true
+}
+
+func abs(x int) int {
+	if x < 0 {
+		return -x
+	}
+	return x
 }

@@ -1,0 +1,67 @@
+package certificates
+
+import "lyacert/checker"
+
+// Contents gathers a certificate's claims by kind, for people and programs
+// that present them (reports, terminal text, --json). It decides nothing:
+// present only a document that checker.Verify accepted.
+type Contents struct {
+	V, Vdot       string
+	Forms         []FormView
+	Conditions    []checker.MinorCondition
+	Kernel        [][]string
+	Region        *RegionView
+	Witnesses     []checker.Witness
+	Refutation    *checker.Refutation
+	Krawczyk      *checker.KrawczykEnclosure
+	Linearization *checker.Linearization
+}
+
+// FormView is a Gram matrix with its LDLᵀ: of the quadratic part (Basis nil)
+// or of the whole function in a monomial basis.
+type FormView struct {
+	Name  string
+	Basis []string
+	checker.LDLForm
+}
+
+// RegionView is where the conditions hold: the pieces of one parameter's
+// range, or a paving of several parameters' box (with its product form).
+type RegionView struct {
+	Param     string
+	Intervals []checker.Interval
+	Pieces    []checker.Piece
+	Paving    *checker.Paving
+}
+
+// ContentsOf gathers the claims of d.
+func ContentsOf(d *checker.Document) Contents {
+	var c Contents
+	for _, cl := range d.Claims {
+		switch x := cl.(type) {
+		case *checker.OrbitalDerivative:
+			c.V, c.Vdot = x.V, x.Vdot
+		case *checker.QuadraticPart:
+			c.Forms = append(c.Forms, FormView{Name: x.Of, LDLForm: x.LDLForm})
+		case *checker.MonomialGram:
+			c.Forms = append(c.Forms, FormView{Name: x.Of, Basis: x.Basis, LDLForm: x.LDLForm})
+		case *checker.MinorCondition:
+			c.Conditions = append(c.Conditions, *x)
+		case *checker.NullSpace:
+			c.Kernel = x.Vectors
+		case *checker.SturmRegion:
+			c.Region = &RegionView{Param: x.Param, Intervals: x.Intervals, Pieces: x.Pieces}
+		case *checker.Paving:
+			c.Region = &RegionView{Intervals: []checker.Interval{}, Pieces: []checker.Piece{}, Paving: x}
+		case *checker.WitnessPoints:
+			c.Witnesses = x.Points
+		case *checker.Refutation:
+			c.Refutation = x
+		case *checker.KrawczykEnclosure:
+			c.Krawczyk = x
+		case *checker.Linearization:
+			c.Linearization = x
+		}
+	}
+	return c
+}

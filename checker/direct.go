@@ -1,0 +1,665 @@
+package checker
+
+import (
+	"fmt"
+	"maps"
+	"math/big"
+	"slices"
+
+	"lyacert/poly"
+)
+
+// OrbitalDerivative restates the candidate V and its derivative along the
+// flow, V̇ = Σ ∂V/∂xᵢ·fᵢ, or for a map ΔV = V(f(x)) − V(x).
+type OrbitalDerivative struct {
+	V    string `json:"V"`
+	Vdot string `json:"vdot"`
+}
+
+// LDLForm is a Gram matrix G with G = L·diag(D)·Lᵀ, L unit lower triangular,
+// and the leading principal minors of G on its non-zero pivots. Of is "V" or
+// "-Vdot". A zero pivot is allowed only with a zero column of L below it
+// (the semidefinite case).
+type LDLForm struct {
+	Of     string     `json:"of"`
+	Gram   [][]string `json:"gram"`
+	L      [][]string `json:"l"`
+	D      []string   `json:"d"`
+	Minors []string   `json:"minors"`
+}
+
+// QuadraticPart is the LDLᵀ of the Gram matrix of the quadratic part of V or
+// −V̇ at the equilibrium, in the states.
+type QuadraticPart struct{ LDLForm }
+
+// MonomialGram is the LDLᵀ of a Gram matrix of the whole function, all
+// degrees: V or −V̇ = zᵀGz for the monomials z of Basis (each with
+// coefficient 1, a pure power of every state among them).
+type MonomialGram struct {
+	Basis []string `json:"basis"`
+	LDLForm
+}
+
+// MinorCondition is what one leading principal minor requires: Minor > 0,
+// with Minor's numerator times its denominator factored as
+// Constant · Π Factorᵢ^Powerᵢ. Factors whose sign the assumptions fix are
+// discharged; Condition is the product of the rest (with the constant's sign
+// and the discharged signs folded in), which must be > 0.
+type MinorCondition struct {
+	Form      string   `json:"form"`
+	Index     int      `json:"index"`
+	Minor     string   `json:"minor"`
+	Constant  string   `json:"constant"`
+	Factors   []Factor `json:"factors"`
+	Condition string   `json:"condition"`
+}
+
+// Factor is one factor of a minor, with its sign status.
+type Factor struct {
+	Poly   string `json:"poly"`
+	Power  int    `json:"power"`
+	Status string `json:"status"`
+}
+
+// Factor statuses.
+const (
+	StatusPositive  = "positive-by-assumption"
+	StatusNegative  = "negative-by-assumption"
+	StatusCondition = "condition"
+)
+
+// NullSpace spans the set where the semidefinite quadratic form of −V̇
+// vanishes: one vector per zero pivot.
+type NullSpace struct {
+	Of      string     `json:"of"`
+	Vectors [][]string `json:"vectors"`
+}
+
+// WitnessPoints are points of parameter space where the conditions hold or
+// fail (several free parameters).
+type WitnessPoints struct {
+	Points []Witness `json:"points"`
+}
+
+// Witness gives exactly the parameters the conditions involve, the
+// conditions' values there in order, and whether all are > 0.
+type Witness struct {
+	Params map[string]string `json:"params"`
+	Values []string          `json:"values"`
+	Holds  bool              `json:"holds"`
+}
+
+// Refutation is a point where the candidate fails: V ≤ 0 or V̇ ≥ 0 at a state
+// other than the equilibrium. Params fixes only the parameters on which V or
+// V̇ at Point depends; V and Vdot are the exact values there, as functions
+// of the remaining parameters, whose sign must hold on their whole range.
+type Refutation struct {
+	Params map[string]string `json:"params"`
+	Point  map[string]string `json:"point"`
+	V      string            `json:"V"`
+	Vdot   string            `json:"vdot"`
+}
+
+func (*OrbitalDerivative) Rule() string { return "orbital-derivative" }
+func (*QuadraticPart) Rule() string     { return "quadratic-part-ldl" }
+func (*MonomialGram) Rule() string      { return "monomial-gram-ldl" }
+func (*MinorCondition) Rule() string    { return "minor-condition" }
+func (*NullSpace) Rule() string         { return "semidefinite-kernel" }
+func (*WitnessPoints) Rule() string     { return "witness-points" }
+func (*Refutation) Rule() string        { return "refutation" }
+
+// derivative: V is the model's candidate, and the stated derivative equals
+// the one recomputed by the chain rule (ΔV by composition for a map). The
+// model's equilibrium must make f vanish identically.
+func (c *run) derivative(cl Claim) bool {
+	od := cl.(*OrbitalDerivative)
+	m := c.m
+	if !c.once("orbital-derivative") {
+		return false
+	}
+	err := m.CheckEquilibrium()
+	if !c.add("equilibrium", err == nil, "f vanishes at the stated equilibrium for every parameter value%s", errSuffix(err)) ||
+		!c.add("V", m.V != nil, "the model states the candidate V") {
+		return false
+	}
+	v, ok := c.parse("V", od.V)
+	if !ok || !c.add("V", v.Equal(*m.V), "V equals the model's candidate") {
+		return false
+	}
+	vdot := m.Derivative(v)
+	claimed, ok := c.parse("vdot", od.Vdot)
+	what := "V̇ = Σ ∂V/∂xᵢ·fᵢ"
+	if m.Discrete {
+		what = "ΔV = V(f(x)) − V(x)"
+	}
+	if !ok || !c.add("vdot", claimed.Equal(vdot), "the claimed %s equals the recomputed one", what) {
+		return false
+	}
+	c.derived, c.v, c.vdot = true, v, vdot
+	return true
+}
+
+// shifted returns V or −V̇ in coordinates centred at the equilibrium, after
+// checking that neither V nor V̇ has a constant or linear part there.
+func (c *run) shifted(of string) (poly.RatFunc, bool) {
+	if !c.add("form "+of, c.derived && (of == "V" || of == "-Vdot") && c.forms[of] == nil,
+		"a form of V or −V̇, once each, after the derivative") {
+		return poly.RatFunc{}, false
+	}
+	states := c.r.StateMask()
+	vs, ds := c.m.Shift(c.v), c.m.Shift(c.vdot)
+	low := func(f poly.RatFunc) bool {
+		return f.Homogeneous(0, states).IsZero() && f.Homogeneous(1, states).IsZero()
+	}
+	if !c.add("vanishing", low(vs) && low(ds), "V and its derivative have no constant or linear part at the equilibrium") {
+		return poly.RatFunc{}, false
+	}
+	c.higherV = !vs.Sub(vs.Homogeneous(2, states)).IsZero()
+	c.higherD = !ds.Sub(ds.Homogeneous(2, states)).IsZero()
+	if of == "V" {
+		return vs, true
+	}
+	return ds.Neg(), true
+}
+
+// quadraticPart: Sylvester's criterion. G is the Gram matrix of the
+// quadratic part, recomputed; G = L·D·Lᵀ is checked as an identity of
+// rational functions, so the leading principal minors are the products of the
+// first pivots (L unit lower triangular), and G ≻ 0 iff every minor is > 0.
+// With zero pivots whose columns of L vanish, G = L·D·Lᵀ with D ≥ 0 is
+// positive semidefinite.
+func (c *run) quadraticPart(cl Claim) bool {
+	f := &cl.(*QuadraticPart).LDLForm
+	whole, ok := c.shifted(f.Of)
+	if !ok {
+		return false
+	}
+	g := poly.GramMatrix(whole.Homogeneous(2, c.r.StateMask()), len(c.m.States))
+	cf, ok := c.form(f, g)
+	c.forms[f.Of] = cf
+	return ok
+}
+
+// monomialGram: a Gram matrix in a monomial basis z. Every basis element is
+// a monomial in the states with coefficient 1, they are distinct, a pure
+// power of every state is among them, and zᵀGz equals the whole function
+// exactly. Then G ≻ 0 gives zᵀGz > 0 unless z = 0, and z = 0 only at the
+// origin (the pure powers vanish only there): the function is positive
+// definite, and at least λ_min(G)·Σ xᵢ^(2kᵢ), so radially unbounded.
+func (c *run) monomialGram(cl Claim) bool {
+	mg := cl.(*MonomialGram)
+	whole, ok := c.shifted(mg.Of)
+	if !ok {
+		return false
+	}
+	name := "basis " + mg.Of
+	n := len(mg.Basis)
+	z := make([]*poly.Poly, n)
+	pure := make([]bool, len(c.m.States))
+	seen := map[string]bool{}
+	for i, s := range mg.Basis {
+		b, ok := c.parse(name, s)
+		if !ok {
+			return false
+		}
+		mono := b.IsPoly() && b.Num.IsMonomial() && b.Num.Lead().Coef.Cmp(big.NewRat(1, 1)) == 0 &&
+			b.Num.DegreeIn(c.r.ParamMask()) == 0 && b.Num.Degree() >= 1
+		if !c.add(name, mono && !seen[b.Num.String()], "basis element %s is a new monomial in the states with coefficient 1", s) {
+			return false
+		}
+		seen[b.Num.String()] = true
+		if vars := b.Num.VarsUsed(); len(vars) == 1 {
+			pure[vars[0]] = true
+		}
+		z[i] = b.Num
+	}
+	for i, s := range c.m.States {
+		if !c.add(name, pure[i], "the basis has a pure power of %s", s) {
+			return false
+		}
+	}
+	g, ok := c.matrix(name, mg.Gram, n, "the Gram matrix")
+	if !ok {
+		return false
+	}
+	for i := range g {
+		for j := range g[i] {
+			if !c.add(name, g[i][j].DegreeIn(c.r.StateMask()) <= 0, "Gram entry %d,%d is free of states", i+1, j+1) {
+				return false
+			}
+		}
+	}
+	if !c.add(name, poly.QuadraticFormIn(g, z).Equal(whole), "zᵀGz equals the whole function exactly (all degrees)") {
+		return false
+	}
+	cf, ok := c.form(&mg.LDLForm, g)
+	cf.basis = true
+	c.forms[mg.Of] = cf
+	return ok && c.add(name, !cf.semidef, "a Gram matrix in a monomial basis is definite, not semidefinite")
+}
+
+// matrix reads an n×n matrix of rational functions.
+func (c *run) matrix(name string, rows [][]string, n int, what string) (poly.Matrix, bool) {
+	if !c.add(name, len(rows) == n, "%s has %d rows, want %d", what, len(rows), n) {
+		return nil, false
+	}
+	out := poly.NewMatrix(c.r, n)
+	for i := range rows {
+		if !c.add(name, len(rows[i]) == n, "%s row %d has %d entries, want %d", what, i+1, len(rows[i]), n) {
+			return nil, false
+		}
+		for j := range rows[i] {
+			e, ok := c.parse(name, rows[i][j])
+			if !ok {
+				return nil, false
+			}
+			out[i][j] = e
+		}
+	}
+	return out, true
+}
+
+// form checks G = L·D·Lᵀ and the minors of one form against the recomputed G.
+func (c *run) form(f *LDLForm, g poly.Matrix) (*checkedForm, bool) {
+	name := f.Of
+	n := len(g)
+	cf := &checkedForm{g: g}
+	claimedG, ok := c.matrix("form "+name, f.Gram, n, "the Gram matrix")
+	if !ok || !c.add("gram "+name, claimedG.Equal(g), "the Gram matrix equals the one recomputed from the model") {
+		return cf, false
+	}
+	l, ok := c.matrix("form "+name, f.L, n, "L")
+	if !ok || !c.add("ldl "+name, len(f.D) == n, "%d pivots", len(f.D)) {
+		return cf, false
+	}
+	dm := poly.NewMatrix(c.r, n)
+	cf.zero = make([]bool, n)
+	for i := range f.D {
+		p, ok := c.parse("ldl "+name, f.D[i])
+		if !ok {
+			return cf, false
+		}
+		cf.d = append(cf.d, p)
+		dm[i][i] = p
+		cf.zero[i] = p.IsZero()
+	}
+	one := poly.RatConst(c.r, big.NewRat(1, 1))
+	for i := 0; i < n; i++ {
+		for j := i; j < n; j++ {
+			want := poly.FromPoly(poly.Zero(c.r))
+			if i == j {
+				want = one
+			}
+			if !c.add("ldl "+name, l[i][j].Equal(want), "L is unit lower triangular (entry %d,%d)", i+1, j+1) {
+				return cf, false
+			}
+		}
+		if cf.zero[i] {
+			cf.semidef = true
+			for k := i + 1; k < n; k++ {
+				if !c.add("ldl "+name, l[k][i].IsZero(), "a zero pivot has a zero column of L below it (column %d)", i+1) {
+					return cf, false
+				}
+			}
+		}
+	}
+	if !c.add("ldl "+name, l.Mul(dm).Mul(l.Transpose()).Equal(g), "L·D·Lᵀ reproduces the Gram matrix exactly") {
+		return cf, false
+	}
+	// Minors: of G itself (no zero pivot), or of its principal submatrix on
+	// the positive pivots (semidefinite).
+	p := one
+	var want []poly.RatFunc
+	for i := 0; i < n; i++ {
+		if !cf.zero[i] {
+			p = p.Mul(cf.d[i])
+			want = append(want, p)
+		}
+	}
+	if !c.add("minors "+name, len(f.Minors) == len(want), "%d minors, one per non-zero pivot", len(f.Minors)) {
+		return cf, false
+	}
+	for i, s := range f.Minors {
+		mi, ok := c.parse("minors "+name, s)
+		if !ok || !c.add("minors "+name, mi.Equal(want[i]), "minor %d equals the product of the first pivots", i+1) ||
+			!c.add("minors "+name, c.denominatorsNonzero(mi), "the denominator of minor %d is non-zero on the parameter box", i+1) {
+			return cf, false
+		}
+		cf.minors = append(cf.minors, mi)
+	}
+	if cf.semidef {
+		for i := range cf.d {
+			for j := 0; j < n; j++ {
+				if !c.add("ldl "+name, c.denominatorsNonzero(cf.d[i]) && c.denominatorsNonzero(l[j][i]), "semidefinite factors are defined on the whole parameter box") {
+					return cf, false
+				}
+			}
+		}
+	}
+	return cf, true
+}
+
+func (c *run) denominatorsNonzero(f poly.RatFunc) bool {
+	for _, d := range f.Den {
+		if d.P.Enclose(c.box).ContainsZero() {
+			return false
+		}
+	}
+	return true
+}
+
+// minorCondition: the factorization of a minor is an identity, and each
+// factor's sign status follows from its exact interval enclosure over the
+// parameter box (Moore 1966): minor > 0 iff the condition > 0 there. The
+// conditions come in the order of the minors, V's first.
+func (c *run) minorCondition(cl Claim) bool {
+	cd := cl.(*MinorCondition)
+	type slot struct {
+		form  string
+		index int
+		minor poly.RatFunc
+	}
+	var slots []slot
+	for _, name := range []string{"V", "-Vdot"} {
+		if f := c.forms[name]; f != nil {
+			for k, mi := range f.minors {
+				slots = append(slots, slot{name, k + 1, mi})
+			}
+		}
+	}
+	what := fmt.Sprintf("condition %d", len(c.conds)+1)
+	if !c.add(what, len(c.forms) == 2 && len(c.conds) < len(slots), "there is a minor of the two forms left for it") {
+		return false
+	}
+	w := slots[len(c.conds)]
+	if !c.add(what, cd.Form == w.form && cd.Index == w.index, "it is minor %d of %s", w.index, w.form) {
+		return false
+	}
+	minor := w.minor
+	mi, ok := c.parse(what, cd.Minor)
+	if !ok || !c.add(what, mi.Equal(minor), "it states its minor") {
+		return false
+	}
+	k, ok := parseRat(cd.Constant)
+	if !c.add(what, ok && k.Sign() != 0, "it has a non-zero rational constant") {
+		return false
+	}
+	target := new(poly.Poly).Mul(mi.Num, mi.DenPoly())
+	prod := poly.Const(c.r, k)
+	sign := k.Sign()
+	q := poly.ConstInt(c.r, 1)
+	for _, fd := range cd.Factors {
+		f, ok := c.parse(what, fd.Poly)
+		if !ok || !c.add(what, f.IsPoly() && !f.Num.IsConst() && f.Num.DegreeIn(c.r.StateMask()) == 0 && fd.Power >= 1 && fd.Power <= poly.MaxDegree &&
+			f.Num.Degree()*fd.Power <= poly.MaxDegree, "factor %s is a non-constant polynomial in the parameters with a power in [1, %d]", fd.Poly, poly.MaxDegree) {
+			return false
+		}
+		pw := new(poly.Poly).Pow(f.Num, fd.Power)
+		prod.Mul(prod, pw)
+		status := FactorStatus(f.Num, fd.Power, c.box)
+		if !c.add(what, status == fd.Status, "factor %s^%d is %s (claimed %s)", fd.Poly, fd.Power, status, fd.Status) {
+			return false
+		}
+		switch status {
+		case StatusNegative:
+			sign = -sign
+		case StatusCondition:
+			q.Mul(q, pw)
+		}
+	}
+	if !c.add(what, prod.Equal(target), "constant × factors = numerator × denominator of the minor") {
+		return false
+	}
+	if sign < 0 {
+		q.Neg(q)
+	}
+	claimed, ok := c.parse(what, cd.Condition)
+	if !ok || !c.add(what, claimed.IsPoly() && claimed.Num.Equal(q), "%s > 0 is what remains", cd.Condition) {
+		return false
+	}
+	c.conds = append(c.conds, poly.FromPoly(q))
+	return true
+}
+
+// FactorStatus classifies f^power over the parameter box by its exact
+// interval enclosure: positive (the power is even and f keeps away from zero,
+// or the power is odd and f > 0), negative (odd power, f < 0), or a condition.
+func FactorStatus(f *poly.Poly, power int, box []poly.Interval) string {
+	e := f.Enclose(box)
+	switch {
+	case power%2 == 0 && !e.ContainsZero():
+		return StatusPositive
+	case power%2 == 1 && e.Positive():
+		return StatusPositive
+	case power%2 == 1 && e.Negative():
+		return StatusNegative
+	}
+	return StatusCondition
+}
+
+// nullSpace: for G = L·D·Lᵀ ⪰ 0 the set where zᵀGz = 0 is the kernel of G;
+// the stated vectors are independent (1 at their own zero pivot, 0 at the
+// others) and G·k = 0 for each, one per zero pivot, so they span it.
+func (c *run) nullSpace(cl Claim) bool {
+	ns := cl.(*NullSpace)
+	f := c.forms[ns.Of]
+	if !c.once("semidefinite-kernel") || !c.add("kernel", ns.Of == "-Vdot" && f != nil && !f.basis, "the kernel of the quadratic part of −V̇") {
+		return false
+	}
+	var zeros []int
+	for i, z := range f.zero {
+		if z {
+			zeros = append(zeros, i)
+		}
+	}
+	if !c.add("kernel", len(ns.Vectors) == len(zeros), "one kernel vector per zero pivot") {
+		return false
+	}
+	n := len(f.g)
+	for k, vs := range ns.Vectors {
+		if !c.add("kernel", len(vs) == n, "kernel vector %d has %d entries", k+1, len(vs)) {
+			return false
+		}
+		vec := make(poly.Matrix, n)
+		for i, s := range vs {
+			e, ok := c.parse("kernel", s)
+			if !ok {
+				return false
+			}
+			vec[i] = []poly.RatFunc{e}
+		}
+		for j, z := range zeros {
+			want := int64(0)
+			if j == k {
+				want = 1
+			}
+			if !c.add("kernel", vec[z][0].Equal(poly.RatConst(c.r, big.NewRat(want, 1))), "kernel vector %d is %d at coordinate %d (independence)", k+1, want, z+1) {
+				return false
+			}
+		}
+		for i, e := range f.g.Mul(vec) {
+			if !c.add("kernel", e[0].IsZero(), "G·k = 0 for kernel vector %d (row %d)", k+1, i+1) {
+				return false
+			}
+		}
+	}
+	c.hasKernel = true
+	return true
+}
+
+// conditionsUsed returns the parameters the conditions involve, after
+// checking that every minor has its condition.
+func (c *run) conditionsUsed(what string) (map[int]bool, bool) {
+	n := 0
+	for _, f := range c.forms {
+		n += len(f.minors)
+	}
+	used := map[int]bool{}
+	for _, q := range c.conds {
+		for _, v := range q.Num.VarsUsed() {
+			used[v] = true
+		}
+	}
+	return used, c.once("region") && c.add(what, len(c.forms) == 2 && len(c.conds) == n, "follows the conditions of every minor")
+}
+
+// witnessPoints: the conditions evaluated exactly at each point.
+func (c *run) witnessPoints(cl Claim) bool {
+	wp := cl.(*WitnessPoints)
+	var used map[int]bool
+	if c.pave != nil { // beside a paving, after its region
+		used = c.pave.used
+	} else {
+		var ok bool
+		if used, ok = c.conditionsUsed("witnesses"); !ok {
+			return false
+		}
+	}
+	if !c.add("witnesses", !c.seen["witness-points"] && len(wp.Points) > 0 && c.sturm == nil, "witness points, once, not beside a one-parameter region") {
+		return false
+	}
+	c.seen["witness-points"] = true
+	var holds, fails bool
+	for i, w := range wp.Points {
+		what := fmt.Sprintf("witness %d", i+1)
+		vals, ok := c.paramValues(w.Params, what)
+		if !ok {
+			return false
+		}
+		same := len(vals) == len(used)
+		for v := range vals {
+			same = same && used[v]
+		}
+		if !c.add(what, same, "gives exactly the parameters the conditions involve") ||
+			!c.add(what, len(w.Values) == len(c.conds), "states the value of every condition") {
+			return false
+		}
+		all := true
+		for j, q := range c.conds {
+			x := new(poly.Poly).EvalVars(q.Num, vals).ConstTerm()
+			claimed, ok := parseRat(w.Values[j])
+			if !c.add(what, ok && claimed.Cmp(x) == 0, "condition %d is %s there", j+1, w.Values[j]) {
+				return false
+			}
+			all = all && x.Sign() > 0
+		}
+		if !c.add(what, all == w.Holds, "the conditions hold there: %v", all) {
+			return false
+		}
+		holds, fails = holds || all, fails || !all
+	}
+	c.witness = &[2]bool{holds, fails}
+	return true
+}
+
+// paramValues reads values of some free parameters, each inside its range.
+func (c *run) paramValues(vals map[string]string, what string) (map[int]*big.Rat, bool) {
+	out := map[int]*big.Rat{}
+	// In name order, so that the record of checks is the same every time.
+	for _, name := range slices.Sorted(maps.Keys(vals)) {
+		s := vals[name]
+		p, ok := c.m.Param(name)
+		i, isVar := c.r.Index(name)
+		if !c.add(what, ok && isVar && p.Fixed == nil, "%s is a free parameter", name) {
+			return nil, false
+		}
+		v, ok := parseRat(s)
+		if !c.add(what, ok && p.Range.Contains(v), "%s = %s lies in %s", name, s, p.Range) {
+			return nil, false
+		}
+		out[i] = v
+	}
+	return out, true
+}
+
+// refutation: a point where V ≤ 0 or V̇ ≥ 0 refutes the candidate. The values
+// are recomputed as functions of the parameters left free, and their sign
+// must hold on the whole box by exact interval enclosure. Every fixed
+// parameter must matter.
+func (c *run) refutation(cl Claim) bool {
+	rf := cl.(*Refutation)
+	if !c.once("refutation") || !c.add("refutation", c.derived, "follows the derivative") {
+		return false
+	}
+	vals, ok := c.paramValues(rf.Params, "refutation")
+	if !ok {
+		return false
+	}
+	n := len(c.m.States)
+	if !c.add("refutation", len(rf.Point) == n, "the point gives every state") {
+		return false
+	}
+	point := map[int]*big.Rat{}
+	for i, s := range c.m.States {
+		val, ok := parseRat(rf.Point[s])
+		if !c.add("refutation", ok, "state %s = %q is a rational", s, rf.Point[s]) {
+			return false
+		}
+		point[i] = val
+	}
+	at := func(f poly.RatFunc, params map[int]*big.Rat) (poly.RatFunc, bool) {
+		all := map[int]*big.Rat{}
+		maps.Copy(all, point)
+		maps.Copy(all, params)
+		g, err := f.EvalVars(all)
+		return g, err == nil
+	}
+	vv, ok1 := at(c.v, vals)
+	dv, ok2 := at(c.vdot, vals)
+	cv, ok3 := c.parse("refutation", rf.V)
+	cd, ok4 := c.parse("refutation", rf.Vdot)
+	if !c.add("refutation", ok1 && ok2 && ok3 && ok4 && vv.Equal(cv) && dv.Equal(cd), "V = %s and V̇ = %s there, exactly", rf.V, rf.Vdot) {
+		return false
+	}
+	// The point differs from the equilibrium for every remaining parameter
+	// value: some coordinate differs from a constant equilibrium coordinate.
+	differs := false
+	for i := range c.m.States {
+		e, ok := at(c.m.At[i], vals)
+		if ok && e.IsPoly() && e.Num.IsConst() && e.Num.ConstTerm().Cmp(point[i]) != 0 {
+			differs = true
+		}
+	}
+	if !c.add("refutation", differs, "the point is not the equilibrium") {
+		return false
+	}
+	for _, i := range slices.Sorted(maps.Keys(vals)) { // sorted: the same record every time
+		rest := maps.Clone(vals)
+		delete(rest, i)
+		a, _ := at(c.v, rest)
+		b, _ := at(c.vdot, rest)
+		if !c.add("refutation", a.Num.UsesVar(i) || b.Num.UsesVar(i) || denUses(a, i) || denUses(b, i), "V or V̇ there depends on %s, which the refutation fixes", c.r.Name(i)) {
+			return false
+		}
+	}
+	neg := vv.Num.Enclose(c.box).Mul(denSign(vv, c.box))
+	pos := dv.Num.Enclose(c.box).Mul(denSign(dv, c.box))
+	c.refuted = c.add("refutation", neg.NonPositive() || pos.NonNegative(), "V ≤ 0 or V̇ ≥ 0 there, for every value of the parameters left free")
+	return c.refuted
+}
+
+func denUses(f poly.RatFunc, i int) bool {
+	for _, d := range f.Den {
+		if d.P.UsesVar(i) {
+			return true
+		}
+	}
+	return false
+}
+
+// denSign returns an interval with the sign of f's denominator on the box
+// (the whole line when it is not fixed), so that num·sign has f's sign.
+func denSign(f poly.RatFunc, box []poly.Interval) poly.Interval {
+	one := poly.Point(big.NewRat(1, 1))
+	if len(f.Den) == 0 {
+		return one
+	}
+	e := f.DenPoly().Enclose(box)
+	switch {
+	case e.Positive():
+		return one
+	case e.Negative():
+		return poly.Point(big.NewRat(-1, 1))
+	}
+	return poly.Entire()
+}

@@ -1,0 +1,59 @@
+package checker_test
+
+import (
+	"path/filepath"
+	"testing"
+
+	"lyacert/certificates"
+	"lyacert/checker"
+)
+
+// A forged verdict is rejected even with every derived number left intact
+// and the digest re-sealed: the unstable scalar system x' = a·x has the
+// condition −1 > 0 (−V̇ = −2a·x², a > 0), which never holds, so no claim
+// list built from its numbers can make the kernel derive "holds" (common
+// practice, no source).
+func TestForgedVerdictRejected(t *testing.T) {
+	doc, err := certificates.ReadFile(filepath.Join("..", "testdata", "certificates", "unstable.json"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	// Drop the refutation and anything after the conditions: what remains
+	// must not be taken for a proof.
+	var kept []checker.Claim
+	for _, c := range doc.Claims {
+		if _, ok := c.(*checker.Refutation); !ok {
+			kept = append(kept, c)
+		}
+	}
+	doc.Claims = kept
+	if err := certificates.Seal(doc); err != nil {
+		t.Fatal(err)
+	}
+	if r := checker.Verify(doc); r.Verdict == checker.VerdictHolds || r.Verdict == checker.VerdictOnRegion {
+		t.Errorf("a failing condition yields the verdict %q", r.Verdict)
+	}
+}
+
+// Nothing unchecked may ride along: witness points beside a one-parameter
+// region are refused rather than ignored.
+func TestStrayWitnessRejected(t *testing.T) {
+	doc, err := certificates.ReadFile(filepath.Join("..", "testdata", "certificates", "lorenz.json"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var claims []checker.Claim
+	for _, c := range doc.Claims {
+		claims = append(claims, c)
+		if _, ok := c.(*checker.SturmRegion); ok {
+			claims = append(claims, &checker.WitnessPoints{Points: []checker.Witness{{Params: map[string]string{"r": "5"}, Values: []string{"1"}, Holds: true}}})
+		}
+	}
+	doc.Claims = claims
+	if err := certificates.Seal(doc); err != nil {
+		t.Fatal(err)
+	}
+	if checker.Verify(doc).Valid {
+		t.Error("an unchecked witness beside a region is accepted")
+	}
+}

@@ -1,0 +1,474 @@
+package checker
+
+import (
+	"errors"
+	"fmt"
+	"maps"
+	"math/big"
+	"slices"
+
+	"lyacert/poly"
+)
+
+// Codes of a paving's tree, one letter a box.
+const (
+	PaveSplit     = 'S' // the box is halved; its lower half, then its upper half follow
+	PaveInside    = 'I' // every condition is > 0 on the box
+	PaveOutside   = 'O' // some condition is ≤ 0 on the whole box
+	PaveUndecided = 'U' // neither is proven, and the box is at the resolution
+)
+
+// MaxPavingLevel bounds the resolution of a paving: the finest box side is
+// at least 2^-MaxPavingLevel of the side of the paved box.
+const MaxPavingLevel = 50
+
+// Paving is a set-inversion paving of a box of parameter values (Moore 1966;
+// Jaulin & Walter 1993, SIVIA): the box is bisected recursively, and every
+// part is classified by exact enclosures of the conditions (each must be
+// > 0) as inside (every condition > 0 on all of it), outside (some condition
+// ≤ 0 on all of it) or undecided (at the resolution, neither proven).
+//
+// The classification is canonical, so that the certificate can be re-checked
+// box by box and no part of it can change unnoticed:
+//
+//   - Params names the paved parameters, Box gives one side per parameter:
+//     exact rational ends inside the parameter's allowed range, open exactly
+//     where it meets an open end of that range.
+//   - Resolution is 2^-L: a box is halved while one of its sides is wider
+//     than 2^-L times the corresponding side of Box; it is halved along the
+//     side halved the fewest times so far (the widest relative to Box), the
+//     first such parameter in Params order; the lower half comes first.
+//   - Tree lists the boxes in depth-first order, one code each (PaveSplit,
+//     PaveInside, PaveOutside, PaveUndecided). Every box is implied by Box
+//     and its position in the tree. A split box must be wider than the
+//     resolution; an undecided box must be at the resolution and neither
+//     inside nor outside by the exact test, so that only an undecided box
+//     can be undecided.
+//   - The exact test of a box is the centred form of each condition on it
+//     (poly.CenteredForm, the box's faces on an open end of Box excluded).
+//
+// Counts, shares and merged boxes follow from the tree (Leaves); they are
+// not part of the claim.
+type Paving struct {
+	Params     []string   `json:"params"`
+	Box        []Interval `json:"box"`
+	Resolution string     `json:"resolution"`
+	Tree       string     `json:"tree"`
+	// Product, when every condition involves at most one parameter, is the
+	// region within Box as one one-parameter region per paved parameter,
+	// each over its side of Box.
+	Product []SturmRegion `json:"product"`
+}
+
+func (*Paving) Rule() string { return "paving" }
+
+// PavingLeaf is a leaf of a paving's tree as a box of parameter values,
+// with its class (PaveInside, PaveOutside or PaveUndecided).
+type PavingLeaf struct {
+	Class  byte
+	Lo, Hi []*big.Rat
+	// A and K place the leaf on the grid: side i is [A[i], A[i]+1]·2^-K[i]
+	// of the unit interval.
+	A []int64
+	K []int
+}
+
+// ResolutionLevel returns L for a resolution written canonically as 2^-L
+// ("1", "1/2", "1/4", ...) with 0 ≤ L ≤ MaxPavingLevel.
+func ResolutionLevel(s string) (int, bool) {
+	q, ok := parseRat(s)
+	if !ok || q.RatString() != s || q.Num().Cmp(big.NewInt(1)) != 0 {
+		return 0, false
+	}
+	d := q.Denom()
+	l := d.BitLen() - 1
+	if l > MaxPavingLevel || d.TrailingZeroBits() != uint(l) {
+		return 0, false
+	}
+	return l, true
+}
+
+// PavingSplitDim returns the coordinate along which a box that has been
+// halved k[i] times along coordinate i is halved next: the first with the
+// fewest halvings.
+func PavingSplitDim(k []int) int {
+	dim := 0
+	for i, x := range k {
+		if x < k[dim] {
+			dim = i
+		}
+	}
+	return dim
+}
+
+// gridBox is a box of a paving in normalized coordinates: side i is
+// [a[i], a[i]+1]·2^-k[i] of the unit interval.
+type gridBox struct {
+	a []int64
+	k []int
+}
+
+func (g gridBox) halves(dim int) (gridBox, gridBox) {
+	lo := gridBox{slices.Clone(g.a), slices.Clone(g.k)}
+	lo.a[dim] *= 2
+	lo.k[dim]++
+	hi := gridBox{slices.Clone(lo.a), slices.Clone(lo.k)}
+	hi.a[dim]++
+	return lo, hi
+}
+
+func (g gridBox) minLevel() int { return g.k[PavingSplitDim(g.k)] }
+
+// openFaces returns the faces of g that lie on an open face of the paved box.
+func (g gridBox) openFaces(box openBox) poly.OpenFaces {
+	var f poly.OpenFaces
+	for i := range g.a {
+		if box.Lo&(1<<i) != 0 && g.a[i] == 0 {
+			f.Lo |= 1 << i
+		}
+		if box.Hi&(1<<i) != 0 && g.a[i] == int64(1)<<g.k[i]-1 {
+			f.Hi |= 1 << i
+		}
+	}
+	return f
+}
+
+// openBox marks the open ends of a paved box: bit i of Lo (Hi) for the lower
+// (upper) end of side i.
+type openBox = poly.OpenFaces
+
+// walkPaving calls node for every box of the tree in depth-first order and
+// checks the tree's shape: known codes, a split only above the resolution
+// level, an undecided box only at it, and nothing after the tree.
+func walkPaving(tree string, n, level int, node func(code byte, g gridBox) error) error {
+	pos := 0
+	var rec func(g gridBox) error
+	rec = func(g gridBox) error {
+		if pos >= len(tree) {
+			return errors.New("the tree ends early")
+		}
+		code := tree[pos]
+		pos++
+		switch code {
+		case PaveSplit:
+			if g.minLevel() >= level {
+				return fmt.Errorf("box %d is split but is at the resolution", pos)
+			}
+		case PaveUndecided:
+			if g.minLevel() < level {
+				return fmt.Errorf("box %d is undecided but wider than the resolution", pos)
+			}
+		case PaveInside, PaveOutside:
+		default:
+			return fmt.Errorf("box %d has the unknown code %q", pos, code)
+		}
+		if err := node(code, g); err != nil {
+			return err
+		}
+		if code != PaveSplit {
+			return nil
+		}
+		lo, hi := g.halves(PavingSplitDim(g.k))
+		if err := rec(lo); err != nil {
+			return err
+		}
+		return rec(hi)
+	}
+	if err := rec(gridBox{make([]int64, n), make([]int, n)}); err != nil {
+		return err
+	}
+	if pos != len(tree) {
+		return errors.New("data after the end of the tree")
+	}
+	return nil
+}
+
+// sides reads the box of a paving: bounded, canonical rational ends, lo < hi.
+func (p *Paving) sides() ([]poly.Interval, openBox, error) {
+	var open openBox
+	if len(p.Box) != len(p.Params) || len(p.Params) == 0 || len(p.Params) > poly.MaxCenteredDims {
+		return nil, open, fmt.Errorf("the box has %d sides for %d parameters", len(p.Box), len(p.Params))
+	}
+	out := make([]poly.Interval, len(p.Box))
+	for i, s := range p.Box {
+		lo, ok1 := parseRat(s.Lo)
+		hi, ok2 := parseRat(s.Hi)
+		if !ok1 || !ok2 || lo.RatString() != s.Lo || hi.RatString() != s.Hi || s.LoPoly != "" || s.HiPoly != "" ||
+			s.LoIsolating != nil || s.HiIsolating != nil || lo.Cmp(hi) >= 0 {
+			return nil, open, fmt.Errorf("side %d of the box is not a bounded interval with canonical rational ends", i+1)
+		}
+		out[i] = poly.Interval{Lo: poly.Bound{Value: lo, Open: !s.LoClosed}, Hi: poly.Bound{Value: hi, Open: !s.HiClosed}}
+		if !s.LoClosed {
+			open.Lo |= 1 << i
+		}
+		if !s.HiClosed {
+			open.Hi |= 1 << i
+		}
+	}
+	return out, open, nil
+}
+
+// corner returns lo + (hi − lo)·a/2^k for a side [lo, hi].
+func corner(side poly.Interval, a int64, k int) *big.Rat {
+	w, _ := side.Width()
+	s := new(big.Rat).SetFrac(big.NewInt(a), new(big.Int).Lsh(big.NewInt(1), uint(k)))
+	return s.Mul(s, w).Add(s, side.Lo.Value)
+}
+
+// Leaves returns the leaves of the tree as boxes of parameter values, in
+// depth-first order. It returns an error if Box, Resolution or Tree is
+// malformed; the classes are as written (Verify checks them).
+func (p *Paving) Leaves() ([]PavingLeaf, error) {
+	sides, _, err := p.sides()
+	if err != nil {
+		return nil, err
+	}
+	level, ok := ResolutionLevel(p.Resolution)
+	if !ok {
+		return nil, fmt.Errorf("resolution %q is not 2^-L with 0 ≤ L ≤ %d", p.Resolution, MaxPavingLevel)
+	}
+	var out []PavingLeaf
+	err = walkPaving(p.Tree, len(sides), level, func(code byte, g gridBox) error {
+		if code == PaveSplit {
+			return nil
+		}
+		lf := PavingLeaf{Class: code, A: g.a, K: g.k}
+		for i, side := range sides {
+			lf.Lo = append(lf.Lo, corner(side, g.a[i], g.k[i]))
+			lf.Hi = append(lf.Hi, corner(side, g.a[i]+1, g.k[i]))
+		}
+		out = append(out, lf)
+		return nil
+	})
+	return out, err
+}
+
+// paving checks a region given as a paving, with its product form and
+// witnesses, and the verdict that follows:
+//
+//   - the box: every side within its parameter's allowed range, open exactly
+//     where it meets an open end of the range; the conditions involve paved
+//     parameters only;
+//   - every box of the tree, by the centred form of each condition on it
+//     (Moore 1966; Ratschek & Rokne 1984), the box's faces on an open end
+//     excluded: inside boxes have every condition > 0, outside boxes some
+//     condition ≤ 0, undecided boxes neither (Paving documents the rules);
+//   - the derived fields, recomputed (Derive);
+//   - the product, when every condition involves at most one parameter: each
+//     factor is a one-parameter region over its side of the box (Sturm);
+//   - the witnesses, evaluated exactly.
+//
+// The verdict: "holds" when the box covers the allowed range of every
+// parameter the conditions involve and the product holds throughout (or,
+// without a product, every box is inside); "fails" when the box covers that
+// range and the product is empty (or every box is outside); otherwise
+// "holds-on-region" when the conditions are proven to hold somewhere (an
+// inside box, a holding piece of every factor, or a witness) and to fail
+// somewhere (an outside box, a failing piece, or a witness); else
+// "undecided".
+func (c *run) paving(cl Claim) bool {
+	pv := cl.(*Paving)
+	used, ok := c.conditionsUsed("paving")
+	if !ok {
+		return false
+	}
+	sides, open, err := pv.sides()
+	if !c.add("paving", err == nil, "the paved box is well formed%s", errSuffix(err)) {
+		return false
+	}
+	level, ok := ResolutionLevel(pv.Resolution)
+	if !c.add("paving", ok, "the resolution %q is 2^-L with 0 ≤ L ≤ %d", pv.Resolution, MaxPavingLevel) {
+		return false
+	}
+	vars := make([]int, len(pv.Params))
+	covered := map[int]bool{}
+	for i, name := range pv.Params {
+		p, ok := c.m.Param(name)
+		v, isVar := c.r.Index(name)
+		if !c.add("paving", ok && isVar && p.Fixed == nil && !slices.Contains(vars[:i], v),
+			"%s is a free parameter, paved once", name) {
+			return false
+		}
+		vars[i] = v
+		if !c.add("paving", sideWithin(sides[i], p.Range), "the side %s of %s lies in its range %s, open only where the range is", sides[i], name, p.Range) {
+			return false
+		}
+		covered[v] = sameInterval(sides[i], p.Range)
+	}
+	for _, v := range slices.Sorted(maps.Keys(used)) { // sorted: the same record every time
+		if !c.add("paving", slices.Contains(vars, v), "the conditions involve paved parameters only (%s)", c.r.Name(v)) {
+			return false
+		}
+	}
+	count, ok := c.pavingTree(pv.Tree, vars, sides, open, level)
+	if !ok {
+		return false
+	}
+	// The product form.
+	separable := true
+	for _, q := range c.conds {
+		separable = separable && len(q.Num.VarsUsed()) <= 1
+	}
+	if !c.add("product", separable == (len(pv.Product) > 0), "a product form is given exactly when every condition involves at most one parameter") {
+		return false
+	}
+	productAll, productEmpty, productFails := true, false, false
+	if separable {
+		if !c.add("product", len(pv.Product) == len(vars), "one factor per paved parameter") {
+			return false
+		}
+		for k, v := range vars {
+			f := &pv.Product[k]
+			if !c.add("product", f.Param == pv.Params[k], "factor %d is a one-parameter region of %s", k+1, pv.Params[k]) {
+				return false
+			}
+			var conds []poly.Univariate
+			for _, q := range c.conds {
+				if u, ok := q.Num.Univariate(v); ok {
+					conds = append(conds, u)
+				}
+			}
+			holds, fails, ok := c.regionPieces(f, v, conds, sides[k])
+			if !ok {
+				return false
+			}
+			productAll = productAll && !fails
+			productEmpty = productEmpty || !holds
+			productFails = productFails || fails
+		}
+	}
+	cover := true
+	for v := range used {
+		cover = cover && covered[v]
+	}
+	c.seen["paving"] = true
+	c.pave = &paveFacts{
+		used:           used,
+		holdsSomewhere: count[PaveInside] > 0 || (separable && !productEmpty),
+		failsSomewhere: count[PaveOutside] > 0 || (separable && productFails),
+		all:            cover && (separable && productAll || !separable && count[PaveOutside] == 0 && count[PaveUndecided] == 0),
+		none:           cover && (separable && productEmpty || !separable && count[PaveInside] == 0 && count[PaveUndecided] == 0),
+	}
+	return true
+}
+
+// paveFacts is what a verified paving says of the conditions.
+type paveFacts struct {
+	used                           map[int]bool
+	holdsSomewhere, failsSomewhere bool
+	all, none                      bool // on the whole allowed range
+}
+
+// pavingTree checks the class of every box of the tree exactly, walking the
+// tree with the centred forms of the conditions: a child's form follows from
+// its parent's by CenteredForm.Half.
+func (c *run) pavingTree(tree string, vars []int, sides []poly.Interval, open openBox, level int) (map[byte]int, bool) {
+	count := map[byte]int{}
+	root := make([]*poly.CenteredForm, len(c.conds))
+	for j, q := range c.conds {
+		f, err := poly.NewCenteredForm(q.Num, vars, sides)
+		if !c.add("paving", err == nil, "condition %d has a centred form on the box%s", j+1, errSuffix(err)) {
+			return nil, false
+		}
+		root[j] = f
+	}
+	// forms[d] holds the forms of the box at depth d of the current path.
+	forms := [][]*poly.CenteredForm{root}
+	var bad error
+	err := walkPaving(tree, len(vars), level, func(code byte, g gridBox) error {
+		// The walk is depth-first: the depth of a box is the number of its
+		// halvings, and its parent's forms are at depth − 1.
+		d := 0
+		for _, k := range g.k {
+			d += k
+		}
+		if d > 0 {
+			for len(forms) <= d {
+				fs := make([]*poly.CenteredForm, len(root))
+				for j := range fs {
+					fs[j] = new(poly.CenteredForm)
+				}
+				forms = append(forms, fs)
+			}
+			// g is the lower or upper half of its parent along the
+			// parent's split coordinate; in depth-first order the parent's
+			// forms are the last ones written at depth d − 1.
+			dim := parentSplit(g.k)
+			for j := range root {
+				forms[d][j].Half(forms[d-1][j], dim, g.a[dim]%2 == 1)
+			}
+		}
+		if code == PaveSplit {
+			return nil // a split box claims nothing; walkPaving checked its width
+		}
+		count[code]++
+		fs := forms[d]
+		faces := g.openFaces(open)
+		positive, nonPositive := true, false
+		for _, f := range fs {
+			positive = positive && f.PositiveOn(faces)
+			nonPositive = nonPositive || f.NonPositive()
+		}
+		switch {
+		case code == PaveInside && !positive:
+			bad = fmt.Errorf("an inside box at depth %d is not proven inside", d)
+		case code == PaveOutside && !nonPositive:
+			bad = fmt.Errorf("an outside box at depth %d is not proven outside", d)
+		case code == PaveUndecided && (positive || nonPositive):
+			bad = fmt.Errorf("an undecided box at depth %d is decided by the exact test", d)
+		}
+		return bad
+	})
+	return count, c.add("paving", err == nil, "every box of the tree has its class by the exact test%s", errSuffix(err))
+}
+
+// parentSplit returns the coordinate along which the parent of a box with
+// halvings k was split. Halving the widest side first, ties to the first
+// coordinate, visits the coordinates in turn from the undivided box: the box
+// at depth d is split along d mod n, so the parent of a box at depth d was
+// split along (d − 1) mod n.
+func parentSplit(k []int) int {
+	d := 0
+	for _, x := range k {
+		d += x
+	}
+	return (d - 1) % len(k)
+}
+
+// sideWithin reports that side lies in the allowed range r, with an open end
+// exactly where it meets an open end of r.
+func sideWithin(side, r poly.Interval) bool {
+	lo, hi := side.Lo, side.Hi
+	okLo := r.Lo.Inf < 0 && !lo.Open
+	if r.Lo.Inf == 0 {
+		switch k := lo.Value.Cmp(r.Lo.Value); {
+		case k > 0:
+			okLo = !lo.Open
+		case k == 0:
+			okLo = lo.Open == r.Lo.Open
+		}
+	}
+	okHi := r.Hi.Inf > 0 && !hi.Open
+	if r.Hi.Inf == 0 {
+		switch k := hi.Value.Cmp(r.Hi.Value); {
+		case k < 0:
+			okHi = !hi.Open
+		case k == 0:
+			okHi = hi.Open == r.Hi.Open
+		}
+	}
+	return okLo && okHi
+}
+
+// sameInterval reports that a bounded side equals the range r.
+func sameInterval(side, r poly.Interval) bool {
+	return r.Lo.Inf == 0 && r.Hi.Inf == 0 &&
+		side.Lo.Value.Cmp(r.Lo.Value) == 0 && side.Lo.Open == r.Lo.Open &&
+		side.Hi.Value.Cmp(r.Hi.Value) == 0 && side.Hi.Open == r.Hi.Open
+}
+
+// Sides returns the paved box, one interval per parameter.
+func (p *Paving) Sides() ([]poly.Interval, error) {
+	s, _, err := p.sides()
+	return s, err
+}

@@ -1,0 +1,99 @@
+package checker
+
+import (
+	"crypto/ed25519"
+	"crypto/sha256"
+	"encoding/base64"
+	"encoding/hex"
+	"errors"
+	"fmt"
+)
+
+// SignatureAlgorithm is the only signature algorithm a certificate may carry.
+const SignatureAlgorithm = "ed25519"
+
+// Errors of signature checking. Each says a different thing to a reader: no
+// signature at all, a signature that does not fit the content (or the key it
+// names), and a sound signature by a key the reader does not trust.
+var (
+	ErrUnsigned     = errors.New("no signature")
+	ErrBadSignature = errors.New("signature does not match: the certificate was altered or signed by another key")
+	ErrUntrusted    = errors.New("signed by a key that is not trusted")
+)
+
+// Fingerprint returns the first 16 hex digits of the SHA-256 of the raw
+// 32-byte public key: a short name for a key that people can compare.
+func Fingerprint(pub ed25519.PublicKey) string {
+	sum := sha256.Sum256(pub)
+	return hex.EncodeToString(sum[:8])
+}
+
+// Signer returns the public key that d's signature names, without checking
+// the signature; ErrUnsigned when there is none.
+func (d *Document) Signer() (ed25519.PublicKey, error) {
+	s := d.Signature
+	if s == nil {
+		return nil, ErrUnsigned
+	}
+	if s.Algorithm != SignatureAlgorithm {
+		return nil, fmt.Errorf("%w: algorithm %q, want %q", ErrBadSignature, s.Algorithm, SignatureAlgorithm)
+	}
+	pub, err := base64.StdEncoding.Strict().DecodeString(s.PublicKey)
+	if err != nil || len(pub) != ed25519.PublicKeySize {
+		return nil, fmt.Errorf("%w: the public key is not %d bytes of base64", ErrBadSignature, ed25519.PublicKeySize)
+	}
+	return ed25519.PublicKey(pub), nil
+}
+
+// VerifySignature checks d's signature against the digest recomputed from
+// d's content (not the stored one, so that content and signature are tied
+// even when the stored digest is stale) and returns the signing key: ed25519
+// (RFC 8032) over the digest string. A valid signature says only that the
+// holder of that key signed this content; VerifyTrusted asks whether the key
+// is trusted.
+func (d *Document) VerifySignature() (ed25519.PublicKey, error) {
+	pub, err := d.Signer()
+	if err != nil {
+		return nil, err
+	}
+	sig, err := base64.StdEncoding.Strict().DecodeString(d.Signature.Value)
+	if err != nil || len(sig) != ed25519.SignatureSize {
+		return nil, fmt.Errorf("%w: the value is not %d bytes of base64", ErrBadSignature, ed25519.SignatureSize)
+	}
+	digest, err := d.ComputeDigest()
+	if err != nil {
+		return nil, fmt.Errorf("%w: %w", ErrBadSignature, err)
+	}
+	if !ed25519.Verify(pub, []byte(digest), sig) {
+		return nil, ErrBadSignature
+	}
+	return pub, nil
+}
+
+// VerifyTrusted checks d's signature and requires its key to be one of
+// trusted. It returns the signing key, or ErrUnsigned, ErrBadSignature, or
+// ErrUntrusted wrapped with the signer's fingerprint.
+func (d *Document) VerifyTrusted(trusted []ed25519.PublicKey) (ed25519.PublicKey, error) {
+	pub, err := d.VerifySignature()
+	if err != nil {
+		return nil, err
+	}
+	for _, t := range trusted {
+		if pub.Equal(t) {
+			return pub, nil
+		}
+	}
+	return nil, fmt.Errorf("%w: %s", ErrUntrusted, Fingerprint(pub))
+}
+
+// signature records the check of a present signature. Verify does not
+// require one; a present one must verify, since a reader would otherwise take
+// a forged or stale signature at face value.
+func (c *run) signature() {
+	pub, err := c.doc.VerifySignature()
+	if err != nil {
+		c.add("signature", false, "%v", err)
+		return
+	}
+	c.add("signature", true, "the ed25519 signature of the digest is valid (key %s)", Fingerprint(pub))
+}

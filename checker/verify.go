@@ -1,0 +1,359 @@
+package checker
+
+import (
+	"fmt"
+	"math/big"
+	"slices"
+	"strings"
+
+	"lyacert/model"
+	"lyacert/poly"
+)
+
+// Kinds of claim and verdicts that Verify derives.
+const (
+	KindGlobal   = "global-asymptotic"
+	KindLocal    = "local-asymptotic"
+	KindStable   = "stable"
+	KindUnstable = "unstable"
+	KindNone     = "none"
+
+	VerdictHolds     = "holds"
+	VerdictOnRegion  = "holds-on-region"
+	VerdictFails     = "fails"
+	VerdictUndecided = "undecided"
+)
+
+// Record is one check the kernel made, with its outcome.
+type Record struct {
+	Name   string `json:"name"`
+	OK     bool   `json:"ok"`
+	Reason string `json:"reason"`
+}
+
+// Outcome is what Verify found: whether every claim holds, the record of
+// checks, and the verdict and kind of claim derived from the verified claims.
+// Refuted says that an exact point refutes the candidate itself (not only
+// the argument); Region names the rules the region of parameters rests on
+// ("" when the conditions are settled without one).
+type Outcome struct {
+	Valid   bool     `json:"valid"`
+	Verdict string   `json:"verdict"`
+	Kind    string   `json:"kind"`
+	Refuted bool     `json:"refuted"`
+	Region  string   `json:"region"`
+	Records []Record `json:"checks"`
+}
+
+// rule is one entry of the rule table: a claim type and its check.
+type rule struct {
+	name  string
+	rank  int // claims come in ascending rank
+	new   func() Claim
+	check func(c *run, cl Claim) bool
+}
+
+// rules is the kernel's rule table, in the order claims must appear.
+var rules = []rule{
+	{"orbital-derivative", 0, func() Claim { return new(OrbitalDerivative) }, (*run).derivative},
+	{"quadratic-part-ldl", 1, func() Claim { return new(QuadraticPart) }, (*run).quadraticPart},
+	{"monomial-gram-ldl", 1, func() Claim { return new(MonomialGram) }, (*run).monomialGram},
+	{"minor-condition", 2, func() Claim { return new(MinorCondition) }, (*run).minorCondition},
+	{"semidefinite-kernel", 3, func() Claim { return new(NullSpace) }, (*run).nullSpace},
+	{"sturm-region", 4, func() Claim { return new(SturmRegion) }, (*run).sturmRegion},
+	{"paving", 4, func() Claim { return new(Paving) }, (*run).paving},
+	{"witness-points", 4, func() Claim { return new(WitnessPoints) }, (*run).witnessPoints},
+	{"refutation", 5, func() Claim { return new(Refutation) }, (*run).refutation},
+	{"krawczyk-enclosure", 6, func() Claim { return new(KrawczykEnclosure) }, (*run).krawczyk},
+	{"linearization", 7, func() Claim { return new(Linearization) }, (*run).linearization},
+}
+
+// Verify re-checks a certificate from scratch with exact rational arithmetic,
+// knowing nothing of how it was found. It re-reads the model text, compares
+// the system's restatement with it, checks every claim by the rule the claim
+// names (see the package documentation for the table), and derives the
+// verdict and the kind of claim from what it verified. The digest is checked
+// last; a present signature must verify against it.
+func Verify(d *Document) Outcome {
+	c := &run{doc: d, records: make([]Record, 0, 64), forms: map[string]*checkedForm{}, seen: map[string]bool{}}
+	verdict, kind := c.verify()
+	if d.Signature != nil {
+		c.signature()
+	}
+	out := Outcome{Valid: c.ok() && len(c.records) > 0, Records: c.records, Verdict: verdict, Kind: kind, Refuted: c.refuted}
+	if out.Valid {
+		var rs []string
+		for _, r := range []string{"sturm-region", "paving", "witness-points"} {
+			if c.seen[r] {
+				rs = append(rs, r)
+			}
+		}
+		out.Region = strings.Join(rs, " + ")
+	} else {
+		out.Verdict, out.Kind, out.Refuted = "", "", false
+	}
+	return out
+}
+
+// run is the state of one verification: the facts established so far.
+type run struct {
+	doc     *Document
+	records []Record
+	failed  bool
+	m       *model.Model
+	r       *poly.Ring
+	box     []poly.Interval
+	seen    map[string]bool
+
+	// The direct method.
+	derived     bool         // the orbital derivative was checked
+	v, vdot     poly.RatFunc // V and V̇ (ΔV)
+	higherV     bool         // V has terms of degree > 2 at the equilibrium
+	higherD     bool         // so has V̇
+	forms       map[string]*checkedForm
+	conds       []poly.RatFunc // the conditions q > 0 still required
+	sturm       *[2]bool       // a one-parameter region: some piece holds, some fails
+	pave        *paveFacts     // a paving
+	witness     *[2]bool       // witness points: the conditions hold at one, fail at one
+	hasKernel   bool
+	refuted     bool
+	equilibrium []poly.Interval // a box (or point) established by krawczyk-enclosure
+	linear      string          // the kind a linearization gave
+}
+
+type checkedForm struct {
+	g       poly.Matrix
+	d       []poly.RatFunc
+	zero    []bool // identically zero pivots
+	minors  []poly.RatFunc
+	semidef bool
+	basis   bool // a Gram matrix of the whole function in a monomial basis
+}
+
+func (c *run) ok() bool { return !c.failed }
+
+func (c *run) add(name string, ok bool, format string, args ...any) bool {
+	c.records = append(c.records, Record{Name: name, OK: ok, Reason: fmt.Sprintf(format, args...)})
+	if !ok {
+		c.failed = true
+	}
+	return ok
+}
+
+func (c *run) parse(what, s string) (poly.RatFunc, bool) {
+	f, err := poly.Parse(c.r, s)
+	if err != nil {
+		c.add(what, false, "cannot read %q: %v", s, err)
+		return poly.RatFunc{}, false
+	}
+	return f, true
+}
+
+// once records that a claim identified by key appears for the first time.
+func (c *run) once(key string) bool {
+	if !c.add(key, !c.seen[key], "stated once") {
+		return false
+	}
+	c.seen[key] = true
+	return true
+}
+
+func (c *run) verify() (verdict, kind string) {
+	d := c.doc
+	if !c.add("format", d.Format == Format, "format %q", d.Format) {
+		return
+	}
+	m, err := model.Parse("certificate model", []byte(d.Model))
+	if !c.add("model", err == nil, "the model text parses%s", errSuffix(err)) {
+		return
+	}
+	c.m, c.r, c.box = m, m.Ring, m.Box()
+	if !c.system() || !c.add("claims", len(d.Claims) > 0, "the certificate states claims") {
+		return
+	}
+	last := 0
+	for i, cl := range d.Claims {
+		k := slices.IndexFunc(rules, func(r rule) bool { return cl != nil && r.name == cl.Rule() })
+		if !c.add("claims", k >= 0, "claim %d names a rule of the kernel", i+1) ||
+			!c.add("claims", rules[k].rank >= last, "claim %d (%s) comes in the order of the rules: %s", i+1, rules[k].name, strings.Join(ruleNames(), ", ")) ||
+			!rules[k].check(c, cl) {
+			return
+		}
+		last = rules[k].rank
+	}
+	verdict, kind = c.conclude()
+	if c.failed {
+		return
+	}
+	digest, err := d.ComputeDigest()
+	c.add("digest", err == nil && digest == d.Digest, "the SHA-256 digest of the canonical serialization matches")
+	return verdict, kind
+}
+
+// conclude derives the verdict and the kind of claim from the verified claims,
+// and refuses a certificate whose claims do not form one argument: every
+// minor with its condition, a region only where conditions remain, a kernel
+// exactly where stability rests on it.
+func (c *run) conclude() (verdict, kind string) {
+	if c.linear != "" {
+		if !c.add("claims", !c.derived && c.refuted == false, "a linearization certificate claims nothing else") {
+			return
+		}
+		if c.linear == KindUnstable {
+			return VerdictFails, KindUnstable
+		}
+		return VerdictHolds, KindLocal
+	}
+	if !c.add("claims", c.derived, "the certificate states V's derivative along the flow or a linearization") {
+		return
+	}
+	if !c.add("claims", c.equilibrium == nil, "a Krawczyk enclosure comes with a linearization") {
+		return
+	}
+	fv, fd := c.forms["V"], c.forms["-Vdot"]
+	if fv == nil && fd == nil {
+		// Nothing but the derivative, and perhaps a refutation.
+		if c.refuted {
+			return VerdictFails, KindNone
+		}
+		return VerdictUndecided, KindNone
+	}
+	if !c.add("claims", fv != nil && fd != nil, "forms for both V and −V̇") {
+		return
+	}
+	minors := len(fv.minors) + len(fd.minors)
+	if !c.add("claims", len(c.conds) == minors, "one condition per minor (%d, stated %d)", minors, len(c.conds)) {
+		return
+	}
+	// The kind of claim the forms support (Lyapunov's direct method).
+	switch {
+	case fv.semidef, fd.semidef && (c.higherD || fd.basis):
+		kind = KindNone
+	case fd.semidef:
+		kind = KindStable
+	case (!c.higherV || fv.basis) && (!c.higherD || fd.basis):
+		kind = KindGlobal
+	default:
+		kind = KindLocal
+	}
+	// Conditions free of parameters decide the test everywhere at once.
+	constant, positive := true, true
+	for _, q := range c.conds {
+		constant = constant && q.Num.IsConst()
+		positive = positive && q.Num.IsConst() && q.Num.ConstTerm().Sign() > 0
+	}
+	region := c.regionVerdict()
+	switch {
+	case kind == KindNone:
+		if !c.add("claims", region == "", "no region without a claim it could support") {
+			return
+		}
+		verdict = VerdictUndecided
+	case region != "":
+		verdict = region
+	case positive:
+		verdict = VerdictHolds
+	case constant:
+		verdict = VerdictFails
+	default:
+		verdict = VerdictUndecided
+	}
+	switch {
+	case verdict == VerdictFails && !c.refuted:
+		verdict = VerdictUndecided // a failing test alone refutes nothing
+	case kind == KindNone && c.refuted:
+		verdict = VerdictFails
+	}
+	if verdict == VerdictFails || verdict == VerdictUndecided {
+		kind = KindNone
+	}
+	needKernel := kind == KindStable
+	c.add("claims", c.hasKernel == needKernel, "a kernel of −V̇ exactly when stability rests on a semidefinite V̇ (%v)", needKernel)
+	return verdict, kind
+}
+
+// regionVerdict is what the region claims say of the conditions: "holds"
+// on the whole allowed range, "fails" on all of it, "holds-on-region" when
+// proven to hold somewhere and to fail somewhere, else "undecided"; "" when
+// no region was claimed.
+func (c *run) regionVerdict() string {
+	var holds, fails, all, none bool
+	switch {
+	case c.sturm != nil:
+		holds, fails = c.sturm[0], c.sturm[1]
+		all, none = !fails, !holds
+	case c.pave != nil:
+		p := c.pave
+		holds, fails = p.holdsSomewhere, p.failsSomewhere
+		all, none = p.all, p.none
+	case c.witness == nil:
+		return ""
+	}
+	if c.witness != nil {
+		holds, fails = holds || c.witness[0], fails || c.witness[1]
+	}
+	switch {
+	case all:
+		return VerdictHolds
+	case none:
+		return VerdictFails
+	case holds && fails:
+		return VerdictOnRegion
+	}
+	return VerdictUndecided
+}
+
+func errSuffix(err error) string {
+	if err == nil {
+		return ""
+	}
+	return ": " + strings.ReplaceAll(err.Error(), "\n", "; ")
+}
+
+// system compares the certificate's restatement of the model with the model.
+func (c *run) system() bool {
+	s, m := c.doc.System, c.m
+	time := "continuous"
+	if m.Discrete {
+		time = "discrete"
+	}
+	if !c.add("system", s.Time == time, "time %q", s.Time) ||
+		!c.add("system", slices.Equal(s.States, m.States), "states %v", s.States) {
+		return false
+	}
+	ok := len(s.Params) == len(m.Params)
+	for i := 0; ok && i < len(s.Params); i++ {
+		p := m.Params[i]
+		ok = s.Params[i].Name == p.Name && s.Params[i].Range == model.RangeText(p)
+	}
+	if !c.add("system", ok, "parameters and assumptions as in the model") ||
+		!c.add("system", len(s.Equations) == len(m.F) && len(s.Equilibrium) == len(m.At), "one equation and one equilibrium coordinate per state") {
+		return false
+	}
+	kz, boxed := First[*KrawczykEnclosure](c.doc)
+	for i := range m.F {
+		f, ok := c.parse("system", s.Equations[i])
+		if !ok || !c.add("system", f.Equal(m.F[i]), "equation of %s as in the model", m.States[i]) {
+			return false
+		}
+		if boxed {
+			if !c.add("system", i < len(kz.Box) && s.Equilibrium[i] == BoxText(kz.Box[i]), "the system's equilibrium coordinate %s restates the Krawczyk box", m.States[i]) {
+				return false
+			}
+			continue
+		}
+		a, ok := c.parse("system", s.Equilibrium[i])
+		if !ok || !c.add("system", a.Equal(m.At[i]), "equilibrium coordinate %s as in the model", m.States[i]) {
+			return false
+		}
+	}
+	return true
+}
+
+func parseRat(s string) (*big.Rat, bool) {
+	if s == "" || len(s) > 100000 || strings.ContainsAny(s, " \t\n") {
+		return nil, false
+	}
+	q, ok := new(big.Rat).SetString(s)
+	return q, ok
+}

@@ -3,7 +3,6 @@ package certify
 import (
 	"cmp"
 	"fmt"
-	"lyacert/checker"
 	"math"
 	"math/big"
 	"math/cmplx"
@@ -94,7 +93,7 @@ func FindEquilibria(m *model.Model) (*EquilibriumSearch, error) {
 	if err := requireFixed(m, "finding equilibria"); err != nil {
 		return nil, err
 	}
-	g, err := checker.EquilibriumEquations(m.F, m.Discrete)
+	g, err := model.EquilibriumEquations(m.F, m.Discrete)
 	if err != nil {
 		return nil, err
 	}

@@ -176,9 +176,9 @@ func CertifyEquilibrium(m *model.Model, e *Equilibrium, opts CertifyOptions) (*C
 		if e.ExactJacobian != nil {
 			decay = pointIntervals(DecayAt(e.ExactJacobian, m.Discrete, p))
 		} else {
-			decay = checker.DecayEnclosure(f, m.Discrete, p, box)
+			decay = poly.DecayEnclosure(f, m.Discrete, p, box)
 		}
-		if !checker.PositiveDefiniteOn(decay) {
+		if !poly.PositiveDefiniteOn(decay) {
 			continue
 		}
 		k, pivot := poly.FirstNonPositivePivot(p)

@@ -146,7 +146,7 @@ func TestFindEquilibria(t *testing.T) {
 				switch e.Status {
 				case EquilibriumExact:
 					exact++
-					g, _ := checker.EquilibriumEquations(m.F, m.Discrete)
+					g, _ := model.EquilibriumEquations(m.F, m.Discrete)
 					for _, gi := range g {
 						if gi.Eval(e.Point).Sign() != 0 {
 							t.Errorf("exact point %v is not an equilibrium", e.Approx)

@@ -6,7 +6,6 @@ import (
 
 	"gonum.org/v1/gonum/mat"
 
-	"lyacert/checker"
 	"lyacert/poly"
 )
 
@@ -20,7 +19,7 @@ var krawczykRadii = []float64{1e-10, 1e-7, 1e-5, 1e-12}
 // Krawczyk test, in exact rational interval arithmetic, that it contains
 // exactly one zero of g. Floats propose the centre, the radius and the
 // preconditioner Y ≈ J(c)⁻¹ (rounded to short rationals); the inclusion
-// K(X) ⊂ int X decides (checker.KrawczykImage).
+// K(X) ⊂ int X decides (poly.KrawczykImage).
 func encloseZero(g []*poly.Poly, jac [][]*poly.Poly, fj [][]floatPoly, c []float64) (box []poly.Interval, y [][]*big.Rat, k []poly.Interval, ok bool) {
 	n := len(g)
 	var inv mat.Dense
@@ -44,7 +43,7 @@ func encloseZero(g []*poly.Poly, jac [][]*poly.Poly, fj [][]floatPoly, c []float
 			mid := dyadicRound(x, new(big.Rat).Quo(r, big.NewRat(1<<16, 1)))
 			box[i] = poly.Closed(new(big.Rat).Sub(mid, r), new(big.Rat).Add(mid, r))
 		}
-		k = checker.KrawczykImage(g, box, y)
+		k = poly.KrawczykImage(g, box, y)
 		inside := true
 		for i := range k {
 			if k[i].Lo.Value.Cmp(box[i].Lo.Value) <= 0 || k[i].Hi.Value.Cmp(box[i].Hi.Value) >= 0 {

@@ -651,3 +651,20 @@ func (m *Model) checkDenominators(errs *poly.ErrorList) {
 		check(f, m.AtPos, "the equilibrium's "+m.States[i])
 	}
 }
+
+// EquilibriumEquations returns g with g(x) = 0 exactly at the equilibria:
+// g = f for continuous time, g = f − x for discrete time. Every f must be a
+// polynomial (a model without free parameters has no denominators).
+func EquilibriumEquations(f []poly.RatFunc, discrete bool) ([]*poly.Poly, error) {
+	g := make([]*poly.Poly, len(f))
+	for i, fi := range f {
+		if !fi.IsPoly() {
+			return nil, fmt.Errorf("equation %d has a denominator", i+1)
+		}
+		g[i] = fi.Num.Clone()
+		if discrete {
+			g[i].Sub(g[i], poly.Var(fi.Ring(), i))
+		}
+	}
+	return g, nil
+}

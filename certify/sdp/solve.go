@@ -103,6 +103,7 @@ type blockData struct {
 }
 
 type solver struct {
+	gram   *mat.Cholesky // of [⟨Aᵢ, Aⱼ⟩], nil when singular
 	p      *Problem
 	o      Options
 	m      int
@@ -176,7 +177,55 @@ func newSolver(p *Problem, o Options) *solver {
 		}
 	}
 	s.normC = math.Sqrt(s.normC)
+	// The Gram matrix of the constraints, for refine.
+	if s.m > 0 {
+		g := mat.NewSymDense(s.m, nil)
+		for k, bd := range s.blocks {
+			_ = k
+			for ci, i := range bd.cons {
+				for cj := ci; cj < len(bd.cons); cj++ {
+					j := bd.cons[cj]
+					var t float64
+					for _, ei := range bd.ents[ci] {
+						for _, ej := range bd.ents[cj] {
+							if ei.k == ej.k && ei.l == ej.l {
+								t += ei.a * ej.a
+							}
+						}
+					}
+					g.SetSym(i, j, g.At(i, j)+t)
+				}
+			}
+		}
+		var c mat.Cholesky
+		if c.Factorize(g) {
+			s.gram = &c
+		}
+	}
 	return s
+}
+
+// refine corrects a primal direction so that A(dX) = Rp holds to working
+// precision: dX += A*(AA*)⁻¹(Rp − A(dX)), the least-norm correction. Near
+// the optimum the Schur complement is ill-conditioned and the HKM formula
+// for dX loses the primal equations; this keeps the iterates feasible.
+func (s *solver) refine(dx bmat, rp []float64) {
+	if s.gram == nil {
+		return
+	}
+	adx := s.aop(dx)
+	r := mat.NewVecDense(s.m, nil)
+	for i := range adx {
+		r.SetVec(i, rp[i]-adx[i])
+	}
+	var w mat.VecDense
+	if err := s.gram.SolveVecTo(&w, r); err != nil {
+		var ce mat.Condition
+		if !errors.As(err, &ce) {
+			return
+		}
+	}
+	axpy(dx, 1, s.atop(w.RawVector().Data))
 }
 
 // bmat is a block-diagonal matrix: dense n×n data or n diagonal entries.
@@ -627,6 +676,7 @@ func (s *solver) run(ctx context.Context) (*Result, error) {
 				axpy(dx, -1, corr)
 			}
 			s.symmetrize(dx)
+			s.refine(dx, rp)
 			return dx, dz, dy
 		}
 		// Predictor (affine scaling, σ = 0).
@@ -661,13 +711,29 @@ func (s *solver) run(ctx context.Context) (*Result, error) {
 		} else {
 			stall = 0
 		}
-		axpy(x, ap, dx)
-		axpy(z, ad, dz)
+		// Eigenvalue rounding can overestimate a step: back off until the
+		// new iterates factor.
+		x = s.stepInto(x, dx, ap)
+		z = s.stepInto(z, dz, ad)
 		for i := range y {
 			y[i] += ad * dy[i]
 		}
 		res = &Result{}
 	}
+}
+
+// stepInto returns x + α·dx with α reduced (×0.8, a few times) until the
+// result is positive definite; x itself when no step works.
+func (s *solver) stepInto(x, dx bmat, alpha float64) bmat {
+	for try := 0; try < 30; try++ {
+		t := cloneB(x)
+		axpy(t, alpha, dx)
+		if _, ok := s.factorize(t); ok {
+			return t
+		}
+		alpha *= 0.8
+	}
+	return x
 }
 
 func cloneB(x bmat) bmat {

@@ -2,6 +2,7 @@ package poly
 
 import (
 	"fmt"
+	"slices"
 	"sort"
 	"strings"
 	"unicode"
@@ -33,7 +34,12 @@ type Error struct {
 	Msg string
 }
 
-func (e *Error) Error() string { return e.Pos.String() + ": " + e.Msg }
+func (e *Error) Error() string {
+	if e.Pos == (Pos{}) {
+		return e.Msg // a summary such as "and 12 more errors"
+	}
+	return e.Pos.String() + ": " + e.Msg
+}
 
 // ErrorList collects input errors so that a user sees all of them at once.
 type ErrorList []*Error
@@ -47,6 +53,9 @@ func (l *ErrorList) Add(pos Pos, format string, args ...any) {
 func (l ErrorList) Sort() {
 	sort.SliceStable(l, func(i, j int) bool {
 		a, b := l[i].Pos, l[j].Pos
+		if (a == Pos{}) || (b == Pos{}) {
+			return b == Pos{} && a != Pos{} // a summary comes last
+		}
 		if a.Line != b.Line {
 			return a.Line < b.Line
 		}
@@ -111,6 +120,41 @@ func (t Token) String() string {
 	return fmt.Sprintf("%q", t.Text)
 }
 
+// ScanLine is Scan within limits: a line longer than lim.LineLength bytes or
+// a number literal with more than lim.Digits digits is an error (and no
+// tokens).
+func ScanLine(line string, start Pos, lim Limits) ([]Token, *Error) {
+	lim = lim.WithDefaults()
+	if len(line) > lim.LineLength {
+		return nil, &Error{Pos: start, Msg: Exceeded("line-length", fmt.Sprintf("line of %d bytes", len(line)), lim.LineLength)}
+	}
+	toks := Scan(line, start)
+	for _, t := range toks {
+		if t.Kind == Number && len(t.Text) > lim.Digits {
+			n := 0
+			for _, c := range []byte(t.Text) {
+				if c >= '0' && c <= '9' {
+					n++
+				}
+			}
+			if n > lim.Digits {
+				return nil, &Error{Pos: t.Pos, Msg: Exceeded("digits", fmt.Sprintf("number literal of %d digits", n), lim.Digits)}
+			}
+		}
+	}
+	return toks, nil
+}
+
+// InvalidChar describes the text of an Invalid token for an error message:
+// a byte that is not UTF-8, or the character with its code point.
+func InvalidChar(text string) string {
+	if !utf8.ValidString(text) {
+		return fmt.Sprintf("invalid UTF-8 byte 0x%02x (the input must be UTF-8 text)", text[0])
+	}
+	r, _ := utf8.DecodeRuneInString(text)
+	return fmt.Sprintf("unexpected character %q (U+%04X)", text, r)
+}
+
 // Scan splits one line (without its newline, comments already removed or
 // not) into tokens; the position of the first character is start. A "#"
 // ends the line. Invalid characters become Invalid tokens.
@@ -122,6 +166,9 @@ func Scan(line string, start Pos) []Token {
 		r, w := utf8.DecodeRuneInString(line[i:])
 		pos := start.Shift(col)
 		switch {
+		case r == utf8.RuneError && w == 1:
+			// Not UTF-8: keep the byte itself so that the error can name it.
+			toks = append(toks, Token{Invalid, line[i : i+1], pos})
 		case r == '#':
 			i = len(line)
 			continue
@@ -180,4 +227,66 @@ func Scan(line string, start Pos) []Token {
 	}
 	toks = append(toks, Token{EOF, "", start.Shift(col)})
 	return toks
+}
+
+// Errors collects input errors up to a maximum and counts the rest, so that
+// a file of a million bad lines costs neither a million messages nor the
+// memory to hold them.
+type Errors struct {
+	List    ErrorList // the errors kept, in the order found
+	Max     int       // how many to keep; 0 keeps all
+	Dropped int       // how many were found beyond Max
+}
+
+// Add records an error at pos.
+func (e *Errors) Add(pos Pos, format string, args ...any) {
+	if e.Max > 0 && len(e.List) >= e.Max {
+		e.Dropped++
+		return
+	}
+	e.List.Add(pos, format, args...)
+}
+
+// Append records err.
+func (e *Errors) Append(err *Error) {
+	if e.Max > 0 && len(e.List) >= e.Max {
+		e.Dropped++
+		return
+	}
+	e.List = append(e.List, err)
+}
+
+// Len returns the number of errors found, kept or not.
+func (e *Errors) Len() int { return len(e.List) + e.Dropped }
+
+// Err returns the errors kept, sorted by position, followed by one entry
+// "and K more errors" (an Error without a position) when some were dropped;
+// nil when there are none.
+func (e *Errors) Err() error {
+	if e.Len() == 0 {
+		return nil
+	}
+	l := slices.Clone(e.List)
+	l.Sort()
+	if e.Dropped > 0 {
+		msg := fmt.Sprintf("and %d more errors", e.Dropped)
+		if e.Dropped == 1 {
+			msg = "and 1 more error"
+		}
+		l = append(l, &Error{Msg: msg})
+	}
+	return l
+}
+
+// Truncate returns l sorted by position with at most n errors, followed by
+// an entry "and K more errors" when it had more; l itself when n <= 0.
+func (l ErrorList) Truncate(n int) ErrorList {
+	if n <= 0 || len(l) <= n {
+		return l
+	}
+	e := Errors{List: slices.Clone(l)}
+	e.List.Sort()
+	e.Dropped = len(e.List) - n
+	e.List = e.List[:n]
+	return e.Err().(ErrorList)
 }

@@ -167,8 +167,26 @@ func (m *Model) checkDerived(errs *poly.Errors, lim poly.Limits) {
 		dv.terms = satAdd(dv.terms, int64(v.Num.NumTerms()))
 	} else {
 		sv := shapeOf(v)
+		// The degree of ∂V/∂xᵢ: the terms that contain xᵢ, one less.
+		dd := make([]int, len(m.States))
+		for i := range dd {
+			dd[i] = -1
+		}
+		for _, t := range v.Num.Terms() {
+			s := 0
+			for _, e := range t.Exp {
+				s += e
+			}
+			for i := range dd {
+				if t.Exp[i] > 0 {
+					dd[i] = max(dd[i], s-1)
+				}
+			}
+		}
 		for i := range m.States {
-			dv.deg = max(dv.deg, sv.deg-1+fs[i].deg)
+			if dd[i] >= 0 {
+				dv.deg = max(dv.deg, dd[i]+fs[i].deg)
+			}
 			dv.denDeg += fs[i].denDeg
 			t := satMul(sv.terms, fs[i].terms)
 			dv.terms = satAdd(dv.terms, t)

@@ -28,6 +28,8 @@ import (
 	"math/big"
 	"slices"
 	"strings"
+	"unicode"
+	"unicode/utf8"
 
 	"lyacert/poly"
 )
@@ -182,17 +184,33 @@ func parse(file string, src []byte, lim poly.Limits, canonical bool, settings ..
 		}
 		return toks
 	}
+	// head returns at least the first two tokens of a line (what decides
+	// its kind) without scanning all of a long line: tokens that end before
+	// the cut are the same as in the whole line.
+	head := func(l line) []poly.Token {
+		if len(l.text) > 256 {
+			cut := 256
+			for cut < len(l.text) && !utf8.RuneStart(l.text[cut]) {
+				cut++
+			}
+			if toks := poly.Scan(l.text[:cut], l.pos); len(toks) > 3 {
+				return toks[:2]
+			}
+		}
+		return poly.Scan(l.text, l.pos)
+	}
 	for i := 0; text != ""; i++ {
 		lt, rest, _ := strings.Cut(text, "\n")
 		text = rest
 		lt = strings.TrimSuffix(lt, "\r")
 		l := line{lt, poly.Pos{File: file, Line: i + 1, Col: 1}}
-		toks := scan(l)
-		if toks == nil {
+		if len(lt) > lim.LineLength {
+			errs.Add(l.pos, "%s", poly.Exceeded("line-length", fmt.Sprintf("line of %d bytes", len(lt)), lim.LineLength))
 			seenDecl = true
 			continue
 		}
-		if len(toks) == 1 {
+		// A line with no token: blank, or a comment (as the scanner sees it).
+		if rest := strings.TrimLeftFunc(lt, unicode.IsSpace); rest == "" || rest[0] == '#' {
 			if !seenDecl {
 				if c, ok := strings.CutPrefix(strings.TrimSpace(lt), "#"); ok {
 					m.Description = append(m.Description, strings.TrimSpace(c))
@@ -212,13 +230,16 @@ func parse(file string, src []byte, lim poly.Limits, canonical bool, settings ..
 	// take ten times the input's memory.
 	paramIdx := map[string]int{}
 	for _, l := range lines {
-		ltoks := scan(l)
+		ltoks := head(l)
 		t := ltoks[0]
 		if t.Kind == poly.Invalid {
 			errs.Add(t.Pos, "%s at the start of a declaration", poly.InvalidChar(t.Text))
 			continue
 		}
 		if t.Kind != poly.Name || (t.Text != "state" && t.Text != "param") || isAssign(ltoks) {
+			continue
+		}
+		if ltoks = scan(l); ltoks == nil {
 			continue
 		}
 		names, rest, ok := nameList(ltoks[1:], errs)
@@ -354,7 +375,13 @@ func parse(file string, src []byte, lim poly.Limits, canonical bool, settings ..
 	have := make([]bool, len(m.States))
 	kinds := map[bool]poly.Pos{}
 	for _, ln := range lines {
+		if h := head(ln); h[0].Kind == poly.Name && (h[0].Text == "state" || h[0].Text == "param") && !isAssign(h) {
+			continue // read in pass 1
+		}
 		l := struct{ toks []poly.Token }{scan(ln)}
+		if l.toks == nil {
+			continue
+		}
 		t := l.toks[0]
 		switch {
 		case t.Kind == poly.Name && (t.Text == "state" || t.Text == "param") && !isAssign(l.toks):

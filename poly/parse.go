@@ -173,11 +173,8 @@ func (p *ExprParser) spend(pos Pos, w int64) bool {
 	return true
 }
 
+// expr is entered from primary's "(" (which counts the nesting) or at the top.
 func (p *ExprParser) expr() RatFunc {
-	if !p.enter() {
-		return p.zero()
-	}
-	defer func() { p.depth-- }()
 	// A long sum is added as a balanced tree (a binary counter of partial
 	// sums), so that n terms cost O(n log n) and not O(n²) map copies.
 	var stack []partial
@@ -269,12 +266,26 @@ type shape struct {
 	terms  int64 // terms of the numerator
 	deg    int   // degree of the numerator
 	denDeg int   // degree of the denominator
-	bits   int   // largest coefficient, in bits
+	bits   int   // largest numerator of a coefficient, in bits
+	dbits  int   // largest denominator of a coefficient, in bits
 	nden   int   // denominator factors
 }
 
 func shapeOf(f RatFunc) shape {
-	return shape{int64(f.Num.NumTerms()), f.Num.Degree(), denDegree(f), coefBits(f), len(f.Den)}
+	nb, db := f.Num.numDenBits()
+	for _, d := range f.Den {
+		nb = max(nb, d.P.coefBits())
+	}
+	return shape{int64(f.Num.NumTerms()), f.Num.Degree(), denDegree(f), nb, db, len(f.Den)}
+}
+
+func (p *Poly) numDenBits() (int, int) {
+	nb, db := 0, 0
+	for _, c := range p.terms {
+		nb = max(nb, c.Num().BitLen())
+		db = max(db, c.Denom().BitLen())
+	}
+	return nb, db
 }
 
 // inverseShape is the shape of 1/f: its denominator, expanded, becomes a
@@ -292,7 +303,12 @@ func inverseShape(f RatFunc) shape {
 		}
 		bits = satInt(bits + d.Mult*(d.P.coefBits()+bitLen(pt)))
 	}
-	return shape{t, denDegree(f), max(f.Num.Degree(), 0), max(bits, f.Num.coefBits()), 1 + len(f.Den)}
+	nb, db := f.Num.numDenBits()
+	if f.Num.NumTerms() == 1 && len(f.Den) == 0 {
+		// 1/(n/d) = d/n for a monomial.
+		return shape{1, 0, max(f.Num.Degree(), 0), db, nb, 1}
+	}
+	return shape{t, denDegree(f), max(f.Num.Degree(), 0), max(bits, nb, db), 0, 1 + len(f.Den)}
 }
 
 func satInt(n int) int {
@@ -316,11 +332,18 @@ func (p *ExprParser) checkProduct(a, b shape, pos Pos) bool {
 		p.failLimit(pos, "degree", fmt.Sprintf("a denominator of degree %d", d), p.lim.Degree)
 		return false
 	}
-	if bits := satInt(a.bits + b.bits + bitLen(min(a.terms, b.terms))); bits > p.lim.ConstBits {
+	// A product of monomials multiplies numerators and denominators; a
+	// product of sums also adds up to min(ta, tb) products per coefficient
+	// (checked again on the result).
+	bits := satInt(max(a.bits+b.bits, a.dbits+b.dbits))
+	if a.terms > 1 && b.terms > 1 {
+		bits = satInt(bits + bitLen(min(a.terms, b.terms)))
+	}
+	if bits > p.lim.ConstBits {
 		p.failLimit(pos, "const-bits", fmt.Sprintf("a product with coefficients of up to %d bits", bits), p.lim.ConstBits)
 		return false
 	}
-	w := mulWork(a.terms, b.terms, a.bits, b.bits)
+	w := mulWork(a.terms, b.terms, max(a.bits, a.dbits), max(b.bits, b.dbits))
 	if a.nden+b.nden > 0 {
 		// Cancelling a denominator factor is an exact division, quadratic
 		// in the terms of the numerator.
@@ -344,6 +367,9 @@ func (p *ExprParser) term() RatFunc {
 				break
 			}
 			v = v.Mul(w)
+			if !p.checkBits(v, op.Pos) {
+				break
+			}
 			continue
 		}
 		if w.IsZero() {
@@ -360,8 +386,21 @@ func (p *ExprParser) term() RatFunc {
 			break
 		}
 		v = v.Quo(w)
+		if !p.checkBits(v, op.Pos) {
+			break
+		}
 	}
 	return v
+}
+
+// checkBits checks the coefficients of a result, which a product of sums
+// or an exact division can make larger than estimated.
+func (p *ExprParser) checkBits(v RatFunc, pos Pos) bool {
+	if b := coefBits(v); b > p.lim.ConstBits {
+		p.failLimit(pos, "const-bits", fmt.Sprintf("a coefficient of %d bits", b), p.lim.ConstBits)
+		return false
+	}
+	return true
 }
 
 func (p *ExprParser) unary() RatFunc {

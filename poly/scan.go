@@ -120,29 +120,57 @@ func (t Token) String() string {
 	return fmt.Sprintf("%q", t.Text)
 }
 
-// ScanLine is Scan within limits: a line longer than lim.LineLength bytes or
-// a number literal with more than lim.Digits digits is an error (and no
-// tokens).
+// ScanLine is Scan within limits: a line longer than lim.LineLength bytes, a
+// number literal with more than lim.Digits digits, or parentheses and signs
+// nested deeper than the parser allows (see ExprParser) is an error, found
+// without scanning the rest of the line.
 func ScanLine(line string, start Pos, lim Limits) ([]Token, *Error) {
 	lim = lim.WithDefaults()
 	if len(line) > lim.LineLength {
 		return nil, &Error{Pos: start, Msg: Exceeded("line-length", fmt.Sprintf("line of %d bytes", len(line)), lim.LineLength)}
 	}
-	toks := Scan(line, start)
-	for _, t := range toks {
-		if t.Kind == Number && len(t.Text) > lim.Digits {
-			n := 0
-			for _, c := range []byte(t.Text) {
-				if c >= '0' && c <= '9' {
-					n++
-				}
+	// The nesting is the open parentheses plus the signs in a row before
+	// the current token: never more than the parser's depth, plus one for
+	// a binary sign, so the parser would refuse whatever this refuses.
+	parens, signs := 0, 0
+	var err *Error
+	toks := scan(line, start, func(t Token) bool {
+		switch {
+		case t.Kind == Number && len(t.Text) > lim.Digits:
+			if n := countDigits(t.Text); n > lim.Digits {
+				err = &Error{Pos: t.Pos, Msg: Exceeded("digits", fmt.Sprintf("number literal of %d digits", n), lim.Digits)}
+				return false
 			}
-			if n > lim.Digits {
-				return nil, &Error{Pos: t.Pos, Msg: Exceeded("digits", fmt.Sprintf("number literal of %d digits", n), lim.Digits)}
-			}
+		case t.Kind == Op && t.Text == "(":
+			parens++
+		case t.Kind == Op && t.Text == ")":
+			parens = max(parens-1, 0)
 		}
+		if t.Kind == Op && (t.Text == "+" || t.Text == "-") {
+			signs++
+		} else {
+			signs = 0
+		}
+		if parens+signs > lim.Depth+1 {
+			err = &Error{Pos: t.Pos, Msg: Exceeded("depth", fmt.Sprintf("parentheses or signs nested more than %d deep", lim.Depth), lim.Depth)}
+			return false
+		}
+		return true
+	})
+	if err != nil {
+		return nil, err
 	}
 	return toks, nil
+}
+
+func countDigits(s string) int {
+	n := 0
+	for i := 0; i < len(s); i++ {
+		if s[i] >= '0' && s[i] <= '9' {
+			n++
+		}
+	}
+	return n
 }
 
 // InvalidChar describes the text of an Invalid token for an error message:
@@ -158,11 +186,22 @@ func InvalidChar(text string) string {
 // Scan splits one line (without its newline, comments already removed or
 // not) into tokens; the position of the first character is start. A "#"
 // ends the line. Invalid characters become Invalid tokens.
-func Scan(line string, start Pos) []Token {
-	toks := make([]Token, 0, len(line)/2+2)
+func Scan(line string, start Pos) []Token { return scan(line, start, nil) }
+
+// scan is Scan that calls keep, when not nil, with each token and stops
+// (returning nil) when it returns false.
+func scan(line string, start Pos, keep func(Token) bool) []Token {
+	toks := make([]Token, 0, min(len(line)/2+2, 4096))
 	col := 0
 	i := 0
+	checked := 0 // tokens passed to keep; an iteration adds at most one
 	for i < len(line) {
+		if keep != nil && len(toks) > checked {
+			if !keep(toks[len(toks)-1]) {
+				return nil
+			}
+			checked = len(toks)
+		}
 		r, w := utf8.DecodeRuneInString(line[i:])
 		pos := start.Shift(col)
 		switch {
@@ -224,6 +263,9 @@ func Scan(line string, start Pos) []Token {
 		}
 		i += w
 		col++
+	}
+	if keep != nil && len(toks) > checked && !keep(toks[len(toks)-1]) {
+		return nil
 	}
 	toks = append(toks, Token{EOF, "", start.Shift(col)})
 	return toks

@@ -23,10 +23,13 @@
 package model
 
 import (
+	"errors"
 	"fmt"
 	"math/big"
 	"slices"
 	"strings"
+	"unicode"
+	"unicode/utf8"
 
 	"lyacert/poly"
 )
@@ -126,50 +129,136 @@ func constExpr(text string, pos poly.Pos) (*big.Rat, error) {
 }
 
 type line struct {
-	toks []poly.Token
+	text string
 	pos  poly.Pos
 }
 
-// Parse reads a model from src; file names positions in errors. Settings fix
-// parameters (they must lie in the declared range). All errors found are
-// returned together as a poly.ErrorList.
+// Parse reads a model from src within the default limits; file names
+// positions in errors. Settings fix parameters (they must lie in the declared
+// range). The errors found are returned together as a poly.ErrorList: the
+// first ones (see poly.Limits.Errors) sorted by position, then an entry
+// "and K more errors" when there were more.
 func Parse(file string, src []byte, settings ...Setting) (*Model, error) {
-	var errs poly.ErrorList
+	return ParseWithLimits(file, src, poly.Limits{}, settings...)
+}
+
+// ParseWithLimits is Parse within the given limits (zero fields are the
+// defaults). A limit reached is an input error at the place where it was
+// reached, naming the limit and the flag that raises it. Besides bounding
+// each expression, it refuses a model whose derived polynomials (V̇ or ΔV,
+// the residuals at the equilibrium, the shift to it) would exceed the degree
+// or terms limits, and one whose canonical text would not be read back under
+// the same limits.
+//
+// A UTF-8 byte-order mark at the start is skipped; lines may end in CRLF.
+func ParseWithLimits(file string, src []byte, lim poly.Limits, settings ...Setting) (*Model, error) {
+	lim = lim.WithDefaults()
+	if err := lim.Validate(); err != nil {
+		return nil, err
+	}
+	return parse(file, src, lim, true, settings...)
+}
+
+// parse is ParseWithLimits; canonical asks for the canonical text to be
+// read back (see checkCanonical).
+func parse(file string, src []byte, lim poly.Limits, canonical bool, settings ...Setting) (*Model, error) {
+	errs := &poly.Errors{Max: lim.Errors}
+	start := poly.Pos{File: file, Line: 1, Col: 1}
+	if len(src) > lim.InputBytes {
+		errs.Add(start, "%s", poly.Exceeded("input-bytes", fmt.Sprintf("input of %d bytes", len(src)), lim.InputBytes))
+		return nil, errs.Err()
+	}
+	if len(src) >= 2 && (src[0] == 0xff && src[1] == 0xfe || src[0] == 0xfe && src[1] == 0xff) {
+		errs.Add(start, "the input is UTF-16 text (it starts with a UTF-16 byte-order mark); save it as UTF-8")
+		return nil, errs.Err()
+	}
+	text := strings.TrimPrefix(string(src), "\ufeff") // a UTF-8 byte-order mark
 	m := &Model{File: file}
 	var lines []line
 	seenDecl := false
-	for i, text := range strings.Split(string(src), "\n") {
-		text = strings.TrimSuffix(text, "\r")
-		pos := poly.Pos{File: file, Line: i + 1, Col: 1}
-		toks := poly.Scan(text, pos)
-		if len(toks) == 1 {
+	scan := func(l line) []poly.Token {
+		toks, err := poly.ScanLine(l.text, l.pos, lim)
+		if err != nil {
+			errs.Append(err)
+			return nil
+		}
+		return toks
+	}
+	// head returns at least the first two tokens of a line (what decides
+	// its kind) without scanning all of a long line: tokens that end before
+	// the cut are the same as in the whole line.
+	head := func(l line) []poly.Token {
+		if len(l.text) > 256 {
+			cut := 256
+			for cut < len(l.text) && !utf8.RuneStart(l.text[cut]) {
+				cut++
+			}
+			if toks := poly.Scan(l.text[:cut], l.pos); len(toks) > 3 {
+				return toks[:2]
+			}
+		}
+		return poly.Scan(l.text, l.pos)
+	}
+	for i := 0; text != ""; i++ {
+		lt, rest, _ := strings.Cut(text, "\n")
+		text = rest
+		lt = strings.TrimSuffix(lt, "\r")
+		l := line{lt, poly.Pos{File: file, Line: i + 1, Col: 1}}
+		if len(lt) > lim.LineLength {
+			errs.Add(l.pos, "%s", poly.Exceeded("line-length", fmt.Sprintf("line of %d bytes", len(lt)), lim.LineLength))
+			seenDecl = true
+			continue
+		}
+		// A line with no token: blank, or a comment (as the scanner sees it).
+		if rest := strings.TrimLeftFunc(lt, unicode.IsSpace); rest == "" || rest[0] == '#' {
 			if !seenDecl {
-				if c, ok := strings.CutPrefix(strings.TrimSpace(text), "#"); ok {
+				if c, ok := strings.CutPrefix(strings.TrimSpace(lt), "#"); ok {
 					m.Description = append(m.Description, strings.TrimSpace(c))
 				}
 			}
 			continue
 		}
 		seenDecl = true
-		lines = append(lines, line{toks, pos})
+		lines = append(lines, l)
+	}
+	if errs.Len() > 0 {
+		return nil, errs.Err()
 	}
 
-	// Pass 1: states and parameters, wherever they are declared.
+	// Pass 1: states and parameters, wherever they are declared. Lines are
+	// scanned again in each pass rather than kept as tokens, which would
+	// take ten times the input's memory.
 	paramIdx := map[string]int{}
 	for _, l := range lines {
-		t := l.toks[0]
+		ltoks := head(l)
+		t := ltoks[0]
 		if t.Kind == poly.Invalid {
-			errs.Add(t.Pos, "unexpected character %q at the start of a declaration", t.Text)
+			errs.Add(t.Pos, "%s at the start of a declaration", poly.InvalidChar(t.Text))
 			continue
 		}
-		if t.Kind != poly.Name || (t.Text != "state" && t.Text != "param") || isAssign(l.toks) {
+		if t.Kind != poly.Name || (t.Text != "state" && t.Text != "param") || isAssign(ltoks) {
 			continue
 		}
-		names, rest, ok := nameList(l.toks[1:], &errs)
+		if ltoks = scan(l); ltoks == nil {
+			continue
+		}
+		names, rest, ok := nameList(ltoks[1:], errs)
 		if !ok {
 			continue
 		}
 		for _, n := range names {
+			if n.Text == "inf" {
+				errs.Add(n.Pos, "\"inf\" stands for infinity in ranges and cannot name a %s", t.Text)
+				continue
+			}
+			if t.Text == "state" && len(m.States) >= lim.States {
+				errs.Add(n.Pos, "%s", poly.Exceeded("states", fmt.Sprintf("state %d", len(m.States)+1), lim.States))
+				break
+			}
+			if t.Text == "param" && len(m.Params) >= lim.Params && !isParam(paramIdx, n.Text) {
+				errs.Add(n.Pos, "%s", poly.Exceeded("params", fmt.Sprintf("parameter %d", len(m.Params)+1), lim.Params))
+				break
+			}
 			if slices.Contains(keywords, n.Text) {
 				errs.Add(n.Pos, "%q is a keyword and cannot name a %s", n.Text, t.Text)
 				continue
@@ -193,13 +282,16 @@ func Parse(file string, src []byte, settings ...Setting) (*Model, error) {
 			}
 			continue
 		}
-		rng, fixed, ok := parseAssumption(rest, &errs)
+		rng, fixed, ok := parseAssumption(rest, errs, lim)
 		if !ok {
 			continue
 		}
 		for _, n := range names {
-			if slices.Contains(keywords, n.Text) || slices.Contains(m.States, n.Text) {
+			if slices.Contains(keywords, n.Text) || slices.Contains(m.States, n.Text) || n.Text == "inf" {
 				continue
+			}
+			if _, seen := paramIdx[n.Text]; !seen && len(m.Params) >= lim.Params {
+				break
 			}
 			j, seen := paramIdx[n.Text]
 			if !seen {
@@ -220,7 +312,7 @@ func Parse(file string, src []byte, settings ...Setting) (*Model, error) {
 			}
 		}
 	}
-	if len(m.States) == 0 && len(errs) == 0 {
+	if len(m.States) == 0 && errs.Len() == 0 {
 		errs.Add(poly.Pos{File: file, Line: 1, Col: 1}, "no states: declare them with a line such as \"state x, y\"")
 	}
 	if len(m.States) == 0 {
@@ -240,7 +332,7 @@ func Parse(file string, src []byte, settings ...Setting) (*Model, error) {
 		p.Fixed = new(big.Rat).Set(s.Value)
 		p.Range = poly.Point(s.Value)
 	}
-	if len(errs) > 0 {
+	if errs.Len() > 0 {
 		return nil, errs.Err()
 	}
 
@@ -265,11 +357,13 @@ func Parse(file string, src []byte, settings ...Setting) (*Model, error) {
 		}
 		return poly.RatFunc{}, false
 	}
+	// One parser for the whole file, so that its work limit bounds the
+	// file and not just each expression.
+	ep := &poly.ExprParser{Ring: r, Env: env, Limits: lim}
 	expr := func(toks []poly.Token) (poly.RatFunc, bool) {
-		p := &poly.ExprParser{Ring: r, Env: env}
-		f, err := p.ParseTokens(toks)
+		f, err := ep.ParseTokens(toks)
 		if err != nil {
-			errs = append(errs, err.(*poly.Error))
+			errs.Append(err.(*poly.Error))
 			return f, false
 		}
 		return f, true
@@ -280,7 +374,14 @@ func Parse(file string, src []byte, settings ...Setting) (*Model, error) {
 	m.FPos = make([]poly.Pos, len(m.States))
 	have := make([]bool, len(m.States))
 	kinds := map[bool]poly.Pos{}
-	for _, l := range lines {
+	for _, ln := range lines {
+		if h := head(ln); h[0].Kind == poly.Name && (h[0].Text == "state" || h[0].Text == "param") && !isAssign(h) {
+			continue // read in pass 1
+		}
+		l := struct{ toks []poly.Token }{scan(ln)}
+		if l.toks == nil {
+			continue
+		}
 		t := l.toks[0]
 		switch {
 		case t.Kind == poly.Name && (t.Text == "state" || t.Text == "param") && !isAssign(l.toks):
@@ -311,7 +412,7 @@ func Parse(file string, src []byte, settings ...Setting) (*Model, error) {
 				errs.Add(t.Pos, "a second \"at\"; the first is at %s", m.AtPos)
 				continue
 			}
-			m.parseAt(l.toks[1:], t.Pos, expr, &errs)
+			m.parseAt(l.toks[1:], t.Pos, expr, errs)
 		case t.Kind == poly.Name && (t.Text == "next" && len(l.toks) > 2 && l.toks[1].Kind == poly.Name && isOp(l.toks[2], "=") ||
 			len(l.toks) > 2 && isOp(l.toks[1], "'") && isOp(l.toks[2], "=")):
 			discrete := t.Text == "next" && !isOp(l.toks[1], "'")
@@ -345,7 +446,7 @@ func Parse(file string, src []byte, settings ...Setting) (*Model, error) {
 			errs.Add(t.Pos, "expected a declaration (state, param, let, an equation x' = ..., next x = ..., V = ..., at ...), found %s", t)
 		}
 	}
-	if len(errs) > 0 {
+	if errs.Len() > 0 {
 		return nil, errs.Err()
 	}
 	for i, s := range m.States {
@@ -359,11 +460,15 @@ func Parse(file string, src []byte, settings ...Setting) (*Model, error) {
 			m.At[i] = poly.FromPoly(poly.Zero(r))
 		}
 	}
-	if len(errs) > 0 {
+	if errs.Len() > 0 {
 		return nil, errs.Err()
 	}
-	m.checkDenominators(&errs)
-	if len(errs) > 0 {
+	m.checkDenominators(errs)
+	if errs.Len() > 0 {
+		return nil, errs.Err()
+	}
+	m.checkDerived(errs, lim)
+	if errs.Len() > 0 {
 		return nil, errs.Err()
 	}
 	if m.AtGiven {
@@ -371,7 +476,17 @@ func Parse(file string, src []byte, settings ...Setting) (*Model, error) {
 		// parameter value. (Without "at", the origin is checked by the
 		// commands that assume it; find searches instead.)
 		if err := m.CheckEquilibrium(); err != nil {
+			var l poly.ErrorList
+			if errors.As(err, &l) {
+				return nil, l.Truncate(lim.Errors)
+			}
 			return nil, err
+		}
+	}
+	if canonical {
+		m.checkCanonical(errs, lim)
+		if errs.Len() > 0 {
+			return nil, errs.Err()
 		}
 	}
 	return m, nil
@@ -387,7 +502,7 @@ func isAssign(toks []poly.Token) bool {
 	return len(toks) > 1 && (isOp(toks[1], "=") || isOp(toks[1], "'"))
 }
 
-func nameList(toks []poly.Token, errs *poly.ErrorList) ([]poly.Token, []poly.Token, bool) {
+func nameList(toks []poly.Token, errs *poly.Errors) ([]poly.Token, []poly.Token, bool) {
 	var names []poly.Token
 	for {
 		if toks[0].Kind != poly.Name {
@@ -404,21 +519,21 @@ func nameList(toks []poly.Token, errs *poly.ErrorList) ([]poly.Token, []poly.Tok
 }
 
 // parseAssumption reads what follows the names of a param line.
-func parseAssumption(toks []poly.Token, errs *poly.ErrorList) (poly.Interval, *big.Rat, bool) {
+func parseAssumption(toks []poly.Token, errs *poly.Errors, lim poly.Limits) (poly.Interval, *big.Rat, bool) {
 	t := toks[0]
 	if t.Kind == poly.EOF {
 		return poly.Entire(), nil, true
 	}
 	num := func(ts []poly.Token) (*big.Rat, bool) {
 		r := poly.NewRing(nil, nil)
-		p := &poly.ExprParser{Ring: r, Env: func(string) (poly.RatFunc, bool) { return poly.RatFunc{}, false }}
+		p := &poly.ExprParser{Ring: r, Env: func(string) (poly.RatFunc, bool) { return poly.RatFunc{}, false }, Limits: lim}
 		f, err := p.ParseTokens(ts)
 		if err != nil {
 			e := err.(*poly.Error)
 			if strings.HasPrefix(e.Msg, "unknown name") {
 				e.Msg = "a parameter's range takes constants only: " + e.Msg
 			}
-			*errs = append(*errs, e)
+			errs.Append(e)
 			return nil, false
 		}
 		return f.Num.ConstTerm(), true
@@ -478,6 +593,15 @@ func parseAssumption(toks []poly.Token, errs *poly.ErrorList) (poly.Interval, *b
 		if !ok1 || !ok2 {
 			return poly.Interval{}, nil, false
 		}
+		// An infinite end is never attained: [0, inf] is a slip for [0, inf).
+		if lo.Inf != 0 && isOp(open, "[") {
+			errs.Add(open.Pos, "an infinite end is open: write ( before -inf, not [")
+			return poly.Interval{}, nil, false
+		}
+		if hi.Inf != 0 && isOp(toks[end], "]") {
+			errs.Add(toks[end].Pos, "an infinite end is open: write ) after inf, not ]")
+			return poly.Interval{}, nil, false
+		}
 		lo.Open = lo.Inf != 0 || isOp(open, "(")
 		hi.Open = hi.Inf != 0 || isOp(toks[end], ")")
 		iv, err := poly.NewInterval(lo, hi)
@@ -504,7 +628,7 @@ func tokText(ts []poly.Token) string {
 	return strings.Join(parts, "")
 }
 
-func boundOf(ts []poly.Token, num func([]poly.Token) (*big.Rat, bool), inf int, errs *poly.ErrorList) (poly.Bound, bool) {
+func boundOf(ts []poly.Token, num func([]poly.Token) (*big.Rat, bool), inf int, errs *poly.Errors) (poly.Bound, bool) {
 	if len(ts) == 2 && ts[0].Kind == poly.Name && ts[0].Text == "inf" {
 		if inf < 0 {
 			errs.Add(ts[0].Pos, "a lower end of +inf leaves the range empty; write -inf")
@@ -580,7 +704,7 @@ func cmpHi(a, b poly.Bound) int {
 	return 1
 }
 
-func (m *Model) parseAt(toks []poly.Token, pos poly.Pos, expr func([]poly.Token) (poly.RatFunc, bool), errs *poly.ErrorList) {
+func (m *Model) parseAt(toks []poly.Token, pos poly.Pos, expr func([]poly.Token) (poly.RatFunc, bool), errs *poly.Errors) {
 	m.AtGiven, m.AtPos = true, pos
 	r := m.Ring
 	m.At = make([]poly.RatFunc, len(m.States))
@@ -624,7 +748,7 @@ func (m *Model) parseAt(toks []poly.Token, pos poly.Pos, expr func([]poly.Token)
 		}
 	}
 	for i, s := range m.States {
-		if !set[i] && len(*errs) == 0 {
+		if !set[i] && errs.Len() == 0 {
 			errs.Add(pos, "\"at\" gives no value for state %s", s)
 		}
 	}
@@ -632,7 +756,7 @@ func (m *Model) parseAt(toks []poly.Token, pos poly.Pos, expr func([]poly.Token)
 
 // checkDenominators requires every parameter expression that divides to be
 // kept away from zero by the assumptions.
-func (m *Model) checkDenominators(errs *poly.ErrorList) {
+func (m *Model) checkDenominators(errs *poly.Errors) {
 	box := m.Box()
 	check := func(f poly.RatFunc, pos poly.Pos, what string) {
 		for _, d := range f.Den {

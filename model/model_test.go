@@ -130,6 +130,12 @@ func FuzzParse(f *testing.F) {
 			f.Add(b)
 		}
 	}
+	hostile, _ := filepath.Glob(filepath.Join("..", "testdata", "hostile", "models", "*.lya"))
+	for _, p := range hostile {
+		if b, err := os.ReadFile(p); err == nil {
+			f.Add(b)
+		}
+	}
 	f.Add(examples.Coolant)
 	f.Add([]byte(sample))
 	f.Fuzz(func(t *testing.T, src []byte) {

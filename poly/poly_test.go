@@ -81,7 +81,7 @@ func TestParseErrors(t *testing.T) {
 		{"u / v", "1:5: division by an expression in the states"},
 		{"u / (g - g)", "1:5: division by zero"},
 		{"u^-1", "1:3: expected a non-negative integer exponent"},
-		{"u^65", "1:3: exponent 65 is above the limit 64"},
+		{"u^257", "1:3: exponent 257, above the limit exponent=256 (raise it with --limit exponent=N)"},
 		{"(u + v", "1:7: expected ), found end of line"},
 		{"u @ v", "1:3: unexpected character"},
 		{"q + 1", "1:1: unknown name \"q\""},

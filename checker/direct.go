@@ -390,8 +390,9 @@ func (c *run) minorCondition(cl Claim) bool {
 	q := poly.ConstInt(c.r, 1)
 	for _, fd := range cd.Factors {
 		f, ok := c.parse(what, fd.Poly)
-		if !ok || !c.add(what, f.IsPoly() && !f.Num.IsConst() && f.Num.DegreeIn(c.r.StateMask()) == 0 && fd.Power >= 1 && fd.Power <= poly.MaxDegree &&
-			f.Num.Degree()*fd.Power <= poly.MaxDegree, "factor %s is a non-constant polynomial in the parameters with a power in [1, %d]", fd.Poly, poly.MaxDegree) {
+		maxDeg := poly.DefaultLimits().Degree
+		if !ok || !c.add(what, f.IsPoly() && !f.Num.IsConst() && f.Num.DegreeIn(c.r.StateMask()) == 0 && fd.Power >= 1 && fd.Power <= maxDeg &&
+			f.Num.Degree()*fd.Power <= maxDeg, "factor %s is a non-constant polynomial in the parameters of degree at most %d with a positive power", fd.Poly, maxDeg) {
 			return false
 		}
 		pw := new(poly.Poly).Pow(f.Num, fd.Power)

@@ -17,6 +17,8 @@
 #   LYACERT_GRID     the grid, as lyacert sweep arguments (default below)
 #   LYACERT_SHARDS   the number of shards N (default: the size of the array)
 #   LYACERT_TIMEOUT  stop cleanly after this long; keep it below --time
+#                    (0: no limit)
+#   LYACERT_JOBS     workers outside Slurm (in Slurm: --cpus-per-task)
 #SBATCH --job-name=lyacert-sweep
 #SBATCH --cpus-per-task=8
 #SBATCH --time=04:00:00
@@ -26,13 +28,16 @@ set -euo pipefail
 lyacert=${LYACERT:-lyacert}
 model=${LYACERT_MODEL:-model.lya}
 read -r -a grid <<<"${LYACERT_GRID:---grid a=0:10:2001 --grid b=0:5:1001}"
+# The shard: the array task (Slurm) or the completion index (Kubernetes
+# Indexed Job, examples/kubernetes/sweep-job.yaml).
 shards=${LYACERT_SHARDS:-${SLURM_ARRAY_TASK_COUNT:?submit as an array job (sbatch --array=0-N) or set LYACERT_SHARDS}}
-shard=${SLURM_ARRAY_TASK_ID:?submit as an array job: sbatch --array=0-$((shards - 1))}
+shard=${SLURM_ARRAY_TASK_ID:-${JOB_COMPLETION_INDEX:?submit as an array job: sbatch --array=0-$((shards - 1))}}
+jobs=${SLURM_CPUS_PER_TASK:-${LYACERT_JOBS:-1}}
 out=out-$shard.jsonl
 
 status=0
 "$lyacert" sweep "$model" "${grid[@]}" --shard "$shard/$shards" \
-	--jobs "${SLURM_CPUS_PER_TASK:-1}" --timeout "${LYACERT_TIMEOUT:-3h50m}" \
+	--jobs "$jobs" --timeout "${LYACERT_TIMEOUT:-3h50m}" \
 	--resume -o "$out" || status=$?
 
 # lyacert exits 1 both when a finished sweep found points that are not

@@ -5,6 +5,7 @@ import (
 	"crypto/ed25519"
 	"errors"
 	"flag"
+	"lyacert/certify/direct"
 	"lyacert/checker"
 	"os"
 	"path/filepath"
@@ -14,7 +15,6 @@ import (
 	"testing"
 
 	"lyacert/certificates"
-	"lyacert/certify"
 	"lyacert/model"
 	"lyacert/report"
 )
@@ -51,7 +51,7 @@ func generate(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		res, err := certify.Check(m, source)
+		res, err := direct.Check(m, source)
 		if err != nil {
 			t.Fatal(err)
 		}

@@ -5,6 +5,8 @@ import (
 	"fmt"
 	"io"
 	"lyacert/certificates"
+	"lyacert/certify/equilibria"
+	"lyacert/sweep"
 	"math"
 	"math/big"
 	"path/filepath"
@@ -103,7 +105,7 @@ func (c *findCmd) run(e *env) int {
 		fmt.Fprintln(e.stderr, "lyacert:", err)
 		return exitInput
 	}
-	res, err := certify.Find(m, certify.FindOptions{Q: q, All: c.All, Source: name})
+	res, err := equilibria.Find(m, equilibria.FindOptions{Q: q, All: c.All, Source: name})
 	if err != nil {
 		if errors.Is(err, certify.ErrUnverified) {
 			fmt.Fprintln(e.stderr, "lyacert:", err)
@@ -146,7 +148,7 @@ func (c *findCmd) run(e *env) int {
 
 // findVerdict is the target's verdict, or with --all: holds when every
 // equilibrium holds, fails when one is proven unstable, else undecided.
-func findVerdict(res *certify.FindResult) (string, string) {
+func findVerdict(res *equilibria.FindResult) (string, string) {
 	if res.Target >= 0 && res.Certs[res.Target] != nil && countCerts(res) == 1 {
 		ct := res.Certs[res.Target]
 		return ct.Verdict, ct.Claim
@@ -176,7 +178,7 @@ func findVerdict(res *certify.FindResult) (string, string) {
 	return checker.VerdictUndecided, checker.KindNone
 }
 
-func countCerts(res *certify.FindResult) int {
+func countCerts(res *equilibria.FindResult) int {
 	k := 0
 	for _, ct := range res.Certs {
 		if ct != nil {
@@ -187,14 +189,14 @@ func countCerts(res *certify.FindResult) int {
 }
 
 // equilibriumText returns "x = 0, y = 1/2" (exact) or decimals.
-func equilibriumText(m *model.Model, e *certify.Equilibrium) string {
+func equilibriumText(m *model.Model, e *equilibria.Equilibrium) string {
 	parts := make([]string, len(m.States))
 	for i, s := range m.States {
 		switch e.Status {
-		case certify.EquilibriumExact:
+		case equilibria.EquilibriumExact:
 			parts[i] = s + " = " + e.Point[i].RatString()
-		case certify.EquilibriumEnclosed:
-			parts[i] = s + " ≈ " + certify.RatDecimal(e.Box[i].Mid(), 9)
+		case equilibria.EquilibriumEnclosed:
+			parts[i] = s + " ≈ " + sweep.RatDecimal(e.Box[i].Mid(), 9)
 		default:
 			parts[i] = s + " ≈ " + strconv.FormatFloat(e.Approx[i], 'g', 9, 64) + " (?)"
 		}
@@ -256,7 +258,7 @@ func ratRows(a [][]*big.Rat) string {
 	return "[" + strings.Join(rows, ", ") + "]"
 }
 
-func renderFind(w io.Writer, res *certify.FindResult, q []*big.Rat, written []string, verdict string) {
+func renderFind(w io.Writer, res *equilibria.FindResult, q []*big.Rat, written []string, verdict string) {
 	m := res.Model
 	for _, d := range m.Description {
 		if d != "" {
@@ -307,7 +309,7 @@ func renderFind(w io.Writer, res *certify.FindResult, q []*big.Rat, written []st
 		}
 		e := &eqs[i]
 		fmt.Fprintf(w, "\nEquilibrium %d: %s\n", i+1, equilibriumText(m, e))
-		if e.Status == certify.EquilibriumEnclosed {
+		if e.Status == equilibria.EquilibriumEnclosed {
 			var ivs []string
 			for j, iv := range e.Box {
 				lo, _ := iv.Lo.Value.Float64()
@@ -338,7 +340,7 @@ func renderFind(w io.Writer, res *certify.FindResult, q []*big.Rat, written []st
 		if m.Discrete {
 			name = "P − AᵀPA"
 		}
-		if e.Status == certify.EquilibriumEnclosed {
+		if e.Status == equilibria.EquilibriumEnclosed {
 			name += " over the whole box"
 		}
 		pd := "P ≻ 0"
@@ -349,7 +351,7 @@ func renderFind(w io.Writer, res *certify.FindResult, q []*big.Rat, written []st
 		if ct.V != nil && ct.Verdict == checker.VerdictHolds {
 			fmt.Fprintf(w, "  V = %s\n", ct.V)
 		}
-		if ct.Method == certify.MethodFull {
+		if ct.Method == equilibria.MethodFull {
 			fmt.Fprintf(w, "  full check of V along the model (Lyapunov's direct method): claim %s\n", ct.Claim)
 		}
 		switch ct.Verdict {
@@ -373,9 +375,9 @@ func renderFind(w io.Writer, res *certify.FindResult, q []*big.Rat, written []st
 
 func statusText(s string) string {
 	switch s {
-	case certify.EquilibriumExact:
+	case equilibria.EquilibriumExact:
 		return "exact (rational)"
-	case certify.EquilibriumEnclosed:
+	case equilibria.EquilibriumEnclosed:
 		return "enclosed (irrational; Krawczyk box)"
 	}
 	return "approximate (Newton; not proven)"
@@ -397,15 +399,15 @@ type findOutput struct {
 }
 
 type equilibriumOutput struct {
-	Index         int                     `json:"index"`
-	Point         certify.OrderedStrings  `json:"point"` // decimals
-	Exact         *certify.OrderedStrings `json:"exact,omitempty"`
-	Box           [][2]string             `json:"box,omitempty"`
-	Status        string                  `json:"status"`
-	Class         string                  `json:"class"`
-	Eigenvalues   []string                `json:"eigenvalues"`
-	MaxRealEig    float64                 `json:"max_real_eig"`
-	Certification *certOutput             `json:"certification,omitempty"`
+	Index         int                   `json:"index"`
+	Point         sweep.OrderedStrings  `json:"point"` // decimals
+	Exact         *sweep.OrderedStrings `json:"exact,omitempty"`
+	Box           [][2]string           `json:"box,omitempty"`
+	Status        string                `json:"status"`
+	Class         string                `json:"class"`
+	Eigenvalues   []string              `json:"eigenvalues"`
+	MaxRealEig    float64               `json:"max_real_eig"`
+	Certification *certOutput           `json:"certification,omitempty"`
 }
 
 type certOutput struct {
@@ -420,7 +422,7 @@ type certOutput struct {
 	Certificate string     `json:"certificate,omitempty"`
 }
 
-func findJSON(res *certify.FindResult, q []*big.Rat, written []string, verdict, claim string) findOutput {
+func findJSON(res *equilibria.FindResult, q []*big.Rat, written []string, verdict, claim string) findOutput {
 	m := res.Model
 	out := findOutput{Time: "continuous", Params: map[string]string{}, Complete: res.Search.Complete,
 		NonIsolated: res.Search.NonIsolated, Equilibria: []equilibriumOutput{}, Verdict: verdict, Claim: claim}
@@ -433,20 +435,20 @@ func findJSON(res *certify.FindResult, q []*big.Rat, written []string, verdict, 
 	for i := range res.Search.Equilibria {
 		e := &res.Search.Equilibria[i]
 		eo := equilibriumOutput{Index: i + 1, Status: e.Status, Class: e.Class, Eigenvalues: eigenText(e.Eigenvalues),
-			MaxRealEig: roundSig(certify.MaxRealPart(e.Eigenvalues))}
+			MaxRealEig: roundSig(equilibria.MaxRealPart(e.Eigenvalues))}
 		eo.Point.Keys = m.States
 		for j := range m.States {
 			switch e.Status {
-			case certify.EquilibriumExact:
-				eo.Point.Values = append(eo.Point.Values, certify.RatDecimal(e.Point[j], certify.EquilibriumDigits))
-			case certify.EquilibriumEnclosed:
-				eo.Point.Values = append(eo.Point.Values, certify.RatDecimal(e.Box[j].Mid(), 9))
+			case equilibria.EquilibriumExact:
+				eo.Point.Values = append(eo.Point.Values, sweep.RatDecimal(e.Point[j], sweep.EquilibriumDigits))
+			case equilibria.EquilibriumEnclosed:
+				eo.Point.Values = append(eo.Point.Values, sweep.RatDecimal(e.Box[j].Mid(), 9))
 			default:
 				eo.Point.Values = append(eo.Point.Values, strconv.FormatFloat(e.Approx[j], 'g', 9, 64))
 			}
 		}
-		if e.Status == certify.EquilibriumExact {
-			ex := &certify.OrderedStrings{Keys: m.States}
+		if e.Status == equilibria.EquilibriumExact {
+			ex := &sweep.OrderedStrings{Keys: m.States}
 			for _, v := range e.Point {
 				ex.Values = append(ex.Values, v.RatString())
 			}

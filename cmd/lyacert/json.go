@@ -2,7 +2,7 @@ package main
 
 import (
 	"lyacert/certificates"
-	"lyacert/certify"
+	"lyacert/certify/direct"
 	"lyacert/checker"
 )
 
@@ -67,7 +67,7 @@ func regionJSON(rg *certificates.RegionView) *regionOutput {
 	return out
 }
 
-func checkJSON(res *certify.Result, written string) checkOutput {
+func checkJSON(res *direct.Result, written string) checkOutput {
 	doc := res.Doc
 	c := certificates.ContentsOf(doc)
 	out := checkOutput{

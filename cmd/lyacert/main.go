@@ -8,6 +8,7 @@ import (
 	"fmt"
 	"io"
 	"lyacert/certificates"
+	"lyacert/certify/direct"
 	"os"
 	"slices"
 	"strings"
@@ -254,7 +255,7 @@ func checkModel(name string, src []byte, settings []model.Setting, out string, a
 			fmt.Fprintln(e.stderr, "lyacert:", err)
 			return exitFails
 		}
-		if errors.Is(err, certify.ErrPaveOptions) {
+		if errors.Is(err, direct.ErrPaveOptions) {
 			fmt.Fprintln(e.stderr, "lyacert:", err)
 			return exitInput
 		}

@@ -6,6 +6,7 @@ import (
 	"fmt"
 	"image/color"
 	"io"
+	"lyacert/certify/direct"
 	"lyacert/checker"
 	"math/big"
 	"os"
@@ -19,7 +20,6 @@ import (
 	"gonum.org/v1/plot/vg/draw"
 
 	"lyacert/certificates"
-	"lyacert/certify"
 	"lyacert/model"
 	"lyacert/poly"
 )
@@ -39,8 +39,8 @@ func (pf *paveFlags) requested() bool {
 }
 
 // options reads the flags into certify's paving options.
-func (pf *paveFlags) options(e *env) (certify.PaveOptions, error) {
-	var o certify.PaveOptions
+func (pf *paveFlags) options(e *env) (direct.PaveOptions, error) {
+	var o direct.PaveOptions
 	if pf == nil {
 		return o, nil
 	}
@@ -109,21 +109,21 @@ func (b *bar) Paved(share float64) {
 }
 
 // check runs the engine with the paving flags (defaults when pf is nil).
-func (pf *paveFlags) check(m *model.Model, name string, e *env) (*certify.Result, error) {
+func (pf *paveFlags) check(m *model.Model, name string, e *env) (*direct.Result, error) {
 	o, err := pf.options(e)
 	if err != nil {
-		return nil, fmt.Errorf("%w: %w", certify.ErrPaveOptions, err)
+		return nil, fmt.Errorf("%w: %w", direct.ErrPaveOptions, err)
 	}
 	// An interrupt stops a long paving cleanly (nothing is written).
 	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt)
 	defer stop()
-	return certify.CheckPaving(ctx, m, name, o)
+	return direct.CheckPaving(ctx, m, name, o)
 }
 
 // finish writes the plot and reports on standard error a paving that was
 // asked for and could not be made; it returns an exit code: 0 when nothing
 // went wrong, exitInput when the plot cannot be made.
-func (pf *paveFlags) finish(res *certify.Result, e *env) int {
+func (pf *paveFlags) finish(res *direct.Result, e *env) int {
 	if pf == nil {
 		return 0
 	}
@@ -151,7 +151,7 @@ func (pf *paveFlags) finish(res *certify.Result, e *env) int {
 
 // renderPaving writes the paving for people: box, resolution, the three
 // classes with their exact shares, and the product form when there is one.
-func renderPaving(w io.Writer, res *certify.Result) {
+func renderPaving(w io.Writer, res *direct.Result) {
 	pv := res.Region.Paving
 	sum, _ := certificates.Summarize(pv) // verified: well formed
 	fmt.Fprintf(w, "Region of (%s) by set inversion (every inside box re-checked exactly)\n", strings.Join(pv.Params, ", "))
@@ -220,7 +220,7 @@ func productText(fs []checker.SturmRegion) string {
 }
 
 // pavingWhere says where a paved region holds, for the verdict line.
-func pavingWhere(res *certify.Result) string {
+func pavingWhere(res *direct.Result) string {
 	pv := res.Region.Paving
 	if len(pv.Product) > 0 {
 		return "for " + productText(pv.Product)

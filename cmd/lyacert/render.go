@@ -7,7 +7,7 @@ import (
 	"sort"
 	"strings"
 
-	"lyacert/certify"
+	"lyacert/certify/direct"
 	"lyacert/checker"
 	"lyacert/model"
 	"lyacert/poly"
@@ -26,7 +26,7 @@ func dotName(m *model.Model) string {
 	return "V̇"
 }
 
-func renderCheck(w io.Writer, res *certify.Result, written string) {
+func renderCheck(w io.Writer, res *direct.Result, written string) {
 	m := res.Model
 	dv := dotName(m)
 	for _, d := range m.Description {
@@ -142,7 +142,7 @@ func renderCheck(w io.Writer, res *certify.Result, written string) {
 }
 
 // squares writes Σ dₖ·(xₖ + Σᵢ>ₖ Lᵢₖ xᵢ)² as a person would.
-func squares(f certify.Form) string {
+func squares(f direct.Form) string {
 	var parts []string
 	for k, d := range f.LDL.D {
 		if f.LDL.Zero[k] {
@@ -170,7 +170,7 @@ func squares(f certify.Form) string {
 	return strings.Join(parts, " + ")
 }
 
-func renderConditions(w io.Writer, res *certify.Result) {
+func renderConditions(w io.Writer, res *direct.Result) {
 	dv := dotName(res.Model)
 	fmt.Fprintln(w, "Conditions")
 	any := false
@@ -208,7 +208,7 @@ func renderConditions(w io.Writer, res *certify.Result) {
 	fmt.Fprintln(w)
 }
 
-func factorText(f certify.FactorStatus) string {
+func factorText(f direct.FactorStatus) string {
 	s := f.P.String()
 	if f.Power > 1 {
 		if f.P.NumTerms() > 1 {
@@ -257,7 +257,7 @@ func intervalText(iv checker.Interval) string {
 	return lb + iv.Lo + ", " + iv.Hi + rb
 }
 
-func renderVerdict(w io.Writer, res *certify.Result) {
+func renderVerdict(w io.Writer, res *direct.Result) {
 	claim := map[string]string{
 		checker.KindGlobal: "the equilibrium is globally asymptotically stable",
 		checker.KindLocal:  "the equilibrium is locally asymptotically stable",
@@ -367,7 +367,7 @@ func paramsText(p map[string]string) string {
 	return strings.Join(parts, ", ")
 }
 
-func renderRefutation(w io.Writer, res *certify.Result) {
+func renderRefutation(w io.Writer, res *direct.Result) {
 	rf := res.Refutation
 	m := res.Model
 	pt := make([]string, len(m.States))

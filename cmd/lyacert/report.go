@@ -10,6 +10,7 @@ import (
 
 	"lyacert/certificates"
 	"lyacert/certify"
+	"lyacert/certify/direct"
 	"lyacert/checker"
 	"lyacert/examples"
 	"lyacert/model"
@@ -102,7 +103,7 @@ func writeDemoReports(dir string, e *env) error {
 	if err != nil {
 		return err
 	}
-	res, err := certify.Check(m, examples.CoolantName)
+	res, err := direct.Check(m, examples.CoolantName)
 	if err != nil {
 		return err
 	}

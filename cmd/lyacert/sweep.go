@@ -18,9 +18,9 @@ import (
 	"github.com/schollz/progressbar/v3"
 
 	"lyacert/certificates"
-	"lyacert/certify"
 	"lyacert/checker"
 	"lyacert/model"
+	"lyacert/sweep"
 )
 
 type sweepCmd struct {
@@ -55,7 +55,7 @@ func (c *sweepCmd) Run(e *env) error {
 	return exit(c.run(e))
 }
 
-// barProgress adapts a progress bar to certify.Progress.
+// barProgress adapts a progress bar to sweep.Progress.
 type barProgress struct{ bar *progressbar.ProgressBar }
 
 func (b barProgress) Add(n int) { b.bar.Add(n) }
@@ -82,19 +82,19 @@ func (c *sweepCmd) run(e *env) int {
 	if err != nil {
 		return fail("%v", err)
 	}
-	var grid certify.Grid
+	var grid sweep.Grid
 	for _, g := range c.Grid {
-		a, err := certify.ParseGridAxis(g)
+		a, err := sweep.ParseGridAxis(g)
 		if err != nil {
 			return fail("%v", err)
 		}
 		grid = append(grid, a)
 	}
-	shard, err := certify.ParseShard(c.Shard)
+	shard, err := sweep.ParseShard(c.Shard)
 	if err != nil {
 		return fail("%v", err)
 	}
-	if err := certify.CheckSweep(name, src, settings, grid); err != nil {
+	if err := sweep.CheckSweep(name, src, settings, grid); err != nil {
 		printInputError(e.stderr, err)
 		return exitInput
 	}
@@ -156,7 +156,7 @@ func (c *sweepCmd) run(e *env) int {
 	if c.MaxPoints > 0 {
 		todo = min(todo, c.MaxPoints)
 	}
-	var progress certify.Progress
+	var progress sweep.Progress
 	if isTerminal(e.stderr) && todo > 0 {
 		bar := progressbar.NewOptions(todo, progressbar.OptionSetWriter(e.stderr), progressbar.OptionSetDescription("sweep"),
 			progressbar.OptionShowCount(), progressbar.OptionShowIts(), progressbar.OptionSetItsString("points"),
@@ -181,10 +181,10 @@ func (c *sweepCmd) run(e *env) int {
 		return nil
 	}
 	start := time.Now()
-	sum, err := certify.Sweep(ctx, certify.SweepOptions{
+	sum, err := sweep.Sweep(ctx, sweep.SweepOptions{
 		File: name, Src: src, Settings: settings, Grid: grid, Shard: shard, Q: q, Full: c.Full,
 		Jobs: c.Jobs, Skip: func(k int) bool { return done[k] }, MaxPoints: c.MaxPoints, Progress: progress,
-	}, func(sp certify.SweepPoint) error {
+	}, func(sp sweep.SweepPoint) error {
 		// One grid point's lines are written together and complete.
 		for i := range sp.Lines {
 			if _, err := w.Write(sp.Lines[i].Marshal()); err != nil {
@@ -267,7 +267,7 @@ func (c *sweepCmd) run(e *env) int {
 	return exitHolds
 }
 
-func blockOf(sp certify.SweepPoint) sweepBlock {
+func blockOf(sp sweep.SweepPoint) sweepBlock {
 	b := sweepBlock{index: sp.Index}
 	for _, l := range sp.Lines {
 		b.records = append(b.records, sweepRecord{line: l})
@@ -275,7 +275,7 @@ func blockOf(sp certify.SweepPoint) sweepBlock {
 	return b
 }
 
-func axisNames(g certify.Grid) []string {
+func axisNames(g sweep.Grid) []string {
 	var out []string
 	for _, a := range g {
 		out = append(out, a.Name)
@@ -288,7 +288,7 @@ func axisNames(g certify.Grid) []string {
 // resume the lines already there, or in a complete OUT, are read back and
 // checked against this sweep (same grid, same shard, in order); an
 // interrupted last line or grid point is cut off, nothing else is touched.
-func openSweepOutput(out, partial string, resume bool, grid certify.Grid, shard certify.Shard, size int) ([]sweepBlock, *os.File, error) {
+func openSweepOutput(out, partial string, resume bool, grid sweep.Grid, shard sweep.Shard, size int) ([]sweepBlock, *os.File, error) {
 	if !resume {
 		f, err := os.OpenFile(partial, os.O_WRONLY|os.O_CREATE|os.O_EXCL, 0o644)
 		if errors.Is(err, os.ErrExist) {

@@ -8,15 +8,15 @@ import (
 	"strconv"
 	"strings"
 
-	"lyacert/certify"
 	"lyacert/checker"
+	"lyacert/sweep"
 )
 
 // sweepRecord is one line of a sweep's output as read back: its bytes,
 // verbatim, and the fields that resume, merge and the plot need.
 type sweepRecord struct {
 	raw     []byte // with the final newline
-	line    certify.SweepLine
+	line    sweep.SweepLine
 	lineNum int
 }
 
@@ -42,7 +42,7 @@ func parseSweepLines(name string, data []byte) ([]sweepBlock, int, error) {
 			break // a partial last line: an interrupted write
 		}
 		raw := data[off : off+end+1]
-		var l certify.SweepLine
+		var l sweep.SweepLine
 		if err := json.Unmarshal(raw, &l); err != nil {
 			return nil, 0, fmt.Errorf("%s:%d: not a sweep line: %v", name, n, err)
 		}
@@ -103,7 +103,7 @@ var categoryNames = [...]string{
 
 func (c pointCategory) String() string { return categoryNames[c] }
 
-func categoryOf(lines []certify.SweepLine) pointCategory {
+func categoryOf(lines []sweep.SweepLine) pointCategory {
 	holds, fails, other := 0, 0, 0
 	for _, l := range lines {
 		switch {
@@ -139,7 +139,7 @@ type gridPoint struct {
 }
 
 func gridPointOf(b sweepBlock) gridPoint {
-	var lines []certify.SweepLine
+	var lines []sweep.SweepLine
 	for _, r := range b.records {
 		lines = append(lines, r.line)
 	}

@@ -1,4 +1,4 @@
-package certify
+package direct
 
 import (
 	"math/big"

@@ -1,4 +1,4 @@
-package certify
+package direct
 
 import (
 	"errors"
@@ -6,15 +6,16 @@ import (
 	"path/filepath"
 	"testing"
 
+	"lyacert/certify"
 	"lyacert/examples"
 	"lyacert/model"
 )
 
 // FuzzCheck runs the whole engine on arbitrary models that parse: it may
 // refuse them, but must not panic, and whatever it returns has passed the
-// exact checker (Check returns ErrUnverified otherwise, which fails here).
+// exact checker (Check returns certify.ErrUnverified otherwise, which fails here).
 func FuzzCheck(f *testing.F) {
-	files, _ := filepath.Glob(filepath.Join("..", "testdata", "models", "*.lya"))
+	files, _ := filepath.Glob(filepath.Join("..", "..", "testdata", "models", "*.lya"))
 	for _, p := range files {
 		if b, err := os.ReadFile(p); err == nil {
 			f.Add(b)
@@ -34,7 +35,7 @@ func FuzzCheck(f *testing.F) {
 		if m.V.Num.Degree() > 6 || m.V.Num.NumTerms() > 40 {
 			return
 		}
-		if _, err := Check(m, "fuzz.lya"); errors.Is(err, ErrUnverified) {
+		if _, err := Check(m, "fuzz.lya"); errors.Is(err, certify.ErrUnverified) {
 			t.Fatalf("the engine built a certificate the checker rejects: %v\n%s", err, src)
 		}
 	})

@@ -1,4 +1,4 @@
-package certify
+package sweep
 
 import (
 	"context"

@@ -1,16 +1,15 @@
-package certify
+package direct
 
 import (
 	"context"
-	"errors"
 	"fmt"
 	"lyacert/certificates"
+	"lyacert/certify"
 	"lyacert/checker"
 	"maps"
 	"math/big"
 	"slices"
 	"strings"
-	"time"
 
 	"lyacert/certify/pave"
 	"lyacert/model"
@@ -18,7 +17,6 @@ import (
 )
 
 // Version is the tool version written into checker.
-const Version = "0.1.0"
 
 // Form is one quadratic form of the argument with its factorization.
 type Form struct {
@@ -680,66 +678,14 @@ func finish(res *Result, source string) (*Result, error) {
 	}
 	res.Doc = doc
 	res.Check = checker.Verify(doc)
-	if err := Agrees(res.Check, res.Verdict, res.Claim); err != nil {
+	if err := certify.Agrees(res.Check, res.Verdict, res.Claim); err != nil {
 		return nil, err
 	}
 	return res, nil
 }
 
-// Agrees returns ErrUnverified, with the failed checks, unless the kernel
-// accepted the certificate and derived the verdict and kind the engine found.
-func Agrees(out checker.Outcome, verdict, kind string) error {
-	if !out.Valid {
-		var failed []string
-		for _, c := range out.Records {
-			if !c.OK {
-				failed = append(failed, c.Name+": "+c.Reason)
-			}
-		}
-		return fmt.Errorf("%w: %s", ErrUnverified, strings.Join(failed, "; "))
-	}
-	if out.Verdict != verdict || out.Kind != kind {
-		return fmt.Errorf("%w: the checker derives %s (%s), the engine found %s (%s)", ErrUnverified, out.Verdict, out.Kind, verdict, kind)
-	}
-	return nil
-}
-
-// ErrUnverified reports a certificate that the exact checker rejected: a bug
-// in the engine, never a claim.
-var ErrUnverified = errors.New("internal error: the exact checker rejected the certificate the engine built")
-
-// NewDocument starts a certificate of m with its restatement and no claims.
-func NewDocument(m *model.Model, source string, equilibrium []string) *checker.Document {
-	var eqs []string
-	for i := range m.States {
-		eqs = append(eqs, m.F[i].String())
-	}
-	if equilibrium == nil {
-		for i := range m.States {
-			equilibrium = append(equilibrium, m.At[i].String())
-		}
-	}
-	return &checker.Document{
-		Format:      checker.Format,
-		Tool:        "lyacert " + Version,
-		Issued:      time.Now().UTC().Format(time.RFC3339),
-		Source:      source,
-		Description: nonNil(m.Description),
-		Model:       m.Canonical(),
-		System:      systemDoc(m, eqs, equilibrium),
-		Claims:      []checker.Claim{},
-	}
-}
-
-func nonNil(s []string) []string {
-	if s == nil {
-		return []string{}
-	}
-	return s
-}
-
 func (res *Result) document(source string) *checker.Document {
-	d := NewDocument(res.Model, source, nil)
+	d := certify.NewDocument(res.Model, source, nil, nil)
 	add := func(c checker.Claim) { d.Claims = append(d.Claims, c) }
 	add(&checker.OrbitalDerivative{V: res.V.String(), Vdot: res.Vdot.String()})
 	for _, f := range res.Forms {
@@ -854,14 +800,3 @@ func minimalRefutation(m *model.Model, res *Result, vals map[string]string, x []
 
 // systemDoc restates the model in a certificate: time, states, assumptions,
 // the equations' and the equilibrium's texts.
-func systemDoc(m *model.Model, equations, equilibrium []string) checker.System {
-	sys := checker.System{Time: "continuous", States: slices.Clone(m.States), Params: []checker.ParamDoc{},
-		Equations: equations, Equilibrium: equilibrium}
-	if m.Discrete {
-		sys.Time = "discrete"
-	}
-	for _, p := range m.Params {
-		sys.Params = append(sys.Params, checker.ParamDoc{Name: p.Name, Range: model.RangeText(p)})
-	}
-	return sys
-}

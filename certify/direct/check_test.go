@@ -1,4 +1,4 @@
-package certify
+package direct
 
 import (
 	"math"
@@ -336,4 +336,48 @@ func BenchmarkVerify(b *testing.B) {
 			b.Fatal("invalid")
 		}
 	}
+}
+
+func TestDiscreteTimeCheck(t *testing.T) {
+	cases := []struct {
+		name, src, verdict, claim string
+	}{
+		// hand computation (Stein equation AᵀPA − P = −I for A = [[1/2, 1],
+		// [0, 1/2]]): P = [[4/3, 8/9], [8/9, 116/27]], so ΔV = −x² − y².
+		{"stein", "state x, y\nnext x = x/2 + y\nnext y = y/2\nV = 4/3*x^2 + 16/9*x*y + 116/27*y^2\n",
+			checker.VerdictHolds, checker.KindGlobal},
+		// the same map with V = x² + y²: AᵀA − I = [[−3/4, 1/2], [1/2, 1/4]]
+		// is indefinite, so ΔV takes both signs (hand computation).
+		{"indefinite", "state x, y\nnext x = x/2 + y\nnext y = y/2\nV = x^2 + y^2\n",
+			checker.VerdictFails, checker.KindNone},
+		// hand computation: a nonlinear term of degree 2 in the map leaves
+		// the quadratic part of ΔV = −3/4·x² + ..., a local claim.
+		{"nonlinear", "state x, y\nnext x = x/2 + y^2\nnext y = y/2\nV = x^2 + y^2\n",
+			checker.VerdictHolds, checker.KindLocal},
+		// the logistic map x ↦ 5/2·x(1 − x) at its fixed point 3/5, where
+		// f' = 2 − r = −1/2 (May 1976): V = (x − 3/5)², ΔV's quadratic part −3/4·(x − 3/5)².
+		{"logistic", "state x\nnext x = 5/2*x*(1 - x)\nV = (x - 3/5)^2\nat x = 3/5\n",
+			checker.VerdictHolds, checker.KindLocal},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			m := parseModelText(t, c.src)
+			res, err := Check(m, "test.lya")
+			if err != nil {
+				t.Fatal(err)
+			}
+			if res.Verdict != c.verdict || res.Claim != c.claim {
+				t.Errorf("verdict %s claim %s (%s), want %s %s", res.Verdict, res.Claim, res.Reason, c.verdict, c.claim)
+			}
+		})
+	}
+}
+
+func parseModelText(t testing.TB, src string) *model.Model {
+	t.Helper()
+	m, err := model.Parse("test.lya", []byte(src))
+	if err != nil {
+		t.Fatal(err)
+	}
+	return m
 }

@@ -1,11 +1,15 @@
-package certify
+package equilibria
 
 import (
+	"flag"
+	"os"
 	"path/filepath"
+	"strings"
 	"testing"
 
 	"lyacert/certificates"
 	"lyacert/checker"
+	"lyacert/model"
 )
 
 // linearizationCases are the linearization certificates kept in
@@ -28,7 +32,7 @@ var linearizationCases = []struct {
 func TestTestdataLinearizationCertificates(t *testing.T) {
 	for _, c := range linearizationCases {
 		t.Run(c.name, func(t *testing.T) {
-			m := loadCase(t, c.model, c.set)
+			m := loadCase(t, c.model, c.set...)
 			s, err := FindEquilibria(m)
 			if err != nil {
 				t.Fatal(err)
@@ -44,7 +48,7 @@ func TestTestdataLinearizationCertificates(t *testing.T) {
 			if err := certificates.Seal(ct.Doc); err != nil {
 				t.Fatal(err)
 			}
-			path := filepath.Join("..", "testdata", "certificates", c.name+".json")
+			path := filepath.Join("..", "..", "testdata", "certificates", c.name+".json")
 			if *update {
 				if err := certificates.WriteFile(ct.Doc, path); err != nil {
 					t.Fatal(err)
@@ -53,7 +57,7 @@ func TestTestdataLinearizationCertificates(t *testing.T) {
 			}
 			doc, err := certificates.ReadFile(path)
 			if err != nil {
-				t.Fatalf("%v (run go test ./certify -run TestTestdataLinearizationCertificates -update)", err)
+				t.Fatalf("%v (run go test ./certify/equilibria -run TestTestdataLinearizationCertificates -update)", err)
 			}
 			if r := checker.Verify(doc); !r.Valid {
 				t.Fatalf("stored certificate no longer verifies: %v", failed(r))
@@ -63,4 +67,25 @@ func TestTestdataLinearizationCertificates(t *testing.T) {
 			}
 		})
 	}
+}
+
+var update = flag.Bool("update", false, "rewrite the linearization certificates in testdata/certificates")
+
+func loadCase(t testing.TB, file string, set ...string) *model.Model {
+	t.Helper()
+	src, err := os.ReadFile(filepath.Join("..", "..", "testdata", "models", file))
+	if err != nil {
+		t.Fatal(err)
+	}
+	return parseModel(t, string(src), set...)
+}
+
+func failed(r checker.Outcome) string {
+	var out []string
+	for _, c := range r.Records {
+		if !c.OK {
+			out = append(out, c.Name+": "+c.Reason)
+		}
+	}
+	return strings.Join(out, "; ")
 }

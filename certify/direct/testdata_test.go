@@ -1,4 +1,4 @@
-package certify
+package direct
 
 import (
 	"flag"
@@ -45,7 +45,7 @@ func loadCase(t testing.TB, file string, set []string) *model.Model {
 	if file != "" {
 		var err error
 		name = file
-		src, err = os.ReadFile(filepath.Join("..", "testdata", "models", file))
+		src, err = os.ReadFile(filepath.Join("..", "..", "testdata", "models", file))
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -76,7 +76,7 @@ func TestTestdataCertificates(t *testing.T) {
 			if err != nil {
 				t.Fatal(err)
 			}
-			path := filepath.Join("..", "testdata", "certificates", c.name+".json")
+			path := filepath.Join("..", "..", "testdata", "certificates", c.name+".json")
 			if *update {
 				res.Doc.Issued = "2026-12-01T00:00:00Z"
 				res.Doc.Tool = "lyacert"
@@ -90,7 +90,7 @@ func TestTestdataCertificates(t *testing.T) {
 			}
 			doc, err := certificates.ReadFile(path)
 			if err != nil {
-				t.Fatalf("%v (run go test ./certify -run TestTestdataCertificates -update)", err)
+				t.Fatalf("%v (run go test ./certify/direct -run TestTestdataCertificates -update)", err)
 			}
 			if r := checker.Verify(doc); !r.Valid {
 				t.Fatalf("stored certificate no longer verifies: %v", failed(r))

@@ -1,11 +1,11 @@
-package lyap_test
+package lyapunov_test
 
 import (
 	"fmt"
 
 	"gonum.org/v1/gonum/mat"
 
-	"lyacert/certify/lyap"
+	"lyacert/certify/lyapunov"
 )
 
 // The worked example of Ogata's Modern Control Engineering: for ẋ = Ax with
@@ -18,14 +18,14 @@ func ExampleContinuous() {
 		-1, -1,
 	})
 	q := mat.NewDense(2, 2, []float64{1, 0, 0, 1})
-	p, err := lyap.Continuous(a, q)
+	p, err := lyapunov.Continuous(a, q)
 	if err != nil {
 		fmt.Println(err)
 		return
 	}
 	fmt.Printf("P = %.6f\n", mat.Formatted(p, mat.Prefix("    ")))
-	fmt.Printf("residual < 1e-15: %v\n", lyap.ContinuousResidual(a, p, q) < 1e-15)
-	fmt.Printf("Hurwitz: %v (spectral abscissa %.3f)\n", lyap.IsHurwitz(a), lyap.SpectralAbscissa(a))
+	fmt.Printf("residual < 1e-15: %v\n", lyapunov.ContinuousResidual(a, p, q) < 1e-15)
+	fmt.Printf("Hurwitz: %v (spectral abscissa %.3f)\n", lyapunov.IsHurwitz(a), lyapunov.SpectralAbscissa(a))
 	// Output:
 	// P = ⎡1.500000  0.500000⎤
 	//     ⎣0.500000  1.000000⎦
@@ -37,7 +37,7 @@ func ExampleContinuous() {
 func ExampleDiscrete() {
 	a := mat.NewDense(1, 1, []float64{0.5})
 	q := mat.NewDense(1, 1, []float64{1})
-	p, err := lyap.Discrete(a, q)
+	p, err := lyapunov.Discrete(a, q)
 	if err != nil {
 		fmt.Println(err)
 		return
@@ -50,7 +50,7 @@ func ExampleDiscrete() {
 // A singular equation is an error, not a panic or a meaningless P.
 func ExampleContinuous_singular() {
 	a := mat.NewDense(2, 2, []float64{1, 0, 0, -1}) // eigenvalues 1 and −1
-	_, err := lyap.Continuous(a, mat.NewDense(2, 2, []float64{1, 0, 0, 1}))
+	_, err := lyapunov.Continuous(a, mat.NewDense(2, 2, []float64{1, 0, 0, 1}))
 	fmt.Println(err != nil)
 	// Output:
 	// true

@@ -1,26 +1,25 @@
-package certify
+package model
 
 import (
 	"fmt"
 	"math/big"
 	"slices"
 
-	"lyacert/model"
 	"lyacert/poly"
 )
 
-// fixParams returns base with the named free parameters fixed to the given
-// values, as model.Parse with the same settings would return it: the fixed
+// FixParams returns base with the named free parameters fixed to the given
+// values, as Parse with the same settings would return it: the fixed
 // parameters become Fixed with a point Range, and leave the ring, whose
 // remaining variables keep their order. It saves a sweep from parsing the
 // model text at every grid point. Every value must lie in its parameter's
 // range (CheckSweep); a denominator that vanishes at the values is an error.
-func fixParams(base *model.Model, settings []model.Setting) (*model.Model, error) {
+func FixParams(base *Model, settings []Setting) (*Model, error) {
 	m := *base
 	m.Params = slices.Clone(base.Params)
 	vals := map[int]*big.Rat{}
 	for _, s := range settings {
-		j := slices.IndexFunc(m.Params, func(p model.Param) bool { return p.Name == s.Name })
+		j := slices.IndexFunc(m.Params, func(p Param) bool { return p.Name == s.Name })
 		if j < 0 || m.Params[j].Fixed != nil {
 			return nil, fmt.Errorf("parameter %s is not a free parameter of the model", s.Name)
 		}

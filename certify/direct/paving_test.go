@@ -1,4 +1,4 @@
-package certify
+package direct
 
 import (
 	"context"
@@ -30,7 +30,7 @@ import (
 
 func pavingModel(t testing.TB, file string) *model.Model {
 	t.Helper()
-	src, err := os.ReadFile(filepath.Join("..", "testdata", "models", file))
+	src, err := os.ReadFile(filepath.Join("..", "..", "testdata", "models", file))
 	if err != nil {
 		t.Fatal(err)
 	}

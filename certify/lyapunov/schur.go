@@ -1,4 +1,4 @@
-package lyap
+package lyapunov
 
 import (
 	"errors"

@@ -105,4 +105,4 @@
 //     Automat. Control 22(5) (1977), pp. 883–885.
 //
 // See ExampleContinuous and ExampleDiscrete for runnable examples.
-package lyap
+package lyapunov

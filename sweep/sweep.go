@@ -1,4 +1,4 @@
-package certify
+package sweep
 
 import (
 	"bytes"
@@ -14,6 +14,7 @@ import (
 	"strings"
 	"sync"
 
+	"lyacert/certify/equilibria"
 	"lyacert/checker"
 	"lyacert/model"
 	"lyacert/poly"
@@ -302,7 +303,7 @@ func CheckSweep(file string, src []byte, settings []model.Setting, grid Grid) er
 // Cancelling ctx stops the sweep cleanly: points already emitted stay
 // emitted, and the summary counts the rest as remaining. Every line that
 // claims something is backed by a certificate that checker.Verify has
-// accepted (CertifyEquilibrium). An error from emit stops the sweep and is
+// accepted (equilibria.CertifyEquilibrium). An error from emit stops the sweep and is
 // returned.
 func Sweep(ctx context.Context, opts SweepOptions, emit func(SweepPoint) error) (SweepSummary, error) {
 	sum := SweepSummary{Verdicts: map[string]int{}}
@@ -406,11 +407,11 @@ func sweepPoint(opts SweepOptions, base *model.Model, index, size int) SweepPoin
 		sp.Docs = []*checker.Document{nil}
 		return sp
 	}
-	m, err := fixParams(base, settings)
+	m, err := model.FixParams(base, settings)
 	if err != nil {
 		return none("the model is undefined here: " + oneLine(err))
 	}
-	search, err := FindEquilibria(m)
+	search, err := equilibria.FindEquilibria(m)
 	if err != nil {
 		return none("no equilibria: " + oneLine(err))
 	}
@@ -420,23 +421,23 @@ func sweepPoint(opts SweepOptions, base *model.Model, index, size int) SweepPoin
 		}
 		return none("no equilibrium found")
 	}
-	co := CertifyOptions{Q: opts.Q, Full: opts.Full, Source: opts.File, texts: newDocTexts(m)}
+	co := equilibria.CertifyOptions{Q: opts.Q, Full: opts.Full, Source: opts.File}
 	eqs := len(search.Equilibria)
 	for i := range search.Equilibria {
 		e := &search.Equilibria[i]
 		line := SweepLine{Index: index, Of: size, Params: params, Eq: i + 1, Eqs: eqs,
 			Equilibrium: equilibriumDecimals(m, e), Status: e.Status, Class: e.Class}
-		if v := MaxRealPart(e.Eigenvalues); !math.IsNaN(v) {
+		if v := equilibria.MaxRealPart(e.Eigenvalues); !math.IsNaN(v) {
 			v = round6(v)
 			line.MaxRealEig = &v
 		}
 		if m.Discrete {
-			if v := SpectralRadius(e.Eigenvalues); !math.IsNaN(v) {
+			if v := equilibria.SpectralRadius(e.Eigenvalues); !math.IsNaN(v) {
 				v = round6(v)
 				line.SpectralRadius = &v
 			}
 		}
-		c, err := CertifyEquilibrium(m, e, co)
+		c, err := equilibria.CertifyEquilibrium(m, e, co)
 		var doc *checker.Document
 		switch {
 		case err != nil:
@@ -483,14 +484,14 @@ const (
 // equilibriumDecimals returns the coordinates as decimals: correctly
 // rounded for an exact point and for the centre of a box (whose half-width
 // is below the last digit shown), Newton's floats otherwise.
-func equilibriumDecimals(m *model.Model, e *Equilibrium) *OrderedStrings {
+func equilibriumDecimals(m *model.Model, e *equilibria.Equilibrium) *OrderedStrings {
 	o := &OrderedStrings{Keys: slices.Clone(m.States)}
 	for i := range m.States {
 		var s string
 		switch e.Status {
-		case EquilibriumExact:
+		case equilibria.EquilibriumExact:
 			s = RatDecimal(e.Point[i], EquilibriumDigits)
-		case EquilibriumEnclosed:
+		case equilibria.EquilibriumEnclosed:
 			s = RatDecimal(e.Box[i].Mid(), enclosedDigits)
 		default:
 			s = strconv.FormatFloat(e.Approx[i], 'g', enclosedDigits, 64)

@@ -1,9 +1,10 @@
-package certify
+package equilibria
 
 import (
 	"errors"
 	"fmt"
 	"lyacert/certificates"
+	"lyacert/certify"
 	"lyacert/checker"
 	"math"
 	"math/big"
@@ -13,7 +14,8 @@ import (
 
 	"gonum.org/v1/gonum/mat"
 
-	"lyacert/certify/lyap"
+	"lyacert/certify/direct"
+	"lyacert/certify/lyapunov"
 	"lyacert/model"
 	"lyacert/poly"
 )
@@ -84,7 +86,7 @@ type Certification struct {
 	// equilibrium's box, or its value at an exact equilibrium.
 	Decay [][]poly.Interval
 	// Check is the full check's result (MethodFull only).
-	Check *Result
+	Check *direct.Result
 	// Doc has passed checker.Verify; Verified is that result. Nil when
 	// nothing was certified (verdict undecided).
 	Doc      *checker.Document
@@ -112,7 +114,7 @@ var rationalizeTolerances = []float64{1e-3, 1e-6, 1e-9, 1e-12, 0}
 // Lyapunov equation is singular (eigenvalues on the imaginary axis or the
 // unit circle, where the linearization decides nothing) or when no rounding
 // passes; the verdict is then undecided with the reason. An error is
-// returned only for a certificate the checker rejects (ErrUnverified, a bug).
+// returned only for a certificate the checker rejects (certify.ErrUnverified, a bug).
 func CertifyEquilibrium(m *model.Model, e *Equilibrium, opts CertifyOptions) (*Certification, error) {
 	n := len(m.States)
 	undecided := func(format string, args ...any) (*Certification, error) {
@@ -139,7 +141,7 @@ func CertifyEquilibrium(m *model.Model, e *Equilibrium, opts CertifyOptions) (*C
 		if m.Discrete {
 			where = "on or too near the unit circle (λi·λj ≈ 1)"
 		}
-		if !errors.Is(err, lyap.ErrSingular) {
+		if !errors.Is(err, lyapunov.ErrSingular) {
 			where = "that the solver could not handle (" + err.Error() + ")"
 		}
 		return undecided("not certified: the linearization has eigenvalues %s, so it decides neither stability nor instability", where)
@@ -211,7 +213,7 @@ func CertifyEquilibrium(m *model.Model, e *Equilibrium, opts CertifyOptions) (*C
 		}
 		c.Doc = doc
 		c.Verified = checker.Verify(doc)
-		if err := Agrees(c.Verified, c.Verdict, c.Claim); err != nil {
+		if err := certify.Agrees(c.Verified, c.Verdict, c.Claim); err != nil {
 			return nil, err
 		}
 		return c, nil
@@ -228,12 +230,12 @@ func CertifyEquilibrium(m *model.Model, e *Equilibrium, opts CertifyOptions) (*C
 func solveLyapunov(a, q *mat.Dense, discrete bool) (*mat.SymDense, error) {
 	solve := func(a *mat.Dense) (*mat.SymDense, error) {
 		if discrete {
-			return lyap.Discrete(a, q)
+			return lyapunov.Discrete(a, q)
 		}
-		return lyap.Continuous(a, q)
+		return lyapunov.Continuous(a, q)
 	}
 	p, err := solve(a)
-	if err == nil || !errors.Is(err, lyap.ErrSingular) {
+	if err == nil || !errors.Is(err, lyapunov.ErrSingular) {
 		return p, err
 	}
 	n, _ := a.Dims()
@@ -283,7 +285,7 @@ func (c *Certification) full(m *model.Model, e *Equilibrium, opts CertifyOptions
 		mc.At[i] = poly.RatConst(m.Ring, v)
 	}
 	mc.AtGiven = true
-	res, err := Check(&mc, opts.Source)
+	res, err := direct.Check(&mc, opts.Source)
 	if err != nil {
 		return err
 	}
@@ -296,7 +298,7 @@ func (c *Certification) full(m *model.Model, e *Equilibrium, opts CertifyOptions
 			return err
 		}
 		res.Check = checker.Verify(res.Doc)
-		if err := Agrees(res.Check, res.Verdict, res.Claim); err != nil {
+		if err := certify.Agrees(res.Check, res.Verdict, res.Claim); err != nil {
 			return err
 		}
 	}
@@ -374,16 +376,8 @@ func linearizationDoc(m *model.Model, e *Equilibrium, p [][]*big.Rat, decay [][]
 			lz.Decay[i] = append(lz.Decay[i], checker.IntervalText(decay[i][j]))
 		}
 	}
-	d := &checker.Document{
-		Format:      checker.Format,
-		Tool:        "lyacert " + Version,
-		Issued:      opts.Issued,
-		Source:      opts.Source,
-		Description: nonNil(m.Description),
-		Model:       text,
-		System:      systemDoc(m, slices.Clone(texts.equations), eqText),
-		Claims:      []checker.Claim{},
-	}
+	d := certify.NewDocument(m, opts.Source, slices.Clone(texts.equations), eqText)
+	d.Issued, d.Model = opts.Issued, text
 	if kz != nil {
 		d.Claims = append(d.Claims, kz)
 	}

@@ -1,0 +1,102 @@
+// Package certify is lyacert's engine: it finds and proves, and hands every
+// claim to the kernel (package checker) as a certificate, which the kernel
+// re-checks with exact arithmetic before any claim is shown. Floating point
+// may propose here; only the kernel decides.
+//
+// The engine is split by method, one sub-package each:
+//
+//	direct       Lyapunov's direct method for a given V: V̇, Gram matrices,
+//	             symbolic LDLᵀ, conditions, exact regions, pavings, refutations
+//	equilibria   equilibria (exact, or Newton plus Krawczyk), linearization
+//	             certificates (Lyapunov's indirect method), find
+//	sos          sums of squares: Gram matrices in monomial bases, exact
+//	             rational certificates from an SDP solution
+//	sdp          a primal–dual interior-point SDP solver (float, proposes)
+//	lyapunov     float Lyapunov and Stein equations (Bartels–Stewart)
+//	interval     float intervals with outward rounding (fast paving passes)
+//	pave         set inversion over parameter boxes
+//
+// A new method gets a sub-package of its own that builds claims for the
+// kernel; this package holds what every method shares: the certificate's
+// header and the agreement check between the engine and the kernel.
+package certify
+
+import (
+	"errors"
+	"fmt"
+	"slices"
+	"strings"
+	"time"
+
+	"lyacert/checker"
+	"lyacert/model"
+)
+
+// Version is the engine's version, written into certificates.
+const Version = "0.1.0"
+
+// Agrees returns ErrUnverified, with the failed checks, unless the kernel
+// accepted the certificate and derived the verdict and kind the engine found.
+func Agrees(out checker.Outcome, verdict, kind string) error {
+	if !out.Valid {
+		var failed []string
+		for _, c := range out.Records {
+			if !c.OK {
+				failed = append(failed, c.Name+": "+c.Reason)
+			}
+		}
+		return fmt.Errorf("%w: %s", ErrUnverified, strings.Join(failed, "; "))
+	}
+	if out.Verdict != verdict || out.Kind != kind {
+		return fmt.Errorf("%w: the checker derives %s (%s), the engine found %s (%s)", ErrUnverified, out.Verdict, out.Kind, verdict, kind)
+	}
+	return nil
+}
+
+// ErrUnverified reports a certificate that the exact checker rejected: a bug
+// in the engine, never a claim.
+var ErrUnverified = errors.New("internal error: the exact checker rejected the certificate the engine built")
+
+// NewDocument starts a certificate of m with its restatement and no claims.
+// equilibrium restates the equilibrium; nil takes the model's own.
+func NewDocument(m *model.Model, source string, equations, equilibrium []string) *checker.Document {
+	if equations == nil {
+		for i := range m.States {
+			equations = append(equations, m.F[i].String())
+		}
+	}
+	if equilibrium == nil {
+		for i := range m.States {
+			equilibrium = append(equilibrium, m.At[i].String())
+		}
+	}
+	return &checker.Document{
+		Format:      checker.Format,
+		Tool:        "lyacert " + Version,
+		Issued:      time.Now().UTC().Format(time.RFC3339),
+		Source:      source,
+		Description: nonNil(m.Description),
+		Model:       m.Canonical(),
+		System:      systemDoc(m, equations, equilibrium),
+		Claims:      []checker.Claim{},
+	}
+}
+
+func nonNil(s []string) []string {
+	if s == nil {
+		return []string{}
+	}
+	return s
+}
+
+func systemDoc(m *model.Model, equations, equilibrium []string) checker.System {
+	sys := checker.System{Time: "continuous", States: slices.Clone(m.States), Params: []checker.ParamDoc{},
+		Equations: equations, Equilibrium: equilibrium}
+	if m.Discrete {
+		sys.Time = "discrete"
+	}
+	for _, p := range m.Params {
+		sys.Params = append(sys.Params, checker.ParamDoc{Name: p.Name, Range: model.RangeText(p)})
+	}
+	return sys
+}

@@ -24,7 +24,6 @@ package certify
 import (
 	"errors"
 	"fmt"
-	"slices"
 	"strings"
 	"time"
 
@@ -57,46 +56,24 @@ func Agrees(out checker.Outcome, verdict, kind string) error {
 // in the engine, never a claim.
 var ErrUnverified = errors.New("internal error: the exact checker rejected the certificate the engine built")
 
-// NewDocument starts a certificate of m with its restatement and no claims.
-// equilibrium restates the equilibrium; nil takes the model's own.
-func NewDocument(m *model.Model, source string, equations, equilibrium []string) *checker.Document {
-	if equations == nil {
-		for i := range m.States {
-			equations = append(equations, m.F[i].String())
-		}
+// NewDocument starts a certificate of m with no claims.
+func NewDocument(m *model.Model, source string) *checker.Document {
+	desc := m.Description
+	if desc == nil {
+		desc = []string{}
 	}
-	if equilibrium == nil {
-		for i := range m.States {
-			equilibrium = append(equilibrium, m.At[i].String())
-		}
+	params := []checker.Parameter{}
+	for _, p := range m.Params {
+		params = append(params, checker.Parameter{Name: p.Name, Range: model.RangeText(p)})
 	}
 	return &checker.Document{
+		Parameters:  params,
 		Format:      checker.Format,
 		Tool:        "lyacert " + Version,
 		Issued:      time.Now().UTC().Format(time.RFC3339),
 		Source:      source,
-		Description: nonNil(m.Description),
+		Description: desc,
 		Model:       m.Canonical(),
-		System:      systemDoc(m, equations, equilibrium),
 		Claims:      []checker.Claim{},
 	}
-}
-
-func nonNil(s []string) []string {
-	if s == nil {
-		return []string{}
-	}
-	return s
-}
-
-func systemDoc(m *model.Model, equations, equilibrium []string) checker.System {
-	sys := checker.System{Time: "continuous", States: slices.Clone(m.States), Params: []checker.ParamDoc{},
-		Equations: equations, Equilibrium: equilibrium}
-	if m.Discrete {
-		sys.Time = "discrete"
-	}
-	for _, p := range m.Params {
-		sys.Params = append(sys.Params, checker.ParamDoc{Name: p.Name, Range: model.RangeText(p)})
-	}
-	return sys
 }

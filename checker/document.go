@@ -32,24 +32,18 @@ type Document struct {
 	// Description is the model file's leading comment, for people.
 	Description []string `json:"description"`
 	Model       string   `json:"model"`
-	System      System   `json:"system"`
-	Claims      []Claim  `json:"claims"`
-	Digest      string   `json:"digest"`
+	// Parameters restate the model's parameters and their assumptions, so
+	// that a change to a range or a fixed value is caught even where no
+	// claim depends on it.
+	Parameters []Parameter `json:"parameters"`
+	Claims     []Claim     `json:"claims"`
+	Digest     string      `json:"digest"`
 	// Signature is outside the digest: an ed25519 signature of it.
 	Signature *Signature `json:"signature,omitempty"`
 }
 
-// System repeats what the model text says, so that a change to either is caught.
-type System struct {
-	Time        string     `json:"time"` // "continuous" or "discrete"
-	States      []string   `json:"states"`
-	Params      []ParamDoc `json:"params"`
-	Equations   []string   `json:"equations"`
-	Equilibrium []string   `json:"equilibrium"`
-}
-
-// ParamDoc is a parameter and its assumption as written in a model file.
-type ParamDoc struct {
+// Parameter is a parameter and its assumption as written in a model file.
+type Parameter struct {
 	Name  string `json:"name"`
 	Range string `json:"range"`
 }
@@ -98,7 +92,7 @@ type docWire struct {
 	Source      string            `json:"source"`
 	Description []string          `json:"description"`
 	Model       string            `json:"model"`
-	System      System            `json:"system"`
+	Parameters  []Parameter       `json:"parameters"`
 	Claims      []json.RawMessage `json:"claims"`
 	Digest      string            `json:"digest"`
 	Signature   *Signature        `json:"signature,omitempty"`
@@ -106,7 +100,7 @@ type docWire struct {
 
 // MarshalJSON writes the document with every claim's rule name.
 func (d Document) MarshalJSON() ([]byte, error) {
-	w := docWire{d.Format, d.Tool, d.Issued, d.Source, d.Description, d.Model, d.System, []json.RawMessage{}, d.Digest, d.Signature}
+	w := docWire{d.Format, d.Tool, d.Issued, d.Source, d.Description, d.Model, d.Parameters, []json.RawMessage{}, d.Digest, d.Signature}
 	for _, c := range d.Claims {
 		raw, err := marshalClaim(c)
 		if err != nil {
@@ -125,7 +119,7 @@ func (d *Document) UnmarshalJSON(b []byte) error {
 		return err
 	}
 	*d = Document{Format: w.Format, Tool: w.Tool, Issued: w.Issued, Source: w.Source, Description: w.Description,
-		Model: w.Model, System: w.System, Digest: w.Digest, Signature: w.Signature}
+		Model: w.Model, Parameters: w.Parameters, Digest: w.Digest, Signature: w.Signature}
 	for i, raw := range w.Claims {
 		var fields map[string]json.RawMessage
 		if err := json.Unmarshal(raw, &fields); err != nil {

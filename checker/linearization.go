@@ -53,10 +53,6 @@ func IntervalText(x poly.Interval) [2]string {
 	return [2]string{poly.RatString(x.Lo.Value), poly.RatString(x.Hi.Value)}
 }
 
-// BoxText is how the system section restates the equilibrium of a box
-// certificate: "[lo, hi]".
-func BoxText(x [2]string) string { return "[" + x[0] + ", " + x[1] + "]" }
-
 // canonicalRat reads a number that must be in RatString form.
 func canonicalRat(s string) (*big.Rat, bool) {
 	q, ok := parseRat(s)

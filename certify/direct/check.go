@@ -685,7 +685,7 @@ func finish(res *Result, source string) (*Result, error) {
 }
 
 func (res *Result) document(source string) *checker.Document {
-	d := certify.NewDocument(res.Model, source, nil, nil)
+	d := certify.NewDocument(res.Model, source)
 	add := func(c checker.Claim) { d.Claims = append(d.Claims, c) }
 	add(&checker.OrbitalDerivative{V: res.V.String(), Vdot: res.Vdot.String()})
 	for _, f := range res.Forms {

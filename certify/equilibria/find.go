@@ -45,27 +45,6 @@ type CertifyOptions struct {
 	// makes the certificate, and so its digest, a function of the model
 	// alone (sweeps use that for reproducible output).
 	Issued string
-
-	texts *docTexts // shared by the certificates of one model
-}
-
-// docTexts are the parts of a linearization certificate that depend on the
-// model only: the equations and the canonical model text without a
-// candidate and without an "at" line.
-type docTexts struct {
-	equations []string
-	base      string
-}
-
-func newDocTexts(m *model.Model) *docTexts {
-	t := &docTexts{}
-	for i := range m.States {
-		t.equations = append(t.equations, m.F[i].String())
-	}
-	mc := *m
-	mc.V, mc.AtGiven = nil, false
-	t.base = mc.Canonical()
-	return t
 }
 
 // Certification is the outcome of certifying one equilibrium.
@@ -344,28 +323,23 @@ func quadraticAbout(r *poly.Ring, p [][]*big.Rat, at []*big.Rat) poly.RatFunc {
 // as the box (enclosed), P, the Krawczyk data and the enclosure of M.
 func linearizationDoc(m *model.Model, e *Equilibrium, p [][]*big.Rat, decay [][]poly.Interval, opts CertifyOptions) *checker.Document {
 	n := len(m.States)
-	texts := opts.texts
-	if texts == nil {
-		texts = newDocTexts(m)
-	}
 	// The canonical text of the model without a candidate, with the exact
 	// equilibrium as its "at" line (model.Canonical's form) or with none.
-	text := texts.base
+	mc := *m
+	mc.V, mc.AtGiven = nil, false
+	text := mc.Canonical()
 	lz := &checker.Linearization{}
 	var kz *checker.KrawczykEnclosure
-	eqText := make([]string, n)
 	if e.Status == EquilibriumExact {
 		parts := make([]string, n)
 		for i, v := range e.Point {
-			eqText[i] = poly.RatString(v) // the text of the constant RatConst(v)
-			parts[i] = m.States[i] + " = " + eqText[i]
+			parts[i] = m.States[i] + " = " + poly.RatString(v) // the text of the constant RatConst(v)
 		}
 		text += "at " + strings.Join(parts, ", ") + "\n"
 	} else {
 		kz = &checker.KrawczykEnclosure{Preconditioner: ratMatrixText(e.Y)}
 		for i, iv := range e.Box {
 			kz.Box = append(kz.Box, checker.IntervalText(iv))
-			eqText[i] = checker.BoxText(kz.Box[i])
 			kz.Krawczyk = append(kz.Krawczyk, checker.IntervalText(e.K[i]))
 		}
 	}
@@ -376,7 +350,7 @@ func linearizationDoc(m *model.Model, e *Equilibrium, p [][]*big.Rat, decay [][]
 			lz.Decay[i] = append(lz.Decay[i], checker.IntervalText(decay[i][j]))
 		}
 	}
-	d := certify.NewDocument(m, opts.Source, slices.Clone(texts.equations), eqText)
+	d := certify.NewDocument(m, opts.Source)
 	d.Issued, d.Model = opts.Issued, text
 	if kz != nil {
 		d.Claims = append(d.Claims, kz)

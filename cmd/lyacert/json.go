@@ -72,7 +72,7 @@ func checkJSON(res *direct.Result, written string) checkOutput {
 	c := certificates.ContentsOf(doc)
 	out := checkOutput{
 		Verdict: res.Verdict, Claim: res.Claim, Reason: res.Reason,
-		Time: doc.System.Time, V: c.V, Vdot: c.Vdot,
+		Time: timeWord(res.Model.Discrete), V: c.V, Vdot: c.Vdot,
 		Minors: []string{}, Conditions: []string{}, Forms: []formOutput{},
 		Region: regionJSON(c.Region), Witnesses: c.Witnesses, Refutation: c.Refutation, Kernel: c.Kernel,
 		Digest: doc.Digest, Checks: len(res.Check.Records), Certificate: written,
@@ -99,4 +99,11 @@ type verifyOutput struct {
 
 func verifyJSON(doc *checker.Document, res checker.Outcome) verifyOutput {
 	return verifyOutput{Valid: res.Valid, Claim: res.Kind, Verdict: res.Verdict, Digest: doc.Digest, Checks: res.Records}
+}
+
+func timeWord(discrete bool) string {
+	if discrete {
+		return "discrete"
+	}
+	return "continuous"
 }

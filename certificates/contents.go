@@ -65,3 +65,23 @@ func ContentsOf(d *checker.Document) Contents {
 	}
 	return c
 }
+
+// ClaimsOf returns the claims of d of type T, in order.
+func ClaimsOf[T checker.Claim](d *checker.Document) []T {
+	var out []T
+	for _, c := range d.Claims {
+		if t, ok := c.(T); ok {
+			out = append(out, t)
+		}
+	}
+	return out
+}
+
+// First returns the first claim of d of type T.
+func First[T checker.Claim](d *checker.Document) (T, bool) {
+	if cs := ClaimsOf[T](d); len(cs) > 0 {
+		return cs[0], true
+	}
+	var zero T
+	return zero, false
+}

@@ -5,10 +5,8 @@
 package certificates
 
 import (
-	"bytes"
 	"crypto/sha256"
 	"encoding/hex"
-	"encoding/json"
 	"fmt"
 	"os"
 	"path/filepath"
@@ -36,19 +34,8 @@ func Seal(d *checker.Document) error {
 	return nil
 }
 
-// Marshal returns the document as indented JSON for people and files.
-func Marshal(d *checker.Document) ([]byte, error) {
-	raw, err := marshalNoEscape(d)
-	if err != nil {
-		return nil, err
-	}
-	var buf bytes.Buffer
-	if err := json.Indent(&buf, raw, "", "  "); err != nil {
-		return nil, err
-	}
-	buf.WriteByte('\n')
-	return buf.Bytes(), nil
-}
+// Marshal returns the document as a certificate file (checker.Document.File).
+func Marshal(d *checker.Document) ([]byte, error) { return d.File() }
 
 // ReadFile reads a certificate file strictly (see checker.Read).
 func ReadFile(path string) (*checker.Document, error) {

@@ -39,13 +39,13 @@ func Summarize(p *checker.Paving) (PavingSummary, error) {
 	if err != nil {
 		return s, err
 	}
-	leaves, err := p.Leaves()
+	leaves, err := Leaves(p)
 	if err != nil {
 		return s, err
 	}
 	share := map[byte]*big.Rat{checker.PaveInside: new(big.Rat), checker.PaveOutside: new(big.Rat), checker.PaveUndecided: new(big.Rat)}
 	count := map[byte]int{}
-	var inside []checker.PavingLeaf
+	var inside []PavingLeaf
 	for _, lf := range leaves {
 		d := 0
 		for _, k := range lf.K {
@@ -72,19 +72,12 @@ func Summarize(p *checker.Paving) (PavingSummary, error) {
 	for _, b := range merged {
 		var pb PavingBox
 		for i, side := range sides {
-			pb.Lo = append(pb.Lo, corner(side, b[0][i], scale[i]).RatString())
-			pb.Hi = append(pb.Hi, corner(side, b[1][i], scale[i]).RatString())
+			pb.Lo = append(pb.Lo, poly.Corner(side, b[0][i], scale[i]).RatString())
+			pb.Hi = append(pb.Hi, poly.Corner(side, b[1][i], scale[i]).RatString())
 		}
 		s.InsideBoxes = append(s.InsideBoxes, pb)
 	}
 	return s, nil
-}
-
-// corner returns lo + (hi − lo)·a/2^k for a side [lo, hi].
-func corner(side poly.Interval, a int64, k int) *big.Rat {
-	w, _ := side.Width()
-	s := new(big.Rat).SetFrac(big.NewInt(a), new(big.Int).Lsh(big.NewInt(1), uint(k)))
-	return s.Mul(s, w).Add(s, side.Lo.Value)
 }
 
 // mergePaving merges grid boxes (disjoint but for their faces) into larger
@@ -94,7 +87,7 @@ func corner(side poly.Interval, a int64, k int) *big.Rat {
 // meet along this one are joined, and the rounds repeat until none joins.
 // The result is sorted by lower corner, then upper corner; each box is
 // [lo, hi] in grid cells, as {lo, hi}.
-func mergePaving(boxes []checker.PavingLeaf, n int) (scale []int, out [][2][]int64) {
+func mergePaving(boxes []PavingLeaf, n int) (scale []int, out [][2][]int64) {
 	scale = make([]int, n)
 	for _, g := range boxes {
 		for i, k := range g.K {
@@ -148,4 +141,34 @@ func sameExcept(x, y [2][]int64, j int) bool {
 		}
 	}
 	return true
+}
+
+// PavingLeaf is a leaf of a paving's tree as a box of parameter values, with
+// its class (checker.PaveInside, PaveOutside or PaveUndecided) and its place
+// on the dyadic grid of the paved box.
+type PavingLeaf struct {
+	Class  byte
+	Lo, Hi []*big.Rat
+	poly.DyadicBox
+}
+
+// Leaves returns the leaves of a paving's tree as boxes of parameter values,
+// in depth-first order. It returns an error if the box, the resolution or
+// the tree is malformed; the classes are as written (checker.Verify checks
+// them).
+func Leaves(p *checker.Paving) ([]PavingLeaf, error) {
+	sides, err := p.Sides()
+	if err != nil {
+		return nil, err
+	}
+	var out []PavingLeaf
+	err = p.Walk(func(code byte, g poly.DyadicBox) {
+		lf := PavingLeaf{Class: code, DyadicBox: g}
+		for i, side := range sides {
+			lf.Lo = append(lf.Lo, poly.Corner(side, g.A[i], g.K[i]))
+			lf.Hi = append(lf.Hi, poly.Corner(side, g.A[i]+1, g.K[i]))
+		}
+		out = append(out, lf)
+	})
+	return out, err
 }

@@ -19,6 +19,25 @@ const (
 	publicKeyHeader  = "lyacert ed25519 public key"
 )
 
+// ErrUntrusted reports a sound signature by a key the reader does not trust.
+var ErrUntrusted = errors.New("signed by a key that is not trusted")
+
+// VerifyTrusted checks d's signature and requires its key to be one of
+// trusted. It returns the signing key, or ErrUnsigned, ErrBadSignature, or
+// ErrUntrusted wrapped with the signer's fingerprint.
+func VerifyTrusted(d *checker.Document, trusted []ed25519.PublicKey) (ed25519.PublicKey, error) {
+	pub, err := d.VerifySignature()
+	if err != nil {
+		return nil, err
+	}
+	for _, t := range trusted {
+		if pub.Equal(t) {
+			return pub, nil
+		}
+	}
+	return nil, fmt.Errorf("%w: %s", ErrUntrusted, checker.Fingerprint(pub))
+}
+
 // Sign signs d's canonical digest with priv and stores the signature in d.
 // The signed message is the digest string ("sha256:…") as bytes. The digest
 // is recomputed from the content first: Sign refuses a document whose stored

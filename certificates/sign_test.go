@@ -53,8 +53,8 @@ func TestSignatures(t *testing.T) {
 			}
 		}, []ed25519.PublicKey{alicePub}, checker.ErrBadSignature},
 		{"altered after signing, digest stale", func(d *checker.Document) { d.Source = "other.lya" }, []ed25519.PublicKey{alicePub}, checker.ErrBadSignature},
-		{"wrong key", func(*checker.Document) {}, []ed25519.PublicKey{bobPub}, checker.ErrUntrusted},
-		{"no trusted key", func(*checker.Document) {}, nil, checker.ErrUntrusted},
+		{"wrong key", func(*checker.Document) {}, []ed25519.PublicKey{bobPub}, ErrUntrusted},
+		{"no trusted key", func(*checker.Document) {}, nil, ErrUntrusted},
 		{"absent", func(d *checker.Document) { d.Signature = nil }, []ed25519.PublicKey{alicePub}, checker.ErrUnsigned},
 		{"public key swapped", func(d *checker.Document) {
 			d.Signature.PublicKey = base64.StdEncoding.EncodeToString(bobPub)
@@ -63,7 +63,7 @@ func TestSignatures(t *testing.T) {
 			if err := Sign(d, bob); err != nil {
 				t.Fatal(err)
 			}
-		}, []ed25519.PublicKey{alicePub}, checker.ErrUntrusted},
+		}, []ed25519.PublicKey{alicePub}, ErrUntrusted},
 		{"value not base64", func(d *checker.Document) { d.Signature.Value = "!!" }, []ed25519.PublicKey{alicePub}, checker.ErrBadSignature},
 		{"value truncated", func(d *checker.Document) { d.Signature.Value = d.Signature.Value[:20] }, []ed25519.PublicKey{alicePub}, checker.ErrBadSignature},
 		{"other algorithm", func(d *checker.Document) { d.Signature.Algorithm = "rsa" }, []ed25519.PublicKey{alicePub}, checker.ErrBadSignature},
@@ -77,7 +77,7 @@ func TestSignatures(t *testing.T) {
 		t.Run(tt.name, func(t *testing.T) {
 			d := signedCoolant(t, alice)
 			tt.alter(d)
-			pub, err := d.VerifyTrusted(tt.trusted)
+			pub, err := VerifyTrusted(d, tt.trusted)
 			switch {
 			case tt.want == nil && err != nil:
 				t.Fatalf("VerifyTrusted: %v", err)
@@ -116,12 +116,12 @@ func findCheck(r checker.Outcome, name string) *checker.Record {
 
 func TestErrorMessagesAreDistinct(t *testing.T) {
 	d := signedCoolant(t, testKey(t, 1))
-	_, err := d.VerifyTrusted([]ed25519.PublicKey{testKey(t, 2).Public().(ed25519.PublicKey)})
+	_, err := VerifyTrusted(d, []ed25519.PublicKey{testKey(t, 2).Public().(ed25519.PublicKey)})
 	want := "signed by a key that is not trusted: " + checker.Fingerprint(testKey(t, 1).Public().(ed25519.PublicKey))
 	if err == nil || err.Error() != want {
 		t.Errorf("untrusted: %v, want %q", err, want)
 	}
-	msgs := map[string]bool{checker.ErrUnsigned.Error(): true, checker.ErrBadSignature.Error(): true, checker.ErrUntrusted.Error(): true}
+	msgs := map[string]bool{checker.ErrUnsigned.Error(): true, checker.ErrBadSignature.Error(): true, ErrUntrusted.Error(): true}
 	if len(msgs) != 3 {
 		t.Errorf("the three signature errors share a message")
 	}

@@ -213,23 +213,16 @@ func (c *run) monomialGram(cl Claim) bool {
 		}
 		z[i] = b.Num
 	}
-	for i, s := range c.m.States {
-		if !c.add(name, pure[i], "the basis has a pure power of %s", s) {
-			return false
-		}
-	}
 	g, ok := c.matrix(name, mg.Gram, n, "the Gram matrix")
-	if !ok {
-		return false
-	}
-	for i := range g {
-		for j := range g[i] {
-			if !c.add(name, g[i][j].DegreeIn(c.r.StateMask()) <= 0, "Gram entry %d,%d is free of states", i+1, j+1) {
-				return false
-			}
+	free := ok
+	for i := 0; ok && i < n; i++ {
+		for j := range n {
+			free = free && g[i][j].DegreeIn(c.r.StateMask()) <= 0
 		}
 	}
-	if !c.add(name, poly.QuadraticFormIn(g, z).Equal(whole), "zᵀGz equals the whole function exactly (all degrees)") {
+	if !ok || !c.add(name, !slices.Contains(pure, false), "the basis has a pure power of every state") ||
+		!c.add(name, free, "the Gram entries are free of states") ||
+		!c.add(name, poly.QuadraticFormIn(g, z).Equal(whole), "zᵀGz equals the whole function exactly (all degrees)") {
 		return false
 	}
 	cf, ok := c.form(&mg.LDLForm, g)
@@ -243,17 +236,11 @@ func (c *run) matrix(name string, rows [][]string, n int, what string) (poly.Mat
 	if !c.add(name, len(rows) == n, "%s has %d rows, want %d", what, len(rows), n) {
 		return nil, false
 	}
-	out := poly.NewMatrix(c.r, n)
+	out := make(poly.Matrix, n)
 	for i := range rows {
-		if !c.add(name, len(rows[i]) == n, "%s row %d has %d entries, want %d", what, i+1, len(rows[i]), n) {
+		var ok bool
+		if out[i], ok = c.list(name, rows[i], n, what+" entries in a row"); !ok {
 			return nil, false
-		}
-		for j := range rows[i] {
-			e, ok := c.parse(name, rows[i][j])
-			if !ok {
-				return nil, false
-			}
-			out[i][j] = e
 		}
 	}
 	return out, true
@@ -261,82 +248,80 @@ func (c *run) matrix(name string, rows [][]string, n int, what string) (poly.Mat
 
 // form checks G = L·D·Lᵀ and the minors of one form against the recomputed G.
 func (c *run) form(f *LDLForm, g poly.Matrix) (*checkedForm, bool) {
-	name := f.Of
-	n := len(g)
+	name, n := f.Of, len(g)
 	cf := &checkedForm{g: g}
-	claimedG, ok := c.matrix("form "+name, f.Gram, n, "the Gram matrix")
-	if !ok || !c.add("gram "+name, claimedG.Equal(g), "the Gram matrix equals the one recomputed from the model") {
+	claimedG, ok1 := c.matrix("form "+name, f.Gram, n, "the Gram matrix")
+	l, ok2 := c.matrix("form "+name, f.L, n, "L")
+	d, ok3 := c.list("ldl "+name, f.D, n, "pivots")
+	if !ok1 || !ok2 || !ok3 || !c.add("gram "+name, claimedG.Equal(g), "the Gram matrix equals the one recomputed from the model") {
 		return cf, false
 	}
-	l, ok := c.matrix("form "+name, f.L, n, "L")
-	if !ok || !c.add("ldl "+name, len(f.D) == n, "%d pivots", len(f.D)) {
-		return cf, false
-	}
+	cf.d, cf.zero = d, make([]bool, n)
 	dm := poly.NewMatrix(c.r, n)
-	cf.zero = make([]bool, n)
-	for i := range f.D {
-		p, ok := c.parse("ldl "+name, f.D[i])
-		if !ok {
-			return cf, false
-		}
-		cf.d = append(cf.d, p)
-		dm[i][i] = p
-		cf.zero[i] = p.IsZero()
-	}
-	one := poly.RatConst(c.r, big.NewRat(1, 1))
-	for i := 0; i < n; i++ {
-		for j := i; j < n; j++ {
-			want := poly.FromPoly(poly.Zero(c.r))
-			if i == j {
-				want = one
-			}
-			if !c.add("ldl "+name, l[i][j].Equal(want), "L is unit lower triangular (entry %d,%d)", i+1, j+1) {
-				return cf, false
-			}
-		}
-		if cf.zero[i] {
-			cf.semidef = true
-			for k := i + 1; k < n; k++ {
-				if !c.add("ldl "+name, l[k][i].IsZero(), "a zero pivot has a zero column of L below it (column %d)", i+1) {
-					return cf, false
-				}
+	unit, zeroCols := true, true
+	for i := range n {
+		dm[i][i], cf.zero[i] = d[i], d[i].IsZero()
+		cf.semidef = cf.semidef || cf.zero[i]
+		for j := range n {
+			switch {
+			case j == i:
+				unit = unit && l[i][j].IsOne()
+			case j > i:
+				unit = unit && l[i][j].IsZero()
+			case cf.zero[j]:
+				zeroCols = zeroCols && l[i][j].IsZero()
 			}
 		}
 	}
-	if !c.add("ldl "+name, l.Mul(dm).Mul(l.Transpose()).Equal(g), "L·D·Lᵀ reproduces the Gram matrix exactly") {
+	if !c.add("ldl "+name, unit, "L is unit lower triangular") ||
+		!c.add("ldl "+name, zeroCols, "a zero pivot has a zero column of L below it") ||
+		!c.add("ldl "+name, l.Mul(dm).Mul(l.Transpose()).Equal(g), "L·D·Lᵀ reproduces the Gram matrix exactly") {
 		return cf, false
 	}
 	// Minors: of G itself (no zero pivot), or of its principal submatrix on
 	// the positive pivots (semidefinite).
-	p := one
+	p := poly.RatConst(c.r, big.NewRat(1, 1))
 	var want []poly.RatFunc
-	for i := 0; i < n; i++ {
+	for i := range n {
 		if !cf.zero[i] {
-			p = p.Mul(cf.d[i])
+			p = p.Mul(d[i])
 			want = append(want, p)
 		}
 	}
-	if !c.add("minors "+name, len(f.Minors) == len(want), "%d minors, one per non-zero pivot", len(f.Minors)) {
+	minors, ok := c.list("minors "+name, f.Minors, len(want), "minors, one per non-zero pivot,")
+	if !ok {
 		return cf, false
 	}
-	for i, s := range f.Minors {
-		mi, ok := c.parse("minors "+name, s)
-		if !ok || !c.add("minors "+name, mi.Equal(want[i]), "minor %d equals the product of the first pivots", i+1) ||
+	for i, mi := range minors {
+		if !c.add("minors "+name, mi.Equal(want[i]), "minor %d equals the product of the first pivots", i+1) ||
 			!c.add("minors "+name, c.denominatorsNonzero(mi), "the denominator of minor %d is non-zero on the parameter box", i+1) {
 			return cf, false
 		}
-		cf.minors = append(cf.minors, mi)
 	}
-	if cf.semidef {
-		for i := range cf.d {
-			for j := 0; j < n; j++ {
-				if !c.add("ldl "+name, c.denominatorsNonzero(cf.d[i]) && c.denominatorsNonzero(l[j][i]), "semidefinite factors are defined on the whole parameter box") {
-					return cf, false
-				}
-			}
+	cf.minors = minors
+	defined := true
+	for i := 0; cf.semidef && i < n; i++ {
+		defined = defined && c.denominatorsNonzero(d[i])
+		for j := range n {
+			defined = defined && c.denominatorsNonzero(l[j][i])
 		}
 	}
-	return cf, true
+	return cf, c.add("ldl "+name, defined, "the factors are defined on the whole parameter box (needed when semidefinite)")
+}
+
+// list reads n rational functions.
+func (c *run) list(name string, ss []string, n int, what string) ([]poly.RatFunc, bool) {
+	if !c.add(name, len(ss) == n, "%d %s, want %d", len(ss), what, n) {
+		return nil, false
+	}
+	out := make([]poly.RatFunc, n)
+	for i, s := range ss {
+		var ok bool
+		if out[i], ok = c.parse(name, s); !ok {
+			return nil, false
+		}
+	}
+	return out, true
 }
 
 func (c *run) denominatorsNonzero(f poly.RatFunc) bool {
@@ -456,32 +441,25 @@ func (c *run) nullSpace(cl Claim) bool {
 	if !c.add("kernel", len(ns.Vectors) == len(zeros), "one kernel vector per zero pivot") {
 		return false
 	}
-	n := len(f.g)
 	for k, vs := range ns.Vectors {
-		if !c.add("kernel", len(vs) == n, "kernel vector %d has %d entries", k+1, len(vs)) {
+		v, ok := c.list("kernel", vs, len(f.g), "entries of a kernel vector")
+		if !ok {
 			return false
 		}
-		vec := make(poly.Matrix, n)
-		for i, s := range vs {
-			e, ok := c.parse("kernel", s)
-			if !ok {
-				return false
-			}
-			vec[i] = []poly.RatFunc{e}
+		vec := make(poly.Matrix, len(v))
+		independent, null := true, true
+		for i := range v {
+			vec[i] = v[i : i+1]
 		}
 		for j, z := range zeros {
-			want := int64(0)
-			if j == k {
-				want = 1
-			}
-			if !c.add("kernel", vec[z][0].Equal(poly.RatConst(c.r, big.NewRat(want, 1))), "kernel vector %d is %d at coordinate %d (independence)", k+1, want, z+1) {
-				return false
-			}
+			independent = independent && (j == k && v[z].IsOne() || j != k && v[z].IsZero())
 		}
-		for i, e := range f.g.Mul(vec) {
-			if !c.add("kernel", e[0].IsZero(), "G·k = 0 for kernel vector %d (row %d)", k+1, i+1) {
-				return false
-			}
+		for _, e := range f.g.Mul(vec) {
+			null = null && e[0].IsZero()
+		}
+		if !c.add("kernel", independent, "kernel vector %d is 1 at its zero pivot and 0 at the others", k+1) ||
+			!c.add("kernel", null, "G·k = 0 for kernel vector %d", k+1) {
+			return false
 		}
 	}
 	c.hasKernel = true

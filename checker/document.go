@@ -8,7 +8,6 @@ import (
 	"errors"
 	"fmt"
 	"io"
-	"slices"
 )
 
 // Format is the format version of the certificates this kernel reads.
@@ -156,9 +155,11 @@ func strictDecode(b []byte, v any) error {
 	return nil
 }
 
-// Read decodes a certificate strictly: at most MaxDocumentBytes, no
-// duplicate object keys (another JSON reader might keep the other one), no
-// unknown fields, no trailing data, and the format this kernel reads.
+// Read reads a certificate file: at most MaxDocumentBytes, decoded strictly
+// (Decode), and byte for byte as File writes it, so that the digest and the
+// signature cover exactly the bytes that were read (a duplicate key, another
+// key order or any edit is refused, whatever another JSON reader would make
+// of it).
 func Read(r io.Reader) (*Document, error) {
 	data, err := io.ReadAll(io.LimitReader(r, MaxDocumentBytes+1))
 	if err != nil {
@@ -167,9 +168,19 @@ func Read(r io.Reader) (*Document, error) {
 	if len(data) > MaxDocumentBytes {
 		return nil, fmt.Errorf("not a lyacert certificate: larger than %d bytes", MaxDocumentBytes)
 	}
-	if err := noDuplicateKeys(data); err != nil {
-		return nil, fmt.Errorf("not a lyacert certificate: %w", err)
+	d, err := Decode(data)
+	if err != nil {
+		return nil, err
 	}
+	if file, err := d.File(); err != nil || !bytes.Equal(file, data) {
+		return nil, errors.New("not a lyacert certificate file: not byte for byte as lyacert writes it (reformatted or edited)")
+	}
+	return d, nil
+}
+
+// Decode decodes a certificate strictly: no unknown fields, no trailing
+// data, and the format this kernel reads.
+func Decode(data []byte) (*Document, error) {
 	var d Document
 	if err := strictDecode(data, &d); err != nil {
 		return nil, fmt.Errorf("not a lyacert certificate: %w", err)
@@ -180,55 +191,19 @@ func Read(r io.Reader) (*Document, error) {
 	return &d, nil
 }
 
-// noDuplicateKeys walks the JSON tokens and refuses an object with a key
-// twice, or nesting deeper than 64.
-func noDuplicateKeys(data []byte) error {
-	dec := json.NewDecoder(bytes.NewReader(data))
-	dec.UseNumber()
-	type frame struct {
-		keys   map[string]bool
-		object bool
-		key    bool // the next string token is a key
+// File returns the document as a certificate file: JSON indented by two
+// spaces, no HTML escaping, a final newline.
+func (d *Document) File() ([]byte, error) {
+	raw, err := marshalNoEscape(d)
+	if err != nil {
+		return nil, err
 	}
-	var stack []frame
-	for {
-		tok, err := dec.Token()
-		if err == io.EOF {
-			return nil
-		}
-		if err != nil {
-			return err
-		}
-		top := len(stack) - 1
-		if d, ok := tok.(json.Delim); ok {
-			switch d {
-			case '{', '[':
-				if top >= 0 && stack[top].object {
-					stack[top].key = true
-				}
-				if len(stack) == 64 {
-					return errors.New("nested deeper than 64")
-				}
-				stack = append(stack, frame{keys: map[string]bool{}, object: d == '{', key: d == '{'})
-			default:
-				stack = stack[:top]
-			}
-			continue
-		}
-		if top < 0 || !stack[top].object {
-			continue
-		}
-		if stack[top].key {
-			k := tok.(string)
-			if stack[top].keys[k] {
-				return fmt.Errorf("the key %q appears twice in one object", k)
-			}
-			stack[top].keys[k] = true
-			stack[top].key = false
-		} else {
-			stack[top].key = true
-		}
+	var buf bytes.Buffer
+	if err := json.Indent(&buf, raw, "", "  "); err != nil {
+		return nil, err
 	}
+	buf.WriteByte('\n')
+	return buf.Bytes(), nil
 }
 
 // Canonical returns the canonical serialization of d without its digest and
@@ -260,35 +235,6 @@ func (d *Document) ComputeDigest() (string, error) {
 	}
 	sum := sha256.Sum256(b)
 	return "sha256:" + hex.EncodeToString(sum[:]), nil
-}
-
-// ClaimsOf returns the claims of d of type T, in order.
-func ClaimsOf[T Claim](d *Document) []T {
-	var out []T
-	for _, c := range d.Claims {
-		if t, ok := c.(T); ok {
-			out = append(out, t)
-		}
-	}
-	return out
-}
-
-// First returns the first claim of d of type T, or the zero T.
-func First[T Claim](d *Document) (T, bool) {
-	if cs := ClaimsOf[T](d); len(cs) > 0 {
-		return cs[0], true
-	}
-	var zero T
-	return zero, false
-}
-
-// ruleNames lists the rules in the order of the table, for messages.
-func ruleNames() []string {
-	var out []string
-	for _, r := range rules {
-		out = append(out, r.name)
-	}
-	return slices.Clip(out)
 }
 
 // marshalNoEscape encodes v as compact JSON without HTML escaping.

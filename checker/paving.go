@@ -62,17 +62,6 @@ type Paving struct {
 
 func (*Paving) Rule() string { return "paving" }
 
-// PavingLeaf is a leaf of a paving's tree as a box of parameter values,
-// with its class (PaveInside, PaveOutside or PaveUndecided).
-type PavingLeaf struct {
-	Class  byte
-	Lo, Hi []*big.Rat
-	// A and K place the leaf on the grid: side i is [A[i], A[i]+1]·2^-K[i]
-	// of the unit interval.
-	A []int64
-	K []int
-}
-
 // ResolutionLevel returns L for a resolution written canonically as 2^-L
 // ("1", "1/2", "1/4", ...) with 0 ≤ L ≤ MaxPavingLevel.
 func ResolutionLevel(s string) (int, bool) {
@@ -88,62 +77,13 @@ func ResolutionLevel(s string) (int, bool) {
 	return l, true
 }
 
-// PavingSplitDim returns the coordinate along which a box that has been
-// halved k[i] times along coordinate i is halved next: the first with the
-// fewest halvings.
-func PavingSplitDim(k []int) int {
-	dim := 0
-	for i, x := range k {
-		if x < k[dim] {
-			dim = i
-		}
-	}
-	return dim
-}
-
-// gridBox is a box of a paving in normalized coordinates: side i is
-// [a[i], a[i]+1]·2^-k[i] of the unit interval.
-type gridBox struct {
-	a []int64
-	k []int
-}
-
-func (g gridBox) halves(dim int) (gridBox, gridBox) {
-	lo := gridBox{slices.Clone(g.a), slices.Clone(g.k)}
-	lo.a[dim] *= 2
-	lo.k[dim]++
-	hi := gridBox{slices.Clone(lo.a), slices.Clone(lo.k)}
-	hi.a[dim]++
-	return lo, hi
-}
-
-func (g gridBox) minLevel() int { return g.k[PavingSplitDim(g.k)] }
-
-// openFaces returns the faces of g that lie on an open face of the paved box.
-func (g gridBox) openFaces(box openBox) poly.OpenFaces {
-	var f poly.OpenFaces
-	for i := range g.a {
-		if box.Lo&(1<<i) != 0 && g.a[i] == 0 {
-			f.Lo |= 1 << i
-		}
-		if box.Hi&(1<<i) != 0 && g.a[i] == int64(1)<<g.k[i]-1 {
-			f.Hi |= 1 << i
-		}
-	}
-	return f
-}
-
-// openBox marks the open ends of a paved box: bit i of Lo (Hi) for the lower
-// (upper) end of side i.
-type openBox = poly.OpenFaces
-
 // walkPaving calls node for every box of the tree in depth-first order and
 // checks the tree's shape: known codes, a split only above the resolution
 // level, an undecided box only at it, and nothing after the tree.
-func walkPaving(tree string, n, level int, node func(code byte, g gridBox) error) error {
+func walkPaving(tree string, n, level int, node func(code byte, g poly.DyadicBox) error) error {
 	pos := 0
-	var rec func(g gridBox) error
-	rec = func(g gridBox) error {
+	var rec func(g poly.DyadicBox) error
+	rec = func(g poly.DyadicBox) error {
 		if pos >= len(tree) {
 			return errors.New("the tree ends early")
 		}
@@ -151,11 +91,11 @@ func walkPaving(tree string, n, level int, node func(code byte, g gridBox) error
 		pos++
 		switch code {
 		case PaveSplit:
-			if g.minLevel() >= level {
+			if g.MinLevel() >= level {
 				return fmt.Errorf("box %d is split but is at the resolution", pos)
 			}
 		case PaveUndecided:
-			if g.minLevel() < level {
+			if g.MinLevel() < level {
 				return fmt.Errorf("box %d is undecided but wider than the resolution", pos)
 			}
 		case PaveInside, PaveOutside:
@@ -168,13 +108,13 @@ func walkPaving(tree string, n, level int, node func(code byte, g gridBox) error
 		if code != PaveSplit {
 			return nil
 		}
-		lo, hi := g.halves(PavingSplitDim(g.k))
+		lo, hi := g.Halves(poly.SplitDim(g.K))
 		if err := rec(lo); err != nil {
 			return err
 		}
 		return rec(hi)
 	}
-	if err := rec(gridBox{make([]int64, n), make([]int, n)}); err != nil {
+	if err := rec(poly.DyadicBox{A: make([]int64, n), K: make([]int, n)}); err != nil {
 		return err
 	}
 	if pos != len(tree) {
@@ -184,8 +124,8 @@ func walkPaving(tree string, n, level int, node func(code byte, g gridBox) error
 }
 
 // sides reads the box of a paving: bounded, canonical rational ends, lo < hi.
-func (p *Paving) sides() ([]poly.Interval, openBox, error) {
-	var open openBox
+func (p *Paving) sides() ([]poly.Interval, poly.OpenFaces, error) {
+	var open poly.OpenFaces
 	if len(p.Box) != len(p.Params) || len(p.Params) == 0 || len(p.Params) > poly.MaxCenteredDims {
 		return nil, open, fmt.Errorf("the box has %d sides for %d parameters", len(p.Box), len(p.Params))
 	}
@@ -206,41 +146,6 @@ func (p *Paving) sides() ([]poly.Interval, openBox, error) {
 		}
 	}
 	return out, open, nil
-}
-
-// corner returns lo + (hi − lo)·a/2^k for a side [lo, hi].
-func corner(side poly.Interval, a int64, k int) *big.Rat {
-	w, _ := side.Width()
-	s := new(big.Rat).SetFrac(big.NewInt(a), new(big.Int).Lsh(big.NewInt(1), uint(k)))
-	return s.Mul(s, w).Add(s, side.Lo.Value)
-}
-
-// Leaves returns the leaves of the tree as boxes of parameter values, in
-// depth-first order. It returns an error if Box, Resolution or Tree is
-// malformed; the classes are as written (Verify checks them).
-func (p *Paving) Leaves() ([]PavingLeaf, error) {
-	sides, _, err := p.sides()
-	if err != nil {
-		return nil, err
-	}
-	level, ok := ResolutionLevel(p.Resolution)
-	if !ok {
-		return nil, fmt.Errorf("resolution %q is not 2^-L with 0 ≤ L ≤ %d", p.Resolution, MaxPavingLevel)
-	}
-	var out []PavingLeaf
-	err = walkPaving(p.Tree, len(sides), level, func(code byte, g gridBox) error {
-		if code == PaveSplit {
-			return nil
-		}
-		lf := PavingLeaf{Class: code, A: g.a, K: g.k}
-		for i, side := range sides {
-			lf.Lo = append(lf.Lo, corner(side, g.a[i], g.k[i]))
-			lf.Hi = append(lf.Hi, corner(side, g.a[i]+1, g.k[i]))
-		}
-		out = append(out, lf)
-		return nil
-	})
-	return out, err
 }
 
 // paving checks a region given as a paving, with its product form and
@@ -362,7 +267,7 @@ type paveFacts struct {
 // pavingTree checks the class of every box of the tree exactly, walking the
 // tree with the centred forms of the conditions: a child's form follows from
 // its parent's by CenteredForm.Half.
-func (c *run) pavingTree(tree string, vars []int, sides []poly.Interval, open openBox, level int) (map[byte]int, bool) {
+func (c *run) pavingTree(tree string, vars []int, sides []poly.Interval, open poly.OpenFaces, level int) (map[byte]int, bool) {
 	count := map[byte]int{}
 	root := make([]*poly.CenteredForm, len(c.conds))
 	for j, q := range c.conds {
@@ -375,11 +280,11 @@ func (c *run) pavingTree(tree string, vars []int, sides []poly.Interval, open op
 	// forms[d] holds the forms of the box at depth d of the current path.
 	forms := [][]*poly.CenteredForm{root}
 	var bad error
-	err := walkPaving(tree, len(vars), level, func(code byte, g gridBox) error {
+	err := walkPaving(tree, len(vars), level, func(code byte, g poly.DyadicBox) error {
 		// The walk is depth-first: the depth of a box is the number of its
 		// halvings, and its parent's forms are at depth − 1.
 		d := 0
-		for _, k := range g.k {
+		for _, k := range g.K {
 			d += k
 		}
 		if d > 0 {
@@ -393,9 +298,9 @@ func (c *run) pavingTree(tree string, vars []int, sides []poly.Interval, open op
 			// g is the lower or upper half of its parent along the
 			// parent's split coordinate; in depth-first order the parent's
 			// forms are the last ones written at depth d − 1.
-			dim := parentSplit(g.k)
+			dim := poly.ParentSplit(g.K)
 			for j := range root {
-				forms[d][j].Half(forms[d-1][j], dim, g.a[dim]%2 == 1)
+				forms[d][j].Half(forms[d-1][j], dim, g.A[dim]%2 == 1)
 			}
 		}
 		if code == PaveSplit {
@@ -403,7 +308,7 @@ func (c *run) pavingTree(tree string, vars []int, sides []poly.Interval, open op
 		}
 		count[code]++
 		fs := forms[d]
-		faces := g.openFaces(open)
+		faces := g.OpenFacesOn(open)
 		positive, nonPositive := true, false
 		for _, f := range fs {
 			positive = positive && f.PositiveOn(faces)
@@ -420,19 +325,6 @@ func (c *run) pavingTree(tree string, vars []int, sides []poly.Interval, open op
 		return bad
 	})
 	return count, c.add("paving", err == nil, "every box of the tree has its class by the exact test%s", errSuffix(err))
-}
-
-// parentSplit returns the coordinate along which the parent of a box with
-// halvings k was split. Halving the widest side first, ties to the first
-// coordinate, visits the coordinates in turn from the undivided box: the box
-// at depth d is split along d mod n, so the parent of a box at depth d was
-// split along (d − 1) mod n.
-func parentSplit(k []int) int {
-	d := 0
-	for _, x := range k {
-		d += x
-	}
-	return (d - 1) % len(k)
 }
 
 // sideWithin reports that side lies in the allowed range r, with an open end
@@ -471,4 +363,25 @@ func sameInterval(side, r poly.Interval) bool {
 func (p *Paving) Sides() ([]poly.Interval, error) {
 	s, _, err := p.sides()
 	return s, err
+}
+
+// Walk calls leaf for every leaf of the tree in depth-first order, with its
+// class and its place on the dyadic grid of the box; it returns an error if
+// the box, the resolution or the tree is malformed (the classes are taken as
+// written: Verify checks them).
+func (p *Paving) Walk(leaf func(code byte, g poly.DyadicBox)) error {
+	sides, _, err := p.sides()
+	if err != nil {
+		return err
+	}
+	level, ok := ResolutionLevel(p.Resolution)
+	if !ok {
+		return fmt.Errorf("resolution %q is not 2^-L with 0 ≤ L ≤ %d", p.Resolution, MaxPavingLevel)
+	}
+	return walkPaving(p.Tree, len(sides), level, func(code byte, g poly.DyadicBox) error {
+		if code != PaveSplit {
+			leaf(code, g)
+		}
+		return nil
+	})
 }

@@ -2,6 +2,8 @@ package checker
 
 import (
 	"fmt"
+	"reflect"
+	"slices"
 
 	"lyacert/poly"
 )
@@ -174,29 +176,8 @@ func (c *run) regionPieces(rg *SturmRegion, pi int, conds []poly.Univariate, dom
 			return false, false, false
 		}
 	}
-	if !c.add("region", intervalsEqual(holdsText, rg.Intervals), "the listed intervals are the holding pieces") {
+	if !c.add("region", slices.EqualFunc(holdsText, rg.Intervals, func(x, y Interval) bool { return reflect.DeepEqual(x, y) }), "the listed intervals are the holding pieces") {
 		return false, false, false
 	}
 	return anyHolds, anyFails, true
-}
-
-func intervalsEqual(a, b []Interval) bool {
-	if len(a) != len(b) {
-		return false
-	}
-	for i := range a {
-		x, y := a[i], b[i]
-		if x.Lo != y.Lo || x.Hi != y.Hi || x.LoClosed != y.LoClosed || x.HiClosed != y.HiClosed || x.LoPoly != y.LoPoly || x.HiPoly != y.HiPoly ||
-			!isoEqual(x.LoIsolating, y.LoIsolating) || !isoEqual(x.HiIsolating, y.HiIsolating) {
-			return false
-		}
-	}
-	return true
-}
-
-func isoEqual(a, b *[2]string) bool {
-	if a == nil || b == nil {
-		return a == b
-	}
-	return *a == *b
 }

@@ -12,13 +12,11 @@ import (
 // SignatureAlgorithm is the only signature algorithm a certificate may carry.
 const SignatureAlgorithm = "ed25519"
 
-// Errors of signature checking. Each says a different thing to a reader: no
-// signature at all, a signature that does not fit the content (or the key it
-// names), and a sound signature by a key the reader does not trust.
+// Errors of signature checking: no signature at all, or a signature that
+// does not fit the content (or the key it names).
 var (
 	ErrUnsigned     = errors.New("no signature")
 	ErrBadSignature = errors.New("signature does not match: the certificate was altered or signed by another key")
-	ErrUntrusted    = errors.New("signed by a key that is not trusted")
 )
 
 // Fingerprint returns the first 16 hex digits of the SHA-256 of the raw
@@ -68,22 +66,6 @@ func (d *Document) VerifySignature() (ed25519.PublicKey, error) {
 		return nil, ErrBadSignature
 	}
 	return pub, nil
-}
-
-// VerifyTrusted checks d's signature and requires its key to be one of
-// trusted. It returns the signing key, or ErrUnsigned, ErrBadSignature, or
-// ErrUntrusted wrapped with the signer's fingerprint.
-func (d *Document) VerifyTrusted(trusted []ed25519.PublicKey) (ed25519.PublicKey, error) {
-	pub, err := d.VerifySignature()
-	if err != nil {
-		return nil, err
-	}
-	for _, t := range trusted {
-		if pub.Equal(t) {
-			return pub, nil
-		}
-	}
-	return nil, fmt.Errorf("%w: %s", ErrUntrusted, Fingerprint(pub))
 }
 
 // signature records the check of a present signature. Verify does not

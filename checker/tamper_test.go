@@ -140,7 +140,7 @@ func TestTamperedCertificatesRejected(t *testing.T) {
 			}
 			undecodable := 0
 			for _, m := range ms {
-				doc, err := checker.Read(bytes.NewReader(m.doc))
+				doc, err := checker.Decode(m.doc)
 				if err != nil {
 					undecodable++ // no longer a certificate at all: rejected
 					continue
@@ -209,7 +209,7 @@ func TestClaimEditsRejected(t *testing.T) {
 				c, _ := json.Marshal(edited)
 				top["claims"] = c
 				b, _ := json.Marshal(top)
-				doc, err := checker.Read(bytes.NewReader(b))
+				doc, err := checker.Decode(b)
 				if err != nil {
 					return // no longer decodes: rejected
 				}
@@ -254,4 +254,28 @@ func mustRead(t *testing.T, raw []byte) *checker.Document {
 		t.Fatal(err)
 	}
 	return d
+}
+
+// TestReadRefusesReformattedFiles: Read takes a file only byte for byte as
+// lyacert writes it, so that the digest covers what was read; a duplicate
+// key (which another JSON reader might resolve the other way) is refused.
+func TestReadRefusesReformattedFiles(t *testing.T) {
+	raw, err := os.ReadFile(filepath.Join("..", "testdata", "certificates", "coolant.json"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, err := checker.Read(bytes.NewReader(raw)); err != nil {
+		t.Fatalf("the file as written: %v", err)
+	}
+	for name, edit := range map[string]func([]byte) []byte{
+		"compact":        func(b []byte) []byte { var c bytes.Buffer; json.Compact(&c, b); return c.Bytes() },
+		"no final line":  func(b []byte) []byte { return bytes.TrimSuffix(b, []byte("\n")) },
+		"duplicate key":  func(b []byte) []byte { return bytes.Replace(b, []byte(`"tool":`), []byte(`"tool": "x", "tool":`), 1) },
+		"trailing data":  func(b []byte) []byte { return append(slices.Clone(b), "{}\n"...) },
+		"CRLF line ends": func(b []byte) []byte { return bytes.ReplaceAll(b, []byte("\n"), []byte("\r\n")) },
+	} {
+		if _, err := checker.Read(bytes.NewReader(edit(raw))); err == nil {
+			t.Errorf("%s: accepted", name)
+		}
+	}
 }

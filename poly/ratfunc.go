@@ -41,6 +41,11 @@ func (f RatFunc) IsPoly() bool { return len(f.Den) == 0 }
 // IsZero reports whether f is zero.
 func (f RatFunc) IsZero() bool { return f.Num.IsZero() }
 
+// IsOne reports whether f is the constant 1.
+func (f RatFunc) IsOne() bool {
+	return f.IsPoly() && f.Num.IsConst() && f.Num.ConstTerm().Cmp(big.NewRat(1, 1)) == 0
+}
+
 // DenPoly returns the denominator as one polynomial.
 func (f RatFunc) DenPoly() *Poly {
 	d := ConstInt(f.Num.ring, 1)

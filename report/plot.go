@@ -260,7 +260,7 @@ func newPavingView(pv *checker.Paving) *pavingView {
 		share(sum.Outside, sum.OutsideFraction, "where some condition fails throughout"),
 		share(sum.Undecided, sum.UndecidedFraction, "left undecided at the resolution"),
 	}
-	leaves, err := pv.Leaves()
+	leaves, err := certificates.Leaves(pv)
 	v.Leaves = len(leaves)
 	switch {
 	case err != nil:
@@ -278,7 +278,7 @@ func newPavingView(pv *checker.Paving) *pavingView {
 
 // pavingSVG draws the leaves of a paving, projected on its first two
 // parameters (on the first alone, as a strip, when there is one).
-func pavingSVG(params []string, leaves []checker.PavingLeaf) (string, error) {
+func pavingSVG(params []string, leaves []certificates.PavingLeaf) (string, error) {
 	p := plot.New()
 	p.X.Label.Text = plainName(params[0])
 	if len(params) > 1 {
@@ -295,7 +295,7 @@ func pavingSVG(params []string, leaves []checker.PavingLeaf) (string, error) {
 	// Undecided and outside boxes last, so that in a projection they show
 	// over inside ones: the picture errs on the side of caution.
 	order := map[byte]int{checker.PaveInside: 0, checker.PaveOutside: 1, checker.PaveUndecided: 2}
-	sorted := append([]checker.PavingLeaf(nil), leaves...)
+	sorted := append([]certificates.PavingLeaf(nil), leaves...)
 	sort.SliceStable(sorted, func(i, j int) bool { return order[sorted[i].Class] < order[sorted[j].Class] })
 	for _, lf := range sorted {
 		x0, x1 := f(lf.Lo[0]), f(lf.Hi[0])

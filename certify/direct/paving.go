@@ -295,7 +295,7 @@ func (res *Result) failingWitness(vars []int, box []pave.Side) (checker.Witness,
 	for _, s := range box {
 		centre[s.Var] = s.Range.Mid()
 	}
-	if leaves, err := res.Region.Paving.Leaves(); err == nil {
+	if leaves, err := certificates.Leaves(res.Region.Paving); err == nil {
 		for _, lf := range leaves {
 			if lf.Class != checker.PaveOutside {
 				continue

@@ -57,12 +57,12 @@ func pavingBox(kv ...string) map[string][2]*big.Rat {
 	return out
 }
 
-func leavesOf(t *testing.T, res *Result) []checker.PavingLeaf {
+func leavesOf(t *testing.T, res *Result) []certificates.PavingLeaf {
 	t.Helper()
 	if res.Region == nil || res.Region.Paving == nil {
 		t.Fatalf("no paving (verdict %s: %s; %s)", res.Verdict, res.Reason, res.PavingNote)
 	}
-	ls, err := res.Region.Paving.Leaves()
+	ls, err := certificates.Leaves(res.Region.Paving)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -320,7 +320,7 @@ func TestPavingTamper(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	pv, _ := checker.First[*checker.Paving](res.Doc)
+	pv, _ := certificates.First[*checker.Paving](res.Doc)
 	volume := summary(t, pv).Volume
 	// A changed box may still be paved correctly: then the certificate is
 	// valid but about another box, which its volume shows; anything else
@@ -331,7 +331,7 @@ func TestPavingTamper(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		p, _ := checker.First[*checker.Paving](doc)
+		p, _ := certificates.First[*checker.Paving](doc)
 		change(p)
 		if err := certificates.Seal(doc); err != nil {
 			t.Fatal(err)

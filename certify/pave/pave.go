@@ -170,7 +170,7 @@ func PaveRegion(ctx context.Context, conds []*poly.Poly, box []Side, level int, 
 			return nil
 		}
 		segs = append(segs, segment{code: checker.PaveSplit})
-		dim := checker.PavingSplitDim(g.k)
+		dim := poly.SplitDim(g.k)
 		lo, hi := g.halves(dim)
 		if err := top(lo, halves(forms, dim, false)); err != nil {
 			return err
@@ -415,7 +415,7 @@ func (w *worker) classify(g grid, forms []*poly.CenteredForm) (code byte, split 
 	if w.boxes.Add(1) > w.max {
 		return 0, false, ErrTooManyBoxes
 	}
-	splittable := g.k[checker.PavingSplitDim(g.k)] < w.level
+	splittable := g.k[poly.SplitDim(g.k)] < w.level
 	if fc := w.floatClass(g); fc != checker.PaveUndecided {
 		ec := w.exactClass(g, forms)
 		if ec != checker.PaveUndecided {
@@ -459,7 +459,7 @@ func (w *worker) subtree(ctx context.Context, g grid, forms []*poly.CenteredForm
 		w.bufs = append(w.bufs, fs)
 	}
 	child := w.bufs[d]
-	dim := checker.PavingSplitDim(g.k)
+	dim := poly.SplitDim(g.k)
 	lo, hi := g.halves(dim)
 	for j, f := range forms {
 		child[j].Half(f, dim, false)

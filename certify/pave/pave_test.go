@@ -152,7 +152,7 @@ func TestPaveRegionLeaves(t *testing.T) {
 	if sum.Inside != pv.Inside || sum.Outside != pv.Outside || sum.Undecided != pv.Undecided || pv.Inside == 0 || pv.Outside == 0 || pv.Undecided == 0 {
 		t.Fatalf("counts %d/%d/%d, derived %d/%d/%d", pv.Inside, pv.Outside, pv.Undecided, sum.Inside, sum.Outside, sum.Undecided)
 	}
-	leaves, err := doc.Leaves()
+	leaves, err := certificates.Leaves(&doc)
 	if err != nil {
 		t.Fatal(err)
 	}

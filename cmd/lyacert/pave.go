@@ -271,7 +271,7 @@ func writePlot(path string, pv *checker.Paving, slice []string) error {
 	if format != "svg" && format != "png" {
 		return fmt.Errorf("%s: the file must end in .svg or .png", path)
 	}
-	leaves, err := pv.Leaves()
+	leaves, err := certificates.Leaves(pv)
 	if err != nil {
 		return err
 	}

@@ -1,0 +1,46 @@
+// Package checker is lyacert's trusted kernel: it re-checks a certificate
+// from scratch with exact rational arithmetic, knowing nothing of how the
+// certificate was found. It imports only poly, model and the standard
+// library, and uses no floating point.
+//
+// A certificate (Document) is a model text, a restatement of its parameters
+// and a list of claims. Each claim names the rule that checks it; Verify
+// dispatches on the name, in the order of the table below, and derives the
+// verdict (holds, holds-on-region, fails, undecided) and the kind of claim
+// (global-asymptotic, local-asymptotic, stable, unstable, none) from the
+// claims it verified. Nothing of the verdict is read from the document.
+//
+//	rule                 theorem applied; what is recomputed
+//	orbital-derivative   chain rule: V̇ = Σ ∂V/∂xᵢ·fᵢ (ΔV = V(f(x)) − V(x) for maps),
+//	                     recomputed from the model; f vanishes at the equilibrium
+//	quadratic-part-ldl   Sylvester's criterion through G = L·D·Lᵀ, checked as an
+//	                     identity; minors = products of pivots; D ≥ 0 with zero
+//	                     columns gives a semidefinite form
+//	monomial-gram-ldl    zᵀGz equals the whole function, z monomials with a pure
+//	                     power of every state: G ≻ 0 ⇒ positive definite and
+//	                     radially unbounded
+//	minor-condition      a minor's factorization as an identity; factor signs by
+//	                     exact interval enclosure over the parameter box (Moore 1966)
+//	semidefinite-kernel  the kernel of a semidefinite −V̇: independent vectors with
+//	                     G·k = 0, one per zero pivot
+//	sturm-region         Sturm's theorem: the pieces of one parameter's range where
+//	                     every condition holds, algebraic ends by isolating intervals
+//	paving               set inversion (Jaulin & Walter 1993): every box of the tree
+//	                     classified by centred forms, exact
+//	witness-points       the conditions evaluated exactly at parameter points
+//	refutation           V ≤ 0 or V̇ ≥ 0 at an exact point, for every value of the
+//	                     parameters left free (interval enclosure)
+//	krawczyk-enclosure   Krawczyk's theorem: K(X) inside X ⇒ exactly one equilibrium
+//	linearization        Lyapunov's indirect method: M(x*) ≻ 0 with P ≻ 0 (stable)
+//	                     or a negative pivot of P (unstable)
+//
+// Lyapunov's direct method combines them: V and −V̇ definite as wholes give
+// global asymptotic stability, their quadratic parts local asymptotic
+// stability, a definite V with an exactly quadratic semidefinite −V̇
+// stability; where the conditions hold is what the region claims say, and a
+// failing test turns into "fails" only beside a refutation.
+//
+// Read takes a file only byte for byte as File writes it; the digest (SHA-256
+// of the canonical serialization) is checked last, and a present ed25519
+// signature must verify against it.
+package checker

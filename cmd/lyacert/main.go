@@ -1,5 +1,3 @@
-// Command lyacert checks, finds and documents Lyapunov-function certificates
-// for polynomial dynamical systems, with exact arithmetic.
 package main
 
 import (

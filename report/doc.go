@@ -25,4 +25,29 @@
 // script and a content security policy that forbids one. Every report ends
 // with the cautions: a certificate proves a property of the model under its
 // assumptions, not of the physical system.
+//
+// # The command line's output
+//
+// The package also holds everything the command line shows, so that the
+// command keeps only flags, files and exit codes:
+//
+//   - terminal text: CheckText (the direct method), FindText (equilibria
+//     and linearization certificates), VerifyText (a re-check), Caution;
+//   - the --json shapes: CheckJSON, FindJSON, VerifyJSON, whose keys are a
+//     contract;
+//   - FindVerdict, the one verdict that the text, the JSON and the exit
+//     code of a search for equilibria state;
+//   - pictures: PavingPlot (a paving of two parameters, or a slice of
+//     more) and SweepPlot (the verdicts over a parameter grid).
+//
+// The terminal text and the JSON are made from the engine's results
+// (certify/direct, certify/equilibria), whose certificates the checker has
+// already accepted; the mathematics in CheckJSON is read from the
+// certificate itself (certificates.ContentsOf). A report (Render) needs
+// the certificate alone.
+//
+// A condition q > 0 on the parameters is stated the same way in the text,
+// the JSON and the reports: when q = a·p + c is linear in one parameter p
+// it reads p > −c/a for a > 0 and p < −c/a for a < 0; a positive constant
+// needs no statement and a non-positive one never holds.
 package report

@@ -9,6 +9,7 @@ import (
 	"math"
 	"math/big"
 	"regexp"
+	"slices"
 	"sort"
 	"strings"
 
@@ -324,4 +325,291 @@ func pavingSVG(params []string, leaves []certificates.PavingLeaf) (string, error
 		p.Add(pg)
 	}
 	return drawSVG(p, 14*vg.Centimeter, 11*vg.Centimeter)
+}
+
+// classColors are the paving classes' colours, those of the strips.
+var classColors = map[byte]color.Color{
+	checker.PaveInside:    holdsColor,
+	checker.PaveOutside:   failsColor,
+	checker.PaveUndecided: undecidedColor,
+}
+
+var classNames = map[byte]string{
+	checker.PaveInside:    "inside: the conditions hold (proven)",
+	checker.PaveOutside:   "outside: a condition fails (proven)",
+	checker.PaveUndecided: "undecided at the resolution",
+}
+
+// PavingPlot draws a paving's leaves, coloured by class, over the two
+// parameters that fixed leaves free, and returns the picture in format
+// ("svg" or "png"). fixed gives a value to every other paved parameter (by
+// its index in pv.Params), each within its side of the box: a leaf is drawn
+// when the value lies in it, its lower end included, its upper end only at
+// the top of the box. The float64 positions are for the picture only.
+func PavingPlot(pv *checker.Paving, fixed map[int]*big.Rat, format string) ([]byte, error) {
+	leaves, err := certificates.Leaves(pv)
+	if err != nil {
+		return nil, err
+	}
+	var axes []int
+	for i := range pv.Params {
+		if _, ok := fixed[i]; !ok {
+			axes = append(axes, i)
+		}
+	}
+	if len(axes) != 2 {
+		return nil, fmt.Errorf("the plot needs exactly two free axes, not %d", len(axes))
+	}
+	p := plot.New()
+	p.Title.Text = "Paving of (" + strings.Join(pv.Params, ", ") + ") at resolution " + pv.Resolution
+	if len(fixed) > 0 {
+		var fs []string
+		for i := range pv.Params {
+			if v, ok := fixed[i]; ok {
+				fs = append(fs, pv.Params[i]+" = "+v.RatString())
+			}
+		}
+		p.Title.Text += ", slice " + strings.Join(fs, ", ")
+	}
+	p.X.Label.Text, p.Y.Label.Text = pv.Params[axes[0]], pv.Params[axes[1]]
+	x0, _ := new(big.Rat).SetString(pv.Box[axes[0]].Lo)
+	x1, _ := new(big.Rat).SetString(pv.Box[axes[0]].Hi)
+	y0, _ := new(big.Rat).SetString(pv.Box[axes[1]].Lo)
+	y1, _ := new(big.Rat).SetString(pv.Box[axes[1]].Hi)
+	p.X.Min, _ = x0.Float64()
+	p.X.Max, _ = x1.Float64()
+	p.Y.Min, _ = y0.Float64()
+	p.Y.Max, _ = y1.Float64()
+	p.Y.Max += (p.Y.Max - p.Y.Min) / 5 // room for the legend above the box
+	layers := map[byte]*boxLayer{}
+	for _, c := range []byte{checker.PaveInside, checker.PaveOutside, checker.PaveUndecided} {
+		layers[c] = &boxLayer{fill: classColors[c]}
+	}
+	for _, lf := range leaves {
+		in := true
+		for i, v := range fixed {
+			top, _ := new(big.Rat).SetString(pv.Box[i].Hi)
+			in = in && lf.Lo[i].Cmp(v) <= 0 && (v.Cmp(lf.Hi[i]) < 0 || v.Cmp(top) == 0)
+		}
+		if !in {
+			continue
+		}
+		var r [4]float64
+		r[0], _ = lf.Lo[axes[0]].Float64()
+		r[1], _ = lf.Hi[axes[0]].Float64()
+		r[2], _ = lf.Lo[axes[1]].Float64()
+		r[3], _ = lf.Hi[axes[1]].Float64()
+		layers[lf.Class].boxes = append(layers[lf.Class].boxes, r)
+	}
+	for _, c := range []byte{checker.PaveInside, checker.PaveOutside, checker.PaveUndecided} {
+		p.Add(layers[c])
+		p.Legend.Add(classNames[c]+", "+boxes(len(layers[c].boxes)), layers[c])
+	}
+	p.Legend.Top = true
+	wt, err := p.WriterTo(6*vg.Inch, 5*vg.Inch, format)
+	if err != nil {
+		return nil, err
+	}
+	var buf bytes.Buffer
+	if _, err := wt.WriteTo(&buf); err != nil {
+		return nil, err
+	}
+	return buf.Bytes(), nil
+}
+
+// boxLayer is a plot.Plotter of filled axis-parallel boxes
+// (x0, x1, y0, y1), drawn at float64 positions for the picture only.
+type boxLayer struct {
+	boxes [][4]float64
+	fill  color.Color
+}
+
+func (b *boxLayer) Plot(c draw.Canvas, p *plot.Plot) {
+	trX, trY := p.Transforms(&c)
+	for _, r := range b.boxes {
+		pts := []vg.Point{
+			{X: trX(r[0]), Y: trY(r[2])}, {X: trX(r[1]), Y: trY(r[2])},
+			{X: trX(r[1]), Y: trY(r[3])}, {X: trX(r[0]), Y: trY(r[3])},
+		}
+		clipped := c.ClipPolygonXY(pts)
+		c.FillPolygon(b.fill, clipped)
+		// A hairline in the same colour hides the seams that
+		// anti-aliasing leaves between adjacent boxes.
+		if len(clipped) > 0 {
+			c.StrokeLines(draw.LineStyle{Color: b.fill, Width: vg.Points(0.3)}, append(clipped, clipped[0]))
+		}
+	}
+}
+
+// Thumbnail draws the legend's swatch.
+func (b *boxLayer) Thumbnail(c *draw.Canvas) {
+	pts := []vg.Point{
+		{X: c.Min.X, Y: c.Min.Y}, {X: c.Max.X, Y: c.Min.Y},
+		{X: c.Max.X, Y: c.Max.Y}, {X: c.Min.X, Y: c.Max.Y},
+	}
+	c.FillPolygon(b.fill, pts)
+}
+
+// SweepCategory sums up the verdicts at one grid point of a sweep.
+type SweepCategory int
+
+// The categories of a grid point.
+const (
+	SweepUndecided SweepCategory = iota // nothing certified either way, or no equilibrium
+	SweepUnstable                       // every equilibrium certified unstable
+	SweepMixed                          // some certified stable, not all
+	SweepStable                         // every equilibrium certified stable
+)
+
+// SweepCell is a grid point of a sweep as SweepPlot draws it: its values of
+// the swept parameters and its category.
+type SweepCell struct {
+	Values   []float64
+	Category SweepCategory
+}
+
+// categoryColors are chosen to stay apart for colour-blind readers
+// (blue, light blue, orange, grey).
+var categoryColors = [...]color.Color{
+	SweepUndecided: color.RGBA{0xbb, 0xbb, 0xbb, 0xff},
+	SweepUnstable:  color.RGBA{0xe6, 0x7e, 0x22, 0xff},
+	SweepMixed:     color.RGBA{0x9e, 0xca, 0xe1, 0xff},
+	SweepStable:    color.RGBA{0x21, 0x66, 0xac, 0xff},
+}
+
+var legendNames = [...]string{
+	SweepUndecided: "not decided",
+	SweepUnstable:  "all certified unstable",
+	SweepMixed:     "some certified stable",
+	SweepStable:    "all certified stable",
+}
+
+// verdictCells draws one cell per grid point coloured by its category, and
+// a black line wherever neighbouring cells differ: the boundary of the
+// certified region as the grid resolves it.
+type verdictCells struct {
+	xs, ys []float64                // the distinct values of each axis, ascending
+	cat    map[[2]int]SweepCategory // by (x index, y index)
+}
+
+func edges(vs []float64) []float64 {
+	if len(vs) == 1 {
+		return []float64{vs[0] - 0.5, vs[0] + 0.5}
+	}
+	out := make([]float64, len(vs)+1)
+	out[0] = vs[0] - (vs[1]-vs[0])/2
+	for i := 1; i < len(vs); i++ {
+		out[i] = (vs[i-1] + vs[i]) / 2
+	}
+	out[len(vs)] = vs[len(vs)-1] + (vs[len(vs)-1]-vs[len(vs)-2])/2
+	return out
+}
+
+func (v *verdictCells) DataRange() (xmin, xmax, ymin, ymax float64) {
+	ex, ey := edges(v.xs), edges(v.ys)
+	return ex[0], ex[len(ex)-1], ey[0], ey[len(ey)-1]
+}
+
+func (v *verdictCells) Plot(c draw.Canvas, plt *plot.Plot) {
+	trX, trY := plt.Transforms(&c)
+	ex, ey := edges(v.xs), edges(v.ys)
+	for key, cat := range v.cat {
+		x0, x1 := trX(ex[key[0]]), trX(ex[key[0]+1])
+		y0, y1 := trY(ey[key[1]]), trY(ey[key[1]+1])
+		// A hair wider than the cell, so that anti-aliasing leaves no seams.
+		x1, y1 = x1+vg.Points(0.3), y1+vg.Points(0.3)
+		c.FillPolygon(categoryColors[cat], []vg.Point{{X: x0, Y: y0}, {X: x1, Y: y0}, {X: x1, Y: y1}, {X: x0, Y: y1}})
+	}
+	line := draw.LineStyle{Color: color.Black, Width: vg.Points(1.5)}
+	for key, cat := range v.cat {
+		if right, ok := v.cat[[2]int{key[0] + 1, key[1]}]; ok && right != cat {
+			x := trX(ex[key[0]+1])
+			c.StrokeLine2(line, x, trY(ey[key[1]]), x, trY(ey[key[1]+1]))
+		}
+		if up, ok := v.cat[[2]int{key[0], key[1] + 1}]; ok && up != cat {
+			y := trY(ey[key[1]+1])
+			c.StrokeLine2(line, trX(ex[key[0]]), y, trX(ex[key[0]+1]), y)
+		}
+	}
+}
+
+// swatch is a legend entry's filled square.
+type swatch struct{ c color.Color }
+
+func (s swatch) Thumbnail(c *draw.Canvas) {
+	c.FillPolygon(s.c, []vg.Point{c.Min, {X: c.Max.X, Y: c.Min.Y}, c.Max, {X: c.Min.X, Y: c.Max.Y}})
+}
+
+// SweepPlot draws the categories of a sweep's grid points: a strip over one
+// swept parameter, a heat map over two (names are the swept parameters, in
+// the order of each cell's values). format is "svg", "png" or "pdf".
+func SweepPlot(title string, names []string, cells []SweepCell, format string) ([]byte, error) {
+	if len(names) != 1 && len(names) != 2 {
+		return nil, fmt.Errorf("a sweep plot draws one or two swept parameters, not %d", len(names))
+	}
+	if len(cells) == 0 {
+		return nil, fmt.Errorf("a sweep plot needs at least one grid point")
+	}
+	v := &verdictCells{cat: map[[2]int]SweepCategory{}}
+	axis := func(i int) []float64 {
+		var vs []float64
+		for _, p := range cells {
+			if !slices.Contains(vs, p.Values[i]) {
+				vs = append(vs, p.Values[i])
+			}
+		}
+		slices.Sort(vs)
+		return vs
+	}
+	v.xs = axis(0)
+	v.ys = []float64{0}
+	if len(names) == 2 {
+		v.ys = axis(1)
+	}
+	for _, p := range cells {
+		xi := slices.Index(v.xs, p.Values[0])
+		yi := 0
+		if len(names) == 2 {
+			yi = slices.Index(v.ys, p.Values[1])
+		}
+		v.cat[[2]int{xi, yi}] = p.Category
+	}
+	p := plot.New()
+	p.Title.Text = "lyacert sweep: " + title
+	p.X.Label.Text = names[0]
+	if len(names) == 2 {
+		p.Y.Label.Text = names[1]
+	} else {
+		p.HideY()
+	}
+	p.Add(v)
+	seen := map[SweepCategory]bool{}
+	for _, c := range v.cat {
+		seen[c] = true
+	}
+	leg := plot.NewLegend()
+	for _, c := range []SweepCategory{SweepStable, SweepMixed, SweepUnstable, SweepUndecided} {
+		if seen[c] {
+			leg.Add(legendNames[c], swatch{categoryColors[c]})
+		}
+	}
+	leg.Top, leg.Left = true, true
+	width, height := 22*vg.Centimeter, 12*vg.Centimeter
+	if len(names) == 1 {
+		height = 7 * vg.Centimeter
+	}
+	legend := 6 * vg.Centimeter
+	wt, err := draw.NewFormattedCanvas(width, height, format)
+	if err != nil {
+		return nil, err
+	}
+	// The plot on the left, the legend beside it where it hides no cell.
+	dc := draw.New(wt)
+	p.Draw(draw.Crop(dc, 0, -legend, 0, 0))
+	leg.Draw(draw.Crop(dc, width-legend+vg.Centimeter/2, 0, 0, -vg.Centimeter))
+	var buf bytes.Buffer
+	if _, err := wt.WriteTo(&buf); err != nil {
+		return nil, err
+	}
+	return buf.Bytes(), nil
 }

@@ -602,14 +602,24 @@ func (b *builder) condition(c checker.MinorCondition) (rich, error) {
 	return append(out, "."), nil
 }
 
-// conditionNode sets q > 0 readably: "r < 1" for a linear condition in one
-// parameter; nil when q is a positive constant.
-func conditionNode(q *poly.Poly) node {
+// readable is a condition q > 0 as the text and the reports state it.
+type readable struct {
+	always, never bool     // q is a positive, or a non-positive, constant
+	param         string   // set when q is linear in this one parameter:
+	below         bool     // q > 0 iff param < bound (else param > bound)
+	bound         *big.Rat //
+}
+
+// readCondition reads q > 0 for people: as a bound on one parameter when q
+// is linear in it (a·p + c > 0 iff p > −c/a for a > 0, p < −c/a for
+// a < 0), as always or never true when q is constant; otherwise it stays
+// q > 0 (the zero value).
+func readCondition(q *poly.Poly) readable {
 	if q.IsConst() {
 		if q.ConstTerm().Sign() > 0 {
-			return nil
+			return readable{always: true}
 		}
-		return relation{polyNode(q), symGreater, zeroNode}
+		return readable{never: true}
 	}
 	vars := q.VarsUsed()
 	if len(vars) == 1 && q.Degree() == 1 {
@@ -617,11 +627,24 @@ func conditionNode(q *poly.Poly) node {
 		a, c := u.Coeffs()[1], u.Coeffs()[0]
 		x := new(big.Rat).Neg(c)
 		x.Quo(x, a)
+		return readable{param: q.Ring().Name(vars[0]), below: a.Sign() < 0, bound: x}
+	}
+	return readable{}
+}
+
+// conditionNode sets q > 0 readably (see readCondition): "r < 1" for a
+// linear condition in one parameter; nil when q is a positive constant.
+func conditionNode(q *poly.Poly) node {
+	c := readCondition(q)
+	switch {
+	case c.always:
+		return nil
+	case c.param != "":
 		op := symGreater
-		if a.Sign() < 0 {
+		if c.below {
 			op = symLess
 		}
-		return relation{name{q.Ring().Name(vars[0])}, op, ratNode(x)}
+		return relation{name{c.param}, op, ratNode(c.bound)}
 	}
 	return relation{polyNode(q), symGreater, zeroNode}
 }

@@ -1,5 +1,3 @@
-// Command lyacert checks, finds and documents Lyapunov-function certificates
-// for polynomial dynamical systems, with exact arithmetic.
 package main
 
 import (
@@ -20,6 +18,7 @@ import (
 	"lyacert/examples"
 	"lyacert/model"
 	"lyacert/poly"
+	"lyacert/report"
 )
 
 // Exit codes.
@@ -49,6 +48,9 @@ Examples:
 
 Exit codes: 0 the claim holds for every allowed parameter value; 1 it does not
 (or only on part of the range, or undecided); 2 bad input or usage.`
+
+// caution closes the text of every command that states a verdict.
+const caution = report.Caution
 
 type cli struct {
 	Version kong.VersionFlag `help:"Print the version and exit."`
@@ -271,9 +273,9 @@ func checkModel(name string, src []byte, settings []model.Setting, out string, a
 		written = out
 	}
 	if asJSON {
-		writeJSON(e.stdout, checkJSON(res, written))
+		writeJSON(e.stdout, report.CheckJSON(res, written))
 	} else {
-		renderCheck(e.stdout, res, written)
+		report.CheckText(e.stdout, res, written)
 	}
 	if code := pf.finish(res, e); code != 0 {
 		return code
@@ -313,9 +315,9 @@ func (c *verifyCmd) run(e *env) int {
 	}
 	res := applyTrust(doc, checker.Verify(doc), trusted)
 	if c.JSON {
-		writeJSON(e.stdout, verifyJSON(doc, res))
+		writeJSON(e.stdout, report.VerifyJSON(doc, res))
 	} else {
-		renderVerify(e.stdout, name, doc, res)
+		report.VerifyText(e.stdout, name, doc, res)
 		renderSigner(e.stdout, doc, res, len(trusted) > 0)
 	}
 	if res.Valid {
@@ -329,4 +331,10 @@ func writeJSON(w io.Writer, v any) {
 	enc.SetEscapeHTML(false)
 	enc.SetIndent("", "  ")
 	enc.Encode(v)
+}
+
+// renderVerify writes a re-check for people; sign reports a rejected
+// certificate with it.
+func renderVerify(w io.Writer, name string, doc *checker.Document, res checker.Outcome) {
+	report.VerifyText(w, name, doc, res)
 }

@@ -1,4 +1,4 @@
-package main
+package report
 
 import (
 	"fmt"
@@ -7,17 +7,42 @@ import (
 	"sort"
 	"strings"
 
+	"lyacert/certificates"
 	"lyacert/certify/direct"
 	"lyacert/checker"
 	"lyacert/model"
 	"lyacert/poly"
 )
 
-// caution is printed under every verdict.
-const caution = `Caution: this certificate proves a property of the model above under its
+// Caution is printed under every verdict of the terminal text and under a
+// sweep's summary. The reports carry a longer list (see cautions).
+const Caution = `Caution: this certificate proves a property of the model above under its
 stated assumptions, not of the physical system. Modelling error, unmodelled
 dynamics, saturation, delay and sampling can void it. Defer to the applicable
 standards and to licensed engineering judgement.`
+
+// errWriter keeps the first write error, so that a text of many lines is
+// written with plain Fprintf calls and its error is still returned.
+type errWriter struct {
+	w   io.Writer
+	err error
+}
+
+func (e *errWriter) Write(p []byte) (int, error) {
+	if e.err != nil {
+		return 0, e.err
+	}
+	n, err := e.w.Write(p)
+	e.err = err
+	return n, err
+}
+
+// textClaims are the claims in the terminal text's verdict line.
+var textClaims = map[string]string{
+	checker.KindGlobal: claimWords[checker.KindGlobal],
+	checker.KindLocal:  claimWords[checker.KindLocal],
+	checker.KindStable: "the equilibrium is stable (Lyapunov); V̇ ≤ 0 but not < 0",
+}
 
 func dotName(m *model.Model) string {
 	if m.Discrete {
@@ -26,17 +51,23 @@ func dotName(m *model.Model) string {
 	return "V̇"
 }
 
-func renderCheck(w io.Writer, res *direct.Result, written string) {
+// CheckText writes the result of the direct method for a terminal: the
+// model, V and its derivative along the flow (or difference along the
+// map), the completed squares, the leading principal minors, the
+// conditions on the parameters, the region where they hold, the verdict,
+// the checker's re-check of the certificate and the caution. written is
+// the file the certificate was written to, "" when none. It returns the
+// first write error.
+func CheckText(w io.Writer, res *direct.Result, written string) error {
+	ew := &errWriter{w: w}
+	checkText(ew, res, written)
+	return ew.err
+}
+
+func checkText(w io.Writer, res *direct.Result, written string) {
 	m := res.Model
 	dv := dotName(m)
-	for _, d := range m.Description {
-		if d != "" {
-			fmt.Fprintf(w, "# %s\n", d)
-		}
-	}
-	if len(m.Description) > 0 {
-		fmt.Fprintln(w)
-	}
+	modelHeader(w, m)
 	fmt.Fprintf(w, "Model %s\n", m.File)
 	fmt.Fprintf(w, "  states       %s\n", strings.Join(m.States, ", "))
 	for _, p := range m.Params {
@@ -46,13 +77,7 @@ func renderCheck(w io.Writer, res *direct.Result, written string) {
 		}
 		fmt.Fprintf(w, "  parameter    %s %s\n", p.Name, t)
 	}
-	for i, s := range m.States {
-		if m.Discrete {
-			fmt.Fprintf(w, "  next %s = %s\n", s, m.F[i])
-		} else {
-			fmt.Fprintf(w, "  %s' = %s\n", s, m.F[i])
-		}
-	}
+	equationsText(w, m)
 	at := make([]string, len(m.States))
 	for i, s := range m.States {
 		at[i] = s + " = " + m.At[i].String()
@@ -106,7 +131,7 @@ func renderCheck(w io.Writer, res *direct.Result, written string) {
 				// the whole function, in a monomial basis
 				lhs = strings.TrimSuffix(lhs, "₂")
 			}
-			fmt.Fprintf(w, "  %s = %s\n", lhs, squares(f))
+			fmt.Fprintf(w, "  %s = %s\n", lhs, squaresText(f))
 		}
 		fmt.Fprintln(w)
 		fmt.Fprintln(w, "Leading principal minors (Sylvester: positive definite iff all > 0)")
@@ -125,11 +150,11 @@ func renderCheck(w io.Writer, res *direct.Result, written string) {
 			fmt.Fprintf(w, "  %s: %s\n", lhs, strings.Join(parts, ", "))
 		}
 		fmt.Fprintln(w)
-		renderConditions(w, res)
+		conditionsText(w, res)
 	}
-	renderVerdict(w, res)
+	verdictText(w, res)
 	if res.Refutation != nil {
-		renderRefutation(w, res)
+		refutationText(w, res)
 	}
 	for _, n := range res.Notes {
 		fmt.Fprintf(w, "Note: %s.\n", n)
@@ -138,11 +163,34 @@ func renderCheck(w io.Writer, res *direct.Result, written string) {
 	if written != "" {
 		fmt.Fprintf(w, "; written to %s", written)
 	}
-	fmt.Fprintf(w, "\n  digest %s\n\n%s\n", res.Doc.Digest, caution)
+	fmt.Fprintf(w, "\n  digest %s\n\n%s\n", res.Doc.Digest, Caution)
 }
 
-// squares writes Σ dₖ·(xₖ + Σᵢ>ₖ Lᵢₖ xᵢ)² as a person would.
-func squares(f direct.Form) string {
+// modelHeader writes the model file's leading comment, a line per line.
+func modelHeader(w io.Writer, m *model.Model) {
+	for _, d := range m.Description {
+		if d != "" {
+			fmt.Fprintf(w, "# %s\n", d)
+		}
+	}
+	if len(m.Description) > 0 {
+		fmt.Fprintln(w)
+	}
+}
+
+// equationsText writes x' = f(x), or next x = f(x) for a map.
+func equationsText(w io.Writer, m *model.Model) {
+	for i, s := range m.States {
+		if m.Discrete {
+			fmt.Fprintf(w, "  next %s = %s\n", s, m.F[i])
+		} else {
+			fmt.Fprintf(w, "  %s' = %s\n", s, m.F[i])
+		}
+	}
+}
+
+// squaresText writes Σ dₖ·(xₖ + Σᵢ>ₖ Lᵢₖ xᵢ)² as a person would.
+func squaresText(f direct.Form) string {
 	var parts []string
 	for k, d := range f.LDL.D {
 		if f.LDL.Zero[k] {
@@ -170,10 +218,10 @@ func squares(f direct.Form) string {
 	return strings.Join(parts, " + ")
 }
 
-func renderConditions(w io.Writer, res *direct.Result) {
+func conditionsText(w io.Writer, res *direct.Result) {
 	dv := dotName(res.Model)
 	fmt.Fprintln(w, "Conditions")
-	any := false
+	some := false
 	for _, c := range res.Conds {
 		form := "V"
 		if c.Form != "V" {
@@ -195,14 +243,14 @@ func renderConditions(w io.Writer, res *direct.Result) {
 			}
 			continue
 		}
-		any = true
+		some = true
 		note := ""
 		if len(discharged) > 0 {
 			note = " (" + strings.Join(discharged, "; ") + ")"
 		}
 		fmt.Fprintf(w, "  %s Δ%d > 0 requires %s%s\n", form, c.Index, cond, note)
 	}
-	if !any {
+	if !some {
 		fmt.Fprintln(w, "  every condition holds for every allowed parameter value")
 	}
 	fmt.Fprintln(w)
@@ -219,30 +267,26 @@ func factorText(f direct.FactorStatus) string {
 	return s
 }
 
-// conditionText renders q > 0 readably: "r < 1" for a linear condition in
-// one parameter; "" when q is a positive constant.
+// conditionText writes q > 0 readably (see readCondition): "r < 1" for a
+// linear condition in one parameter; "" when q is a positive constant.
 func conditionText(q *poly.Poly) string {
-	if q.IsConst() {
-		if q.ConstTerm().Sign() > 0 {
-			return ""
-		}
+	c := readCondition(q)
+	switch {
+	case c.always:
+		return ""
+	case c.never:
 		return "false (" + q.String() + " > 0 never holds)"
-	}
-	vars := q.VarsUsed()
-	if len(vars) == 1 && q.Degree() == 1 {
-		u, _ := q.Univariate(vars[0])
-		a, b := u.Coeffs()[1], u.Coeffs()[0]
-		x := new(big.Rat).Neg(b)
-		x.Quo(x, a)
+	case c.param != "":
 		op := ">"
-		if a.Sign() < 0 {
+		if c.below {
 			op = "<"
 		}
-		return fmt.Sprintf("%s %s %s", q.Ring().Name(vars[0]), op, x.RatString())
+		return fmt.Sprintf("%s %s %s", c.param, op, c.bound.RatString())
 	}
 	return q.String() + " > 0"
 }
 
+// intervalText writes an interval of a parameter as [a, b), {a} for a point.
 func intervalText(iv checker.Interval) string {
 	if iv.Lo == iv.Hi && iv.LoPoly == iv.HiPoly && iv.LoClosed && iv.HiClosed {
 		return "{" + iv.Lo + "}"
@@ -257,14 +301,24 @@ func intervalText(iv checker.Interval) string {
 	return lb + iv.Lo + ", " + iv.Hi + rb
 }
 
-func renderVerdict(w io.Writer, res *direct.Result) {
-	claim := map[string]string{
-		checker.KindGlobal: "the equilibrium is globally asymptotically stable",
-		checker.KindLocal:  "the equilibrium is locally asymptotically stable",
-		checker.KindStable: "the equilibrium is stable (Lyapunov); V̇ ≤ 0 but not < 0",
-	}[res.Claim]
+// rootLines adds to lines, once each, "a is the root of p in (l, u)" for
+// the irrational ends of iv, after indent.
+func rootLines(lines []string, indent string, iv checker.Interval) []string {
+	for _, e := range [][3]string{{iv.Lo, iv.LoPoly, isoText(iv.LoIsolating)}, {iv.Hi, iv.HiPoly, isoText(iv.HiIsolating)}} {
+		if e[1] == "" {
+			continue
+		}
+		if s := fmt.Sprintf("%s%s is the root of %s in %s", indent, e[0], e[1], e[2]); !containsStr(lines, s) {
+			lines = append(lines, s)
+		}
+	}
+	return lines
+}
+
+func verdictText(w io.Writer, res *direct.Result) {
+	claim := textClaims[res.Claim]
 	if res.Region != nil && res.Region.Paving != nil {
-		renderPaving(w, res)
+		pavingText(w, res)
 	} else if res.Region != nil {
 		fmt.Fprintf(w, "Region of %s (exact)\n", res.Region.Param)
 		var isol []string
@@ -274,14 +328,7 @@ func renderVerdict(w io.Writer, res *direct.Result) {
 				state = "holds"
 			}
 			fmt.Fprintf(w, "  %-8s %s %s\n", state, res.Region.Param+" ∈", intervalText(p.Interval))
-			for _, e := range [][3]string{{p.Lo, p.LoPoly, isoText(p.LoIsolating)}, {p.Hi, p.HiPoly, isoText(p.HiIsolating)}} {
-				if e[1] != "" {
-					s := fmt.Sprintf("  %s is the root of %s in %s", e[0], e[1], e[2])
-					if !containsStr(isol, s) {
-						isol = append(isol, s)
-					}
-				}
-			}
+			isol = rootLines(isol, "  ", p.Interval)
 		}
 		for _, s := range isol {
 			fmt.Fprintln(w, s)
@@ -367,7 +414,7 @@ func paramsText(p map[string]string) string {
 	return strings.Join(parts, ", ")
 }
 
-func renderRefutation(w io.Writer, res *direct.Result) {
+func refutationText(w io.Writer, res *direct.Result) {
 	rf := res.Refutation
 	m := res.Model
 	pt := make([]string, len(m.States))
@@ -381,18 +428,118 @@ func renderRefutation(w io.Writer, res *direct.Result) {
 	fmt.Fprintf(w, "Refutation (exact)%s: at %s, V = %s and %s = %s.\n", where, strings.Join(pt, ", "), rf.V, dotName(m), rf.Vdot)
 }
 
-func renderVerify(w io.Writer, name string, doc *checker.Document, res checker.Outcome) {
-	failed := 0
-	for _, c := range res.Records {
-		if !c.OK {
-			failed++
-			fmt.Fprintf(w, "FAIL  %-12s %s\n", c.Name, c.Reason)
+// pavingText writes the paving for people: box, resolution, the three
+// classes with their exact shares, and the product form when there is one.
+func pavingText(w io.Writer, res *direct.Result) {
+	pv := res.Region.Paving
+	s, _ := certificates.Summarize(pv) // verified: well formed
+	fmt.Fprintf(w, "Region of (%s) by set inversion (every inside box re-checked exactly)\n", strings.Join(pv.Params, ", "))
+	var sides []string
+	for i, side := range pv.Box {
+		sides = append(sides, pv.Params[i]+" ∈ "+intervalText(side))
+	}
+	fmt.Fprintf(w, "  box          %s (volume %s)\n", strings.Join(sides, ", "), s.Volume)
+	fmt.Fprintf(w, "  resolution   %s of each side\n", pv.Resolution)
+	for _, c := range []struct {
+		class string
+		n     int
+		share string
+		note  string
+	}{
+		{"inside", s.Inside, s.InsideFraction, ", merged into " + boxes(len(s.InsideBoxes))},
+		{"outside", s.Outside, s.OutsideFraction, ""},
+		{"undecided", s.Undecided, s.UndecidedFraction, ""},
+	} {
+		fmt.Fprintf(w, "  %-12s %s, %s of the box (%s)%s\n", c.class, boxes(c.n), percent(c.share), c.share, c.note)
+	}
+	if res.Paving != nil && res.Paving.Rejected > 0 {
+		fmt.Fprintf(w, "  (%d float proposals were not confirmed by the exact test and were refined)\n", res.Paving.Rejected)
+	}
+	if len(pv.Product) > 0 {
+		fmt.Fprintln(w, "  closed form (each condition involves one parameter):")
+		fmt.Fprintf(w, "    %s\n", productText(pv.Product))
+		var isol []string
+		for _, f := range pv.Product {
+			for _, iv := range f.Intervals {
+				isol = rootLines(isol, "    ", iv)
+			}
+		}
+		for _, s := range isol {
+			fmt.Fprintln(w, s)
 		}
 	}
-	if res.Valid {
-		fmt.Fprintf(w, "%s: valid. %d checks passed (exact arithmetic).\n", name, len(res.Records))
-		fmt.Fprintf(w, "  claim %s, verdict %s\n  digest %s\n", res.Kind, res.Verdict, doc.Digest)
-		return
+	fmt.Fprintln(w)
+}
+
+func boxes(n int) string {
+	if n == 1 {
+		return "1 box"
 	}
-	fmt.Fprintf(w, "%s: INVALID. %d of %d checks failed; the certificate proves nothing.\n", name, failed, len(res.Records))
+	return fmt.Sprintf("%d boxes", n)
+}
+
+// productText writes a product region as "r ∈ [0, 1) × b ∈ (0, 4]".
+func productText(fs []checker.SturmRegion) string {
+	var parts []string
+	for _, f := range fs {
+		var ivs []string
+		for _, iv := range f.Intervals {
+			ivs = append(ivs, intervalText(iv))
+		}
+		if len(ivs) == 0 {
+			ivs = []string{"∅"}
+		}
+		parts = append(parts, f.Param+" ∈ "+strings.Join(ivs, " ∪ "))
+	}
+	return strings.Join(parts, " × ")
+}
+
+// pavingWhere says where a paved region holds, for the verdict line.
+func pavingWhere(res *direct.Result) string {
+	pv := res.Region.Paving
+	if len(pv.Product) > 0 {
+		return "for " + productText(pv.Product)
+	}
+	s, _ := certificates.Summarize(pv) // verified: well formed
+	return fmt.Sprintf("on the inside boxes of the paving (%s of the box)", percent(s.InsideFraction))
+}
+
+// percent writes an exact share as a percentage for people.
+func percent(share string) string {
+	q, ok := new(big.Rat).SetString(share)
+	if !ok {
+		return share
+	}
+	pc := new(big.Rat).Mul(q, big.NewRat(100, 1))
+	s := pc.FloatString(2)
+	// Never round a share that is not exactly 0 or 100% to look like one.
+	switch {
+	case s == "100.00" && pc.Cmp(big.NewRat(100, 1)) < 0:
+		return ">99.99%"
+	case s == "0.00" && pc.Sign() > 0:
+		return "<0.01%"
+	}
+	return s + "%"
+}
+
+// VerifyText writes checker.Verify's outcome for a certificate for a
+// terminal: the failed checks, then one line that says whether the
+// certificate is valid, with its claim, verdict and digest when it is.
+// file is how the certificate is named. It returns the first write error.
+func VerifyText(w io.Writer, file string, doc *checker.Document, out checker.Outcome) error {
+	ew := &errWriter{w: w}
+	failed := 0
+	for _, c := range out.Records {
+		if !c.OK {
+			failed++
+			fmt.Fprintf(ew, "FAIL  %-12s %s\n", c.Name, c.Reason)
+		}
+	}
+	if out.Valid {
+		fmt.Fprintf(ew, "%s: valid. %d checks passed (exact arithmetic).\n", file, len(out.Records))
+		fmt.Fprintf(ew, "  claim %s, verdict %s\n  digest %s\n", out.Kind, out.Verdict, doc.Digest)
+		return ew.err
+	}
+	fmt.Fprintf(ew, "%s: INVALID. %d of %d checks failed; the certificate proves nothing.\n", file, failed, len(out.Records))
+	return ew.err
 }

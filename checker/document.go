@@ -83,23 +83,18 @@ func marshalClaim(c Claim) (json.RawMessage, error) {
 	return json.RawMessage(`{"rule":` + string(name) + `,` + string(body[1:])), nil
 }
 
-// docWire is a Document as JSON, with each claim as a raw object.
+// docWire is a Document as JSON, with each claim as a raw object (the
+// embedded fields are Document's, whose Claims this one shadows).
+type docJSON Document
+
 type docWire struct {
-	Format      string            `json:"format"`
-	Tool        string            `json:"tool"`
-	Issued      string            `json:"issued"`
-	Source      string            `json:"source"`
-	Description []string          `json:"description"`
-	Model       string            `json:"model"`
-	Parameters  []Parameter       `json:"parameters"`
-	Claims      []json.RawMessage `json:"claims"`
-	Digest      string            `json:"digest"`
-	Signature   *Signature        `json:"signature,omitempty"`
+	*docJSON
+	Claims []json.RawMessage `json:"claims"`
 }
 
 // MarshalJSON writes the document with every claim's rule name.
 func (d Document) MarshalJSON() ([]byte, error) {
-	w := docWire{d.Format, d.Tool, d.Issued, d.Source, d.Description, d.Model, d.Parameters, []json.RawMessage{}, d.Digest, d.Signature}
+	w := docWire{(*docJSON)(&d), []json.RawMessage{}}
 	for _, c := range d.Claims {
 		raw, err := marshalClaim(c)
 		if err != nil {
@@ -113,12 +108,11 @@ func (d Document) MarshalJSON() ([]byte, error) {
 // UnmarshalJSON reads the document strictly: every claim must name a known
 // rule and carry exactly the fields of that rule's type.
 func (d *Document) UnmarshalJSON(b []byte) error {
-	var w docWire
+	*d = Document{}
+	w := docWire{docJSON: (*docJSON)(d)}
 	if err := strictDecode(b, &w); err != nil {
 		return err
 	}
-	*d = Document{Format: w.Format, Tool: w.Tool, Issued: w.Issued, Source: w.Source, Description: w.Description,
-		Model: w.Model, Parameters: w.Parameters, Digest: w.Digest, Signature: w.Signature}
 	for i, raw := range w.Claims {
 		var fields map[string]json.RawMessage
 		if err := json.Unmarshal(raw, &fields); err != nil {

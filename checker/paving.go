@@ -195,10 +195,10 @@ func (c *run) paving(cl Claim) bool {
 			return false
 		}
 		vars[i] = v
-		if !c.add("paving", sideWithin(sides[i], p.Range), "the side %s of %s lies in its range %s, open only where the range is", sides[i], name, p.Range) {
+		if !c.add("paving", sides[i].WithinOpenWhere(p.Range), "the side %s of %s lies in its range %s, open only where the range is", sides[i], name, p.Range) {
 			return false
 		}
-		covered[v] = sameInterval(sides[i], p.Range)
+		covered[v] = sides[i].SameBounded(p.Range)
 	}
 	for _, v := range slices.Sorted(maps.Keys(used)) { // sorted: the same record every time
 		if !c.add("paving", slices.Contains(vars, v), "the conditions involve paved parameters only (%s)", c.r.Name(v)) {
@@ -327,44 +327,6 @@ func (c *run) pavingTree(tree string, vars []int, sides []poly.Interval, open po
 	return count, c.add("paving", err == nil, "every box of the tree has its class by the exact test%s", errSuffix(err))
 }
 
-// sideWithin reports that side lies in the allowed range r, with an open end
-// exactly where it meets an open end of r.
-func sideWithin(side, r poly.Interval) bool {
-	lo, hi := side.Lo, side.Hi
-	okLo := r.Lo.Inf < 0 && !lo.Open
-	if r.Lo.Inf == 0 {
-		switch k := lo.Value.Cmp(r.Lo.Value); {
-		case k > 0:
-			okLo = !lo.Open
-		case k == 0:
-			okLo = lo.Open == r.Lo.Open
-		}
-	}
-	okHi := r.Hi.Inf > 0 && !hi.Open
-	if r.Hi.Inf == 0 {
-		switch k := hi.Value.Cmp(r.Hi.Value); {
-		case k < 0:
-			okHi = !hi.Open
-		case k == 0:
-			okHi = hi.Open == r.Hi.Open
-		}
-	}
-	return okLo && okHi
-}
-
-// sameInterval reports that a bounded side equals the range r.
-func sameInterval(side, r poly.Interval) bool {
-	return r.Lo.Inf == 0 && r.Hi.Inf == 0 &&
-		side.Lo.Value.Cmp(r.Lo.Value) == 0 && side.Lo.Open == r.Lo.Open &&
-		side.Hi.Value.Cmp(r.Hi.Value) == 0 && side.Hi.Open == r.Hi.Open
-}
-
-// Sides returns the paved box, one interval per parameter.
-func (p *Paving) Sides() ([]poly.Interval, error) {
-	s, _, err := p.sides()
-	return s, err
-}
-
 // Walk calls leaf for every leaf of the tree in depth-first order, with its
 // class and its place on the dyadic grid of the box; it returns an error if
 // the box, the resolution or the tree is malformed (the classes are taken as
@@ -384,4 +346,10 @@ func (p *Paving) Walk(leaf func(code byte, g poly.DyadicBox)) error {
 		}
 		return nil
 	})
+}
+
+// Sides returns the paved box, one interval per parameter.
+func (p *Paving) Sides() ([]poly.Interval, error) {
+	s, _, err := p.sides()
+	return s, err
 }

@@ -470,3 +470,35 @@ func (x Interval) Split() (Interval, Interval) {
 	}
 	return Interval{x.Lo, ivFin(m, false)}, Interval{ivFin(m, true), x.Hi}
 }
+
+// WithinOpenWhere reports that side, a bounded interval, lies in r, with an
+// open end exactly where it meets an open end of r.
+func (side Interval) WithinOpenWhere(r Interval) bool {
+	lo, hi := side.Lo, side.Hi
+	okLo := r.Lo.Inf < 0 && !lo.Open
+	if r.Lo.Inf == 0 {
+		switch k := lo.Value.Cmp(r.Lo.Value); {
+		case k > 0:
+			okLo = !lo.Open
+		case k == 0:
+			okLo = lo.Open == r.Lo.Open
+		}
+	}
+	okHi := r.Hi.Inf > 0 && !hi.Open
+	if r.Hi.Inf == 0 {
+		switch k := hi.Value.Cmp(r.Hi.Value); {
+		case k < 0:
+			okHi = !hi.Open
+		case k == 0:
+			okHi = hi.Open == r.Hi.Open
+		}
+	}
+	return okLo && okHi
+}
+
+// SameBounded reports that side, a bounded interval, equals r.
+func (side Interval) SameBounded(r Interval) bool {
+	return r.Lo.Inf == 0 && r.Hi.Inf == 0 &&
+		side.Lo.Value.Cmp(r.Lo.Value) == 0 && side.Lo.Open == r.Lo.Open &&
+		side.Hi.Value.Cmp(r.Hi.Value) == 0 && side.Hi.Open == r.Hi.Open
+}

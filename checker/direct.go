@@ -299,6 +299,9 @@ func (c *run) form(f *LDLForm, g poly.Matrix) (*checkedForm, bool) {
 		}
 	}
 	cf.minors = minors
+	for k, mi := range minors {
+		c.minors = append(c.minors, slot{name, k + 1, mi})
+	}
 	defined := true
 	for i := 0; cf.semidef && i < n; i++ {
 		defined = defined && c.denominatorsNonzero(d[i])
@@ -339,34 +342,15 @@ func (c *run) denominatorsNonzero(f poly.RatFunc) bool {
 // conditions come in the order of the minors, V's first.
 func (c *run) minorCondition(cl Claim) bool {
 	cd := cl.(*MinorCondition)
-	type slot struct {
-		form  string
-		index int
-		minor poly.RatFunc
-	}
-	var slots []slot
-	for _, name := range []string{"V", "-Vdot"} {
-		if f := c.forms[name]; f != nil {
-			for k, mi := range f.minors {
-				slots = append(slots, slot{name, k + 1, mi})
-			}
-		}
-	}
 	what := fmt.Sprintf("condition %d", len(c.conds)+1)
-	if !c.add(what, len(c.forms) == 2 && len(c.conds) < len(slots), "there is a minor of the two forms left for it") {
+	if !c.add(what, len(c.forms) == 2 && len(c.conds) < len(c.minors), "there is a minor of the two forms left for it") {
 		return false
 	}
-	w := slots[len(c.conds)]
-	if !c.add(what, cd.Form == w.form && cd.Index == w.index, "it is minor %d of %s", w.index, w.form) {
-		return false
-	}
-	minor := w.minor
+	w := c.minors[len(c.conds)]
 	mi, ok := c.parse(what, cd.Minor)
-	if !ok || !c.add(what, mi.Equal(minor), "it states its minor") {
-		return false
-	}
-	k, ok := parseRat(cd.Constant)
-	if !c.add(what, ok && k.Sign() != 0, "it has a non-zero rational constant") {
+	k, ok2 := parseRat(cd.Constant)
+	if !ok || !c.add(what, cd.Form == w.form && cd.Index == w.index && mi.Equal(w.minor), "it is minor %d of %s, stated", w.index, w.form) ||
+		!c.add(what, ok2 && k.Sign() != 0, "it has a non-zero rational constant") {
 		return false
 	}
 	target := new(poly.Poly).Mul(mi.Num, mi.DenPoly())
@@ -486,18 +470,17 @@ func (c *run) conditionsUsed(what string) (map[int]bool, bool) {
 func (c *run) witnessPoints(cl Claim) bool {
 	wp := cl.(*WitnessPoints)
 	var used map[int]bool
-	if c.pave != nil { // beside a paving, after its region
-		used = c.pave.used
+	if c.seen["paving"] { // beside a paving, after its region
+		used = c.region.used
 	} else {
 		var ok bool
 		if used, ok = c.conditionsUsed("witnesses"); !ok {
 			return false
 		}
 	}
-	if !c.add("witnesses", !c.seen["witness-points"] && len(wp.Points) > 0 && c.sturm == nil, "witness points, once, not beside a one-parameter region") {
+	if !c.add("witnesses", len(wp.Points) > 0 && !c.seen["sturm-region"], "witness points, not beside a one-parameter region") || !c.once("witness-points") {
 		return false
 	}
-	c.seen["witness-points"] = true
 	var holds, fails bool
 	for i, w := range wp.Points {
 		what := fmt.Sprintf("witness %d", i+1)

@@ -64,29 +64,21 @@ func canonicalRat(s string) (*big.Rat, bool) {
 
 // rationalMatrix reads an n×n matrix of canonical rationals.
 func (c *run) rationalMatrix(what string, rows [][]string, n int) ([][]*big.Rat, bool) {
-	if !c.add("linearization", len(rows) == n, "%s has %d rows", what, n) {
-		return nil, false
-	}
 	out := make([][]*big.Rat, n)
-	for i, row := range rows {
-		if !c.add("linearization", len(row) == n, "%s row %d has %d entries", what, i+1, n) {
-			return nil, false
-		}
+	ok := len(rows) == n
+	for i := 0; ok && i < n; i++ {
 		out[i] = make([]*big.Rat, n)
-		for j, s := range row {
-			q, ok := canonicalRat(s)
-			if !c.add("linearization", ok, "%s entry (%d,%d) = %q is a rational in canonical form", what, i+1, j+1, s) {
-				return nil, false
-			}
-			out[i][j] = q
+		ok = len(rows[i]) == n
+		for j := 0; ok && j < n; j++ {
+			out[i][j], ok = canonicalRat(rows[i][j])
 		}
 	}
-	return out, true
+	return out, c.add("linearization", ok, "%s is a %d×%d matrix of rationals in canonical form", what, n, n)
 }
 
-// sameInterval reports that a stated interval is the closed interval x.
-func sameText(a [2]string, b poly.Interval) bool {
-	return !b.Lo.Open && !b.Hi.Open && a == IntervalText(b)
+// sameText reports that a stated interval is the closed interval x.
+func sameText(a [2]string, x poly.Interval) bool {
+	return !x.Lo.Open && !x.Hi.Open && a == IntervalText(x)
 }
 
 // pointModel checks that the model has no free parameters and no candidate,
@@ -122,7 +114,7 @@ func (c *run) krawczyk(cl Claim) bool {
 	for i, iv := range kz.Box {
 		lo, ok1 := canonicalRat(iv[0])
 		hi, ok2 := canonicalRat(iv[1])
-		if !c.add("krawczyk", ok1 && ok2 && lo.Cmp(hi) < 0, "box interval %d = [%s, %s] has canonical rational ends, lo < hi", i+1, iv[0], iv[1]) {
+		if !c.add("krawczyk", ok1 && ok2 && lo.Cmp(hi) < 0, "box side %d has canonical rational ends, lo < hi", i+1) {
 			return false
 		}
 		box[i] = poly.Closed(lo, hi)
@@ -131,18 +123,14 @@ func (c *run) krawczyk(cl Claim) bool {
 	if !ok {
 		return false
 	}
-	k := poly.KrawczykImage(g, box, y)
-	for i := range k {
-		if !c.add("krawczyk", sameText(kz.Krawczyk[i], k[i]), "K(X) component %d equals the recomputed %s", i+1, k[i]) {
-			return false
-		}
-		inside := k[i].Lo.Value.Cmp(box[i].Lo.Value) > 0 && k[i].Hi.Value.Cmp(box[i].Hi.Value) < 0
-		if !c.add("krawczyk", inside, "K(X) component %d lies in the interior of the box (Krawczyk: exactly one equilibrium in X)", i+1) {
-			return false
-		}
+	same, inside := true, true
+	for i, k := range poly.KrawczykImage(g, box, y) {
+		same = same && sameText(kz.Krawczyk[i], k)
+		inside = inside && k.Lo.Value.Cmp(box[i].Lo.Value) > 0 && k.Hi.Value.Cmp(box[i].Hi.Value) < 0
 	}
 	c.equilibrium = box
-	return true
+	return c.add("krawczyk", same, "K(X) equals the recomputed operator") &&
+		c.add("krawczyk", inside, "K(X) lies in the interior of the box (Krawczyk: exactly one equilibrium in X)")
 }
 
 // linearization: Lyapunov's indirect method, with the decay matrix enclosed
@@ -183,32 +171,22 @@ func (c *run) linearization(cl Claim) bool {
 	if !ok {
 		return false
 	}
-	for i := range p {
-		for j := range i {
-			if !c.add("linearization", p[i][j].Cmp(p[j][i]) == 0, "P is symmetric (entry %d,%d)", i+1, j+1) {
-				return false
-			}
+	e := poly.DecayEnclosure(f, m.Discrete, p, box)
+	symmetric, same := true, len(lz.Decay) == n
+	for i := range n {
+		same = same && len(lz.Decay[i]) == n
+		for j := range n {
+			symmetric = symmetric && p[i][j].Cmp(p[j][i]) == 0
+			same = same && sameText(lz.Decay[i][j], e[i][j])
 		}
 	}
-	if !c.add("decay", len(lz.Decay) == n, "the enclosure of M has %d rows", n) {
-		return false
-	}
-	e := poly.DecayEnclosure(f, m.Discrete, p, box)
 	mname := "−(JᵀP + PJ)"
 	if m.Discrete {
 		mname = "P − JᵀPJ"
 	}
-	for i := range e {
-		if !c.add("decay", len(lz.Decay[i]) == n, "row %d of the enclosure of M has %d entries", i+1, n) {
-			return false
-		}
-		for j := range e[i] {
-			if !c.add("decay", sameText(lz.Decay[i][j], e[i][j]), "M = %s entry (%d,%d) equals the recomputed %s", mname, i+1, j+1, e[i][j]) {
-				return false
-			}
-		}
-	}
-	if !c.add("decay", poly.PositiveDefiniteOn(e), "M = %s is positive definite at the equilibrium (midpoint minus row-sum radius, exact LDLᵀ)", mname) {
+	if !c.add("linearization", symmetric, "P is symmetric") ||
+		!c.add("decay", same, "the enclosure of M = %s equals the recomputed one", mname) ||
+		!c.add("decay", poly.PositiveDefiniteOn(e), "M = %s is positive definite at the equilibrium (midpoint minus row-sum radius, exact LDLᵀ)", mname) {
 		return false
 	}
 	k, pivot := poly.FirstNonPositivePivot(p)

@@ -247,21 +247,14 @@ func (c *run) paving(cl Claim) bool {
 		cover = cover && covered[v]
 	}
 	c.seen["paving"] = true
-	c.pave = &paveFacts{
-		used:           used,
-		holdsSomewhere: count[PaveInside] > 0 || (separable && !productEmpty),
-		failsSomewhere: count[PaveOutside] > 0 || (separable && productFails),
-		all:            cover && (separable && productAll || !separable && count[PaveOutside] == 0 && count[PaveUndecided] == 0),
-		none:           cover && (separable && productEmpty || !separable && count[PaveInside] == 0 && count[PaveUndecided] == 0),
+	c.region = &regionFacts{
+		used:  used,
+		holds: count[PaveInside] > 0 || (separable && !productEmpty),
+		fails: count[PaveOutside] > 0 || (separable && productFails),
+		all:   cover && (separable && productAll || !separable && count[PaveOutside] == 0 && count[PaveUndecided] == 0),
+		none:  cover && (separable && productEmpty || !separable && count[PaveInside] == 0 && count[PaveUndecided] == 0),
 	}
 	return true
-}
-
-// paveFacts is what a verified paving says of the conditions.
-type paveFacts struct {
-	used                           map[int]bool
-	holdsSomewhere, failsSomewhere bool
-	all, none                      bool // on the whole allowed range
 }
 
 // pavingTree checks the class of every box of the tree exactly, walking the

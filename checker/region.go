@@ -106,7 +106,7 @@ func (c *run) sturmRegion(cl Claim) bool {
 		conds = append(conds, u)
 	}
 	holds, fails, ok := c.regionPieces(rg, pi, conds, c.box[pi])
-	c.sturm = &[2]bool{holds, fails}
+	c.region = &regionFacts{used, holds, fails, !fails, !holds}
 	c.seen["sturm-region"] = true
 	return ok
 }

@@ -108,14 +108,21 @@ type run struct {
 	higherV     bool         // V has terms of degree > 2 at the equilibrium
 	higherD     bool         // so has V̇
 	forms       map[string]*checkedForm
+	minors      []slot         // the minors of the forms, in the order verified
 	conds       []poly.RatFunc // the conditions q > 0 still required
-	sturm       *[2]bool       // a one-parameter region: some piece holds, some fails
-	pave        *paveFacts     // a paving
+	region      *regionFacts   // what a one-parameter region or a paving showed
 	witness     *[2]bool       // witness points: the conditions hold at one, fail at one
 	hasKernel   bool
 	refuted     bool
 	equilibrium []poly.Interval // a box (or point) established by krawczyk-enclosure
 	linear      string          // the kind a linearization gave
+}
+
+// slot is the index-th leading minor of a form.
+type slot struct {
+	form  string
+	index int
+	minor poly.RatFunc
 }
 
 type checkedForm struct {
@@ -274,30 +281,31 @@ func (c *run) conclude() (verdict, kind string) {
 	return verdict, kind
 }
 
-// regionVerdict is what the region claims say of the conditions: "holds"
-// on the whole allowed range, "fails" on all of it, "holds-on-region" when
-// proven to hold somewhere and to fail somewhere, else "undecided"; "" when
-// no region was claimed.
+// regionFacts is what a verified region says of the conditions: they hold
+// somewhere, fail somewhere, hold on the whole allowed range, or on none of it.
+type regionFacts struct {
+	used                    map[int]bool // the parameters the conditions involve
+	holds, fails, all, none bool
+}
+
+// regionVerdict is what the region claims say: "holds" on the whole allowed
+// range, "fails" on all of it, "holds-on-region" when proven to hold
+// somewhere and to fail somewhere, else "undecided"; "" without a region.
 func (c *run) regionVerdict() string {
-	var holds, fails, all, none bool
-	switch {
-	case c.sturm != nil:
-		holds, fails = c.sturm[0], c.sturm[1]
-		all, none = !fails, !holds
-	case c.pave != nil:
-		p := c.pave
-		holds, fails = p.holdsSomewhere, p.failsSomewhere
-		all, none = p.all, p.none
-	case c.witness == nil:
+	r := c.region
+	if r == nil && c.witness == nil {
 		return ""
+	} else if r == nil {
+		r = &regionFacts{}
 	}
+	holds, fails := r.holds, r.fails
 	if c.witness != nil {
 		holds, fails = holds || c.witness[0], fails || c.witness[1]
 	}
 	switch {
-	case all:
+	case r.all:
 		return VerdictHolds
-	case none:
+	case r.none:
 		return VerdictFails
 	case holds && fails:
 		return VerdictOnRegion

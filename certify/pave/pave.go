@@ -9,11 +9,12 @@ import (
 	"runtime"
 	"slices"
 	"strings"
-	"sync"
+
 	"sync/atomic"
 
 	"lyacert/certify/interval"
 	"lyacert/checker"
+	"lyacert/internal/workpool"
 	"lyacert/poly"
 )
 
@@ -189,43 +190,26 @@ func PaveRegion(ctx context.Context, conds []*poly.Poly, box []Side, level int, 
 	rejectedTop := tw.rejected
 
 	results := make([]taskResult, len(tasks))
-	next := make(chan int)
-	done := make(chan int, len(tasks)) // workers never block on it
 	parent := ctx
 	ctx, cancel := context.WithCancel(ctx)
 	defer cancel()
-	var wg sync.WaitGroup
-	for range min(workers, max(len(tasks), 1)) {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			w := e.newWorker()
-			for i := range next {
-				var b strings.Builder
-				err := w.subtree(ctx, tasks[i].g, tasks[i].forms, &b)
-				results[i] = taskResult{tree: b.String(), err: err, rejected: w.rejected, ran: true}
-				w.rejected = 0
-				if err != nil {
-					cancel()
-				}
-				done <- i
+	done := workpool.Run(ctx, workpool.Count(len(tasks)), min(workers, max(len(tasks), 1)), func() func(int) taskResult {
+		w := e.newWorker()
+		return func(i int) taskResult {
+			var b strings.Builder
+			err := w.subtree(ctx, tasks[i].g, tasks[i].forms, &b)
+			r := taskResult{tree: b.String(), err: err, rejected: w.rejected, ran: true}
+			w.rejected = 0
+			if err != nil {
+				cancel()
 			}
-		}()
-	}
-	go func() {
-		defer close(next)
-		for i := range tasks {
-			select {
-			case next <- i:
-			case <-ctx.Done():
-				return
-			}
+			return r
 		}
-	}()
-	go func() { wg.Wait(); close(done) }()
+	})
 	share := topShare
-	for i := range done {
-		share += tasks[i].g.share()
+	for r := range done {
+		results[r.Item] = r.Value
+		share += tasks[r.Item].g.share()
 		report(share)
 	}
 	// The first error in task order, so that the error, too, does not

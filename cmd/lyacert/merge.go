@@ -2,6 +2,7 @@ package main
 
 import (
 	"bytes"
+	"errors"
 	"fmt"
 	"os"
 	"path/filepath"
@@ -10,6 +11,7 @@ import (
 
 	"lyacert/certificates"
 	"lyacert/checker"
+	"lyacert/sweep"
 )
 
 type mergeCmd struct {
@@ -33,59 +35,37 @@ func (c *mergeCmd) run(e *env) int {
 	if c.Plot != "" && !slices.Contains([]string{".svg", ".png", ".pdf"}, strings.ToLower(filepath.Ext(c.Plot))) {
 		return fail(exitInput, "--plot %s: the file must end in .svg, .png or .pdf", c.Plot)
 	}
-	byIndex := map[int]sweepBlock{}
-	of := -1
+	var files []*sweep.File
 	for _, name := range c.Files {
 		data, err := os.ReadFile(name)
 		if err != nil {
 			return fail(exitInput, "%v", err)
 		}
-		blocks, good, err := parseSweepLines(name, data)
+		f, err := sweep.Read(name, data)
 		if err != nil {
 			return fail(exitInput, "%v", err)
 		}
-		if good < len(data) {
-			return fail(exitFails, "%s ends in an interrupted grid point; finish that shard with --resume first", name)
-		}
-		for _, b := range blocks {
-			l := b.records[0].line
-			if of >= 0 && l.Of != of {
-				return fail(exitInput, "%s: grid point %d belongs to a grid of %d points, the others to one of %d: not shards of one sweep", name, b.index, l.Of, of)
-			}
-			of = l.Of
-			if prev, ok := byIndex[b.index]; ok {
-				if !sameBlock(prev, b) {
-					return fail(exitInput, "%s: grid point %d appears twice with different lines", name, b.index)
-				}
-				continue
-			}
-			byIndex[b.index] = b
-		}
+		files = append(files, f)
 	}
-	if of < 0 {
-		return fail(exitInput, "no sweep lines in %s", strings.Join(c.Files, ", "))
+	merged, err := sweep.Merge(files)
+	if errors.Is(err, sweep.ErrIncomplete) {
+		return fail(exitFails, "%v", err)
 	}
-	var missing []int
-	for k := 0; k < of; k++ {
-		if _, ok := byIndex[k]; !ok {
-			missing = append(missing, k)
-		}
-	}
-	if len(missing) > 0 {
-		return fail(exitFails, "incomplete: %d of %d grid points missing (the first is %d); run the shard that owns them, or finish it with --resume", len(missing), of, missing[0])
+	if err != nil {
+		return fail(exitInput, "%v", err)
 	}
 	var buf bytes.Buffer
+	merged.WriteTo(&buf)
 	var points []gridPoint
 	allHold := true
-	for k := 0; k < of; k++ {
-		b := byIndex[k]
-		for _, r := range b.records {
-			buf.Write(r.raw)
-			if r.line.Verdict != checker.VerdictHolds {
+	for _, b := range merged.Blocks {
+		lines := b.Lines()
+		for _, l := range lines {
+			if l.Verdict != checker.VerdictHolds {
 				allHold = false
 			}
 		}
-		points = append(points, gridPointOf(b))
+		points = append(points, gridPointOf(b.Index, lines))
 	}
 	if c.Out == "" {
 		e.stdout.Write(buf.Bytes())
@@ -101,14 +81,10 @@ func (c *mergeCmd) run(e *env) int {
 		}
 	}
 	if c.Out != "" {
-		fmt.Fprintf(e.stdout, "Merged %d grid points from %d files into %s\n", of, len(c.Files), c.Out)
+		fmt.Fprintf(e.stdout, "Merged %d grid points from %d files into %s\n", merged.Of, len(c.Files), c.Out)
 	}
 	if allHold {
 		return exitHolds
 	}
 	return exitFails
-}
-
-func sameBlock(a, b sweepBlock) bool {
-	return slices.EqualFunc(a.records, b.records, func(x, y sweepRecord) bool { return bytes.Equal(x.raw, y.raw) })
 }

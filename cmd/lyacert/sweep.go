@@ -115,25 +115,38 @@ func (c *sweepCmd) run(e *env) int {
 	if c.MaxPoints < 0 || c.Jobs < 0 {
 		return fail("--max-points and --jobs must not be negative")
 	}
+	if c.Jobs > sweep.MaxJobs() {
+		return fail("--jobs %d: at most %d workers (four per CPU, at least 256)", c.Jobs, sweep.MaxJobs())
+	}
 	size, _ := grid.Size()
+	opts := sweep.SweepOptions{
+		File: name, Src: src, Settings: settings, Grid: grid, Shard: shard, Q: q, Full: c.Full,
+		Jobs: c.Jobs, MaxPoints: c.MaxPoints,
+	}
+	id, err := opts.Identity()
+	if err != nil {
+		return fail("%v", err)
+	}
 
 	// Output: a file written through OUT.partial, or standard output.
-	var previous []sweepBlock
+	var previous []sweep.Block
 	var out io.Writer = e.stdout
 	var file *os.File
 	partial := c.Out + ".partial"
 	if c.Out != "" {
-		previous, file, err = openSweepOutput(c.Out, partial, c.Resume, grid, shard, size)
+		lock, err := sweep.LockOutput(c.Out)
+		if err != nil {
+			return fail("%v", err)
+		}
+		defer lock.Unlock()
+		previous, file, err = openSweepOutput(c.Out, partial, c.Resume, id, grid, shard)
 		if err != nil {
 			return fail("%v", err)
 		}
 		defer file.Close()
 		out = file
 	}
-	done := map[int]bool{}
-	for _, b := range previous {
-		done[b.index] = true
-	}
+	opts.Resume = len(previous)
 	if c.Certificates != "" {
 		if err := os.MkdirAll(c.Certificates, 0o755); err != nil {
 			return fail("%v", err)
@@ -147,12 +160,7 @@ func (c *sweepCmd) run(e *env) int {
 		ctx, cancel = context.WithTimeout(ctx, c.Timeout)
 		defer cancel()
 	}
-	todo := 0
-	for k := 0; k < size; k++ {
-		if shard.Owns(k) && !done[k] {
-			todo++
-		}
-	}
+	todo := shard.Points(size) - opts.Resume
 	if c.MaxPoints > 0 {
 		todo = min(todo, c.MaxPoints)
 	}
@@ -168,7 +176,7 @@ func (c *sweepCmd) run(e *env) int {
 	w := bufio.NewWriterSize(out, 1<<16)
 	points := []gridPoint{}
 	for _, b := range previous {
-		points = append(points, gridPointOf(b))
+		points = append(points, gridPointOf(b.Index, b.Lines()))
 	}
 	lastSync := time.Now()
 	flush := func() error {
@@ -181,10 +189,8 @@ func (c *sweepCmd) run(e *env) int {
 		return nil
 	}
 	start := time.Now()
-	sum, err := sweep.Sweep(ctx, sweep.SweepOptions{
-		File: name, Src: src, Settings: settings, Grid: grid, Shard: shard, Q: q, Full: c.Full,
-		Jobs: c.Jobs, Skip: func(k int) bool { return done[k] }, MaxPoints: c.MaxPoints, Progress: progress,
-	}, func(sp sweep.SweepPoint) error {
+	opts.Progress = progress
+	sum, err := sweep.Sweep(ctx, opts, func(sp sweep.SweepPoint) error {
 		// One grid point's lines are written together and complete.
 		for i := range sp.Lines {
 			if _, err := w.Write(sp.Lines[i].Marshal()); err != nil {
@@ -197,7 +203,7 @@ func (c *sweepCmd) run(e *env) int {
 				}
 			}
 		}
-		points = append(points, gridPointOf(blockOf(sp)))
+		points = append(points, gridPointOf(sp.Index, sp.Lines))
 		if file == nil || time.Since(lastSync) > time.Second {
 			lastSync = time.Now()
 			return flush()
@@ -231,8 +237,8 @@ func (c *sweepCmd) run(e *env) int {
 	verdicts := map[string]int{}
 	allHold := len(points) > 0
 	for _, b := range previous {
-		for _, r := range b.records {
-			verdicts[r.line.Verdict]++
+		for _, r := range b.Records {
+			verdicts[r.Line.Verdict]++
 		}
 	}
 	for k, v := range sum.Verdicts {
@@ -267,14 +273,6 @@ func (c *sweepCmd) run(e *env) int {
 	return exitHolds
 }
 
-func blockOf(sp sweep.SweepPoint) sweepBlock {
-	b := sweepBlock{index: sp.Index}
-	for _, l := range sp.Lines {
-		b.records = append(b.records, sweepRecord{line: l})
-	}
-	return b
-}
-
 func axisNames(g sweep.Grid) []string {
 	var out []string
 	for _, a := range g {
@@ -283,12 +281,13 @@ func axisNames(g sweep.Grid) []string {
 	return out
 }
 
-// openSweepOutput opens OUT.partial for appending. Without resume it must
-// not exist (it would be the progress of an interrupted sweep). With
-// resume the lines already there, or in a complete OUT, are read back and
-// checked against this sweep (same grid, same shard, in order); an
-// interrupted last line or grid point is cut off, nothing else is touched.
-func openSweepOutput(out, partial string, resume bool, grid sweep.Grid, shard sweep.Shard, size int) ([]sweepBlock, *os.File, error) {
+// openSweepOutput opens OUT.partial for appending; the caller holds the
+// output's lock. Without resume it must not exist (it would be the progress
+// of an interrupted sweep). With resume the lines already there, or in a
+// complete OUT, are read back and checked against this sweep
+// (sweep.File.CheckResume); an interrupted last line or grid point is cut
+// off, nothing else is touched.
+func openSweepOutput(out, partial string, resume bool, id sweep.Identity, grid sweep.Grid, shard sweep.Shard) ([]sweep.Block, *os.File, error) {
 	if !resume {
 		f, err := os.OpenFile(partial, os.O_WRONLY|os.O_CREATE|os.O_EXCL, 0o644)
 		if errors.Is(err, os.ErrExist) {
@@ -308,41 +307,26 @@ func openSweepOutput(out, partial string, resume bool, grid sweep.Grid, shard sw
 	if err != nil {
 		return nil, nil, err
 	}
-	blocks, good, err := parseSweepLines(src, data)
+	f, err := sweep.Read(src, data)
 	if err != nil {
 		return nil, nil, fmt.Errorf("--resume: %w", err)
 	}
-	// The finished points must be this sweep's, and a prefix of its order.
-	k := 0
-	for _, b := range blocks {
-		for k < size && !shard.Owns(k) {
-			k++
-		}
-		l := b.records[0].line
-		if l.Of != size || b.index != k {
-			return nil, nil, fmt.Errorf("--resume: %s was not written by this sweep (grid point %d of %d where %d of %d was expected); refusing to touch it", src, b.index, l.Of, k, size)
-		}
-		vals := grid.Values(k)
-		for i, a := range grid {
-			if v, ok := l.Params.Get(a.Name); !ok || v != vals[i].RatString() || len(l.Params.Keys) != len(grid) {
-				return nil, nil, fmt.Errorf("--resume: %s was not written by this sweep (grid point %d has other parameter values); refusing to touch it", src, k)
-			}
-		}
-		k++
+	if err := f.CheckResume(id, grid, shard); err != nil {
+		return nil, nil, fmt.Errorf("--resume: %w", err)
 	}
 	if src == out {
 		// A complete file stays as it is; continue in a copy.
-		if err := certificates.WriteFileAtomic(partial, data[:good], 0o644); err != nil {
+		if err := certificates.WriteFileAtomic(partial, data[:f.Good], 0o644); err != nil {
 			return nil, nil, err
 		}
-	} else if good < len(data) {
+	} else if !f.Complete() {
 		// Cut off the interrupted tail: the last grid point is redone.
-		if err := os.Truncate(partial, int64(good)); err != nil {
+		if err := os.Truncate(partial, int64(f.Good)); err != nil {
 			return nil, nil, err
 		}
 	}
-	f, err := os.OpenFile(partial, os.O_WRONLY|os.O_APPEND, 0o644)
-	return blocks, f, err
+	file, err := os.OpenFile(partial, os.O_WRONLY|os.O_APPEND, 0o644)
+	return f.Blocks, file, err
 }
 
 // sweepSummary is the summary of a sweep (--json keys are a contract).

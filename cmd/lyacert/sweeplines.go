@@ -1,8 +1,10 @@
 package main
 
+// The presentation of sweep lines for summaries and plots: the verdicts at
+// a grid point summed up, and where they change. Reading, checking, resuming
+// and merging the lines is package sweep's.
+
 import (
-	"bytes"
-	"encoding/json"
 	"fmt"
 	"slices"
 	"strconv"
@@ -11,77 +13,6 @@ import (
 	"lyacert/checker"
 	"lyacert/sweep"
 )
-
-// sweepRecord is one line of a sweep's output as read back: its bytes,
-// verbatim, and the fields that resume, merge and the plot need.
-type sweepRecord struct {
-	raw     []byte // with the final newline
-	line    sweep.SweepLine
-	lineNum int
-}
-
-// sweepBlock is the lines of one grid point.
-type sweepBlock struct {
-	index   int
-	records []sweepRecord
-}
-
-// parseSweepLines reads the lines of a sweep output. It returns the
-// complete blocks (every line of a grid point present, in order) and the
-// byte length they occupy. A trailing line without its newline, or a
-// trailing block with lines missing, is an interrupted write and is left
-// out of the blocks (its bytes are after the returned length). Anything
-// else that is not a well-formed sequence of sweep lines is an error.
-func parseSweepLines(name string, data []byte) ([]sweepBlock, int, error) {
-	var blocks []sweepBlock
-	var cur *sweepBlock
-	good, off := 0, 0
-	for n := 1; off < len(data); n++ {
-		end := bytes.IndexByte(data[off:], '\n')
-		if end < 0 {
-			break // a partial last line: an interrupted write
-		}
-		raw := data[off : off+end+1]
-		var l sweep.SweepLine
-		if err := json.Unmarshal(raw, &l); err != nil {
-			return nil, 0, fmt.Errorf("%s:%d: not a sweep line: %v", name, n, err)
-		}
-		valid := l.Of > 0 && l.Index >= 0 && l.Index < l.Of && l.Eq >= 0 && l.Eq <= l.Eqs && (l.Eq > 0 || l.Eqs == 0)
-		if !valid {
-			return nil, 0, fmt.Errorf("%s:%d: not a sweep line (index %d of %d, equilibrium %d of %d)", name, n, l.Index, l.Of, l.Eq, l.Eqs)
-		}
-		want := 1
-		if cur != nil && len(cur.records) > 0 {
-			last := cur.records[len(cur.records)-1].line
-			if last.Eq < last.Eqs {
-				// The block continues: the next equilibrium of the same point.
-				if l.Index != last.Index || l.Eq != last.Eq+1 || l.Eqs != last.Eqs {
-					return nil, 0, fmt.Errorf("%s:%d: expected equilibrium %d of %d at grid point %d", name, n, last.Eq+1, last.Eqs, last.Index)
-				}
-				want = 0
-			}
-		}
-		if want == 1 {
-			if l.Eq > 1 {
-				return nil, 0, fmt.Errorf("%s:%d: a grid point starts with equilibrium %d", name, n, l.Eq)
-			}
-			blocks = append(blocks, sweepBlock{index: l.Index})
-			cur = &blocks[len(blocks)-1]
-		}
-		cur.records = append(cur.records, sweepRecord{raw: raw, line: l, lineNum: n})
-		off += end + 1
-		if l.Eq == l.Eqs {
-			good = off
-		}
-	}
-	if len(blocks) > 0 {
-		last := blocks[len(blocks)-1]
-		if l := last.records[len(last.records)-1].line; l.Eq < l.Eqs {
-			blocks = blocks[:len(blocks)-1] // incomplete: written in part
-		}
-	}
-	return blocks, good, nil
-}
 
 // pointCategory sums up the verdicts at one grid point for plots and
 // summaries.
@@ -138,13 +69,9 @@ type gridPoint struct {
 	cat    pointCategory
 }
 
-func gridPointOf(b sweepBlock) gridPoint {
-	var lines []sweep.SweepLine
-	for _, r := range b.records {
-		lines = append(lines, r.line)
-	}
+func gridPointOf(index int, lines []sweep.SweepLine) gridPoint {
 	p := lines[0].Params
-	gp := gridPoint{index: b.index, names: p.Keys, exact: p.Values, cat: categoryOf(lines)}
+	gp := gridPoint{index: index, names: p.Keys, exact: p.Values, cat: categoryOf(lines)}
 	for _, s := range p.Values {
 		gp.values = append(gp.values, ratFloat(s))
 	}

@@ -11,6 +11,10 @@
 #
 #   LYACERT_SHARDS=16 sbatch --array=5 sweep.sh
 #
+# Two runs of one shard never write together: while one holds the lock of
+# out-i.jsonl (out-i.jsonl.lock) a second stops at once with exit status 2,
+# touching nothing; requeue it when the first is gone.
+#
 # Settings, from the environment of sbatch (exported to the job by default):
 #   LYACERT          the lyacert binary (default: lyacert on PATH)
 #   LYACERT_MODEL    the model file (default: model.lya)

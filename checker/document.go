@@ -200,35 +200,27 @@ func (d *Document) File() ([]byte, error) {
 	return buf.Bytes(), nil
 }
 
-// Canonical returns the canonical serialization of d without its digest and
-// signature: JSON with object keys sorted, no insignificant white space, no
-// HTML escaping. The digest is the SHA-256 of it.
-func (d *Document) Canonical() ([]byte, error) {
+// ComputeDigest returns "sha256:" and the hex SHA-256 of the canonical
+// serialization of d without its digest and signature: JSON with object keys
+// sorted, no insignificant white space, no HTML escaping.
+func (d *Document) ComputeDigest() (string, error) {
 	c := *d
 	c.Digest = ""
 	c.Signature = nil
 	raw, err := marshalNoEscape(c)
-	if err != nil {
-		return nil, err
-	}
 	var v any
 	dec := json.NewDecoder(bytes.NewReader(raw))
 	dec.UseNumber()
-	if err := dec.Decode(&v); err != nil {
-		return nil, err
+	if err == nil {
+		err = dec.Decode(&v)
 	}
-	delete(v.(map[string]any), "digest")
-	return marshalNoEscape(v)
-}
-
-// ComputeDigest returns "sha256:" and the hex SHA-256 of the canonical serialization.
-func (d *Document) ComputeDigest() (string, error) {
-	b, err := d.Canonical()
 	if err != nil {
 		return "", err
 	}
+	delete(v.(map[string]any), "digest")
+	b, err := marshalNoEscape(v)
 	sum := sha256.Sum256(b)
-	return "sha256:" + hex.EncodeToString(sum[:]), nil
+	return "sha256:" + hex.EncodeToString(sum[:]), err
 }
 
 // marshalNoEscape encodes v as compact JSON without HTML escaping.

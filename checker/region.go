@@ -124,15 +124,9 @@ func (c *run) regionPieces(rg *SturmRegion, pi int, conds []poly.Univariate, dom
 	for i, p := range rg.Pieces {
 		what := fmt.Sprintf("piece %d", i+1)
 		lo, ok1 := c.readEnd(p.Lo, p.LoPoly, p.LoIsolating, p.LoClosed, pi, what+" lower")
-		if !ok1 {
-			return false, false, false
-		}
 		hi, ok2 := c.readEnd(p.Hi, p.HiPoly, p.HiIsolating, p.HiClosed, pi, what+" upper")
-		if !ok2 {
-			return false, false, false
-		}
 		sp := poly.Span{Lo: lo, Hi: hi}
-		if !c.add("region", sp.Point() || poly.Less(lo, hi), "%s is a non-empty interval", what) {
+		if !ok1 || !ok2 || !c.add("region", sp.Point() || poly.Less(lo, hi), "%s is a non-empty interval", what) {
 			return false, false, false
 		}
 		pieces = append(pieces, sp)
@@ -162,17 +156,7 @@ func (c *run) regionPieces(rg *SturmRegion, pi int, conds []poly.Univariate, dom
 					return false, false, false
 				}
 			}
-			continue
-		}
-		anyFails = true
-		found := false
-		for _, q := range conds {
-			if p.NonPositiveOn(q) {
-				found = true
-				break
-			}
-		}
-		if !c.add("region", found, "piece %d: some condition is ≤ 0 throughout", i+1) {
+		} else if anyFails = true; !c.add("region", slices.ContainsFunc(conds, p.NonPositiveOn), "piece %d: some condition is ≤ 0 throughout", i+1) {
 			return false, false, false
 		}
 	}

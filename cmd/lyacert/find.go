@@ -278,7 +278,7 @@ func renderFind(w io.Writer, res *equilibria.FindResult, q []*big.Rat, written [
 	}
 	for i, s := range m.States {
 		if m.Discrete {
-			fmt.Fprintf(w, "  next %s = %s\n", s, m.F[i])
+			fmt.Fprintf(w, "  %s+ = %s\n", s, m.F[i])
 		} else {
 			fmt.Fprintf(w, "  %s' = %s\n", s, m.F[i])
 		}

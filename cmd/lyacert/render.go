@@ -48,7 +48,7 @@ func renderCheck(w io.Writer, res *direct.Result, written string) {
 	}
 	for i, s := range m.States {
 		if m.Discrete {
-			fmt.Fprintf(w, "  next %s = %s\n", s, m.F[i])
+			fmt.Fprintf(w, "  %s+ = %s\n", s, m.F[i])
 		} else {
 			fmt.Fprintf(w, "  %s' = %s\n", s, m.F[i])
 		}

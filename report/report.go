@@ -702,7 +702,7 @@ func (b *builder) record(p *page, res checker.Outcome, opts Options) {
 		fp := checker.Fingerprint(pub)
 		r.Signature = "Signed with ed25519 by the key with fingerprint " + fp + "; the signature verifies against the digest. " +
 			"A signature says who issued the certificate, not that it is correct: the checks above say that."
-		p.Recheck = append(p.Recheck, "lyacert verify --trust SIGNER.pub "+shellQuote(cert))
+		p.Recheck = append(p.Recheck, "lyacert verify --trust SIGNER.pub.pem "+shellQuote(cert))
 	} else {
 		r.Signature = "Not signed."
 	}

@@ -168,14 +168,14 @@ type checkCmd struct {
 	File string   `arg:"" help:"Model file (.lya), or - for standard input."`
 	Out  string   `short:"o" name:"out" placeholder:"CERT" help:"Write the certificate to this file (atomically)."`
 	Set  []string `name:"set" placeholder:"NAME=VALUE" help:"Fix a parameter to an exact value (repeatable), e.g. --set r=1/2."`
-	Sign string   `name:"sign" placeholder:"KEY" help:"Sign the written certificate with this ed25519 private key (needs -o)."`
+	Sign string   `name:"sign" placeholder:"KEY" help:"Sign the written certificate with this ed25519 private key (PEM, PKCS #8: NAME.key from lyacert key new; needs -o)."`
 	paveFlags
 }
 
 type verifyCmd struct {
 	common
 	Cert  string   `arg:"" placeholder:"CERT" help:"Certificate file (JSON), or - for standard input."`
-	Trust []string `name:"trust" placeholder:"PUB" help:"Require a valid signature by this public key (repeatable: any of them)."`
+	Trust []string `name:"trust" placeholder:"PUB" help:"Require a valid signature by this public key (PEM SubjectPublicKeyInfo: NAME.pub.pem from lyacert key new; repeatable: any of them)."`
 }
 
 type demoCmd struct {

@@ -35,9 +35,9 @@ var ErrInvalid = errors.New("the certificate is invalid and proves nothing")
 type Options struct {
 	// Format is the output format; the zero value is Markdown.
 	Format Format
-	// Standalone makes a LaTeX report a whole document (preamble,
+	// WholeDocument makes a LaTeX report a whole document (preamble,
 	// \begin{document} … \end{document}) rather than a fragment.
-	Standalone bool
+	WholeDocument bool
 	// Checker names the checker and its version in the verification
 	// record, for example "lyacert 0.1.0".
 	Checker string

@@ -70,7 +70,7 @@ func TestLinearizationForgeries(t *testing.T) {
 			d.Claims = append([]Claim{&OrbitalDerivative{V: "x^2", Vdot: "0"}}, d.Claims...)
 		}},
 		{"model with a free parameter", "lin-logistic.json", func(d *Document) {
-			d.Model = "state x\nparam r in [0, 4]\nnext x = r*x*(1 - x)\nat x = 3/5\n"
+			d.Model = "state x\nparameter r in [0, 4]\nx+ = r*x*(1 - x)\nat x = 3/5\n"
 		}},
 	}
 	for _, f := range forgeries {

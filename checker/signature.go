@@ -19,11 +19,22 @@ var (
 	ErrBadSignature = errors.New("signature does not match: the certificate was altered or signed by another key")
 )
 
-// Fingerprint returns the first 16 hex digits of the SHA-256 of the raw
-// 32-byte public key: a short name for a key that people can compare.
+// spkiPrefix is the DER of an ed25519 SubjectPublicKeyInfo up to the key
+// (RFC 8410 §4 and its example in §10.1): SEQUENCE { SEQUENCE { OID
+// 1.3.101.112 }, BIT STRING of 33 bytes, no unused bits } followed by the 32
+// key bytes.
+var spkiPrefix = []byte{0x30, 0x2a, 0x30, 0x05, 0x06, 0x03, 0x2b, 0x65, 0x70, 0x03, 0x21, 0x00}
+
+// Fingerprint returns the SHA-256 of the key's DER SubjectPublicKeyInfo
+// (RFC 5280 §4.1, RFC 8410 §4) as 64 lowercase hex digits: the whole hash,
+// since a shortened one could be matched by a key made for the purpose, and
+// of the standard encoding, so that anyone can recompute it from the public
+// key file with general tools (the DER of its PEM block, hashed).
 func Fingerprint(pub ed25519.PublicKey) string {
-	sum := sha256.Sum256(pub)
-	return hex.EncodeToString(sum[:8])
+	h := sha256.New()
+	h.Write(spkiPrefix)
+	h.Write(pub)
+	return hex.EncodeToString(h.Sum(nil))
 }
 
 // Signer returns the public key that d's signature names, without checking

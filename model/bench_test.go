@@ -14,7 +14,7 @@ func chainModel(n int) string {
 	for i := range names {
 		names[i] = fmt.Sprintf("x%d", i+1)
 	}
-	fmt.Fprintf(&b, "state %s\nparam k > 0\n", strings.Join(names, ", "))
+	fmt.Fprintf(&b, "state %s\nparameter k > 0\n", strings.Join(names, ", "))
 	for i, s := range names {
 		if i == 0 {
 			fmt.Fprintf(&b, "%s' = -%s\n", s, s)

@@ -8,7 +8,7 @@ import (
 )
 
 // RangeText returns the assumption as it is written in a model file, without
-// the "param name" prefix: "> 0", "in [0, 4)", "= 8/3", or "" for no assumption.
+// the "parameter name" prefix: "> 0", "in [0, 4)", "= 8/3", or "" for no assumption.
 func RangeText(p Param) string {
 	if p.Fixed != nil {
 		return "= " + p.Fixed.RatString()
@@ -38,14 +38,14 @@ func (m *Model) Canonical() string {
 	fmt.Fprintf(&b, "state %s\n", strings.Join(m.States, ", "))
 	for _, p := range m.Params {
 		if t := RangeText(p); t != "" {
-			fmt.Fprintf(&b, "param %s %s\n", p.Name, t)
+			fmt.Fprintf(&b, "parameter %s %s\n", p.Name, t)
 		} else {
-			fmt.Fprintf(&b, "param %s\n", p.Name)
+			fmt.Fprintf(&b, "parameter %s\n", p.Name)
 		}
 	}
 	for i, s := range m.States {
 		if m.Discrete {
-			fmt.Fprintf(&b, "next %s = %s\n", s, m.F[i])
+			fmt.Fprintf(&b, "%s+ = %s\n", s, m.F[i])
 		} else {
 			fmt.Fprintf(&b, "%s' = %s\n", s, m.F[i])
 		}
@@ -96,7 +96,7 @@ func (m *Model) CheckEquilibrium() error {
 		if !r.IsZero() {
 			what := m.States[i] + "'"
 			if m.Discrete {
-				what = "next " + m.States[i] + " - " + m.States[i]
+				what = m.States[i] + "+ - " + m.States[i]
 			}
 			pos := m.AtPos
 			if !m.AtGiven {

@@ -89,7 +89,7 @@ func generatedCases() []hostileCase {
 		{"gen/states-1e5-one-line", func() []byte { return []byte(states(1e5) + "x0' = -x0\n") }, nil},
 		{"gen/states-1e5-many-lines", func() []byte { return []byte(stateLines(1e5, 50) + "s0' = -s0\n") }, nil},
 		{"gen/params-1e5", func() []byte {
-			return []byte(head + strings.ReplaceAll(stateLines(1e5, 50), "state s", "param p"))
+			return []byte(head + strings.ReplaceAll(stateLines(1e5, 50), "state s", "parameter p"))
 		}, nil},
 		{"gen/line-100MB", func() []byte { return []byte(head + "V = x^2" + rep(" ", 100<<20) + "\n") }, nil},
 		{"gen/line-2MB", func() []byte { return []byte(head + "V = x^2" + rep(" ", 2<<20) + "\n") }, nil},

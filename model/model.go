@@ -5,9 +5,9 @@
 // A model file has one declaration a line; "#" starts a comment:
 //
 //	state u, v, w                  # state variables, in order
-//	param g > 0                    # also >=, <, <=
-//	param h in [0, 4]              # closed, open or half-open: (0, 4], [0, 4) ...
-//	param m = 8/3                  # fixed value
+//	parameter g > 0                # also >=, <, <=
+//	parameter h in [0, 4]          # closed, open or half-open: (0, 4], [0, 4) ...
+//	parameter m = 8/3              # fixed value
 //	let q = u*v                    # named sub-expression, substituted
 //	u' = g*(v - u)                 # exactly one equation per state
 //	v' = h*u - v - q
@@ -15,8 +15,11 @@
 //	V = u^2/g + v^2 + w^2          # the candidate (optional)
 //	at u = 0, v = 0, w = 0         # the equilibrium; the origin when left out
 //
-// Discrete-time models write "next u = ..." instead of "u' = ...", for all
-// states alike.
+// Discrete-time models (maps) write the successor state u⁺ as "u+ = ..."
+// instead of "u' = ...", for all states alike.
+//
+// Earlier versions spelled "parameter" as "param" and "u+ = ..." as
+// "next u = ..."; those spellings are input errors that name the new ones.
 //
 // The package sits between poly and certificates: the certificate checker
 // re-reads a model's canonical text with it.
@@ -52,7 +55,7 @@ type Model struct {
 	Params      []Param
 	Discrete    bool
 	Ring        *poly.Ring
-	F           []poly.RatFunc // right-hand sides (x' = F or next x = F), in state order
+	F           []poly.RatFunc // right-hand sides (x' = F or x+ = F), in state order
 	FPos        []poly.Pos
 	V           *poly.RatFunc // the candidate, nil when absent
 	VPos        poly.Pos
@@ -97,7 +100,29 @@ func (m *Model) Param(name string) (Param, bool) {
 	return Param{}, false
 }
 
-var keywords = []string{"state", "param", "let", "at", "next", "V", "in"}
+// keywords cannot name a state or a parameter. The old spellings "param"
+// and "next" stay reserved, so that a line written with them is always
+// recognized and answered with the new spelling.
+var keywords = []string{"state", "parameter", "let", "at", "V", "in", "param", "next"}
+
+// Old spellings of declarations, answered with an error naming the new one.
+const (
+	oldParamMsg = "`param` is now written `parameter`"
+	oldNextMsg  = "`next %s = ...` is now written `%s+ = ...` (the successor state %s⁺)"
+)
+
+// isOldNext reports a line "next name = ...", the old spelling of "name+ = ...".
+func isOldNext(toks []poly.Token) bool {
+	return len(toks) > 2 && toks[0].Kind == poly.Name && toks[0].Text == "next" &&
+		toks[1].Kind == poly.Name && isOp(toks[2], "=")
+}
+
+// isDecl reports a "state" or "parameter" line (or the old "param"), read in
+// pass 1.
+func isDecl(toks []poly.Token) bool {
+	t := toks[0]
+	return t.Kind == poly.Name && (t.Text == "state" || t.Text == "parameter" || t.Text == "param") && !isAssign(toks)
+}
 
 // Setting fixes a parameter from the command line (--set name=value).
 type Setting struct {
@@ -184,7 +209,7 @@ func parse(file string, src []byte, lim poly.Limits, canonical bool, settings ..
 		}
 		return toks
 	}
-	// head returns at least the first two tokens of a line (what decides
+	// head returns at least the first three tokens of a line (what decides
 	// its kind) without scanning all of a long line: tokens that end before
 	// the cut are the same as in the whole line.
 	head := func(l line) []poly.Token {
@@ -193,8 +218,8 @@ func parse(file string, src []byte, lim poly.Limits, canonical bool, settings ..
 			for cut < len(l.text) && !utf8.RuneStart(l.text[cut]) {
 				cut++
 			}
-			if toks := poly.Scan(l.text[:cut], l.pos); len(toks) > 3 {
-				return toks[:2]
+			if toks := poly.Scan(l.text[:cut], l.pos); len(toks) > 4 {
+				return toks[:3]
 			}
 		}
 		return poly.Scan(l.text, l.pos)
@@ -236,8 +261,18 @@ func parse(file string, src []byte, lim poly.Limits, canonical bool, settings ..
 			errs.Add(t.Pos, "%s at the start of a declaration", poly.InvalidChar(t.Text))
 			continue
 		}
-		if t.Kind != poly.Name || (t.Text != "state" && t.Text != "param") || isAssign(ltoks) {
+		if isOldNext(ltoks) {
+			// Reported here, with the other old spellings, rather than
+			// after pass 1 has stopped at them.
+			errs.Add(t.Pos, oldNextMsg, ltoks[1].Text, ltoks[1].Text, ltoks[1].Text)
 			continue
+		}
+		if !isDecl(ltoks) {
+			continue
+		}
+		if t.Text == "param" {
+			// Read as "parameter" as well, so that the error comes alone.
+			errs.Add(t.Pos, oldParamMsg)
 		}
 		if ltoks = scan(l); ltoks == nil {
 			continue
@@ -248,19 +283,19 @@ func parse(file string, src []byte, lim poly.Limits, canonical bool, settings ..
 		}
 		for _, n := range names {
 			if n.Text == "inf" {
-				errs.Add(n.Pos, "\"inf\" stands for infinity in ranges and cannot name a %s", t.Text)
+				errs.Add(n.Pos, "\"inf\" stands for infinity in ranges and cannot name a %s", declKind(t.Text))
 				continue
 			}
 			if t.Text == "state" && len(m.States) >= lim.States {
 				errs.Add(n.Pos, "%s", poly.Exceeded("states", fmt.Sprintf("state %d", len(m.States)+1), lim.States))
 				break
 			}
-			if t.Text == "param" && len(m.Params) >= lim.Params && !isParam(paramIdx, n.Text) {
+			if t.Text != "state" && len(m.Params) >= lim.Params && !isParam(paramIdx, n.Text) {
 				errs.Add(n.Pos, "%s", poly.Exceeded("params", fmt.Sprintf("parameter %d", len(m.Params)+1), lim.Params))
 				break
 			}
 			if slices.Contains(keywords, n.Text) {
-				errs.Add(n.Pos, "%q is a keyword and cannot name a %s", n.Text, t.Text)
+				errs.Add(n.Pos, "%q is a keyword and cannot name a %s", n.Text, declKind(t.Text))
 				continue
 			}
 			if slices.Contains(m.States, n.Text) {
@@ -375,7 +410,7 @@ func parse(file string, src []byte, lim poly.Limits, canonical bool, settings ..
 	have := make([]bool, len(m.States))
 	kinds := map[bool]poly.Pos{}
 	for _, ln := range lines {
-		if h := head(ln); h[0].Kind == poly.Name && (h[0].Text == "state" || h[0].Text == "param") && !isAssign(h) {
+		if h := head(ln); isDecl(h) || isOldNext(h) {
 			continue // read in pass 1
 		}
 		l := struct{ toks []poly.Token }{scan(ln)}
@@ -384,8 +419,6 @@ func parse(file string, src []byte, lim poly.Limits, canonical bool, settings ..
 		}
 		t := l.toks[0]
 		switch {
-		case t.Kind == poly.Name && (t.Text == "state" || t.Text == "param") && !isAssign(l.toks):
-			continue
 		case t.Kind == poly.Name && t.Text == "let" && !isAssign(l.toks):
 			if len(l.toks) < 4 || l.toks[1].Kind != poly.Name || !isOp(l.toks[2], "=") {
 				errs.Add(l.toks[1].Pos, "expected \"let name = expression\"")
@@ -413,13 +446,9 @@ func parse(file string, src []byte, lim poly.Limits, canonical bool, settings ..
 				continue
 			}
 			m.parseAt(l.toks[1:], t.Pos, expr, errs)
-		case t.Kind == poly.Name && (t.Text == "next" && len(l.toks) > 2 && l.toks[1].Kind == poly.Name && isOp(l.toks[2], "=") ||
-			len(l.toks) > 2 && isOp(l.toks[1], "'") && isOp(l.toks[2], "=")):
-			discrete := t.Text == "next" && !isOp(l.toks[1], "'")
+		case t.Kind == poly.Name && len(l.toks) > 2 && (isOp(l.toks[1], "'") || isOp(l.toks[1], "+")) && isOp(l.toks[2], "="):
+			discrete := isOp(l.toks[1], "+")
 			nameTok, rhs := t, l.toks[3:]
-			if discrete {
-				nameTok = l.toks[1]
-			}
 			i := slices.Index(m.States, nameTok.Text)
 			if i < 0 {
 				if isParam(paramIdx, nameTok.Text) {
@@ -434,7 +463,7 @@ func parse(file string, src []byte, lim poly.Limits, canonical bool, settings ..
 				continue
 			}
 			if _, ok := kinds[!discrete]; ok {
-				errs.Add(t.Pos, "mixes continuous-time (x' = ...) and discrete-time (next x = ...) equations; use one kind for all states")
+				errs.Add(t.Pos, "mixes continuous-time (x' = ...) and discrete-time (x+ = ...) equations; use one kind for all states")
 				continue
 			}
 			kinds[discrete] = t.Pos
@@ -443,7 +472,7 @@ func parse(file string, src []byte, lim poly.Limits, canonical bool, settings ..
 				m.F[i], m.FPos[i], have[i] = f, nameTok.Pos, true
 			}
 		default:
-			errs.Add(t.Pos, "expected a declaration (state, param, let, an equation x' = ..., next x = ..., V = ..., at ...), found %s", t)
+			errs.Add(t.Pos, "expected a declaration (state, parameter, let, an equation x' = ... or x+ = ..., V = ..., at ...), found %s", t)
 		}
 	}
 	if errs.Len() > 0 {
@@ -451,7 +480,11 @@ func parse(file string, src []byte, lim poly.Limits, canonical bool, settings ..
 	}
 	for i, s := range m.States {
 		if !have[i] {
-			errs.Add(m.StatePos[i], "state %s has no equation (write %s' = ...)", s, s)
+			mark := "'"
+			if m.Discrete {
+				mark = "+"
+			}
+			errs.Add(m.StatePos[i], "state %s has no equation (write %s%s = ...)", s, s, mark)
 		}
 	}
 	if !m.AtGiven {
@@ -496,10 +529,20 @@ func isParam(idx map[string]int, name string) bool { _, ok := idx[name]; return 
 
 func isOp(t poly.Token, s string) bool { return t.Kind == poly.Op && t.Text == s }
 
-// isAssign reports a line "name = ..." or "name' = ...", which is never a
-// declaration even when the name is a keyword (a state cannot be called so).
+// isAssign reports a line "name = ...", "name' = ..." or "name+ = ...",
+// which is never a declaration even when the name is a keyword (a state
+// cannot be called so).
 func isAssign(toks []poly.Token) bool {
-	return len(toks) > 1 && (isOp(toks[1], "=") || isOp(toks[1], "'"))
+	return len(toks) > 1 && (isOp(toks[1], "=") || isOp(toks[1], "'")) ||
+		len(toks) > 2 && isOp(toks[1], "+") && isOp(toks[2], "=")
+}
+
+// declKind names what a declaration line declares.
+func declKind(keyword string) string {
+	if keyword == "state" {
+		return "state"
+	}
+	return "parameter"
 }
 
 func nameList(toks []poly.Token, errs *poly.Errors) ([]poly.Token, []poly.Token, bool) {
@@ -518,7 +561,7 @@ func nameList(toks []poly.Token, errs *poly.Errors) ([]poly.Token, []poly.Token,
 	}
 }
 
-// parseAssumption reads what follows the names of a param line.
+// parseAssumption reads what follows the names of a parameter line.
 func parseAssumption(toks []poly.Token, errs *poly.Errors, lim poly.Limits) (poly.Interval, *big.Rat, bool) {
 	t := toks[0]
 	if t.Kind == poly.EOF {
@@ -761,12 +804,16 @@ func (m *Model) checkDenominators(errs *poly.Errors) {
 	check := func(f poly.RatFunc, pos poly.Pos, what string) {
 		for _, d := range f.Den {
 			if d.P.Enclose(box).ContainsZero() {
-				errs.Add(pos, "%s divides by %s, which the assumptions do not keep away from zero; narrow the parameter's range (for example param %s > 0)", what, d.P, d.P.String())
+				errs.Add(pos, "%s divides by %s, which the assumptions do not keep away from zero; narrow the parameter's range (for example parameter %s > 0)", what, d.P, d.P.String())
 			}
 		}
 	}
 	for i, f := range m.F {
-		check(f, m.FPos[i], m.States[i]+"'")
+		mark := "'"
+		if m.Discrete {
+			mark = "+"
+		}
+		check(f, m.FPos[i], m.States[i]+mark)
 	}
 	if m.V != nil {
 		check(*m.V, m.VPos, "V")

@@ -3,6 +3,7 @@ package model
 import (
 	"os"
 	"path/filepath"
+	"slices"
 	"strings"
 	"testing"
 
@@ -12,9 +13,9 @@ import (
 // The sample model of the format's documentation (an invented scenario).
 const sample = `# Reduced three-mode model of a stirred-tank cooling loop (invented scenario)
 state u, v, w                  # state variables, in order
-param g > 0                    # also >=, <, <=
-param h in [0, 4]              # closed, open or half-open
-param m = 8/3                  # fixed value
+parameter g > 0                # also >=, <, <=
+parameter h in [0, 4]          # closed, open or half-open
+parameter m = 8/3              # fixed value
 let q = u*v                    # named sub-expression, substituted
 u' = g*(v - u)                 # exactly one equation per state
 v' = h*u - v - q
@@ -61,18 +62,29 @@ func TestParseErrors(t *testing.T) {
 		{"two equations", "state x\nx' = -x\nx' = x\n", "m.lya:3:1: a second equation for x"},
 		{"division by state", "state x\nx' = 1/x\n", "m.lya:2:8: division by an expression in the states"},
 		{"undeclared parameter", "state x\nx' = -k*x\n", "m.lya:2:7: unknown name \"k\""},
-		{"empty range", "state x\nparam k in [4, 0]\nx' = -k*x\n", "m.lya:2:12: empty range"},
-		{"empty half-open range", "state x\nparam k in (1, 1]\nx' = -k*x\n", "m.lya:2:12: empty range"},
-		{"contradictory ranges", "state x\nparam k > 2\nparam k < 1\nx' = -k*x\n", "m.lya:3:7: contradictory range for k"},
+		{"empty range", "state x\nparameter k in [4, 0]\nx' = -k*x\n", "m.lya:2:16: empty range"},
+		{"empty half-open range", "state x\nparameter k in (1, 1]\nx' = -k*x\n", "m.lya:2:16: empty range"},
+		{"contradictory ranges", "state x\nparameter k > 2\nparameter k < 1\nx' = -k*x\n", "m.lya:3:11: contradictory range for k"},
 		{"not an equilibrium", "state x\nx' = 1 - x\nat x = 0\n", "m.lya:3:1: not an equilibrium"},
-		{"division not kept from zero", "state x\nparam k\nx' = -x/k\n", "m.lya:3:1: x' divides by k, which the assumptions do not keep away from zero"},
-		{"no states", "param k > 0\n", "m.lya:1:1: no states"},
-		{"equation for a parameter", "state x\nparam k\nx' = -x\nk' = 1\n", "m.lya:4:1: \"k\" is a parameter, not a state"},
-		{"mixed time", "state x, y\nx' = -x\nnext y = y/2\n", "m.lya:3:1: mixes continuous-time"},
+		{"division not kept from zero", "state x\nparameter k\nx' = -x/k\n", "m.lya:3:1: x' divides by k, which the assumptions do not keep away from zero"},
+		{"no states", "parameter k > 0\n", "m.lya:1:1: no states"},
+		{"equation for a parameter", "state x\nparameter k\nx' = -x\nk' = 1\n", "m.lya:4:1: \"k\" is a parameter, not a state"},
+		{"mixed time", "state x, y\nx' = -x\ny+ = y/2\n", "m.lya:3:1: mixes continuous-time"},
 		{"keyword as state", "state V\nV' = -V\n", "m.lya:1:7: \"V\" is a keyword"},
 		{"at with a state value", "state x, y\nx' = -x\ny' = -y\nat x = y, y = 0\n", "m.lya:4:8: the equilibrium may depend on parameters, not on states"},
 		{"garbage line", "state x\nx' = -x\nhello world\n", "m.lya:3:1: expected a declaration"},
-		{"range with a name", "state x\nparam k in [0, j]\nx' = -x\n", "m.lya:2:16: a parameter's range takes constants only"},
+		{"range with a name", "state x\nparameter k in [0, j]\nx' = -x\n", "m.lya:2:20: a parameter's range takes constants only"},
+		// The spellings of earlier versions name the new ones (common practice
+		// when a keyword is renamed: the old word is answered, not ignored).
+		{"old param", "state x\nparam k > 0\nx' = -k*x\n", "m.lya:2:1: `param` is now written `parameter`"},
+		{"old param indented", "state x\n  param k, j\nx' = -k*x\n", "m.lya:2:3: `param` is now written `parameter`"},
+		{"old next", "state x\nnext x = x/2\n", "m.lya:2:1: `next x = ...` is now written `x+ = ...` (the successor state x⁺)"},
+		{"old next, long line", "state x\nnext x = x/2" + strings.Repeat(" + 0*x", 100) + "\n", "m.lya:2:1: `next x = ...` is now written `x+ = ...`"},
+		{"mixed time, map first", "state x, y\nx+ = x/2\ny' = -y\n", "m.lya:3:1: mixes continuous-time (x' = ...) and discrete-time (x+ = ...)"},
+		{"map missing an equation", "state x, y\nx+ = x/2\n", "m.lya:1:10: state y has no equation (write y+ = ...)"},
+		{"map divides by a free parameter", "state x\nparameter k\nx+ = x/k\n", "m.lya:3:1: x+ divides by k"},
+		{"keyword parameter as a state", "state parameter\nparameter' = 0\n", "m.lya:1:7: \"parameter\" is a keyword and cannot name a state"},
+		{"old keyword as a parameter", "state x\nparameter next\nx' = -x\n", "m.lya:2:11: \"next\" is a keyword and cannot name a parameter"},
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			_, err := Parse("m.lya", []byte(c.src))
@@ -98,8 +110,54 @@ func TestErrorsCollected(t *testing.T) {
 	}
 }
 
+// Every old spelling in a file is reported, together and in order, and
+// nothing else: an old "param" line still declares its parameter.
+func TestOldSpellingsCollected(t *testing.T) {
+	src := "state x, y\nparam k > 0\nnext x = x/2 + k*y\nnext y = y/2\n"
+	_, err := Parse("m.lya", []byte(src))
+	if err == nil {
+		t.Fatal("no error")
+	}
+	want := []string{
+		"m.lya:2:1: `param` is now written `parameter`",
+		"m.lya:3:1: `next x = ...` is now written `x+ = ...` (the successor state x⁺)",
+		"m.lya:4:1: `next y = ...` is now written `y+ = ...` (the successor state y⁺)",
+	}
+	if got := strings.Split(err.Error(), "\n"); !slices.Equal(got, want) {
+		t.Errorf("errors\n  %q\nwant\n  %q", got, want)
+	}
+}
+
+// A map is written with the successor state x⁺ as "x+ = ..." (the notation
+// of the trade for the next state of a discrete-time system, common
+// practice), and the canonical text writes the same spellings.
+func TestMapSpelling(t *testing.T) {
+	for _, c := range []struct{ name, src, canonical string }{
+		{"map", "state x, y\nparameter a in [0, 1)\nx+ = x/2 + y\ny + = a*y   # a space before + is allowed\n",
+			"state x, y\nparameter a in [0, 1)\nx+ = 1/2*x + y\ny+ = a*y\n"},
+		{"flow", "state x\nparameter k > 0\nparameter m = 2\nx' = -k*m*x\n",
+			"state x\nparameter k > 0\nparameter m = 2\nx' = -2*k*x\n"},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			m, err := Parse("m.lya", []byte(c.src))
+			if err != nil {
+				t.Fatal(err)
+			}
+			if m.Discrete != (c.name == "map") {
+				t.Errorf("Discrete = %v", m.Discrete)
+			}
+			if got := m.Canonical(); got != c.canonical {
+				t.Errorf("canonical\n%s\nwant\n%s", got, c.canonical)
+			}
+			if _, err := Parse("canonical", []byte(m.Canonical())); err != nil {
+				t.Errorf("canonical text does not parse: %v", err)
+			}
+		})
+	}
+}
+
 func TestSettings(t *testing.T) {
-	src := "state x\nparam k in [0, 4]\nx' = -k*x\nV = x^2\n"
+	src := "state x\nparameter k in [0, 4]\nx' = -k*x\nV = x^2\n"
 	s, err := ParseSetting("k=1/2")
 	if err != nil {
 		t.Fatal(err)

@@ -133,7 +133,7 @@ var htmlTemplate = htmltemplate.Must(htmltemplate.New("report.html.tmpl").Funcs(
 // texData adds what only LaTeX needs to the page.
 type texData struct {
 	*page
-	Standalone bool
+	WholeDocument bool
 }
 
 func renderMarkdown(w io.Writer, p *page, opts Options) error {
@@ -156,7 +156,7 @@ func renderMarkdown(w io.Writer, p *page, opts Options) error {
 }
 
 func renderLaTeX(w io.Writer, p *page, opts Options) error {
-	return texTemplate.Execute(w, texData{p, opts.Standalone})
+	return texTemplate.Execute(w, texData{p, opts.WholeDocument})
 }
 
 func renderHTML(w io.Writer, p *page) error {

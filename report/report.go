@@ -35,9 +35,9 @@ var ErrInvalid = errors.New("the certificate is invalid and proves nothing")
 type Options struct {
 	// Format is the output format; the zero value is Markdown.
 	Format Format
-	// Standalone makes a LaTeX report a whole document (preamble,
+	// WholeDocument makes a LaTeX report a whole document (preamble,
 	// \begin{document} … \end{document}) rather than a fragment.
-	Standalone bool
+	WholeDocument bool
 	// Checker names the checker and its version in the verification
 	// record, for example "lyacert 0.1.0".
 	Checker string
@@ -725,7 +725,7 @@ func (b *builder) record(p *page, res checker.Outcome, opts Options) {
 		fp := checker.Fingerprint(pub)
 		r.Signature = "Signed with ed25519 by the key with fingerprint " + fp + "; the signature verifies against the digest. " +
 			"A signature says who issued the certificate, not that it is correct: the checks above say that."
-		p.Recheck = append(p.Recheck, "lyacert verify --trust SIGNER.pub "+shellQuote(cert))
+		p.Recheck = append(p.Recheck, "lyacert verify --trust SIGNER.pub.pem "+shellQuote(cert))
 	} else {
 		r.Signature = "Not signed."
 	}

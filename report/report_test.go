@@ -110,7 +110,7 @@ func certs(t *testing.T) []certFile {
 func render(t *testing.T, c certFile, f report.Format, standalone bool) []byte {
 	t.Helper()
 	var buf bytes.Buffer
-	err := report.Render(&buf, c.doc, report.Options{Format: f, Standalone: standalone, Checker: checkerName, CertName: c.name + ".json"})
+	err := report.Render(&buf, c.doc, report.Options{Format: f, WholeDocument: standalone, Checker: checkerName, CertName: c.name + ".json"})
 	if err != nil {
 		t.Fatalf("%s (%s): %v", c.name, f, err)
 	}

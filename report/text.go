@@ -182,7 +182,7 @@ func modelHeader(w io.Writer, m *model.Model) {
 func equationsText(w io.Writer, m *model.Model) {
 	for i, s := range m.States {
 		if m.Discrete {
-			fmt.Fprintf(w, "  next %s = %s\n", s, m.F[i])
+			fmt.Fprintf(w, "  %s+ = %s\n", s, m.F[i])
 		} else {
 			fmt.Fprintf(w, "  %s' = %s\n", s, m.F[i])
 		}

@@ -170,7 +170,7 @@ func TestFixParams(t *testing.T) {
 	}{
 		{string(readModel(t, "lorenz-classic.lya")), map[string]string{"r": "47/2"}},
 		{string(readModel(t, "companion3.lya")), map[string]string{"a0": "-1/3", "a1": "2", "a2": "7/5"}},
-		{"state u, v\nparam g > 0\nparam h in [0, 4]\nu' = g*(v - u)/(g + 1)\nv' = h*u - v\nV = u^2/g + v^2\nat u = 0, v = 0\n", map[string]string{"g": "3/2", "h": "1"}},
+		{"state u, v\nparameter g > 0\nparameter h in [0, 4]\nu' = g*(v - u)/(g + 1)\nv' = h*u - v\nV = u^2/g + v^2\nat u = 0, v = 0\n", map[string]string{"g": "3/2", "h": "1"}},
 	}
 	for _, c := range cases {
 		base, err := model.Parse("m.lya", []byte(c.src))

@@ -20,7 +20,7 @@ func BenchmarkLorenz(b *testing.B) {
 // symbolic parameters (target < 2 s): branches x = 0 and x = ab − 1,
 // 4×4 Jacobians, Hurwitz determinants and the 10-unknown Lyapunov system.
 func BenchmarkFourStatesTwoParams(b *testing.B) {
-	m := parse(b, "chain4.lya", "state x, y, z, w\nparam a\nparam b\nx' = y - a*x\ny' = z - y\nz' = w - b*z + x^2\nw' = x - w\n")
+	m := parse(b, "chain4.lya", "state x, y, z, w\nparameter a\nparameter b\nx' = y - a*x\ny' = z - y\nz' = w - b*z + x^2\nw' = x - w\n")
 	for b.Loop() {
 		an, err := Analyze(context.Background(), m, Options{})
 		if err != nil {

@@ -263,7 +263,7 @@ func TestCompanionRouthHurwitz(t *testing.T) {
 // a pitchfork at a = 0 with τ = −1, Δ = 2a: a stable node on (0, 1/8) and a
 // stable focus for a > 1/8 (τ² = 4Δ at a = 1/8).
 func TestTwoStateTraceDeterminant(t *testing.T) {
-	m := parse(t, "duffing.lya", "state x, y\nparam a\nx' = y\ny' = a*x - x^3 - y\n")
+	m := parse(t, "duffing.lya", "state x, y\nparameter a\nx' = y\ny' = a*x - x^3 - y\n")
 	an := analyze(t, m)
 	if len(an.Branches) != 3 {
 		t.Fatalf("%d branches", len(an.Branches))
@@ -337,7 +337,7 @@ func TestLogisticPeriodDoubling(t *testing.T) {
 // compared on a grid; its Neimark–Sacker value for c = 1 is d = 1
 // (complex pair on the unit circle, |τ| < 2).
 func TestJuryTwoStateMap(t *testing.T) {
-	m := parse(t, "map2.lya", "state x, y\nparam c\nparam d\nnext x = y\nnext y = -d*x + c*y\n")
+	m := parse(t, "map2.lya", "state x, y\nparameter c\nparameter d\nx+ = y\ny+ = -d*x + c*y\n")
 	an := analyze(t, m)
 	br := an.Branches[0]
 	ix := func(n string) int { i, _ := m.Ring.Index(n); return i }
@@ -366,7 +366,7 @@ func TestJuryTwoStateMap(t *testing.T) {
 			}
 		}
 	}
-	m1 := parse(t, "map1.lya", "state x, y\nparam d\nnext x = y\nnext y = -d*x + y\n")
+	m1 := parse(t, "map1.lya", "state x, y\nparameter d\nx+ = y\ny+ = -d*x + y\n")
 	an1 := analyze(t, m1)
 	ns := false
 	for _, bf := range an1.Bifurcations {
@@ -400,7 +400,7 @@ func TestNonIsolated(t *testing.T) {
 // A cubic with a symbolic coefficient has no closed form here (hand
 // computation: x' = y, y' = x³ − x − p leads to x³ − x − p = 0).
 func TestNoClosedForm(t *testing.T) {
-	m := parse(t, "cubic.lya", "state x, y\nparam p\nx' = y\ny' = x^3 - x - p\n")
+	m := parse(t, "cubic.lya", "state x, y\nparameter p\nx' = y\ny' = x^3 - x - p\n")
 	an, err := Analyze(context.Background(), m, Options{})
 	if err != nil {
 		t.Fatal(err)

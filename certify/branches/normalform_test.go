@@ -13,11 +13,11 @@ func TestNormalForms(t *testing.T) {
 		at              *big.Rat
 		branches        int
 	}{
-		{"saddle-node", "state x\nparam r\nx' = r - x^2\n", "saddle-node", big.NewRat(0, 1), 2},
+		{"saddle-node", "state x\nparameter r\nx' = r - x^2\n", "saddle-node", big.NewRat(0, 1), 2},
 		// (x − 1)(x − r): a perfect-square discriminant (r − 1)², two
 		// rational branches crossing at r = 1.
-		{"transcritical", "state x\nparam r\nx' = -(x - 1)*(x - r)\n", "transcritical", big.NewRat(1, 1), 2},
-		{"pitchfork", "state x\nparam r\nx' = r*x - x^3\n", "pitchfork", big.NewRat(0, 1), 3},
+		{"transcritical", "state x\nparameter r\nx' = -(x - 1)*(x - r)\n", "transcritical", big.NewRat(1, 1), 2},
+		{"pitchfork", "state x\nparameter r\nx' = r*x - x^3\n", "pitchfork", big.NewRat(0, 1), 3},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {

@@ -233,8 +233,8 @@ func TestLDLAgreesWithCholesky(t *testing.T) {
 
 // Renaming every state and parameter changes nothing but the names.
 func TestRenamingChangesOnlyNames(t *testing.T) {
-	orig := "state x, y, z\nparam sigma > 0\nparam r >= 0\nparam b > 0\nx' = sigma*(y - x)\ny' = r*x - y - x*z\nz' = x*y - b*z\nV = x^2/sigma + y^2 + z^2\n"
-	renamed := "state p1, p2, p3\nparam s > 0\nparam rho >= 0\nparam beta > 0\np1' = s*(p2 - p1)\np2' = rho*p1 - p2 - p1*p3\np3' = p1*p2 - beta*p3\nV = p1^2/s + p2^2 + p3^2\n"
+	orig := "state x, y, z\nparameter sigma > 0\nparameter r >= 0\nparameter b > 0\nx' = sigma*(y - x)\ny' = r*x - y - x*z\nz' = x*y - b*z\nV = x^2/sigma + y^2 + z^2\n"
+	renamed := "state p1, p2, p3\nparameter s > 0\nparameter rho >= 0\nparameter beta > 0\np1' = s*(p2 - p1)\np2' = rho*p1 - p2 - p1*p3\np3' = p1*p2 - beta*p3\nV = p1^2/s + p2^2 + p3^2\n"
 	a := mustCheck(t, orig)
 	b := mustCheck(t, renamed)
 	if a.Verdict != b.Verdict || a.Claim != b.Claim {
@@ -344,19 +344,19 @@ func TestDiscreteTimeCheck(t *testing.T) {
 	}{
 		// hand computation (Stein equation AᵀPA − P = −I for A = [[1/2, 1],
 		// [0, 1/2]]): P = [[4/3, 8/9], [8/9, 116/27]], so ΔV = −x² − y².
-		{"stein", "state x, y\nnext x = x/2 + y\nnext y = y/2\nV = 4/3*x^2 + 16/9*x*y + 116/27*y^2\n",
+		{"stein", "state x, y\nx+ = x/2 + y\ny+ = y/2\nV = 4/3*x^2 + 16/9*x*y + 116/27*y^2\n",
 			checker.VerdictHolds, checker.KindGlobal},
 		// the same map with V = x² + y²: AᵀA − I = [[−3/4, 1/2], [1/2, 1/4]]
 		// is indefinite, so ΔV takes both signs (hand computation).
-		{"indefinite", "state x, y\nnext x = x/2 + y\nnext y = y/2\nV = x^2 + y^2\n",
+		{"indefinite", "state x, y\nx+ = x/2 + y\ny+ = y/2\nV = x^2 + y^2\n",
 			checker.VerdictFails, checker.KindNone},
 		// hand computation: a nonlinear term of degree 2 in the map leaves
 		// the quadratic part of ΔV = −3/4·x² + ..., a local claim.
-		{"nonlinear", "state x, y\nnext x = x/2 + y^2\nnext y = y/2\nV = x^2 + y^2\n",
+		{"nonlinear", "state x, y\nx+ = x/2 + y^2\ny+ = y/2\nV = x^2 + y^2\n",
 			checker.VerdictHolds, checker.KindLocal},
 		// the logistic map x ↦ 5/2·x(1 − x) at its fixed point 3/5, where
 		// f' = 2 − r = −1/2 (May 1976): V = (x − 3/5)², ΔV's quadratic part −3/4·(x − 3/5)².
-		{"logistic", "state x\nnext x = 5/2*x*(1 - x)\nV = (x - 3/5)^2\nat x = 3/5\n",
+		{"logistic", "state x\nx+ = 5/2*x*(1 - x)\nV = (x - 3/5)^2\nat x = 3/5\n",
 			checker.VerdictHolds, checker.KindLocal},
 	}
 	for _, c := range cases {

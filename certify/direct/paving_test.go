@@ -286,7 +286,7 @@ func TestPavingErrors(t *testing.T) {
 // A parameter with an unbounded range is not paved: the exact conditions
 // and witness points remain, and the note says why.
 func TestPavingUnboundedNote(t *testing.T) {
-	src := "# invented\nstate x, y\nparam a > 0\nparam b in [0, 2]\nx' = -x + a*y\ny' = -b*x - y\nV = x^2 + y^2\n"
+	src := "# invented\nstate x, y\nparameter a > 0\nparameter b in [0, 2]\nx' = -x + a*y\ny' = -b*x - y\nV = x^2 + y^2\n"
 	m, err := model.Parse("gains.lya", []byte(src))
 	if err != nil {
 		t.Fatal(err)

@@ -69,7 +69,7 @@ func TestFindLinearExact(t *testing.T) {
 		// hand computation (Stein equation): A = [[1/2, 1], [0, 1/2]],
 		// AᵀPA − P = −I gives P = [[4/3, 8/9], [8/9, 116/27]]; the shortest
 		// rounding that passes the exact tests has 43/10 for 116/27.
-		{"map", "state x, y\nnext x = x/2 + y\nnext y = y/2\n", [][]string{{"4/3", "8/9"}, {"8/9", "43/10"}}, checker.KindGlobal, checker.VerdictHolds},
+		{"map", "state x, y\nx+ = x/2 + y\ny+ = y/2\n", [][]string{{"4/3", "8/9"}, {"8/9", "43/10"}}, checker.KindGlobal, checker.VerdictHolds},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
@@ -126,7 +126,7 @@ func TestFindEquilibria(t *testing.T) {
 		// hand computation: x' = x² + 1 has no real zero.
 		{"none", "state x\nx' = x^2 + 1\n", nil, 0, 0, true},
 		// (1 ± √3)/2 are the fixed points of x ↦ x² − 1/2 (hand computation).
-		{"quadratic map", "state x\nnext x = x^2 - 1/2\n", nil, 0, 2, true},
+		{"quadratic map", "state x\nx+ = x^2 - 1/2\n", nil, 0, 2, true},
 	}
 	lorenz := string(readModel(t, "lorenz-classic.lya"))
 	for _, c := range cases {

@@ -13,16 +13,16 @@ import (
 
 // keyCmd groups the key commands.
 type keyCmd struct {
-	New keyNewCmd `cmd:"" help:"Write a new ed25519 key pair: NAME (private, mode 0600) and NAME.pub (public). Never overwrites."`
+	New keyNewCmd `cmd:"" help:"Write a new ed25519 key pair as PEM: NAME.key (private, PKCS #8, mode 0600) and NAME.pub.pem (public, SubjectPublicKeyInfo). Never overwrites."`
 }
 
 type keyNewCmd struct {
-	Out string `short:"o" name:"out" required:"" placeholder:"NAME" help:"File name of the private key; the public key goes to NAME.pub."`
+	Out string `short:"o" name:"out" required:"" placeholder:"NAME" help:"Name of the key pair: the private key goes to NAME.key, the public key to NAME.pub.pem."`
 }
 
 type signCmd struct {
 	Cert string `arg:"" placeholder:"CERT" help:"Certificate file (JSON)."`
-	Key  string `name:"key" required:"" placeholder:"KEY" help:"Private key file (from lyacert key new)."`
+	Key  string `name:"key" required:"" placeholder:"KEY" help:"Private key file: PEM, PKCS #8, ed25519 (NAME.key from lyacert key new)."`
 	Out  string `short:"o" name:"out" placeholder:"OUT" help:"Write the signed certificate here; by default CERT is rewritten in place (atomically)."`
 }
 
@@ -43,11 +43,12 @@ func (c *keyNewCmd) run(e *env) int {
 		fmt.Fprintln(e.stderr, "lyacert: generating a key:", err)
 		return exitInput
 	}
-	if err := certificates.WriteKeyPair(c.Out, pub, priv); err != nil {
+	privPath, pubPath, err := certificates.WriteKeyPair(c.Out, pub, priv)
+	if err != nil {
 		fmt.Fprintln(e.stderr, "lyacert:", err)
 		return exitInput
 	}
-	fmt.Fprintf(e.stdout, "wrote the private key %s (keep it secret) and the public key %s.pub\n  fingerprint %s\n", c.Out, c.Out, checker.Fingerprint(pub))
+	fmt.Fprintf(e.stdout, "wrote the private key %s (keep it secret) and the public key %s\n  fingerprint %s\n", privPath, pubPath, checker.Fingerprint(pub))
 	return exitHolds
 }
 
@@ -202,6 +203,6 @@ func renderSigner(w io.Writer, doc *checker.Document, res checker.Outcome, trust
 	case trusted:
 		fmt.Fprintf(w, "  signed by the trusted key %s\n", checker.Fingerprint(pub))
 	default:
-		fmt.Fprintf(w, "  signed by key %s (signature valid; use --trust KEY.pub to require a trusted signer)\n", checker.Fingerprint(pub))
+		fmt.Fprintf(w, "  signed by key %s (signature valid; use --trust KEY.pub.pem to require a trusted signer)\n", checker.Fingerprint(pub))
 	}
 }

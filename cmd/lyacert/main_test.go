@@ -22,6 +22,8 @@ func TestScripts(t *testing.T) {
 		Setup: func(e *testscript.Env) error {
 			// Models shared with the other packages' tests.
 			e.Setenv("MODELS", mustAbs("../../testdata/models"))
+			// The demo models, as files.
+			e.Setenv("EXAMPLES", mustAbs("../../examples"))
 			return nil
 		},
 	})

@@ -18,10 +18,13 @@ import (
 )
 
 type reportCmd struct {
-	Cert       string `arg:"" placeholder:"CERT" help:"Certificate file (JSON), or - for standard input."`
-	Format     string `name:"format" default:"md" enum:"md,tex,html" help:"Report format: md (GitHub Markdown), tex (LaTeX), html (one self-contained page)."`
-	Standalone bool   `name:"standalone" help:"With --format tex: a whole LaTeX document instead of a fragment."`
-	Out        string `short:"o" name:"out" placeholder:"FILE" help:"Write the report to this file (atomically) instead of standard output; a Markdown report's plot goes beside it."`
+	Cert          string `arg:"" placeholder:"CERT" help:"Certificate file (JSON), or - for standard input."`
+	Format        string `name:"format" default:"md" enum:"md,tex,html" help:"Report format: md (GitHub Markdown), tex (LaTeX), html (one self-contained page)."`
+	WholeDocument bool   `name:"whole-document" help:"With --format tex: a whole LaTeX document (preamble, \\begin{document} ... \\end{document}) instead of a fragment."`
+	// OldWholeDocument is the flag's earlier name, kept to be answered
+	// with the new one.
+	OldWholeDocument bool   `name:"standalone" hidden:""`
+	Out              string `short:"o" name:"out" placeholder:"FILE" help:"Write the report to this file (atomically) instead of standard output; a Markdown report's plot goes beside it."`
 }
 
 func init() {
@@ -39,8 +42,12 @@ func (c *reportCmd) run(e *env) int {
 		fmt.Fprintln(e.stderr, "lyacert:", err)
 		return exitInput
 	}
-	if c.Standalone && format != report.LaTeX {
-		fmt.Fprintln(e.stderr, "lyacert: --standalone applies to --format tex only")
+	if c.OldWholeDocument {
+		fmt.Fprintln(e.stderr, "lyacert: --standalone is now written --whole-document")
+		return exitInput
+	}
+	if c.WholeDocument && format != report.LaTeX {
+		fmt.Fprintln(e.stderr, "lyacert: --whole-document applies to --format tex only")
 		return exitInput
 	}
 	name, src, err := readInput(c.Cert, e.stdin)
@@ -53,7 +60,7 @@ func (c *reportCmd) run(e *env) int {
 		fmt.Fprintf(e.stderr, "lyacert: %s: %v\n", name, err)
 		return exitInput
 	}
-	opts := report.Options{Format: format, Standalone: c.Standalone, Checker: checkerName(), CertName: name}
+	opts := report.Options{Format: format, WholeDocument: c.WholeDocument, Checker: checkerName(), CertName: name}
 	if c.Out != "" {
 		opts.Figure = figureBeside(c.Out)
 	}
@@ -118,7 +125,7 @@ func writeDemoReports(dir string, e *env) error {
 	var written []string
 	for _, f := range report.Formats {
 		out := filepath.Join(dir, base+"."+string(f))
-		opts := report.Options{Format: f, Standalone: f == report.LaTeX, Checker: checkerName(), CertName: base + ".json", Figure: figureBeside(out)}
+		opts := report.Options{Format: f, WholeDocument: f == report.LaTeX, Checker: checkerName(), CertName: base + ".json", Figure: figureBeside(out)}
 		var buf bytes.Buffer
 		if err := report.Render(&buf, res.Doc, opts); err != nil {
 			return err

@@ -18,7 +18,7 @@ import (
 // the 2×2 Gram matrix [[2, −1], [−1, 2a]] of −V̇, common practice).
 const gain = `# An invented pair of coupled lags.
 state x, y
-param a in (0, 1)
+parameter a in (0, 1)
 x' = -x + y
 y' = -a*y
 V = x^2 + y^2

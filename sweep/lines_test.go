@@ -15,7 +15,7 @@ import (
 
 // stableSrc is a model of our own: x' = -a x + y, y' = -y is stable for
 // a > 0 (triangular, eigenvalues -a and -1: common practice).
-const stableSrc = "state x, y\nparam a > 0\nx' = -a*x + y\ny' = -y\n"
+const stableSrc = "state x, y\nparameter a > 0\nx' = -a*x + y\ny' = -y\n"
 
 func axis(t testing.TB, s string) GridAxis {
 	t.Helper()
@@ -151,7 +151,7 @@ func TestIdentity(t *testing.T) {
 	base := digest("s.lya", stableSrc, nil, grid, nil, false)
 	same := []string{
 		digest("/some/where/else/t.lya", stableSrc, nil, grid, nil, false),
-		digest("s.lya", "# a comment\nstate x,y\nparam a>0\nx' = y - a*x\ny'=-y\n", nil, grid, nil, false),
+		digest("s.lya", "# a comment\nstate x,y\nparameter a>0\nx' = y - a*x\ny'=-y\n", nil, grid, nil, false),
 		digest("s.lya", stableSrc, nil, Grid{axis(t, "a=2/2:10/2:9")}, nil, false),
 		digest("s.lya", stableSrc, nil, grid, []*big.Rat{big.NewRat(1, 1)}, false),
 	}
@@ -165,7 +165,7 @@ func TestIdentity(t *testing.T) {
 		digest("s.lya", stableSrc, nil, Grid{axis(t, "a=1:5:10")}, nil, false),
 		digest("s.lya", stableSrc, nil, grid, []*big.Rat{big.NewRat(2, 1)}, false),
 		digest("s.lya", stableSrc, nil, grid, nil, true),
-		digest("s.lya", "state x, y\nparam a > 0\nparam c > 0\nx' = -a*x + y\ny' = -c*y\n", []model.Setting{{Name: "c", Value: big.NewRat(1, 1)}}, grid, nil, false),
+		digest("s.lya", "state x, y\nparameter a > 0\nparameter c > 0\nx' = -a*x + y\ny' = -c*y\n", []model.Setting{{Name: "c", Value: big.NewRat(1, 1)}}, grid, nil, false),
 	}
 	for i, d := range differ {
 		if d == base || !isDigest(d) {

@@ -124,7 +124,7 @@ func findCheck(r checker.Outcome, name string) *checker.Record {
 func TestErrorMessagesAreDistinct(t *testing.T) {
 	d := signedCoolant(t, testKey(t, 1))
 	_, err := VerifyTrusted(d, []ed25519.PublicKey{testKey(t, 2).Public().(ed25519.PublicKey)})
-	want := "signed by a key that is not trusted: " + checker.Fingerprint(testKey(t, 1).Public().(ed25519.PublicKey))
+	want := "signed by a key that is not trusted: " + Fingerprint(testKey(t, 1).Public().(ed25519.PublicKey))
 	if err == nil || err.Error() != want {
 		t.Errorf("untrusted: %v, want %q", err, want)
 	}
@@ -353,7 +353,7 @@ func TestFingerprint(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if got, want := checker.Fingerprint(pub), "a1e9156054e04fac899ae9f275132cdc07a5dbc4ea2c2ad3a1ffc6e0d253681f"; got != want {
+	if got, want := Fingerprint(pub), "a1e9156054e04fac899ae9f275132cdc07a5dbc4ea2c2ad3a1ffc6e0d253681f"; got != want {
 		t.Errorf("fingerprint %s, want %s", got, want)
 	}
 	// The same as hashing Go's own encoding of the key (crypto/x509), for
@@ -365,7 +365,7 @@ func TestFingerprint(t *testing.T) {
 			t.Fatal(err)
 		}
 		sum := sha256.Sum256(der)
-		if got := checker.Fingerprint(pub); got != hex.EncodeToString(sum[:]) {
+		if got := Fingerprint(pub); got != hex.EncodeToString(sum[:]) {
 			t.Errorf("fingerprint %s, want the SHA-256 of the SPKI %x", got, sum)
 		}
 	}
@@ -401,8 +401,8 @@ func TestKeyFilesReadByOpenSSL(t *testing.T) {
 		t.Errorf("openssl derives %s (%v), want our public key", derived, err)
 	}
 	der := run("pkey", "-pubin", "-in", pubPath, "-outform", "DER")
-	if sum := sha256.Sum256(der); hex.EncodeToString(sum[:]) != checker.Fingerprint(pub) {
-		t.Errorf("SHA-256 of OpenSSL's DER is %x, fingerprint %s", sum, checker.Fingerprint(pub))
+	if sum := sha256.Sum256(der); hex.EncodeToString(sum[:]) != Fingerprint(pub) {
+		t.Errorf("SHA-256 of OpenSSL's DER is %x, fingerprint %s", sum, Fingerprint(pub))
 	}
 	// And a key OpenSSL generates is read by us.
 	genPath := filepath.Join(t.TempDir(), "gen.key")

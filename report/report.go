@@ -722,7 +722,7 @@ func (b *builder) record(p *page, res checker.Outcome, opts Options) {
 	}
 	p.Recheck = []string{"lyacert verify " + shellQuote(cert)}
 	if pub, err := d.Signer(); err == nil {
-		fp := checker.Fingerprint(pub)
+		fp := certificates.Fingerprint(pub)
 		r.Signature = "Signed with ed25519 by the key with fingerprint " + fp + "; the signature verifies against the digest. " +
 			"A signature says who issued the certificate, not that it is correct: the checks above say that."
 		p.Recheck = append(p.Recheck, "lyacert verify --trust SIGNER.pub.pem "+shellQuote(cert))

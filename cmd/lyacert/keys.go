@@ -48,7 +48,7 @@ func (c *keyNewCmd) run(e *env) int {
 		fmt.Fprintln(e.stderr, "lyacert:", err)
 		return exitInput
 	}
-	fmt.Fprintf(e.stdout, "wrote the private key %s (keep it secret) and the public key %s\n  fingerprint %s\n", privPath, pubPath, checker.Fingerprint(pub))
+	fmt.Fprintf(e.stdout, "wrote the private key %s (keep it secret) and the public key %s\n  fingerprint %s\n", privPath, pubPath, certificates.Fingerprint(pub))
 	return exitHolds
 }
 
@@ -83,7 +83,7 @@ func (c *signCmd) run(e *env) int {
 	}
 	if old != nil {
 		if pub, err := (&checker.Document{Signature: old}).Signer(); err == nil {
-			fmt.Fprintf(e.stderr, "lyacert: %s: replacing the signature by key %s\n", name, checker.Fingerprint(pub))
+			fmt.Fprintf(e.stderr, "lyacert: %s: replacing the signature by key %s\n", name, certificates.Fingerprint(pub))
 		} else {
 			fmt.Fprintf(e.stderr, "lyacert: %s: replacing a malformed signature\n", name)
 		}
@@ -105,7 +105,7 @@ func (c *signCmd) run(e *env) int {
 		fmt.Fprintln(e.stderr, "lyacert: writing the certificate:", err)
 		return exitInput
 	}
-	fmt.Fprintf(e.stdout, "signed %s with key %s\n  digest %s\n", out, checker.Fingerprint(key.Public().(ed25519.PublicKey)), doc.Digest)
+	fmt.Fprintf(e.stdout, "signed %s with key %s\n  digest %s\n", out, certificates.Fingerprint(key.Public().(ed25519.PublicKey)), doc.Digest)
 	return exitHolds
 }
 
@@ -149,7 +149,7 @@ func signWritten(out string, key ed25519.PrivateKey, code int, asJSON bool, e *e
 	if asJSON {
 		w = e.stderr // keep standard output one JSON document
 	}
-	fmt.Fprintf(w, "Signed %s with key %s.\n", out, checker.Fingerprint(key.Public().(ed25519.PublicKey)))
+	fmt.Fprintf(w, "Signed %s with key %s.\n", out, certificates.Fingerprint(key.Public().(ed25519.PublicKey)))
 	return code
 }
 
@@ -178,7 +178,7 @@ func applyTrust(doc *checker.Document, res checker.Outcome, trusted []ed25519.Pu
 	ch := checker.Record{Name: "trust", OK: err == nil}
 	switch {
 	case err == nil:
-		ch.Reason = "signed by the trusted key " + checker.Fingerprint(pub)
+		ch.Reason = "signed by the trusted key " + certificates.Fingerprint(pub)
 	case errors.Is(err, checker.ErrUnsigned):
 		ch.Reason = "no signature, but --trust requires one by a trusted key"
 	default:
@@ -201,8 +201,8 @@ func renderSigner(w io.Writer, doc *checker.Document, res checker.Outcome, trust
 	case err != nil:
 		fmt.Fprintln(w, "  not signed")
 	case trusted:
-		fmt.Fprintf(w, "  signed by the trusted key %s\n", checker.Fingerprint(pub))
+		fmt.Fprintf(w, "  signed by the trusted key %s\n", certificates.Fingerprint(pub))
 	default:
-		fmt.Fprintf(w, "  signed by key %s (signature valid; use --trust KEY.pub.pem to require a trusted signer)\n", checker.Fingerprint(pub))
+		fmt.Fprintf(w, "  signed by key %s (signature valid; use --trust KEY.pub.pem to require a trusted signer)\n", certificates.Fingerprint(pub))
 	}
 }

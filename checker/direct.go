@@ -496,16 +496,14 @@ func (c *run) witnessPoints(cl Claim) bool {
 			!c.add(what, len(w.Values) == len(c.conds), "states the value of every condition") {
 			return false
 		}
-		all := true
+		all, exact := true, true
 		for j, q := range c.conds {
 			x := new(poly.Poly).EvalVars(q.Num, vals).ConstTerm()
 			claimed, ok := parseRat(w.Values[j])
-			if !c.add(what, ok && claimed.Cmp(x) == 0, "condition %d is %s there", j+1, w.Values[j]) {
-				return false
-			}
+			exact = exact && ok && claimed.Cmp(x) == 0
 			all = all && x.Sign() > 0
 		}
-		if !c.add(what, all == w.Holds, "the conditions hold there: %v", all) {
+		if !c.add(what, exact, "the conditions' values there are as stated") || !c.add(what, all == w.Holds, "the conditions hold there: %v", all) {
 			return false
 		}
 		holds, fails = holds || all, fails || !all
@@ -547,17 +545,13 @@ func (c *run) refutation(cl Claim) bool {
 	if !ok {
 		return false
 	}
-	n := len(c.m.States)
-	if !c.add("refutation", len(rf.Point) == n, "the point gives every state") {
-		return false
-	}
-	point := map[int]*big.Rat{}
+	point, all := map[int]*big.Rat{}, len(rf.Point) == len(c.m.States)
 	for i, s := range c.m.States {
-		val, ok := parseRat(rf.Point[s])
-		if !c.add("refutation", ok, "state %s = %q is a rational", s, rf.Point[s]) {
-			return false
-		}
-		point[i] = val
+		point[i], ok = parseRat(rf.Point[s])
+		all = all && ok
+	}
+	if !c.add("refutation", all, "the point gives every state, and nothing else, as a rational") {
+		return false
 	}
 	at := func(f poly.RatFunc, params map[int]*big.Rat) (poly.RatFunc, bool) {
 		all := map[int]*big.Rat{}

@@ -11,16 +11,12 @@ import (
 // model without free parameters and without an "at" point (Krawczyk 1969;
 // Moore 1977): with g = f (continuous time) or g = f − x (discrete time), J
 // its Jacobian, Y a rational preconditioner and m the box's midpoint,
-// K(X) = m − Y·g(m) + (I − Y·J(X))·(X − m) lies in the interior of X. The
-// system's equilibrium restates the box. Every number must be in math/big's
-// canonical form (RatString), and Krawczyk must equal the recomputed K(X).
+// K(X) = m − Y·g(m) + (I − Y·J(X))·(X − m) lies in the interior of X. Box
+// has one closed [lo, hi] per state; every number is in canonical form.
 type KrawczykEnclosure struct {
-	// Box is one closed interval [lo, hi] per state, lo < hi.
-	Box [][2]string `json:"box"`
-	// Preconditioner is the rational matrix Y.
-	Preconditioner [][]string `json:"preconditioner"`
-	// Krawczyk is K(Box).
-	Krawczyk [][2]string `json:"krawczyk"`
+	Box            [][2]string `json:"box"`
+	Preconditioner [][]string  `json:"preconditioner"` // Y
+	Krawczyk       [][2]string `json:"krawczyk"`       // K(Box), recomputed
 }
 
 // Linearization certifies the stability or the instability of one
@@ -38,11 +34,8 @@ type KrawczykEnclosure struct {
 // gives instability (W = −V increases near x* and is positive arbitrarily
 // close to it: Lyapunov's instability theorem).
 type Linearization struct {
-	// P is the symmetric matrix of the quadratic form.
-	P [][]string `json:"p"`
-	// Decay is the entrywise enclosure [lo, hi] of M over the box (at a
-	// rational point lo = hi).
-	Decay [][][2]string `json:"decay"`
+	P     [][]string    `json:"p"`     // symmetric
+	Decay [][][2]string `json:"decay"` // M entrywise over the box, recomputed
 }
 
 func (*KrawczykEnclosure) Rule() string { return "krawczyk-enclosure" }

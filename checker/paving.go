@@ -28,27 +28,14 @@ const MaxPavingLevel = 50
 // > 0) as inside (every condition > 0 on all of it), outside (some condition
 // ≤ 0 on all of it) or undecided (at the resolution, neither proven).
 //
-// The classification is canonical, so that the certificate can be re-checked
-// box by box and no part of it can change unnoticed:
-//
-//   - Params names the paved parameters, Box gives one side per parameter:
-//     exact rational ends inside the parameter's allowed range, open exactly
-//     where it meets an open end of that range.
-//   - Resolution is 2^-L: a box is halved while one of its sides is wider
-//     than 2^-L times the corresponding side of Box; it is halved along the
-//     side halved the fewest times so far (the widest relative to Box), the
-//     first such parameter in Params order; the lower half comes first.
-//   - Tree lists the boxes in depth-first order, one code each (PaveSplit,
-//     PaveInside, PaveOutside, PaveUndecided). Every box is implied by Box
-//     and its position in the tree. A split box must be wider than the
-//     resolution; an undecided box must be at the resolution and neither
-//     inside nor outside by the exact test, so that only an undecided box
-//     can be undecided.
-//   - The exact test of a box is the centred form of each condition on it
-//     (poly.CenteredForm, the box's faces on an open end of Box excluded).
-//
-// Counts, shares and merged boxes follow from the tree (Leaves); they are
-// not part of the claim.
+// The classification is canonical: Box has one side per parameter of
+// Params (canonical rational ends in the allowed range, open exactly where
+// the range is); Resolution is 2^-L, and a box is halved along
+// poly.SplitDim while a side is wider than 2^-L of Box's, lower half first;
+// Tree lists the boxes depth first, one code each, so every box follows from
+// Box and its position. A split box is wider than the resolution, an
+// undecided one at it and decided by neither test; the test of a box is the
+// centred form of each condition on it (faces on an open end excluded).
 type Paving struct {
 	Params     []string   `json:"params"`
 	Box        []Interval `json:"box"`
@@ -148,29 +135,16 @@ func (p *Paving) sides() ([]poly.Interval, poly.OpenFaces, error) {
 	return out, open, nil
 }
 
-// paving checks a region given as a paving, with its product form and
-// witnesses, and the verdict that follows:
-//
-//   - the box: every side within its parameter's allowed range, open exactly
-//     where it meets an open end of the range; the conditions involve paved
-//     parameters only;
-//   - every box of the tree, by the centred form of each condition on it
-//     (Moore 1966; Ratschek & Rokne 1984), the box's faces on an open end
-//     excluded: inside boxes have every condition > 0, outside boxes some
-//     condition ≤ 0, undecided boxes neither (Paving documents the rules);
-//   - the derived fields, recomputed (Derive);
-//   - the product, when every condition involves at most one parameter: each
-//     factor is a one-parameter region over its side of the box (Sturm);
-//   - the witnesses, evaluated exactly.
-//
-// The verdict: "holds" when the box covers the allowed range of every
-// parameter the conditions involve and the product holds throughout (or,
-// without a product, every box is inside); "fails" when the box covers that
-// range and the product is empty (or every box is outside); otherwise
-// "holds-on-region" when the conditions are proven to hold somewhere (an
-// inside box, a holding piece of every factor, or a witness) and to fail
-// somewhere (an outside box, a failing piece, or a witness); else
-// "undecided".
+// paving: set inversion (Moore 1966; Jaulin & Walter 1993). The box lies in
+// the allowed ranges and the conditions involve paved parameters only; every
+// box of the tree has its class by the exact centred form of each condition
+// (Ratschek & Rokne 1984); with conditions of one parameter each, the
+// product of one-parameter regions (Sturm) gives the region in closed form.
+// The conditions hold everywhere when the box covers the allowed ranges and
+// the product holds throughout (every box inside, without one); they fail
+// everywhere when it covers them and the product is empty (every box
+// outside); else they hold on part of the box when some box or piece holds
+// and some fails.
 func (c *run) paving(cl Claim) bool {
 	pv := cl.(*Paving)
 	used, ok := c.conditionsUsed("paving")

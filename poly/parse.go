@@ -8,8 +8,6 @@ import (
 	"slices"
 	"strconv"
 	"strings"
-
-	"github.com/shopspring/decimal"
 )
 
 // Env resolves a name in an expression to its value. The returned value must
@@ -651,11 +649,13 @@ func parseNumber(s string, lim Limits) (*big.Rat, error) {
 	if bits := int64(digits+e) * 3322 / 1000; bits > int64(lim.ConstBits) {
 		return nil, errors.New(Exceeded("const-bits", fmt.Sprintf("number %s of about %d bits", shorten(s), bits), lim.ConstBits))
 	}
-	d, err := decimal.NewFromString(s)
-	if err != nil {
+	// big.Rat reads decimal text exactly; the digits, point and exponent
+	// checked here keep it from any other base or form.
+	q, ok := new(big.Rat).SetString(s)
+	if !ok || strings.Trim(s, "0123456789.eE+-") != "" {
 		return nil, fmt.Errorf("malformed number %q", shorten(s))
 	}
-	return d.Rat(), nil
+	return q, nil
 }
 
 // parseShortDecimal reads "digits" or "digits.digits" with at most 18

@@ -8,7 +8,11 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"reflect"
 	"slices"
+	"strings"
+	"unicode"
+	"unicode/utf8"
 )
 
 // Format is the format version of the certificates this kernel reads.
@@ -194,7 +198,9 @@ func noDuplicateKeys(data []byte) error {
 	type frame struct {
 		keys   map[string]bool
 		object bool
-		key    bool // the next string token is a key
+		key    bool   // the next string token is a key
+		last   string // the last key read
+		isMap  bool   // an object whose keys are names of the model, not fields
 	}
 	var stack []frame
 	for {
@@ -209,13 +215,15 @@ func noDuplicateKeys(data []byte) error {
 		if d, ok := tok.(json.Delim); ok {
 			switch d {
 			case '{', '[':
+				isMap := false
 				if top >= 0 && stack[top].object {
 					stack[top].key = true
+					isMap = d == '{' && mapFields[stack[top].last]
 				}
 				if len(stack) == 64 {
 					return errors.New("nested deeper than 64")
 				}
-				stack = append(stack, frame{keys: map[string]bool{}, object: d == '{', key: d == '{'})
+				stack = append(stack, frame{keys: map[string]bool{}, object: d == '{', key: d == '{', isMap: isMap})
 			default:
 				stack = stack[:top]
 			}
@@ -229,12 +237,80 @@ func noDuplicateKeys(data []byte) error {
 			if stack[top].keys[k] {
 				return fmt.Errorf("the key %q appears twice in one object", k)
 			}
+			if name, ok := foldedFields[foldKey(k)]; ok && !stack[top].isMap && k != name {
+				return fmt.Errorf("the key %q is not the field %q (keys are case-sensitive)", k, name)
+			}
 			stack[top].keys[k] = true
 			stack[top].key = false
+			stack[top].last = k
 		} else {
 			stack[top].key = true
 		}
 	}
+}
+
+// mapFields are the fields whose value is an object keyed by names of the
+// model (parameters, states) rather than by fields.
+var mapFields = map[string]bool{"params": true, "point": true}
+
+// foldedFields maps each JSON field name of the document and its claims,
+// folded as encoding/json folds names when it matches a key to a field, to
+// the name itself. encoding/json takes a key that differs from a field name
+// only in case ("v" for "V", "ſtates" for "states") for that field; another
+// JSON reader would not, and would read different content. Read refuses
+// such keys.
+var foldedFields = func() map[string]string {
+	out := map[string]string{"RULE": "rule"}
+	seen := map[reflect.Type]bool{}
+	var walk func(t reflect.Type)
+	walk = func(t reflect.Type) {
+		for t.Kind() == reflect.Pointer || t.Kind() == reflect.Slice || t.Kind() == reflect.Array || t.Kind() == reflect.Map {
+			t = t.Elem()
+		}
+		if t.Kind() != reflect.Struct || seen[t] {
+			return
+		}
+		seen[t] = true
+		for i := range t.NumField() {
+			f := t.Field(i)
+			name, _, _ := strings.Cut(f.Tag.Get("json"), ",")
+			if f.Anonymous && name == "" {
+				walk(f.Type)
+				continue
+			}
+			if !f.IsExported() || name == "-" {
+				continue
+			}
+			if name == "" {
+				name = f.Name
+			}
+			out[foldKey(name)] = name
+			walk(f.Type)
+		}
+	}
+	walk(reflect.TypeFor[docWire]())
+	for _, r := range rules {
+		walk(reflect.TypeOf(r.new()))
+	}
+	return out
+}()
+
+// foldKey folds a key as encoding/json does when it matches keys to fields
+// case-insensitively: ASCII letters to upper case, other runes to the upper
+// case of their lower case.
+func foldKey(k string) string {
+	var b strings.Builder
+	for _, r := range k {
+		if r < utf8.RuneSelf {
+			if 'a' <= r && r <= 'z' {
+				r -= 'a' - 'A'
+			}
+			b.WriteRune(r)
+			continue
+		}
+		b.WriteRune(unicode.ToUpper(unicode.ToLower(r)))
+	}
+	return b.String()
 }
 
 // Canonical returns the canonical serialization of d without its digest and

@@ -11,6 +11,7 @@ import (
 	"encoding/pem"
 	"errors"
 	"fmt"
+	"io"
 	"os"
 	"path/filepath"
 	"slices"
@@ -212,9 +213,31 @@ func KeyFileNames(name string) (private, public string) {
 	return base + PrivateKeySuffix, base + PublicKeySuffix
 }
 
+// MaxKeyFileBytes bounds what is read of a key file: a key file is two
+// short lines and a comment, so anything longer (a device such as /dev/zero
+// given by mistake, a certificate) is refused after reading this much.
+const MaxKeyFileBytes = 64 << 10
+
+// readKeyFile reads at most MaxKeyFileBytes of a key file.
+func readKeyFile(path string) ([]byte, error) {
+	f, err := os.Open(path)
+	if err != nil {
+		return nil, err
+	}
+	defer f.Close()
+	b, err := io.ReadAll(io.LimitReader(f, MaxKeyFileBytes+1))
+	if err != nil {
+		return nil, err
+	}
+	if len(b) > MaxKeyFileBytes {
+		return nil, fmt.Errorf("%s: not a lyacert key file: larger than %d bytes", path, MaxKeyFileBytes)
+	}
+	return b, nil
+}
+
 // ReadPrivateKeyFile reads a private key file.
 func ReadPrivateKeyFile(path string) (ed25519.PrivateKey, error) {
-	b, err := os.ReadFile(path)
+	b, err := readKeyFile(path)
 	if err != nil {
 		return nil, err
 	}
@@ -227,7 +250,7 @@ func ReadPrivateKeyFile(path string) (ed25519.PrivateKey, error) {
 
 // ReadPublicKeyFile reads a public key file.
 func ReadPublicKeyFile(path string) (ed25519.PublicKey, error) {
-	b, err := os.ReadFile(path)
+	b, err := readKeyFile(path)
 	if err != nil {
 		return nil, err
 	}

@@ -357,11 +357,19 @@ func (c *run) minorCondition(cl Claim) bool {
 	prod := poly.Const(c.r, k)
 	sign := k.Sign()
 	q := poly.ConstInt(c.r, 1)
+	// Degrees add up in a product of non-zero polynomials, so the factors'
+	// degrees (times their powers) must sum to the target's degree; checked
+	// before each product, so that many factors cannot make it huge.
+	degree, targetDegree := 0, target.Degree()
 	for _, fd := range cd.Factors {
 		f, ok := c.parse(what, fd.Poly)
 		maxDeg := poly.DefaultLimits().Degree
 		if !ok || !c.add(what, f.IsPoly() && !f.Num.IsConst() && f.Num.DegreeIn(c.r.StateMask()) == 0 && fd.Power >= 1 && fd.Power <= maxDeg &&
 			f.Num.Degree()*fd.Power <= maxDeg, "factor %s is a non-constant polynomial in the parameters of degree at most %d with a positive power", fd.Poly, maxDeg) {
+			return false
+		}
+		degree += f.Num.Degree() * fd.Power
+		if !c.add(what, degree <= targetDegree, "the factors' degrees do not exceed the degree %d of numerator × denominator of the minor", targetDegree) {
 			return false
 		}
 		pw := new(poly.Poly).Pow(f.Num, fd.Power)

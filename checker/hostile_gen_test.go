@@ -1,0 +1,423 @@
+package checker_test
+
+import (
+	"bytes"
+	"crypto/ed25519"
+	"encoding/base64"
+	"flag"
+	"os"
+	"path/filepath"
+	"sort"
+	"strings"
+	"testing"
+
+	"lyacert/certificates"
+	"lyacert/checker"
+)
+
+var writeHostile = flag.Bool("hostile.write", false, "rewrite the files of testdata/hostile/certificates from testdata/certificates")
+
+// The hostile certificate files are made from the honest ones of
+// testdata/certificates by the changes below (go test ./checker -run
+// TestWriteHostileCertificates -hostile.write), then kept as files so that
+// a change to the reader or to the honest certificates cannot change what
+// they test unnoticed.
+
+func honest(t *testing.T, name string) *checker.Document {
+	t.Helper()
+	d, err := certificates.ReadFile(filepath.Join("..", "testdata", "certificates", name))
+	if err != nil {
+		t.Fatal(err)
+	}
+	return d
+}
+
+func honestBytes(t *testing.T, name string) []byte {
+	t.Helper()
+	b, err := os.ReadFile(filepath.Join("..", "testdata", "certificates", name))
+	if err != nil {
+		t.Fatal(err)
+	}
+	return b
+}
+
+// sealed re-seals d (a correct digest for the forged content, as a forger
+// would write) and returns its file text.
+func sealed(t *testing.T, d *checker.Document) []byte {
+	t.Helper()
+	if err := certificates.Seal(d); err != nil {
+		t.Fatal(err)
+	}
+	b, err := certificates.Marshal(d)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return b
+}
+
+// edit returns the honest certificate name changed by f and re-sealed.
+func edit(t *testing.T, name string, f func(d *checker.Document)) []byte {
+	d := honest(t, name)
+	f(d)
+	return sealed(t, d)
+}
+
+// replace returns the honest file text with old replaced once by new;
+// the test fails if old is not there.
+func replace(t *testing.T, name, old, new string) []byte {
+	t.Helper()
+	b := honestBytes(t, name)
+	if !bytes.Contains(b, []byte(old)) {
+		t.Fatalf("%s has no %q", name, old)
+	}
+	return bytes.Replace(b, []byte(old), []byte(new), 1)
+}
+
+func claimOf[T checker.Claim](t *testing.T, d *checker.Document, k int) T {
+	t.Helper()
+	cs := certificates.ClaimsOf[T](d)
+	if len(cs) <= k {
+		t.Fatalf("no claim %d of that rule", k)
+	}
+	return cs[k]
+}
+
+func signingKey(b byte) ed25519.PrivateKey {
+	seed := bytes.Repeat([]byte{b}, ed25519.SeedSize)
+	return ed25519.NewKeyFromSeed(seed)
+}
+
+func signed(t *testing.T, name string, f func(s *checker.Signature)) []byte {
+	t.Helper()
+	d := honest(t, name)
+	if err := certificates.Sign(d, signingKey(7)); err != nil {
+		t.Fatal(err)
+	}
+	f(d.Signature)
+	b, err := certificates.Marshal(d)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return b
+}
+
+func hostileFiles(t *testing.T) map[string][]byte {
+	first := `{
+  "format"`
+	return map[string][]byte{
+		// The reader: JSON that another reader might take differently.
+		"dup-key-claims-first.json":      replace(t, "cubic.json", first, "{\n  \"claims\": [],\n  \"format\""),
+		"dup-key-claims-last.json":       replace(t, "cubic.json", "\n  \"digest\"", "\n  \"claims\": [],\n  \"digest\""),
+		"dup-key-format.json":            replace(t, "cubic.json", first, "{\n  \"format\": \"lyacert-certificate/1\",\n  \"format\""),
+		"dup-key-in-claim.json":          replace(t, "cubic.json", `"V": "x^2",`, `"V": "x^2", "V": "2*x^2",`),
+		"dup-key-in-parameters.json":     replace(t, "coolant.json", `"name": "k",`, `"name": "k", "name": "c",`),
+		"dup-key-digest.json":            replace(t, "cubic.json", "\n  \"digest\"", "\n  \"digest\": \"sha256:00\",\n  \"digest\""),
+		"dup-key-escaped.json":           replace(t, "cubic.json", `"V": "x^2",`, `"V": "x^2", "\u0056": "2*x^2",`),
+		"unknown-key-verdict.json":       replace(t, "cubic.json", first, "{\n  \"verdict\": \"holds\",\n  \"format\""),
+		"unknown-key-in-claim.json":      replace(t, "cubic.json", `"V": "x^2",`, `"V": "x^2", "holds": true,`),
+		"unknown-key-in-parameters.json": replace(t, "coolant.json", `"name": "k",`, `"name": "k", "stable": true,`),
+		"unknown-key-case.json":          replace(t, "cubic.json", `"V": "x^2",`, `"v": "x^2",`),
+		"dup-key-case.json":              replace(t, "cubic.json", `"V": "x^2",`, `"V": "x^2", "v": "2*x^2",`),
+		"key-long-s.json":                replace(t, "coolant.json", `"source": `, `"\u017fource": `),
+		"key-kelvin-sign.json":           replace(t, "lin-quadmap.json", `"krawczyk": [`, `"\u212arawczyk": [`),
+		"trailing-object.json":           append(honestBytes(t, "cubic.json"), "{}\n"...),
+		"trailing-garbage.json":          append(honestBytes(t, "cubic.json"), "holds\n"...),
+		"trailing-second-doc.json":       append(honestBytes(t, "cubic.json"), honestBytes(t, "unstable.json")...),
+		"format-v1.json":                 replace(t, "cubic.json", "lyacert-certificate/2", "lyacert-certificate/1"),
+		"format-v3.json":                 replace(t, "cubic.json", "lyacert-certificate/2", "lyacert-certificate/3"),
+		"format-missing.json":            replace(t, "cubic.json", "\"format\": \"lyacert-certificate/2\",", ""),
+		"format-number.json":             replace(t, "cubic.json", "\"lyacert-certificate/2\"", "2"),
+		"empty.json":                     nil,
+		"null.json":                      []byte("null\n"),
+		"array.json":                     []byte("[]\n"),
+		"not-json.json":                  []byte("state x\nx' = -x\nV = x^2\n"),
+		"bom.json":                       append([]byte("\xef\xbb\xbf"), honestBytes(t, "cubic.json")...),
+		"nested-65.json":                 replace(t, "cubic.json", first, "{\n  \"description\": "+strings.Repeat("[", 65)+strings.Repeat("]", 65)+",\n  \"format\""),
+		"number-huge-index.json":         replace(t, "cubic.json", `"index": 1,`, `"index": 1e400,`),
+		"number-fraction-index.json":     replace(t, "cubic.json", `"index": 1,`, `"index": 1.5,`),
+		"claim-not-object.json":          replace(t, "cubic.json", "\"claims\": [", "\"claims\": [1,"),
+		"claim-without-rule.json":        replace(t, "cubic.json", `"rule": "orbital-derivative",`, ""),
+		"claim-rule-number.json":         replace(t, "cubic.json", `"rule": "orbital-derivative"`, `"rule": 1`),
+		"rule-unknown.json":              replace(t, "cubic.json", `"rule": "monomial-gram-ldl"`, `"rule": "sum-of-squares"`),
+		"rule-renamed-case.json":         replace(t, "cubic.json", `"rule": "orbital-derivative"`, `"rule": "Orbital-Derivative"`),
+		"rule-renamed-to-other.json":     replace(t, "cubic.json", `"rule": "quadratic-part-ldl"`, `"rule": "monomial-gram-ldl"`),
+		"rule-renamed-refutation.json":   replace(t, "unstable.json", `"rule": "refutation"`, `"rule": "witness-points"`),
+
+		// The claims: content a forger re-sealed.
+		"claims-null.json": edit(t, "cubic.json", func(d *checker.Document) { d.Claims = nil }),
+		"claims-out-of-order.json": edit(t, "cubic.json", func(d *checker.Document) {
+			d.Claims[0], d.Claims[1] = d.Claims[1], d.Claims[0]
+		}),
+		"claims-conditions-first.json": edit(t, "cubic.json", func(d *checker.Document) {
+			d.Claims = append(d.Claims[3:], d.Claims[:3]...)
+		}),
+		"claims-duplicated-derivative.json": edit(t, "cubic.json", func(d *checker.Document) {
+			d.Claims = append([]checker.Claim{d.Claims[0]}, d.Claims...)
+		}),
+		"claims-duplicated-condition.json": edit(t, "cubic.json", func(d *checker.Document) {
+			d.Claims = append(d.Claims, d.Claims[len(d.Claims)-1])
+		}),
+		"claims-duplicated-form.json": edit(t, "cubic.json", func(d *checker.Document) {
+			d.Claims = append(d.Claims[:2], d.Claims[1:]...)
+		}),
+		"claims-condition-dropped.json": edit(t, "cubic.json", func(d *checker.Document) {
+			d.Claims = d.Claims[:len(d.Claims)-1]
+		}),
+		"claims-only-derivative-lin.json": edit(t, "lin-logistic.json", func(d *checker.Document) {
+			d.Claims = append(honest(t, "cubic.json").Claims[:1], d.Claims...)
+		}),
+		"forged-refutation-values.json": edit(t, "cubic.json", func(d *checker.Document) {
+			d.Claims = append(d.Claims, &checker.Refutation{Params: map[string]string{}, Point: map[string]string{"x": "1"}, V: "1", Vdot: "2"})
+		}),
+		"forged-refutation-equilibrium.json": edit(t, "unstable.json", func(d *checker.Document) {
+			rf := claimOf[*checker.Refutation](t, d, 0)
+			rf.Point = map[string]string{"x": "0"}
+			rf.V, rf.Vdot = "0", "0"
+		}),
+		"forged-refutation-param-outside.json": edit(t, "unstable.json", func(d *checker.Document) {
+			claimOf[*checker.Refutation](t, d, 0).Params = map[string]string{"a": "-1"}
+		}),
+		"forged-refutation-unknown-state.json": edit(t, "unstable.json", func(d *checker.Document) {
+			claimOf[*checker.Refutation](t, d, 0).Point = map[string]string{"y": "1"}
+		}),
+		"forged-region-piece-holds.json": edit(t, "lorenz.json", func(d *checker.Document) {
+			rg := claimOf[*checker.SturmRegion](t, d, 0)
+			rg.Pieces[2].Holds = true
+			rg.Intervals = append(rg.Intervals, rg.Pieces[2].Interval)
+		}),
+		"forged-region-piece-moved.json": edit(t, "lorenz.json", func(d *checker.Document) {
+			rg := claimOf[*checker.SturmRegion](t, d, 0)
+			rg.Pieces[0].Hi, rg.Pieces[1].Lo, rg.Pieces[1].Hi, rg.Pieces[2].Lo = "2", "2", "2", "2"
+			rg.Intervals[0].Hi = "2"
+		}),
+		"forged-region-gap.json": edit(t, "lorenz.json", func(d *checker.Document) {
+			rg := claimOf[*checker.SturmRegion](t, d, 0)
+			rg.Pieces = append(rg.Pieces[:1], rg.Pieces[2:]...)
+		}),
+		"forged-region-intervals.json": edit(t, "lorenz.json", func(d *checker.Document) {
+			rg := claimOf[*checker.SturmRegion](t, d, 0)
+			rg.Intervals[0].Hi = "inf"
+		}),
+		"forged-paving-code.json": edit(t, "twogains.json", func(d *checker.Document) {
+			pv := claimOf[*checker.Paving](t, d, 0)
+			pv.Tree = strings.Replace(pv.Tree, "U", "I", 1)
+		}),
+		"forged-paving-resolution.json": edit(t, "twogains.json", func(d *checker.Document) {
+			claimOf[*checker.Paving](t, d, 0).Resolution = "1/1152921504606846976"
+		}),
+		"forged-paving-truncated.json": edit(t, "twogains.json", func(d *checker.Document) {
+			pv := claimOf[*checker.Paving](t, d, 0)
+			pv.Tree = pv.Tree[:len(pv.Tree)-1]
+		}),
+		"forged-paving-box.json": edit(t, "twogains.json", func(d *checker.Document) {
+			claimOf[*checker.Paving](t, d, 0).Box[0].Hi = "3"
+		}),
+		"forged-witness.json": edit(t, "twogains.json", func(d *checker.Document) {
+			w := claimOf[*checker.WitnessPoints](t, d, 0)
+			w.Points[0].Holds = !w.Points[0].Holds
+		}),
+		"forged-kernel.json": edit(t, "cubic.json", func(d *checker.Document) {
+			d.Claims = append(d.Claims[:3], append([]checker.Claim{&checker.NullSpace{Of: "-Vdot", Vectors: [][]string{{"1"}}}}, d.Claims[3:]...)...)
+		}),
+		"forged-minor-constant-zero.json": edit(t, "cubic.json", func(d *checker.Document) {
+			claimOf[*checker.MinorCondition](t, d, 0).Constant = "0"
+		}),
+		"forged-condition.json": edit(t, "unstable.json", func(d *checker.Document) {
+			mc := claimOf[*checker.MinorCondition](t, d, 1)
+			mc.Condition = "1"
+		}),
+		"forged-factor-status.json": edit(t, "coolant.json", func(d *checker.Document) {
+			mc := claimOf[*checker.MinorCondition](t, d, 4)
+			for i := range mc.Factors {
+				mc.Factors[i].Status = checker.StatusPositive
+			}
+		}),
+		"factor-power-1e6.json": edit(t, "coolant.json", func(d *checker.Document) {
+			claimOf[*checker.MinorCondition](t, d, 4).Factors[0].Power = 1000000
+		}),
+		"factor-power-negative.json": edit(t, "coolant.json", func(d *checker.Document) {
+			claimOf[*checker.MinorCondition](t, d, 4).Factors[0].Power = -1
+		}),
+		"factor-power-maxint.json": edit(t, "coolant.json", func(d *checker.Document) {
+			claimOf[*checker.MinorCondition](t, d, 4).Factors[0].Power = 1<<63 - 1
+		}),
+		"forged-gram.json": edit(t, "cubic.json", func(d *checker.Document) {
+			claimOf[*checker.QuadraticPart](t, d, 0).Gram[0][0] = "2"
+		}),
+		"forged-ldl-pivot.json": edit(t, "ogata.json", func(d *checker.Document) {
+			f := claimOf[*checker.QuadraticPart](t, d, 0)
+			f.D[0] = "-" + f.D[0]
+		}),
+		"gram-100-rows.json": edit(t, "cubic.json", func(d *checker.Document) {
+			f := claimOf[*checker.QuadraticPart](t, d, 0)
+			for range 99 {
+				f.Gram = append(f.Gram, []string{"0"})
+			}
+		}),
+		"gram-long-row.json": edit(t, "cubic.json", func(d *checker.Document) {
+			f := claimOf[*checker.QuadraticPart](t, d, 0)
+			for range 10000 {
+				f.Gram[0] = append(f.Gram[0], "0")
+			}
+		}),
+		"number-200000-digits.json": edit(t, "cubic.json", func(d *checker.Document) {
+			claimOf[*checker.MinorCondition](t, d, 0).Constant = strings.Repeat("9", 200000)
+		}),
+		"exponent-1e6.json": edit(t, "cubic.json", func(d *checker.Document) {
+			claimOf[*checker.OrbitalDerivative](t, d, 0).Vdot = "-2*x^1000000"
+		}),
+		"parens-300.json": edit(t, "cubic.json", func(d *checker.Document) {
+			claimOf[*checker.OrbitalDerivative](t, d, 0).Vdot = strings.Repeat("(", 300) + "-2*x^4" + strings.Repeat(")", 300)
+		}),
+		"model-power-tower.json": edit(t, "cubic.json", func(d *checker.Document) {
+			d.Model = "state x\nx' = -x^3\nV = x^2*((((((2^64)^64)^64)^64)^64)^64)\n"
+		}),
+		"model-changed.json": edit(t, "cubic.json", func(d *checker.Document) {
+			d.Model = "state x\nx' = x^3\nV = x^2\n"
+		}),
+		"model-empty.json": edit(t, "cubic.json", func(d *checker.Document) { d.Model = "" }),
+		"parameters-range.json": edit(t, "coolant.json", func(d *checker.Document) {
+			d.Parameters[0].Range = "in [0, 10]"
+		}),
+		"parameters-dropped.json": edit(t, "coolant.json", func(d *checker.Document) {
+			d.Parameters = d.Parameters[1:]
+		}),
+		"derivative-wrong-V.json": edit(t, "cubic.json", func(d *checker.Document) {
+			claimOf[*checker.OrbitalDerivative](t, d, 0).V = "2*x^2"
+		}),
+		"linearization-asymmetric.json": edit(t, "lin-lorenz-r20-origin.json", func(d *checker.Document) {
+			lz := claimOf[*checker.Linearization](t, d, 0)
+			lz.P[0][1] = lz.P[0][1] + "1"
+		}),
+		"linearization-decay.json": edit(t, "lin-logistic.json", func(d *checker.Document) {
+			lz := claimOf[*checker.Linearization](t, d, 0)
+			lz.Decay[0][0][0] = "1000"
+		}),
+		"krawczyk-box-reversed.json": edit(t, "lin-quadmap.json", func(d *checker.Document) {
+			kz := claimOf[*checker.KrawczykEnclosure](t, d, 0)
+			kz.Box[0][0], kz.Box[0][1] = kz.Box[0][1], kz.Box[0][0]
+		}),
+		"krawczyk-image-forged.json": edit(t, "lin-quadmap.json", func(d *checker.Document) {
+			kz := claimOf[*checker.KrawczykEnclosure](t, d, 0)
+			kz.Krawczyk[0] = kz.Box[0]
+		}),
+
+		// The seal: digest and signature.
+		"digest-stale.json": replace(t, "cubic.json", `"tool": "lyacert"`, `"tool": "lyacert 2"`),
+		"digest-missing.json": func() []byte {
+			d := honest(t, "cubic.json")
+			d.Digest = ""
+			b, err := certificates.Marshal(d)
+			if err != nil {
+				t.Fatal(err)
+			}
+			return b
+		}(),
+		"digest-tampered.json": replace(t, "cubic.json", `"digest": "sha256:`, `"digest": "sha256:0`),
+		"signature-tampered.json": signed(t, "cubic.json", func(s *checker.Signature) {
+			v := []byte(s.Value)
+			v[0] ^= 'A' ^ 'B'
+			s.Value = string(v)
+		}),
+		"signature-other-key.json": signed(t, "cubic.json", func(s *checker.Signature) {
+			s.PublicKey = base64Key(signingKey(8))
+		}),
+		"signature-algorithm.json": signed(t, "cubic.json", func(s *checker.Signature) { s.Algorithm = "ed448" }),
+		"signature-not-base64.json": signed(t, "cubic.json", func(s *checker.Signature) {
+			s.Value = "!" + s.Value[1:]
+		}),
+		"signature-empty.json": signed(t, "cubic.json", func(s *checker.Signature) { *s = checker.Signature{} }),
+		"signature-content-changed.json": func() []byte {
+			b := signed(t, "cubic.json", func(*checker.Signature) {})
+			return bytes.Replace(b, []byte(`"tool": "lyacert"`), []byte(`"tool": "lyacert 2"`), 1)
+		}(),
+	}
+}
+
+func base64Key(priv ed25519.PrivateKey) string {
+	return base64.StdEncoding.EncodeToString(priv.Public().(ed25519.PublicKey))
+}
+
+// TestWriteHostileCertificates rewrites the hostile files (with
+// -hostile.write); without the flag it checks that they are as the changes
+// above make them.
+func TestWriteHostileCertificates(t *testing.T) {
+	files := hostileFiles(t)
+	names := make([]string, 0, len(files))
+	for n := range files {
+		names = append(names, n)
+	}
+	sort.Strings(names)
+	for _, n := range names {
+		path := filepath.Join(hostileDir, n)
+		if *writeHostile {
+			if err := os.MkdirAll(hostileDir, 0o755); err != nil {
+				t.Fatal(err)
+			}
+			if err := os.WriteFile(path, files[n], 0o644); err != nil {
+				t.Fatal(err)
+			}
+			continue
+		}
+		b, err := os.ReadFile(path)
+		if err != nil || !bytes.Equal(b, files[n]) {
+			t.Errorf("%s is not as made from testdata/certificates (rewrite with -hostile.write): %v", n, err)
+		}
+	}
+}
+
+// generatedCertificates are the cases too big to keep, or devices.
+func generatedCertificates(t *testing.T) []hostileInput {
+	cubic := honest(t, "cubic.json")
+	withVdot := func(s string) []byte {
+		d := honest(t, "cubic.json")
+		claimOf[*checker.OrbitalDerivative](t, d, 0).Vdot = s
+		return sealed(t, d)
+	}
+	deep := 1000000
+	head := `{"format":"lyacert-certificate/2","tool":`
+	rows := `{"format":"lyacert-certificate/2","claims":[{"rule":"quadratic-part-ldl","of":"V","gram":[`
+	row := "[" + strings.TrimSuffix(strings.Repeat(`"0",`, 10000), ",") + "],"
+	_ = cubic
+	return []hostileInput{
+		{"gen/dev-zero", device("/dev/zero")},
+		{"gen/dev-urandom", device("/dev/urandom")},
+		{"gen/json-nested-1e6", stream(head, "[", deep, strings.Repeat("]", deep)+"}")},
+		{"gen/gram-1e4x1e4", stream(rows, row, 10000, `[]]}]}`)},
+		{"gen/spaces-64MiB", stream("", " ", checker.MaxDocumentBytes+1, "")},
+		{"gen/parens-1e6-vdot", inMemory(withVdot(strings.Repeat("(", deep) + "-2*x^4" + strings.Repeat(")", deep)))},
+		{"gen/parens-1e6-model", inMemory(edit(t, "cubic.json", func(d *checker.Document) {
+			d.Model = "state x\nx' = -x^3\nV = " + strings.Repeat("(", deep) + "x^2" + strings.Repeat(")", deep) + "\n"
+		}))},
+		{"gen/string-1e7-vdot", inMemory(withVdot(strings.Repeat("x", 1e7)))},
+		{"gen/string-1e7-tool", inMemory(edit(t, "cubic.json", func(d *checker.Document) { d.Tool = strings.Repeat("t", 1e7) }))},
+		{"gen/string-1e7-number", inMemory(edit(t, "cubic.json", func(d *checker.Document) {
+			claimOf[*checker.MinorCondition](t, d, 0).Constant = strings.Repeat("7", 1e7)
+		}))},
+		{"gen/gram-1e4-rows", inMemory(edit(t, "cubic.json", func(d *checker.Document) {
+			f := claimOf[*checker.QuadraticPart](t, d, 0)
+			for range 9999 {
+				f.Gram = append(f.Gram, []string{"0"})
+			}
+		}))},
+		{"gen/claims-1e5", inMemory(edit(t, "cubic.json", func(d *checker.Document) {
+			for range 100000 {
+				d.Claims = append(d.Claims, d.Claims[0])
+			}
+		}))},
+		{"gen/factors-1e4", inMemory(edit(t, "coolant.json", func(d *checker.Document) {
+			mc := claimOf[*checker.MinorCondition](t, d, 4)
+			f := mc.Factors[len(mc.Factors)-1]
+			for range 10000 {
+				mc.Factors = append(mc.Factors, f)
+			}
+		}))},
+		{"gen/witnesses-1e4", inMemory(edit(t, "twogains.json", func(d *checker.Document) {
+			w := claimOf[*checker.WitnessPoints](t, d, 0)
+			p := w.Points[0]
+			for range 10000 {
+				w.Points = append(w.Points, p)
+			}
+		}))},
+	}
+}

@@ -1,0 +1,150 @@
+package layout
+
+import (
+	"go/ast"
+	"go/build"
+	"go/parser"
+	"go/token"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+// layers lists lyacert's packages from the bottom up; a package may import
+// only packages of lower layers (common practice: a layered architecture
+// with one-way imports).
+var layers = [][]string{
+	{"poly", "internal/workpool", "examples", "certify/interval", "certify/lyapunov", "certify/sdp"},
+	{"model"},
+	{"checker"},
+	{"certificates"},
+	{"certify", "certify/pave", "certify/sos"},
+	{"certify/direct", "certify/branches"},
+	{"certify/equilibria"},
+	{"sweep"},
+	{"report"},
+	{"cmd/lyacert", "examples/slurm"},
+}
+
+const module = "lyacert"
+
+func root(t *testing.T) string {
+	t.Helper()
+	dir, err := filepath.Abs(filepath.Join("..", ".."))
+	if err != nil {
+		t.Fatal(err)
+	}
+	return dir
+}
+
+// packages returns every package directory of the module with its
+// non-test imports of the module.
+func packages(t *testing.T) map[string][]string {
+	t.Helper()
+	out := map[string][]string{}
+	base := root(t)
+	err := filepath.WalkDir(base, func(path string, d os.DirEntry, err error) error {
+		if err != nil || !d.IsDir() {
+			return err
+		}
+		name := d.Name()
+		if path != base && (strings.HasPrefix(name, ".") || name == "testdata") {
+			return filepath.SkipDir
+		}
+		if _, err := os.Stat(filepath.Join(path, "go.mod")); err == nil && path != base {
+			return filepath.SkipDir // a module of its own (examples/kubernetes)
+		}
+		pkg, err := build.ImportDir(path, 0)
+		if err != nil {
+			return nil // no Go files, or only tests
+		}
+		rel, _ := filepath.Rel(base, path)
+		rel = filepath.ToSlash(rel)
+		var own []string
+		for _, imp := range pkg.Imports {
+			if imp == module || strings.HasPrefix(imp, module+"/") {
+				own = append(own, strings.TrimPrefix(imp, module+"/"))
+			}
+		}
+		out[rel] = own
+		return nil
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	return out
+}
+
+func TestImportsFlowOneWay(t *testing.T) {
+	layer := map[string]int{}
+	for i, ps := range layers {
+		for _, p := range ps {
+			layer[p] = i
+		}
+	}
+	for pkg, imports := range packages(t) {
+		if strings.HasPrefix(pkg, "internal/layout") {
+			continue
+		}
+		l, ok := layer[pkg]
+		if !ok {
+			t.Errorf("package %s has no layer: add it to layers", pkg)
+			continue
+		}
+		for _, imp := range imports {
+			if li, ok := layer[imp]; !ok || li >= l {
+				t.Errorf("%s (layer %d) imports %s (layer %d): imports must flow down", pkg, l, imp, li)
+			}
+		}
+	}
+}
+
+// TestKernelIsSmallAndExact: the kernel imports only poly, model and the
+// standard library (no third-party code), names no floating-point type or
+// function, and stays under 2,000 lines.
+func TestKernelIsSmallAndExact(t *testing.T) {
+	dir := filepath.Join(root(t), "checker")
+	pkg, err := build.ImportDir(dir, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, imp := range pkg.Imports {
+		switch {
+		case imp == module+"/poly" || imp == module+"/model":
+		case strings.Contains(strings.SplitN(imp, "/", 2)[0], "."), strings.HasPrefix(imp, module):
+			t.Errorf("the kernel imports %s", imp)
+		case imp == "math" || imp == "strconv" || imp == "unsafe":
+			t.Errorf("the kernel imports %s (floating point or unchecked memory)", imp)
+		}
+	}
+	lines := 0
+	fset := token.NewFileSet()
+	for _, name := range pkg.GoFiles {
+		src, err := os.ReadFile(filepath.Join(dir, name))
+		if err != nil {
+			t.Fatal(err)
+		}
+		lines += strings.Count(string(src), "\n")
+		f, err := parser.ParseFile(fset, name, src, 0)
+		if err != nil {
+			t.Fatal(err)
+		}
+		ast.Inspect(f, func(n ast.Node) bool {
+			switch x := n.(type) {
+			case *ast.Ident:
+				if x.Name == "float32" || x.Name == "float64" || x.Name == "complex64" || x.Name == "complex128" {
+					t.Errorf("%s: the kernel uses %s", fset.Position(x.Pos()), x.Name)
+				}
+			case *ast.SelectorExpr:
+				if x.Sel.Name == "Float64" || x.Sel.Name == "Float32" || x.Sel.Name == "SetFloat64" || x.Sel.Name == "ParseFloat" {
+					t.Errorf("%s: the kernel calls %s", fset.Position(x.Pos()), x.Sel.Name)
+				}
+			}
+			return true
+		})
+	}
+	if lines > 2000 {
+		t.Errorf("the kernel has %d lines of non-test Go; it must stay under 2,000", lines)
+	}
+}

@@ -1,6 +1,7 @@
 package poly
 
 import (
+	"cmp"
 	"fmt"
 	"math/big"
 	"slices"
@@ -577,24 +578,23 @@ func (p *Poly) VarsUsed() []int {
 	return out
 }
 
-// gradedLess orders exponent vectors by total degree, then lexicographically
-// (x₁ > x₂ > ...): the graded lexicographic order.
-func gradedLess(a, b []int) bool {
+// GradedCompare orders exponent vectors by total degree, then
+// lexicographically (x₁ > x₂ > ...): the graded lexicographic order, the one
+// monomial order of lyacert (terms, bases, printing). It returns −1, 0 or +1
+// as cmp.Compare does.
+func GradedCompare(a, b []int) int {
 	da, db := 0, 0
 	for i := range a {
 		da += a[i]
 		db += b[i]
 	}
 	if da != db {
-		return da < db
+		return cmp.Compare(da, db)
 	}
-	for i := range a {
-		if a[i] != b[i] {
-			return a[i] < b[i]
-		}
-	}
-	return false
+	return slices.Compare(a, b)
 }
+
+func gradedLess(a, b []int) bool { return GradedCompare(a, b) < 0 }
 
 // Terms returns the terms of p in descending graded lexicographic order.
 func (p *Poly) Terms() []Term {

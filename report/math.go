@@ -386,7 +386,7 @@ func ratFuncNode(f poly.RatFunc) node {
 			exps = append(exps, se)
 		}
 	}
-	slices.SortStableFunc(exps, func(a, b []int) int { return -gradedCmp(a, b) })
+	slices.SortStableFunc(exps, func(a, b []int) int { return -poly.GradedCompare(a, b) })
 	var s sum
 	for _, e := range exps {
 		c := f.Coefficient(e, states)
@@ -417,24 +417,6 @@ func ratFuncNode(f poly.RatFunc) node {
 		return s[0].n
 	}
 	return s
-}
-
-// gradedCmp orders exponent vectors by total degree, then lexicographically.
-func gradedCmp(a, b []int) int {
-	da, db := 0, 0
-	for i := range a {
-		da += a[i]
-		db += b[i]
-	}
-	if da != db {
-		return da - db
-	}
-	for i := range a {
-		if a[i] != b[i] {
-			return a[i] - b[i]
-		}
-	}
-	return 0
 }
 
 // lines splits a long signed sum into lines of at most per terms each, for

@@ -50,23 +50,8 @@ func monomialGram(p poly.RatFunc, nstates int) (basis []*poly.Poly, g poly.Matri
 			half = append(half, h)
 		}
 	}
-	// Graded order, lower degrees first, for a readable basis.
-	slices.SortFunc(half, func(a, b []int) int {
-		da, db := 0, 0
-		for i := range a {
-			da += a[i]
-			db += b[i]
-		}
-		if da != db {
-			return da - db
-		}
-		for i := range a {
-			if a[i] != b[i] {
-				return b[i] - a[i]
-			}
-		}
-		return 0
-	})
+	// The graded order, lower degrees first.
+	slices.SortFunc(half, poly.GradedCompare)
 	for i := 0; i < nstates; i++ {
 		if !slices.ContainsFunc(half, func(h []int) bool {
 			for j, x := range h {

@@ -129,3 +129,27 @@ func QuadraticFormIn(g Matrix, z []*Poly) RatFunc {
 	}
 	return sum
 }
+
+// SquareBase returns zₖ + Σᵢ>ₖ Lᵢₖ·zᵢ, the expression squared in the k-th
+// term of the completed squares zᵀ(L·D·Lᵀ)z = Σ Dₖ·(zₖ + Σᵢ>ₖ Lᵢₖ·zᵢ)²
+// (Lagrange), for L unit lower triangular and z the basis of the form. For a
+// semidefinite form, the bases of the non-zero pivots vanish exactly on its
+// kernel.
+func SquareBase(l Matrix, z []RatFunc, k int) RatFunc {
+	lin := z[k]
+	for i := k + 1; i < len(z); i++ {
+		if !l[i][k].IsZero() {
+			lin = lin.Add(l[i][k].Mul(z[i]))
+		}
+	}
+	return lin
+}
+
+// StateBasis returns the first n variables of r (the states) as a basis.
+func StateBasis(r *Ring, n int) []RatFunc {
+	z := make([]RatFunc, n)
+	for i := range z {
+		z[i] = FromPoly(Var(r, i))
+	}
+	return z
+}

@@ -763,29 +763,21 @@ func cautions(d *docView) []string {
 // squareBase returns zₖ + Σᵢ>ₖ Lᵢₖ·zᵢ from a form's factors, z the form's
 // monomial basis or, without one, the states.
 func (b *builder) squareBase(f certificates.FormView, k int) (poly.RatFunc, error) {
-	z := func(i int) (poly.RatFunc, error) {
+	n := len(f.D)
+	z := poly.StateBasis(b.r, n)
+	l := poly.NewMatrix(b.r, n)
+	var err error
+	for i := range n {
 		if len(f.Basis) > 0 {
-			return b.parse(f.Basis[i])
+			if z[i], err = b.parse(f.Basis[i]); err != nil {
+				return z[i], err
+			}
 		}
-		return poly.FromPoly(poly.Var(b.r, i)), nil
+		for j := range i {
+			if l[i][j], err = b.parse(f.L[i][j]); err != nil {
+				return l[i][j], err
+			}
+		}
 	}
-	lin, err := z(k)
-	if err != nil {
-		return lin, err
-	}
-	for i := k + 1; i < len(f.D); i++ {
-		lik, err := b.parse(f.L[i][k])
-		if err != nil {
-			return lin, err
-		}
-		if lik.IsZero() {
-			continue
-		}
-		zi, err := z(i)
-		if err != nil {
-			return lin, err
-		}
-		lin = lin.Add(lik.Mul(zi))
-	}
-	return lin, nil
+	return poly.SquareBase(l, z, k), nil
 }

@@ -29,24 +29,14 @@ type Form struct {
 	Minors []poly.RatFunc
 }
 
-// SquareBase returns zₖ + Σᵢ>ₖ Lᵢₖ·zᵢ, the expression squared in the k-th
-// term of the completed squares Σ Dₖ·(zₖ + Σᵢ>ₖ Lᵢₖ·zᵢ)², with z the basis
-// (the states when there is none). For a semidefinite form, the bases of
-// the non-zero pivots vanish exactly on the kernel.
+// SquareBase returns the k-th base of the completed squares of the form
+// (poly.SquareBase), z its basis or the states.
 func (f Form) SquareBase(k int) poly.RatFunc {
-	z := func(i int) poly.RatFunc {
-		if f.Basis != nil {
-			return poly.FromPoly(f.Basis[i])
-		}
-		return poly.FromPoly(poly.Var(f.Gram[0][0].Ring(), i))
+	z := poly.StateBasis(f.Gram[0][0].Ring(), len(f.LDL.D))
+	for i, b := range f.Basis {
+		z[i] = poly.FromPoly(b)
 	}
-	lin := z(k)
-	for i := k + 1; i < len(f.LDL.D); i++ {
-		if !f.LDL.L[i][k].IsZero() {
-			lin = lin.Add(f.LDL.L[i][k].Mul(z(i)))
-		}
-	}
-	return lin
+	return poly.SquareBase(f.LDL.L, z, k)
 }
 
 // Condition is what one minor requires, after the assumptions have

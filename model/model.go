@@ -112,20 +112,11 @@ func ParseSetting(s string) (Setting, error) {
 	if !ok || name == "" {
 		return Setting{}, fmt.Errorf("--set %q: expected name=value", s)
 	}
-	v, err := constExpr(strings.TrimSpace(val), poly.Pos{File: "--set", Line: 1, Col: len(name) + 2})
+	v, err := poly.ParseConstant(strings.TrimSpace(val), poly.Pos{File: "--set", Line: 1, Col: len(name) + 2})
 	if err != nil {
 		return Setting{}, fmt.Errorf("--set %s: %w", name, err)
 	}
 	return Setting{name, v}, nil
-}
-
-func constExpr(text string, pos poly.Pos) (*big.Rat, error) {
-	r := poly.NewRing(nil, nil)
-	f, err := poly.ParseExpr(r, func(string) (poly.RatFunc, bool) { return poly.RatFunc{}, false }, text, pos)
-	if err != nil {
-		return nil, err
-	}
-	return f.Num.ConstTerm(), nil
 }
 
 type line struct {

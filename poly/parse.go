@@ -684,3 +684,15 @@ func parseShortDecimal(s string) (*big.Rat, bool) {
 	}
 	return setSmallFrac(new(big.Rat), n, den), true
 }
+
+// ParseConstant parses text (which starts at pos) as a constant expression:
+// numbers, + − * / ^ and parentheses, no names, within the default limits.
+// It reads every constant of the command line (--set, --box, --grid, --q,
+// --slice) and of a model's assumptions.
+func ParseConstant(text string, pos Pos) (*big.Rat, error) {
+	f, err := ParseExpr(NewRing(nil, nil), func(string) (RatFunc, bool) { return RatFunc{}, false }, text, pos)
+	if err != nil {
+		return nil, err
+	}
+	return f.Num.ConstTerm(), nil
+}

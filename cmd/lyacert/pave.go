@@ -78,12 +78,7 @@ func (pf *paveFlags) options(e *env) (direct.PaveOptions, error) {
 
 // constant reads an exact number or constant expression such as 1/256, -2, 0.35.
 func constant(s, what string) (*big.Rat, error) {
-	r := poly.NewRing(nil, nil)
-	f, err := poly.ParseExpr(r, func(string) (poly.RatFunc, bool) { return poly.RatFunc{}, false }, strings.TrimSpace(s), poly.Pos{File: what, Line: 1, Col: 1})
-	if err != nil {
-		return nil, err
-	}
-	return f.Num.ConstTerm(), nil
+	return poly.ParseConstant(strings.TrimSpace(s), poly.Pos{File: what, Line: 1, Col: 1})
 }
 
 // bar draws the paving's progress on a terminal.

@@ -1,6 +1,7 @@
 package direct
 
 import (
+	"context"
 	"math/big"
 	"slices"
 
@@ -115,7 +116,7 @@ func monomialGram(p poly.RatFunc, nstates int) (basis []*poly.Poly, g poly.Matri
 // wholes, each as a Gram matrix in a monomial basis where it has terms of
 // degree above two. It returns the upgraded result when that holds for every
 // allowed parameter value (global asymptotic stability), else nil.
-func (res *Result) tryBasis() *Result {
+func (res *Result) tryBasis(ctx context.Context, opts PaveOptions) *Result {
 	applicable := len(res.Forms) == 2 &&
 		((res.Claim == checker.KindLocal && res.Verdict == checker.VerdictHolds) ||
 			res.Verdict == checker.VerdictUndecided)
@@ -124,7 +125,7 @@ func (res *Result) tryBasis() *Result {
 	}
 	m := res.Model
 	n := len(m.States)
-	nr := &Result{Model: m, V: res.V, Vdot: res.Vdot, Shifted: res.Shifted, HigherV: res.HigherV, HigherD: res.HigherD, pave: res.pave}
+	nr := &Result{Model: m, V: res.V, Vdot: res.Vdot, Shifted: res.Shifted, HigherV: res.HigherV, HigherD: res.HigherD}
 	wholes := []poly.RatFunc{res.Shifted.V, res.Shifted.Vdot.Neg()}
 	higher := []bool{!res.HigherV.IsZero(), !res.HigherD.IsZero()}
 	for i, f := range res.Forms {
@@ -147,8 +148,7 @@ func (res *Result) tryBasis() *Result {
 	}
 	nr.Claim = checker.KindGlobal
 	nr.conditions()
-	nr.decide()
-	if nr.Verdict != checker.VerdictHolds {
+	if err := nr.decide(ctx, opts); err != nil || nr.Verdict != checker.VerdictHolds {
 		return nil
 	}
 	nr.Reason = "V and −V̇ are positive definite as wholes: each is zᵀGz with G ≻ 0 in a monomial basis z holding a pure power of every state"

@@ -95,7 +95,6 @@ type Result struct {
 	Paving *pave.Paving
 	// PavingNote says why no paving was made where one was wanted.
 	PavingNote string
-	pave       *paveState
 }
 
 // Check analyses the model's candidate V: it computes V̇ exactly, completes
@@ -110,14 +109,14 @@ func Check(m *model.Model, source string) (*Result, error) {
 	return CheckPaving(context.Background(), m, source, PaveOptions{})
 }
 
-func runCheck(m *model.Model, source string, ps *paveState) (*Result, error) {
+func runCheck(ctx context.Context, m *model.Model, source string, opts PaveOptions) (*Result, error) {
 	if m.V == nil {
 		return nil, &poly.Error{Pos: poly.Pos{File: m.File, Line: 1, Col: 1}, Msg: "the model has no candidate V (add a line \"V = ...\")"}
 	}
 	if err := m.CheckEquilibrium(); err != nil {
 		return nil, err
 	}
-	res := &Result{Model: m, V: *m.V, pave: ps}
+	res := &Result{Model: m, V: *m.V}
 	r := m.Ring
 	states := r.StateMask()
 	res.Vdot = m.Derivative(res.V)
@@ -183,9 +182,8 @@ func runCheck(m *model.Model, source string, ps *paveState) (*Result, error) {
 	}
 	if res.Verdict == "" {
 		res.conditions()
-		res.decide()
-		if res.pave != nil && res.pave.err != nil {
-			return nil, res.pave.err
+		if err := res.decide(ctx, opts); err != nil {
+			return nil, err
 		}
 	} else {
 		res.conditions()
@@ -204,7 +202,7 @@ func runCheck(m *model.Model, source string, ps *paveState) (*Result, error) {
 	if res.Verdict == checker.VerdictFails || res.Verdict == checker.VerdictUndecided {
 		res.Claim = checker.KindNone
 	}
-	if up := res.tryBasis(); up != nil {
+	if up := res.tryBasis(ctx, opts); up != nil {
 		quad := "local asymptotic stability"
 		if res.Verdict != checker.VerdictHolds {
 			quad = "nothing"
@@ -283,7 +281,7 @@ func (res *Result) conditions() {
 
 // decide sets the verdict from the conditions: discharged, a region in one
 // parameter, or witnesses in several.
-func (res *Result) decide() {
+func (res *Result) decide(ctx context.Context, opts PaveOptions) error {
 	m := res.Model
 	r := m.Ring
 	used := map[int]bool{}
@@ -316,13 +314,14 @@ func (res *Result) decide() {
 		if len(free) > 0 {
 			res.Reason = "every condition is discharged by the assumptions"
 		}
-	case res.wantsPaving(vars):
-		res.paveRegion(vars)
+	case res.wantsPaving(vars, opts):
+		return res.paveRegion(ctx, vars, opts)
 	case len(vars) == 1:
 		res.regionFor(r.Name(vars[0]))
 	default:
 		res.witnesses(vars)
 	}
+	return nil
 }
 
 func (res *Result) regionFor(name string) {

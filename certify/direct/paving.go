@@ -41,13 +41,6 @@ var DefaultResolution = big.NewRat(1, 256)
 // ErrPaveOptions wraps errors in PaveOptions (a usage error).
 var ErrPaveOptions = errors.New("bad paving option")
 
-// paveState carries the options into decide.
-type paveState struct {
-	ctx  context.Context
-	opts PaveOptions
-	err  error
-}
-
 // CheckPaving is Check with a context and paving options: when the
 // conditions that remain involve two or more parameters (or Box names more
 // parameters), and every one of them has a bounded range or a Box, the
@@ -74,7 +67,7 @@ func CheckPaving(ctx context.Context, m *model.Model, source string, opts PaveOp
 			return nil, fmt.Errorf("%w: --box %s: %w", ErrPaveOptions, name, err)
 		}
 	}
-	return runCheck(m, source, &paveState{ctx: ctx, opts: opts})
+	return runCheck(ctx, m, source, opts)
 }
 
 // boxSide returns the side of the paving for a parameter with a --box
@@ -108,16 +101,13 @@ func boxSide(m *model.Model, name string, b [2]*big.Rat) (poly.Interval, error) 
 
 // wantsPaving reports whether the region is to be paved: two or more
 // parameters among those the conditions involve and those given a box.
-func (res *Result) wantsPaving(vars []int) bool {
-	if res.pave == nil {
-		return false
-	}
-	return len(res.pavedVars(vars)) >= 2
+func (res *Result) wantsPaving(vars []int, opts PaveOptions) bool {
+	return len(res.pavedVars(vars, opts)) >= 2
 }
 
-func (res *Result) pavedVars(vars []int) []int {
+func (res *Result) pavedVars(vars []int, opts PaveOptions) []int {
 	set := slices.Clone(vars)
-	for name := range res.pave.opts.Box {
+	for name := range opts.Box {
 		if i, ok := res.Model.Ring.Index(name); ok && !slices.Contains(set, i) {
 			set = append(set, i)
 		}
@@ -129,17 +119,17 @@ func (res *Result) pavedVars(vars []int) []int {
 // paveRegion paves the box of the parameters and sets the region, the
 // witnesses and the verdict; without a bounded box it falls back to the
 // one-parameter region or the witnesses.
-func (res *Result) paveRegion(vars []int) {
+func (res *Result) paveRegion(ctx context.Context, vars []int, opts PaveOptions) error {
 	m := res.Model
 	r := m.Ring
-	paved := res.pavedVars(vars)
+	paved := res.pavedVars(vars, opts)
 	var box []pave.Side
 	var unbounded []string
 	for _, v := range paved {
 		name := r.Name(v)
 		p, _ := m.Param(name)
 		side := p.Range
-		if b, ok := res.pave.opts.Box[name]; ok {
+		if b, ok := opts.Box[name]; ok {
 			side, _ = boxSide(m, name, b) // checked by CheckPaving
 		} else if side.Lo.Inf != 0 || side.Hi.Inf != 0 {
 			unbounded = append(unbounded, fmt.Sprintf("%s has the unbounded range %s", name, side))
@@ -156,18 +146,16 @@ func (res *Result) paveRegion(vars []int) {
 			res.witnesses(vars)
 		}
 		res.Reason += "; " + res.PavingNote
-		return
+		return nil
 	}
-	level, _ := pave.Level(res.pave.opts.Resolution)
+	level, _ := pave.Level(opts.Resolution)
 	var conds []*poly.Poly
 	for _, c := range res.Conds {
 		conds = append(conds, c.Q)
 	}
-	o := res.pave.opts
-	pv, err := pave.PaveRegion(res.pave.ctx, conds, box, level, pave.Options{Workers: o.Workers, Progress: o.Progress, MaxBoxes: o.MaxBoxes})
+	pv, err := pave.PaveRegion(ctx, conds, box, level, pave.Options{Workers: opts.Workers, Progress: opts.Progress, MaxBoxes: opts.MaxBoxes})
 	if err != nil {
-		res.pave.err = err
-		return
+		return err
 	}
 	res.Paving = pv
 	doc := &checker.Paving{
@@ -183,8 +171,7 @@ func (res *Result) paveRegion(vars []int) {
 	}
 	sum, err := certificates.Summarize(doc)
 	if err != nil {
-		res.pave.err = fmt.Errorf("internal error: the paving tree is malformed: %w", err)
-		return
+		return fmt.Errorf("internal error: the paving tree is malformed: %w", err)
 	}
 	res.Region = &Region{Paving: doc}
 
@@ -261,6 +248,7 @@ func (res *Result) paveRegion(vars []int) {
 	if !cover {
 		res.Notes = append(res.Notes, "the paved box is smaller than the allowed range; outside it nothing is proven by the paving")
 	}
+	return nil
 }
 
 // sameRange reports that a bounded side equals the range r.

@@ -58,6 +58,24 @@ func KrawczykImage(g []*Poly, box []Interval, y [][]*big.Rat) []Interval {
 // discrete time, J the Jacobian of f and P symmetric. A box of points gives
 // M exactly there. Entries (i, j) and (j, i) are the same interval.
 func DecayEnclosure(f []*Poly, discrete bool, p [][]*big.Rat, box []Interval) [][]Interval {
+	if pt, ok := boxPoint(box); ok {
+		// At a point the enclosure is the exact value: evaluate J first.
+		jac := Jacobian(f)
+		j := make([][]*big.Rat, len(f))
+		for i := range jac {
+			for k := range jac[i] {
+				j[i] = append(j[i], jac[i][k].Eval(pt))
+			}
+		}
+		m := DecayAt(j, discrete, p)
+		out := make([][]Interval, len(m))
+		for i := range m {
+			for k := range m[i] {
+				out[i] = append(out[i], Point(m[i][k]))
+			}
+		}
+		return out
+	}
 	n := len(f)
 	jac := Jacobian(f)
 	r := f[0].Ring()

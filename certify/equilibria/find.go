@@ -155,7 +155,7 @@ func CertifyEquilibrium(m *model.Model, e *Equilibrium, opts CertifyOptions) (*C
 		}
 		var decay [][]poly.Interval
 		if e.ExactJacobian != nil {
-			decay = pointIntervals(DecayAt(e.ExactJacobian, m.Discrete, p))
+			decay = pointIntervals(poly.DecayAt(e.ExactJacobian, m.Discrete, p))
 		} else {
 			decay = poly.DecayEnclosure(f, m.Discrete, p, box)
 		}

@@ -1,13 +1,11 @@
-package equilibria
+package poly
 
 import (
 	"math/big"
-
-	"lyacert/poly"
 )
 
 // boxPoint returns the point of a box of single points.
-func boxPoint(box []poly.Interval) ([]*big.Rat, bool) {
+func boxPoint(box []Interval) ([]*big.Rat, bool) {
 	pt := make([]*big.Rat, len(box))
 	for i, iv := range box {
 		if iv.Lo.Inf != 0 || iv.Hi.Inf != 0 || iv.Lo.Value.Cmp(iv.Hi.Value) != 0 {
@@ -30,7 +28,7 @@ func DecayAt(j [][]*big.Rat, discrete bool, p [][]*big.Rat) [][]*big.Rat {
 			t := new(big.Rat)
 			for l := 0; l < n; l++ {
 				if p[i][l].Sign() != 0 && j[l][k].Sign() != 0 {
-					poly.AddRat(s, s, poly.MulRat(t, p[i][l], j[l][k]))
+					AddRat(s, s, MulRat(t, p[i][l], j[l][k]))
 				}
 			}
 			pj[i][k] = s
@@ -48,13 +46,13 @@ func DecayAt(j [][]*big.Rat, discrete bool, p [][]*big.Rat) [][]*big.Rat {
 				// (JᵀPJ)ᵢₖ = Σₗ Jₗᵢ (PJ)ₗₖ
 				for l := 0; l < n; l++ {
 					if j[l][i].Sign() != 0 {
-						poly.SubRat(v, v, poly.MulRat(t, j[l][i], pj[l][k]))
+						SubRat(v, v, MulRat(t, j[l][i], pj[l][k]))
 					}
 				}
-				poly.AddRat(v, v, p[i][k])
+				AddRat(v, v, p[i][k])
 			} else {
 				// (JᵀP)ᵢₖ = (PJ)ₖᵢ
-				v.Neg(poly.AddRat(v, pj[k][i], pj[i][k]))
+				v.Neg(AddRat(v, pj[k][i], pj[i][k]))
 			}
 			m[i][k], m[k][i] = v, v
 		}

@@ -482,7 +482,7 @@ func parse(file string, src []byte, lim poly.Limits, canonical bool, settings ..
 			return nil, err
 		}
 	}
-	if canonical {
+	if canonical && m.Canonical() != text { // text already canonical reads back: it just did
 		m.checkCanonical(errs, lim)
 		if errs.Len() > 0 {
 			return nil, errs.Err()

@@ -52,7 +52,7 @@ type Analysis struct {
 	// One free parameter (or none): the partition of its range.
 	Param        string // "" when there is no free parameter
 	Range        poly.Interval
-	Pieces       []Piece
+	Pieces       []Segment
 	Bifurcations []Bifurcation
 }
 

@@ -25,9 +25,9 @@ type Label struct {
 	Unstable int
 }
 
-// Piece is a point or an open interval of the parameter range with the
+// Segment is a point or an open interval of the parameter range with the
 // label of every branch there (indexed like Analysis.Branches).
-type Piece struct {
+type Segment struct {
 	Span   poly.Span
 	Labels []Label
 }
@@ -48,10 +48,10 @@ type Bifurcation struct {
 // Where returns the spans of the range where branch i has a label
 // satisfying keep, adjacent pieces merged.
 func (an *Analysis) Where(i int, keep func(Label) bool) []poly.Span {
-	return mergeSpans(an.Pieces, func(p Piece) bool { return keep(p.Labels[i]) })
+	return mergeSpans(an.Pieces, func(p Segment) bool { return keep(p.Labels[i]) })
 }
 
-func mergeSpans(ps []Piece, keep func(Piece) bool) []poly.Span {
+func mergeSpans(ps []Segment, keep func(Segment) bool) []poly.Span {
 	var out []poly.Span
 	open := false
 	for _, p := range ps {
@@ -169,7 +169,7 @@ func classify(ctx context.Context, m *model.Model, an *Analysis, opts Options) e
 	}
 	for i, b := range an.Branches {
 		if q := b.Quadratic; q != nil && q.P != nil {
-			q.Region = mergeSpans(an.Pieces, func(p Piece) bool {
+			q.Region = mergeSpans(an.Pieces, func(p Segment) bool {
 				if !p.Labels[i].Exists {
 					return false
 				}
@@ -292,34 +292,34 @@ func endPoint(e poly.End) point {
 
 // pieces cuts the range at the points: closed ends and roots are pieces of
 // one point, the open intervals between them the others.
-func pieces(e evaluator, pts []point, rng poly.Interval) []Piece {
+func pieces(e evaluator, pts []point, rng poly.Interval) []Segment {
 	if e.pi < 0 {
-		return []Piece{{Span: poly.Span{Lo: poly.End{Inf: -1}, Hi: poly.End{Inf: 1}}}}
+		return []Segment{{Span: poly.Span{Lo: poly.End{Inf: -1}, Hi: poly.End{Inf: 1}}}}
 	}
-	var out []Piece
+	var out []Segment
 	lo := boundEnd(rng.Lo)
 	if lo.Rational() && lo.Closed && (len(pts) == 0 || pts[0].CompareRat(lo.Value) != 0) {
-		out = append(out, Piece{Span: poly.Span{Lo: lo, Hi: lo}})
+		out = append(out, Segment{Span: poly.Span{Lo: lo, Hi: lo}})
 	}
 	cur := lo
 	cur.Closed = false
 	for _, t := range pts {
 		hi := toEnd(t, false)
 		if !(cur.Rational() && t.Exact != nil && cur.Value.Cmp(t.Exact) == 0) {
-			out = append(out, Piece{Span: poly.Span{Lo: cur, Hi: hi}})
+			out = append(out, Segment{Span: poly.Span{Lo: cur, Hi: hi}})
 		}
 		pt := toEnd(t, true)
-		out = append(out, Piece{Span: poly.Span{Lo: pt, Hi: pt}})
+		out = append(out, Segment{Span: poly.Span{Lo: pt, Hi: pt}})
 		cur = toEnd(t, false)
 	}
 	hi := boundEnd(rng.Hi)
 	last := hi
 	last.Closed = false
 	if !(cur.Rational() && hi.Rational() && cur.Value.Cmp(hi.Value) == 0) {
-		out = append(out, Piece{Span: poly.Span{Lo: cur, Hi: last}})
+		out = append(out, Segment{Span: poly.Span{Lo: cur, Hi: last}})
 	}
 	if hi.Rational() && hi.Closed && (len(pts) == 0 || pts[len(pts)-1].CompareRat(hi.Value) != 0) {
-		out = append(out, Piece{Span: poly.Span{Lo: hi, Hi: hi}})
+		out = append(out, Segment{Span: poly.Span{Lo: hi, Hi: hi}})
 	}
 	return out
 }

@@ -148,7 +148,7 @@ func (res *Result) paveRegion(vars []int) {
 		box = append(box, pave.Side{Var: v, Range: side})
 	}
 	if len(unbounded) > 0 {
-		res.PavingNote = fmt.Sprintf("no paving: %s; give --box NAME=LO:HI for it", strings.Join(unbounded, ", "))
+		res.PavingNote = fmt.Sprintf("no paving: %s; give --box NAME=LO..HI for it", strings.Join(unbounded, ", "))
 		res.Notes = append(res.Notes, res.PavingNote)
 		if len(vars) == 1 {
 			res.regionFor(r.Name(vars[0]))

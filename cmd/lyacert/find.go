@@ -91,7 +91,7 @@ func (c *findCmd) run(e *env) int {
 	res, err := equilibria.Find(m, equilibria.FindOptions{Q: q, All: c.All, Source: name})
 	if err != nil {
 		if errors.Is(err, certify.ErrUnverified) {
-			return e.fail(exitFails, err)
+			return e.fail(exitRejected, err)
 		}
 		return e.fail(exitInput, err)
 	}

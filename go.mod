@@ -7,7 +7,17 @@ require (
 	gonum.org/v1/gonum v0.17.0
 )
 
-require github.com/alecthomas/kong v1.17.0
+require (
+	github.com/alecthomas/kong v1.17.0
+	github.com/willabides/kongplete v0.4.0
+)
+
+require (
+	github.com/hashicorp/errwrap v1.1.0 // indirect
+	github.com/hashicorp/go-multierror v1.1.1 // indirect
+	github.com/posener/complete v1.2.3 // indirect
+	github.com/riywo/loginshell v0.0.0-20200815045211-7d26008be1ab // indirect
+)
 
 require (
 	codeberg.org/go-fonts/liberation v0.5.0 // indirect

@@ -32,9 +32,12 @@
 // command keeps only flags, files and exit codes:
 //
 //   - terminal text: CheckText (the direct method), FindText (equilibria
-//     and linearization certificates), VerifyText (a re-check), Caution;
-//   - the --json shapes: CheckJSON, FindJSON, VerifyJSON, whose keys are a
-//     contract;
+//     and linearization certificates), VerifyText (a re-check, naming an
+//     altered file and an untrusted signer), MergeText, KeyText, SignText,
+//     ErrorText, Caution;
+//   - the --json shapes: CheckJSON, FindJSON, VerifyJSON, MergeJSON,
+//     KeyOutput, SignOutput, ReportOutput and ErrorJSON (the error of any
+//     command), whose keys are a contract: no key is dropped when empty;
 //   - FindVerdict, the one verdict that the text, the JSON and the exit
 //     code of a search for equilibria state;
 //   - pictures: PavingPlot (a paving of two parameters, or a slice of

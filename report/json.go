@@ -1,12 +1,15 @@
 package report
 
 import (
+	"errors"
 	"strconv"
+	"strings"
 
 	"lyacert/certificates"
 	"lyacert/certify/direct"
 	"lyacert/certify/equilibria"
 	"lyacert/checker"
+	"lyacert/poly"
 	"lyacert/sweep"
 )
 
@@ -21,25 +24,25 @@ type CheckOutput struct {
 	Verdict     string              `json:"verdict"`
 	Claim       string              `json:"claim"`
 	Reason      string              `json:"reason"`
-	Time        string              `json:"time"`
+	TimeKind    string              `json:"time_kind"` // "continuous" or "discrete"
 	V           string              `json:"V"`
 	Vdot        string              `json:"vdot"`
 	Minors      []string            `json:"minors"`
 	Forms       []FormOutput        `json:"forms"`
 	Conditions  []string            `json:"conditions"`
-	Region      *RegionOutput       `json:"region,omitempty"`
-	Witnesses   []checker.Witness   `json:"witnesses,omitempty"`
-	Refutation  *checker.Refutation `json:"refutation,omitempty"`
-	Kernel      [][]string          `json:"kernel,omitempty"`
+	Region      *RegionOutput       `json:"region"`
+	Witnesses   []checker.Witness   `json:"witnesses"`
+	Refutation  *checker.Refutation `json:"refutation"`
+	Kernel      [][]string          `json:"kernel"`
 	Digest      string              `json:"digest"`
 	Checks      int                 `json:"checks_passed"`
-	Certificate string              `json:"certificate,omitempty"`
+	Certificate string              `json:"certificate"`
 }
 
 // FormOutput is one quadratic (or Gram) form of a CheckOutput.
 type FormOutput struct {
 	Name   string     `json:"name"`
-	Basis  []string   `json:"basis,omitempty"`
+	Basis  []string   `json:"basis"`
 	Gram   [][]string `json:"gram"`
 	L      [][]string `json:"l"`
 	D      []string   `json:"d"`
@@ -52,8 +55,8 @@ type RegionOutput struct {
 	Param     string                `json:"param"`
 	Intervals []checker.Interval    `json:"intervals"`
 	Pieces    []checker.Piece       `json:"pieces"`
-	Paving    *PavingOutput         `json:"paving,omitempty"`
-	Product   []checker.SturmRegion `json:"product,omitempty"`
+	Paving    *PavingOutput         `json:"paving"`
+	Product   []checker.SturmRegion `json:"product"`
 }
 
 // PavingOutput is a paving of a RegionOutput with its counts and shares.
@@ -87,7 +90,7 @@ func CheckJSON(res *direct.Result, written string) CheckOutput {
 	c := certificates.ContentsOf(doc)
 	out := CheckOutput{
 		Verdict: res.Verdict, Claim: res.Claim, Reason: res.Reason,
-		Time: timeWord(res.Model.Discrete), V: c.V, Vdot: c.Vdot,
+		TimeKind: timeWord(res.Model.Discrete), V: c.V, Vdot: c.Vdot,
 		Minors: []string{}, Conditions: []string{}, Forms: []FormOutput{},
 		Region: regionJSON(c.Region), Witnesses: c.Witnesses, Refutation: c.Refutation, Kernel: c.Kernel,
 		Digest: doc.Digest, Checks: len(res.Check.Records), Certificate: written,
@@ -104,36 +107,67 @@ func CheckJSON(res *direct.Result, written string) CheckOutput {
 	return out
 }
 
-// VerifyOutput is the JSON of a re-check: every check with its result.
+// VerifyOutput is the JSON of a re-check: every check with its result,
+// whether the file was altered after it was written (its content no longer
+// hashes to its digest) and the checks that disagree with the
+// recomputation, and the signature. Valid is the whole answer: the
+// mathematics holds and, with --trust, a trusted key signed.
 type VerifyOutput struct {
-	Valid   bool             `json:"valid"`
-	Claim   string           `json:"claim"`
-	Verdict string           `json:"verdict"`
-	Digest  string           `json:"digest"`
-	Checks  []checker.Record `json:"checks"`
+	Valid            bool             `json:"valid"`
+	MathematicsValid bool             `json:"mathematics_valid"`
+	Claim            string           `json:"claim"`
+	Verdict          string           `json:"verdict"`
+	Digest           string           `json:"digest"`
+	Altered          bool             `json:"altered"`
+	RecomputedDigest string           `json:"recomputed_digest"`
+	Disagreements    []checker.Record `json:"disagreements"`
+	Checks           []checker.Record `json:"checks"`
+	Signer           *string          `json:"signer"` // fingerprint; null when unsigned
+	TrustRequired    bool             `json:"trust_required"`
+	Trusted          bool             `json:"trusted"`
+	UntrustedBecause *string          `json:"untrusted_because"`
 }
 
-// VerifyJSON is the JSON of checker.Verify's outcome for doc.
-func VerifyJSON(doc *checker.Document, out checker.Outcome) VerifyOutput {
-	return VerifyOutput{Valid: out.Valid, Claim: out.Kind, Verdict: out.Verdict, Digest: doc.Digest, Checks: out.Records}
+// VerifyJSON is the JSON of checker.Verify's outcome for doc and of the
+// trust check.
+func VerifyJSON(doc *checker.Document, out checker.Outcome, trust Trust) VerifyOutput {
+	altered, recomputed := Altered(doc)
+	v := VerifyOutput{Valid: out.Valid && (!trust.Required || trust.Trusted), MathematicsValid: out.Valid,
+		Claim: out.Kind, Verdict: out.Verdict, Digest: doc.Digest, Altered: altered, RecomputedDigest: recomputed,
+		Disagreements: []checker.Record{}, Checks: out.Records, TrustRequired: trust.Required, Trusted: trust.Trusted}
+	if v.Checks == nil {
+		v.Checks = []checker.Record{}
+	}
+	for _, r := range out.Records {
+		if !r.OK {
+			v.Disagreements = append(v.Disagreements, r)
+		}
+	}
+	if trust.Signer != "" {
+		v.Signer = &trust.Signer
+	}
+	if trust.Required && !trust.Trusted {
+		v.UntrustedBecause = &trust.Reason
+	}
+	return v
 }
 
 // FindOutput is the JSON of a search for equilibria. Verdict and Claim
 // are FindVerdict's; V, Reason, Digest and Certificate are the model's own
 // equilibrium's when it is the only one certified.
 type FindOutput struct {
-	Time        string              `json:"time"`
+	TimeKind    string              `json:"time_kind"` // "continuous" or "discrete"
 	Params      map[string]string   `json:"params"`
 	Complete    bool                `json:"complete"`
 	NonIsolated bool                `json:"non_isolated"`
 	Equilibria  []EquilibriumOutput `json:"equilibria"`
 	Target      *int                `json:"target"` // 1-based; null when the origin is not an equilibrium
-	V           string              `json:"V,omitempty"`
+	V           string              `json:"V"`
 	Verdict     string              `json:"verdict"`
 	Claim       string              `json:"claim"`
-	Reason      string              `json:"reason,omitempty"`
-	Digest      string              `json:"digest,omitempty"`
-	Certificate string              `json:"certificate,omitempty"`
+	Reason      string              `json:"reason"`
+	Digest      string              `json:"digest"`
+	Certificate string              `json:"certificate"`
 }
 
 // EquilibriumOutput is one equilibrium of a FindOutput: its point in
@@ -142,26 +176,26 @@ type FindOutput struct {
 type EquilibriumOutput struct {
 	Index         int                   `json:"index"`
 	Point         sweep.OrderedStrings  `json:"point"` // decimals
-	Exact         *sweep.OrderedStrings `json:"exact,omitempty"`
-	Box           [][2]string           `json:"box,omitempty"`
+	Exact         *sweep.OrderedStrings `json:"exact"`
+	Box           [][2]string           `json:"box"`
 	Status        string                `json:"status"`
 	Class         string                `json:"class"`
 	Eigenvalues   []string              `json:"eigenvalues"`
 	MaxRealEig    float64               `json:"max_real_eig"`
-	Certification *CertOutput           `json:"certification,omitempty"`
+	Certification *CertOutput           `json:"certification"`
 }
 
 // CertOutput is the certification of one equilibrium.
 type CertOutput struct {
 	Method      string     `json:"method"`
-	V           string     `json:"V,omitempty"`
-	P           [][]string `json:"P,omitempty"`
+	V           string     `json:"V"`
+	P           [][]string `json:"P"`
 	Verdict     string     `json:"verdict"`
 	Claim       string     `json:"claim"`
 	Reason      string     `json:"reason"`
-	Digest      string     `json:"digest,omitempty"`
-	Checks      int        `json:"checks_passed,omitempty"`
-	Certificate string     `json:"certificate,omitempty"`
+	Digest      string     `json:"digest"`
+	Checks      int        `json:"checks_passed"`
+	Certificate string     `json:"certificate"`
 }
 
 // FindJSON is the JSON of a search for equilibria; written[i] is the file
@@ -169,7 +203,7 @@ type CertOutput struct {
 func FindJSON(res *equilibria.FindResult, written []string) FindOutput {
 	m := res.Model
 	verdict, claim := FindVerdict(res)
-	out := FindOutput{Time: timeWord(m.Discrete), Params: map[string]string{}, Complete: res.Search.Complete,
+	out := FindOutput{TimeKind: timeWord(m.Discrete), Params: map[string]string{}, Complete: res.Search.Complete,
 		NonIsolated: res.Search.NonIsolated, Equilibria: []EquilibriumOutput{}, Verdict: verdict, Claim: claim}
 	for _, p := range m.Params {
 		out.Params[p.Name] = p.Fixed.RatString()
@@ -242,4 +276,115 @@ func timeWord(discrete bool) string {
 		return "discrete"
 	}
 	return "continuous"
+}
+
+// ErrorOutput is the JSON of a failed command (--json): the first error's
+// message and position ("file:line:col", null when it is not about input
+// text), the exit code, and every error when the input had several.
+type ErrorOutput struct {
+	Error ErrorBody `json:"error"`
+}
+
+// ErrorBody is the "error" object of an ErrorOutput.
+type ErrorBody struct {
+	Message  string      `json:"message"`
+	Position *string     `json:"position"`
+	Code     int         `json:"code"`
+	Errors   []ErrorItem `json:"errors"`
+}
+
+// ErrorItem is one error of an ErrorBody.
+type ErrorItem struct {
+	Message  string  `json:"message"`
+	Position *string `json:"position"`
+}
+
+// ErrorJSON is the JSON of err, which ended a command with exit code code.
+func ErrorJSON(err error, code int) ErrorOutput {
+	items := errorItems(err)
+	return ErrorOutput{Error: ErrorBody{Message: items[0].Message, Position: items[0].Position, Code: code, Errors: items}}
+}
+
+// errorItems splits err into its errors: the items of a poly.ErrorList,
+// or err alone, with the position of a poly.Error it wraps taken out of
+// the message.
+func errorItems(err error) []ErrorItem {
+	var list poly.ErrorList
+	if errors.As(err, &list) && len(list) > 0 {
+		var out []ErrorItem
+		for _, e := range list {
+			out = append(out, errorItem(e))
+		}
+		return out
+	}
+	return []ErrorItem{errorItem(err)}
+}
+
+func errorItem(err error) ErrorItem {
+	msg := strings.TrimPrefix(err.Error(), "lyacert: ")
+	var pe *poly.Error
+	if errors.As(err, &pe) && pe.Pos != (poly.Pos{}) {
+		pos := pe.Pos.String()
+		return ErrorItem{Message: strings.Replace(msg, pos+": ", "", 1), Position: &pos}
+	}
+	return ErrorItem{Message: msg}
+}
+
+// MergeSummary is what lyacert merge did: the shard files read, the grid
+// points of the sweep, the merged lines by verdict, where the lines and
+// the plot went (null for standard output and no plot), and whether the
+// merged sweep holds (the exit status 0).
+type MergeSummary struct {
+	Files      []string       `json:"files"`
+	GridPoints int            `json:"grid_points"`
+	Verdicts   map[string]int `json:"verdicts"`
+	Output     *string        `json:"output"`
+	Plot       *string        `json:"plot"`
+	Holds      bool           `json:"holds"`
+}
+
+// MergeJSON is the JSON of a merge; every verdict has a count, zero too.
+func MergeJSON(s MergeSummary) MergeSummary {
+	v := map[string]int{checker.VerdictHolds: 0, checker.VerdictFails: 0, checker.VerdictUndecided: 0}
+	for k, n := range s.Verdicts {
+		v[k] += n
+	}
+	s.Verdicts = v
+	if s.Files == nil {
+		s.Files = []string{}
+	}
+	return s
+}
+
+// KeyOutput is what lyacert key new wrote: the two key files and the
+// public key's fingerprint (the full SHA-256 of its SubjectPublicKeyInfo).
+type KeyOutput struct {
+	PrivateKey  string `json:"private_key"`
+	PublicKey   string `json:"public_key"`
+	Fingerprint string `json:"fingerprint"`
+}
+
+// SignOutput is what lyacert sign did: the certificate read, the file the
+// signed certificate went to, its digest, the signing key's fingerprint,
+// and the signature replaced (its key's fingerprint, or "a malformed
+// signature"; null when there was none).
+type SignOutput struct {
+	Certificate string  `json:"certificate"`
+	Output      string  `json:"output"`
+	Digest      string  `json:"digest"`
+	Fingerprint string  `json:"fingerprint"`
+	Replaced    *string `json:"replaced"`
+}
+
+// ReportOutput is what lyacert report --json did: the format, the file
+// the report went to (null when it is in Content instead), the plots
+// written beside it, and the certificate's digest, verdict and claim.
+type ReportOutput struct {
+	Format  string   `json:"format"`
+	Output  *string  `json:"output"`
+	Content *string  `json:"content"`
+	Figures []string `json:"figures"`
+	Digest  string   `json:"digest"`
+	Verdict string   `json:"verdict"`
+	Claim   string   `json:"claim"`
 }

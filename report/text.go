@@ -522,24 +522,114 @@ func percent(share string) string {
 	return s + "%"
 }
 
-// VerifyText writes checker.Verify's outcome for a certificate for a
-// terminal: the failed checks, then one line that says whether the
-// certificate is valid, with its claim, verdict and digest when it is.
-// file is how the certificate is named. It returns the first write error.
-func VerifyText(w io.Writer, file string, doc *checker.Document, out checker.Outcome) error {
+// VerifyText writes a re-check for a terminal. An invalid certificate is
+// named altered when its content no longer matches its digest (it was
+// changed after it was written), and every check that disagrees with the
+// recomputation is listed; a valid one gets its claim, verdict and digest,
+// and, with --trust, who signed it. file is how the certificate is named.
+// It returns the first write error.
+func VerifyText(w io.Writer, file string, doc *checker.Document, out checker.Outcome, trust Trust) error {
 	ew := &errWriter{w: w}
-	failed := 0
+	var failed []checker.Record
 	for _, c := range out.Records {
 		if !c.OK {
-			failed++
-			fmt.Fprintf(ew, "FAIL  %-12s %s\n", c.Name, c.Reason)
+			failed = append(failed, c)
 		}
 	}
-	if out.Valid {
-		fmt.Fprintf(ew, "%s: valid. %d checks passed (exact arithmetic).\n", file, len(out.Records))
-		fmt.Fprintf(ew, "  claim %s, verdict %s\n  digest %s\n", out.Kind, out.Verdict, doc.Digest)
+	if !out.Valid {
+		if altered, recomputed := Altered(doc); altered {
+			fmt.Fprintf(ew, "%s: ALTERED. The file was changed after it was written: its content hashes to %s, not to the digest it states (%s).\n", file, recomputed, doc.Digest)
+		} else {
+			fmt.Fprintf(ew, "%s: INVALID. The file is as it was written (its digest matches), but its mathematics does not hold.\n", file)
+		}
+		if len(failed) > 0 {
+			fmt.Fprintln(ew, "  Disagrees with the recomputation:")
+			for _, c := range failed {
+				fmt.Fprintf(ew, "    %s: %s\n", c.Name, c.Reason)
+			}
+		}
+		fmt.Fprintf(ew, "  %d of %d checks failed; the certificate proves nothing.\n", len(failed), len(out.Records))
 		return ew.err
 	}
-	fmt.Fprintf(ew, "%s: INVALID. %d of %d checks failed; the certificate proves nothing.\n", file, failed, len(out.Records))
+	if trust.Required && !trust.Trusted {
+		fmt.Fprintf(ew, "%s: the mathematics passed (%d checks, exact arithmetic), but the signer is unknown: %s.\n", file, len(out.Records), trust.Reason)
+		fmt.Fprintf(ew, "  claim %s, verdict %s\n  digest %s\n", out.Kind, out.Verdict, doc.Digest)
+		fmt.Fprintln(ew, "  Not accepted: --trust requires a signature by one of the given keys.")
+		return ew.err
+	}
+	fmt.Fprintf(ew, "%s: valid. %d checks passed (exact arithmetic).\n", file, len(out.Records))
+	fmt.Fprintf(ew, "  claim %s, verdict %s\n  digest %s\n", out.Kind, out.Verdict, doc.Digest)
+	switch {
+	case trust.Required:
+		fmt.Fprintf(ew, "  signed by the trusted key %s\n", trust.Signer)
+	case trust.Signer != "":
+		fmt.Fprintf(ew, "  signed by key %s (signature valid; use --trust KEY.pub.pem to require a trusted signer)\n", trust.Signer)
+	default:
+		fmt.Fprintln(ew, "  not signed")
+	}
+	return ew.err
+}
+
+// Trust is what verify --trust found besides the mathematics: whether
+// trusted keys were required and one of them signed, the fingerprint of
+// the signing key ("" when unsigned) and why the signer is not trusted.
+type Trust struct {
+	Required bool
+	Trusted  bool
+	Signer   string
+	Reason   string
+}
+
+// Altered reports whether doc's content no longer hashes to the digest it
+// states, with the digest it does hash to. A certificate that cannot be
+// serialized counts as altered.
+func Altered(doc *checker.Document) (bool, string) {
+	d, err := doc.ComputeDigest()
+	if err != nil {
+		return true, "nothing (it cannot be serialized: " + err.Error() + ")"
+	}
+	return d != doc.Digest, d
+}
+
+// ErrorText writes err for people on standard error: one line per error of
+// a poly.ErrorList, each with its file:line:col; any other error once,
+// after "lyacert: " unless it begins with its position.
+func ErrorText(w io.Writer, err error) error {
+	ew := &errWriter{w: w}
+	for _, it := range errorItems(err) {
+		if it.Position != nil {
+			fmt.Fprintf(ew, "%s: %s\n", *it.Position, it.Message)
+		} else {
+			fmt.Fprintf(ew, "lyacert: %s\n", it.Message)
+		}
+	}
+	return ew.err
+}
+
+// MergeText writes what lyacert merge did for a terminal.
+func MergeText(w io.Writer, s MergeSummary) error {
+	ew := &errWriter{w: w}
+	out := "standard output"
+	if s.Output != nil {
+		out = *s.Output
+	}
+	fmt.Fprintf(ew, "Merged %d grid points from %d files into %s\n", s.GridPoints, len(s.Files), out)
+	if s.Plot != nil {
+		fmt.Fprintf(ew, "  plot in %s\n", *s.Plot)
+	}
+	return ew.err
+}
+
+// KeyText writes what lyacert key new wrote for a terminal.
+func KeyText(w io.Writer, k KeyOutput) error {
+	ew := &errWriter{w: w}
+	fmt.Fprintf(ew, "wrote the private key %s (keep it secret) and the public key %s\n  fingerprint %s\n", k.PrivateKey, k.PublicKey, k.Fingerprint)
+	return ew.err
+}
+
+// SignText writes what lyacert sign did for a terminal.
+func SignText(w io.Writer, s SignOutput) error {
+	ew := &errWriter{w: w}
+	fmt.Fprintf(ew, "signed %s with key %s\n  digest %s\n", s.Output, s.Fingerprint, s.Digest)
 	return ew.err
 }

@@ -1,8 +1,10 @@
 package report
 
 import (
+	"strings"
 	"testing"
 
+	"lyacert/checker"
 	"lyacert/poly"
 )
 
@@ -57,5 +59,30 @@ func TestPercent(t *testing.T) {
 		if got := percent(tc.share); got != tc.want {
 			t.Errorf("percent(%s) = %q, want %q", tc.share, got, tc.want)
 		}
+	}
+}
+
+// TestVerifyTextInvalidNotAltered: a certificate whose digest matches its
+// content but whose mathematics fails is called invalid, not altered (the
+// digest is SHA-256 of the canonical serialization: common practice for
+// telling a changed file from a wrong one).
+func TestVerifyTextInvalidNotAltered(t *testing.T) {
+	doc := &checker.Document{Format: "lyacert-certificate/2"}
+	d, err := doc.ComputeDigest()
+	if err != nil {
+		t.Fatal(err)
+	}
+	doc.Digest = d
+	out := checker.Outcome{Records: []checker.Record{{Name: "model", OK: false, Reason: "the model text parses"}}}
+	var b strings.Builder
+	VerifyText(&b, "c.json", doc, out, Trust{})
+	if got := b.String(); !strings.Contains(got, "c.json: INVALID. The file is as it was written") || !strings.Contains(got, "    model: the model text parses") {
+		t.Errorf("got %q", got)
+	}
+	doc.Digest = "sha256:" + strings.Repeat("0", 64)
+	b.Reset()
+	VerifyText(&b, "c.json", doc, out, Trust{})
+	if got := b.String(); !strings.Contains(got, "c.json: ALTERED.") {
+		t.Errorf("a stale digest: got %q", got)
 	}
 }

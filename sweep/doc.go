@@ -6,8 +6,9 @@
 //
 // # Grid and shards
 //
-// A Grid is a product of axes "name=lo:hi:n", each n exact values
-// lo + k·(hi − lo)/(n − 1); point indices run in row-major order (the last
+// A Grid is a product of axes, each read from a range "name=lo..hi" and a
+// count n of points (--grid r=0..30 --points r=61; ParseGrid), each n exact
+// values lo + k·(hi − lo)/(n − 1); point indices run in row-major order (the last
 // axis fastest). A grid has at most MaxGridPoints points, checked from the
 // axes before anything is allocated. Shard i/N owns the indices k ≡ i
 // (mod N); N shards cover the grid exactly once.

@@ -5,13 +5,15 @@ import (
 	"testing"
 )
 
-// FuzzParseGridAxis reads arbitrary --grid arguments: no panic, and an axis
-// that is read has 1 ≤ N ≤ MaxGridPoints points from Lo to Hi (Lo < Hi when
-// N > 1) and reads back the same from "name=lo:hi:n" (common practice: a
-// parser's output round-trips). Seeds: testdata/fuzz/FuzzParseGridAxis.
+// FuzzParseGridAxis reads arbitrary --grid ranges and --points counts: no
+// panic, and an axis that is read has 1 ≤ N ≤ MaxGridPoints points from Lo
+// to Hi (Lo < Hi when N > 1) and reads back the same from "name=lo..hi"
+// and n, as ParseGrid reads it from "--grid name=lo..hi --points name=n"
+// (common practice: a parser's output round-trips). Seeds:
+// testdata/fuzz/FuzzParseGridAxis.
 func FuzzParseGridAxis(f *testing.F) {
-	f.Fuzz(func(t *testing.T, s string) {
-		a, err := ParseGridAxis(s)
+	f.Fuzz(func(t *testing.T, s string, n int) {
+		a, err := ParseGridAxis(s, n)
 		if err != nil {
 			return
 		}
@@ -21,10 +23,14 @@ func FuzzParseGridAxis(f *testing.F) {
 		if a.Value(0).Cmp(a.Lo) != 0 || (a.N > 1 && a.Value(a.N-1).Cmp(a.Hi) != 0) {
 			t.Fatalf("%q: the ends of the axis are not Lo and Hi", s)
 		}
-		text := fmt.Sprintf("%s=%s:%s:%d", a.Name, a.Lo.RatString(), a.Hi.RatString(), a.N)
-		b, err := ParseGridAxis(text)
-		if err != nil || b.Name != a.Name || b.N != a.N || b.Lo.Cmp(a.Lo) != 0 || b.Hi.Cmp(a.Hi) != 0 {
-			t.Fatalf("%q read as %s, which reads back as %+v (%v)", s, text, b, err)
+		text := fmt.Sprintf("%s=%s..%s", a.Name, a.Lo.RatString(), a.Hi.RatString())
+		count := fmt.Sprintf("%s=%d", a.Name, a.N)
+		g, err := ParseGrid([]string{text}, []string{count})
+		if err != nil || len(g) != 1 {
+			t.Fatalf("%q, %d read as --grid %s --points %s, which reads back as %+v (%v)", s, n, text, count, g, err)
+		}
+		if b := g[0]; b.Name != a.Name || b.N != a.N || b.Lo.Cmp(a.Lo) != 0 || b.Hi.Cmp(a.Hi) != 0 {
+			t.Fatalf("%q, %d read as --grid %s --points %s, which reads back as %+v", s, n, text, count, b)
 		}
 		if _, err := (Grid{a, a}).Size(); err != nil && a.N*a.N <= MaxGridPoints {
 			t.Fatalf("a grid of %d×%d points is refused: %v", a.N, a.N, err)

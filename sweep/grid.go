@@ -2,8 +2,10 @@ package sweep
 
 import (
 	"fmt"
+	"maps"
 	"math/big"
 	"runtime"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -31,31 +33,115 @@ const MaxGridPoints = 100_000_000
 // only costs memory).
 func MaxJobs() int { return max(256, 4*runtime.NumCPU()) }
 
-// ParseGridAxis reads "name=lo:hi:n" with exact numbers or constant
-// expressions lo and hi (lo < hi when n > 1) and an integer n ≥ 1.
-func ParseGridAxis(s string) (GridAxis, error) {
+// ParseGridRange reads a --grid range "name=lo..hi" with exact numbers or
+// constant expressions lo and hi. The colon forms "name=lo:hi:n" and
+// "name=lo:hi" of earlier versions are refused with the new spelling: a
+// colon reads start:step:stop to many engineers, so r=0:30:61 could be
+// taken for a step of 30.
+func ParseGridRange(s string) (name string, lo, hi *big.Rat, err error) {
 	name, spec, ok := strings.Cut(s, "=")
 	name = strings.TrimSpace(name)
-	parts := strings.Split(spec, ":")
-	if !ok || name == "" || len(parts) != 3 {
-		return GridAxis{}, fmt.Errorf("--grid %q: expected name=lo:hi:n, e.g. r=0:30:61", s)
+	if ok && name != "" && strings.Contains(spec, ":") {
+		parts := strings.Split(spec, ":")
+		hint := fmt.Sprintf("--grid %s=LO..HI --points %s=N", name, name)
+		if len(parts) == 3 {
+			hint = fmt.Sprintf("--grid %s=%s..%s --points %s=%s", name, strings.TrimSpace(parts[0]), strings.TrimSpace(parts[1]), name, strings.TrimSpace(parts[2]))
+		}
+		return "", nil, nil, fmt.Errorf("--grid %q: ranges are written with two dots and the number of points is given apart: %s", s, hint)
 	}
-	lo, err := model.ParseSetting(name + "=" + parts[0])
+	a, b, ok2 := strings.Cut(spec, "..")
+	if !ok || !ok2 || name == "" || strings.Contains(b, "..") || strings.HasPrefix(b, ".") || strings.HasSuffix(a, ".") {
+		return "", nil, nil, fmt.Errorf("--grid %q: expected NAME=LO..HI, e.g. --grid r=0..30 --points 61", s)
+	}
+	l, err := model.ParseSetting(name + "=" + a)
 	if err != nil {
-		return GridAxis{}, fmt.Errorf("--grid %s: lower end: %w", name, err)
+		return "", nil, nil, fmt.Errorf("--grid %s: lower end: %w", name, err)
 	}
-	hi, err := model.ParseSetting(name + "=" + parts[1])
+	h, err := model.ParseSetting(name + "=" + b)
 	if err != nil {
-		return GridAxis{}, fmt.Errorf("--grid %s: upper end: %w", name, err)
+		return "", nil, nil, fmt.Errorf("--grid %s: upper end: %w", name, err)
 	}
-	n, err := strconv.Atoi(strings.TrimSpace(parts[2]))
-	if err != nil || n < 1 || n > MaxGridPoints {
-		return GridAxis{}, fmt.Errorf("--grid %s: the number of points %q is not an integer from 1 to %d", name, parts[2], MaxGridPoints)
+	return name, l.Value, h.Value, nil
+}
+
+// ParseGridAxis reads the range "name=lo..hi" (ParseGridRange) of an axis
+// of n points, 1 ≤ n ≤ MaxGridPoints (lo < hi when n > 1).
+func ParseGridAxis(s string, n int) (GridAxis, error) {
+	name, lo, hi, err := ParseGridRange(s)
+	if err != nil {
+		return GridAxis{}, err
 	}
-	if n > 1 && lo.Value.Cmp(hi.Value) >= 0 {
-		return GridAxis{}, fmt.Errorf("--grid %s: %d points need lo < hi, got %s:%s", name, n, lo.Value.RatString(), hi.Value.RatString())
+	return newAxis(name, lo, hi, n)
+}
+
+func newAxis(name string, lo, hi *big.Rat, n int) (GridAxis, error) {
+	if n < 1 || n > MaxGridPoints {
+		return GridAxis{}, fmt.Errorf("--points %s=%d: the number of points must be an integer from 1 to %d", name, n, MaxGridPoints)
 	}
-	return GridAxis{Name: name, Lo: lo.Value, Hi: hi.Value, N: n}, nil
+	if n > 1 && lo.Cmp(hi) >= 0 {
+		return GridAxis{}, fmt.Errorf("--grid %s: %d points need LO < HI, got %s..%s", name, n, lo.RatString(), hi.RatString())
+	}
+	return GridAxis{Name: name, Lo: lo, Hi: hi, N: n}, nil
+}
+
+// ParseGrid reads the --grid ranges and --points counts of a sweep into a
+// grid, in the order of the ranges. A count is "N" (every axis without its
+// own count) or "NAME=N" (that axis); every axis needs one.
+func ParseGrid(ranges, points []string) (Grid, error) {
+	all := 0
+	per := map[string]int{}
+	for _, p := range points {
+		name, num, named := strings.Cut(p, "=")
+		if !named {
+			name, num = "", p
+		}
+		name = strings.TrimSpace(name)
+		if strings.Contains(num, ":") || strings.Contains(num, "..") {
+			return nil, fmt.Errorf("--points %q: expected a number of points, N or NAME=N (the range goes to --grid NAME=LO..HI)", p)
+		}
+		n, err := strconv.Atoi(strings.TrimSpace(num))
+		if err != nil || n < 1 || n > MaxGridPoints || (named && name == "") {
+			return nil, fmt.Errorf("--points %q: expected N or NAME=N with an integer N from 1 to %d, e.g. --points 61 or --points r=61", p, MaxGridPoints)
+		}
+		if !named {
+			if all != 0 {
+				return nil, fmt.Errorf("--points %q: a count for every axis is given twice", p)
+			}
+			all = n
+			continue
+		}
+		if _, dup := per[name]; dup {
+			return nil, fmt.Errorf("--points %s: given twice", name)
+		}
+		per[name] = n
+	}
+	var g Grid
+	seen := map[string]bool{}
+	for _, r := range ranges {
+		name, lo, hi, err := ParseGridRange(r)
+		if err != nil {
+			return nil, err
+		}
+		n, ok := per[name]
+		if !ok {
+			n = all
+		}
+		if n == 0 {
+			return nil, fmt.Errorf("--grid %s: how many points? give --points N (every axis) or --points %s=N", name, name)
+		}
+		a, err := newAxis(name, lo, hi, n)
+		if err != nil {
+			return nil, err
+		}
+		seen[name] = true
+		g = append(g, a)
+	}
+	for _, name := range slices.Sorted(maps.Keys(per)) {
+		if !seen[name] {
+			return nil, fmt.Errorf("--points %s: no --grid %s=LO..HI to count", name, name)
+		}
+	}
+	return g, nil
 }
 
 // Value returns the k-th value of the axis, exactly.
@@ -185,7 +271,7 @@ func CheckSweep(file string, src []byte, settings []model.Setting, grid Grid) er
 	}
 	for _, p := range m.FreeParams() {
 		if !seen[p.Name] {
-			errs.Add(p.Pos, "parameter %s is free; sweep it (--grid %s=LO:HI:N) or fix it (--set %s=VALUE)", p.Name, p.Name, p.Name)
+			errs.Add(p.Pos, "parameter %s is free; sweep it (--grid %s=LO..HI --points N) or fix it (--set %s=VALUE)", p.Name, p.Name, p.Name)
 		}
 	}
 	if _, err := grid.Size(); err != nil {

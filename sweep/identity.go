@@ -13,8 +13,9 @@ import (
 
 // identityVersion names the line format and the identity text below; it
 // changes whenever either does, so that lines of different formats never
-// count as one sweep.
-const identityVersion = "lyacert sweep lines 1"
+// count as one sweep. Version 2 writes a grid axis "r = 0 .. 30, 61 points"
+// (version 1: "r = 0 : 30 : 61").
+const identityVersion = "lyacert sweep lines 2"
 
 // Identity is what a sweep's lines depend on besides the grid point: the
 // model, by the digest of its canonical text (so neither the path it was
@@ -24,7 +25,7 @@ const identityVersion = "lyacert sweep lines 1"
 type Identity struct {
 	Model    string   // "sha256:" + hex of the canonical model text
 	Settings []string // "name = value", sorted by name
-	Grid     []string // "name = lo : hi : n", in grid order
+	Grid     []string // "name = lo .. hi, n points", in grid order
 	Q        string   // "identity", or the diagonal, one value per state
 	Full     bool
 }
@@ -41,7 +42,7 @@ func NewIdentity(file string, src []byte, settings []model.Setting, grid Grid, q
 	}
 	slices.Sort(id.Settings)
 	for _, a := range grid {
-		id.Grid = append(id.Grid, fmt.Sprintf("%s = %s : %s : %d", a.Name, a.Lo.RatString(), a.Hi.RatString(), a.N))
+		id.Grid = append(id.Grid, fmt.Sprintf("%s = %s .. %s, %d points", a.Name, a.Lo.RatString(), a.Hi.RatString(), a.N))
 	}
 	id.Q = qText(q, len(m.States))
 	return id, nil

@@ -85,7 +85,11 @@ type SweepLine struct {
 	Equilibrium *OrderedStrings `json:"equilibrium"` // decimals; null without one
 	Status      string          `json:"status,omitempty"`
 	Class       string          `json:"class,omitempty"`
-	MaxRealEig  *float64        `json:"max_real_eig"`
+	// Own marks the model's own equilibrium (its "at" point, or the
+	// origin): the one whose verdict is the sweep's exit status unless
+	// every equilibrium is asked for.
+	Own        bool     `json:"own"`
+	MaxRealEig *float64 `json:"max_real_eig"`
 	// SpectralRadius is the largest |λ| of the map's Jacobian (discrete time).
 	SpectralRadius *float64 `json:"spectral_radius,omitempty"`
 	Verdict        string   `json:"verdict"`

@@ -17,9 +17,9 @@ import (
 // a > 0 (triangular, eigenvalues -a and -1: common practice).
 const stableSrc = "state x, y\nparameter a > 0\nx' = -a*x + y\ny' = -y\n"
 
-func axis(t testing.TB, s string) GridAxis {
+func axis(t testing.TB, s string, n int) GridAxis {
 	t.Helper()
-	a, err := ParseGridAxis(s)
+	a, err := ParseGridAxis(s, n)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -45,12 +45,12 @@ func run(t testing.TB, opts SweepOptions) []byte {
 	return b.Bytes()
 }
 
-func stableOpts(t testing.TB, file, src, grid string) SweepOptions {
-	return SweepOptions{File: file, Src: []byte(src), Grid: Grid{axis(t, grid)}, Jobs: 2}
+func stableOpts(t testing.TB, file, src, grid string, n int) SweepOptions {
+	return SweepOptions{File: file, Src: []byte(src), Grid: Grid{axis(t, grid, n)}, Jobs: 2}
 }
 
 func TestReadBack(t *testing.T) {
-	opts := stableOpts(t, "s.lya", stableSrc, "a=1:5:9")
+	opts := stableOpts(t, "s.lya", stableSrc, "a=1..5", 9)
 	data := run(t, opts)
 	f, err := Read("out.jsonl", data)
 	if err != nil {
@@ -79,9 +79,9 @@ func TestReadBack(t *testing.T) {
 // or damaged file could, and expects Read to refuse it with a message
 // naming the file and line.
 func TestReadRefuses(t *testing.T) {
-	opts := stableOpts(t, "s.lya", stableSrc, "a=1:5:9")
+	opts := stableOpts(t, "s.lya", stableSrc, "a=1..5", 9)
 	data := run(t, opts)
-	other := run(t, stableOpts(t, "s.lya", stableSrc, "a=1:4:9"))
+	other := run(t, stableOpts(t, "s.lya", stableSrc, "a=1..4", 9))
 	lines := strings.SplitAfter(string(data), "\n")
 	lines = lines[:len(lines)-1]
 	otherLines := strings.SplitAfter(string(other), "\n")
@@ -140,7 +140,7 @@ func TestIdentity(t *testing.T) {
 	// The model is identified by its canonical text: the path it was read
 	// from, comments and spacing do not matter; every input that changes
 	// the lines does.
-	grid := Grid{axis(t, "a=1:5:9")}
+	grid := Grid{axis(t, "a=1..5", 9)}
 	digest := func(file, src string, set []model.Setting, g Grid, q []*big.Rat, full bool) string {
 		id, err := NewIdentity(file, []byte(src), set, g, q, full)
 		if err != nil {
@@ -152,7 +152,7 @@ func TestIdentity(t *testing.T) {
 	same := []string{
 		digest("/some/where/else/t.lya", stableSrc, nil, grid, nil, false),
 		digest("s.lya", "# a comment\nstate x,y\nparameter a>0\nx' = y - a*x\ny'=-y\n", nil, grid, nil, false),
-		digest("s.lya", stableSrc, nil, Grid{axis(t, "a=2/2:10/2:9")}, nil, false),
+		digest("s.lya", stableSrc, nil, Grid{axis(t, "a=2/2..10/2", 9)}, nil, false),
 		digest("s.lya", stableSrc, nil, grid, []*big.Rat{big.NewRat(1, 1)}, false),
 	}
 	for i, d := range same {
@@ -162,7 +162,7 @@ func TestIdentity(t *testing.T) {
 	}
 	differ := []string{
 		digest("s.lya", strings.Replace(stableSrc, "-y\n", "-2*y\n", 1), nil, grid, nil, false),
-		digest("s.lya", stableSrc, nil, Grid{axis(t, "a=1:5:10")}, nil, false),
+		digest("s.lya", stableSrc, nil, Grid{axis(t, "a=1..5", 10)}, nil, false),
 		digest("s.lya", stableSrc, nil, grid, []*big.Rat{big.NewRat(2, 1)}, false),
 		digest("s.lya", stableSrc, nil, grid, nil, true),
 		digest("s.lya", "state x, y\nparameter a > 0\nparameter c > 0\nx' = -a*x + y\ny' = -c*y\n", []model.Setting{{Name: "c", Value: big.NewRat(1, 1)}}, grid, nil, false),
@@ -173,8 +173,8 @@ func TestIdentity(t *testing.T) {
 		}
 	}
 	// The lines, too, do not depend on the path.
-	a := run(t, stableOpts(t, "s.lya", stableSrc, "a=1:5:9"))
-	b := run(t, stableOpts(t, "../elsewhere/./copy.lya", stableSrc, "a=1:5:9"))
+	a := run(t, stableOpts(t, "s.lya", stableSrc, "a=1..5", 9))
+	b := run(t, stableOpts(t, "../elsewhere/./copy.lya", stableSrc, "a=1..5", 9))
 	if !bytes.Equal(a, b) {
 		t.Error("the lines depend on the model's path")
 	}
@@ -183,10 +183,10 @@ func TestIdentity(t *testing.T) {
 func TestMergeShards(t *testing.T) {
 	// The shards of a sweep merged give what one unsharded run gives, byte
 	// for byte (the promise of --shard).
-	whole := run(t, stableOpts(t, "s.lya", stableSrc, "a=1:5:9"))
+	whole := run(t, stableOpts(t, "s.lya", stableSrc, "a=1..5", 9))
 	var files []*File
 	for i := range 3 {
-		opts := stableOpts(t, "s.lya", stableSrc, "a=1:5:9")
+		opts := stableOpts(t, "s.lya", stableSrc, "a=1..5", 9)
 		opts.Shard = Shard{i, 3}
 		f, err := Read(fmt.Sprintf("s%d.jsonl", i), run(t, opts))
 		if err != nil {
@@ -208,7 +208,7 @@ func TestMergeShards(t *testing.T) {
 	if !errors.Is(err, ErrIncomplete) || !strings.Contains(err.Error(), "3 of 9 grid points missing (the first is 2)") {
 		t.Errorf("a shard missing: %v", err)
 	}
-	otherOpts := stableOpts(t, "s.lya", stableSrc, "a=1:4:9")
+	otherOpts := stableOpts(t, "s.lya", stableSrc, "a=1..4", 9)
 	otherOpts.Shard = Shard{2, 3}
 	other, _ := Read("other.jsonl", run(t, otherOpts))
 	if _, err := Merge([]*File{files[0], files[1], other}); err == nil || errors.Is(err, ErrIncomplete) || !strings.Contains(err.Error(), "not shards of one sweep") {
@@ -242,7 +242,7 @@ func TestMergeHugeOfAllocatesNothing(t *testing.T) {
 }
 
 func TestCheckResume(t *testing.T) {
-	opts := stableOpts(t, "s.lya", stableSrc, "a=1:5:9")
+	opts := stableOpts(t, "s.lya", stableSrc, "a=1..5", 9)
 	opts.Shard = Shard{1, 2}
 	opts.MaxPoints = 2
 	part := run(t, opts)
@@ -265,25 +265,25 @@ func TestCheckResume(t *testing.T) {
 	if err := f.CheckResume(id, opts.Grid, Shard{0, 2}); err == nil || !strings.Contains(err.Error(), "grid point 1 where 0 was expected") {
 		t.Errorf("another shard: %v", err)
 	}
-	otherID, _ := NewIdentity("s.lya", []byte(stableSrc), nil, Grid{axis(t, "a=1:6:9")}, nil, false)
-	if err := f.CheckResume(otherID, Grid{axis(t, "a=1:6:9")}, opts.Shard); err == nil || !strings.Contains(err.Error(), "not written by this sweep") {
+	otherID, _ := NewIdentity("s.lya", []byte(stableSrc), nil, Grid{axis(t, "a=1..6", 9)}, nil, false)
+	if err := f.CheckResume(otherID, Grid{axis(t, "a=1..6", 9)}, opts.Shard); err == nil || !strings.Contains(err.Error(), "not written by this sweep") {
 		t.Errorf("another sweep: %v", err)
 	}
 }
 
 func TestBounds(t *testing.T) {
 	// Sizes are refused from the numbers alone, before any allocation.
-	if _, err := ParseGridAxis("a=0:1:1000000000"); err == nil {
+	if _, err := ParseGridAxis("a=0..1", 1000000000); err == nil {
 		t.Error("an axis of 10⁹ points accepted")
 	}
-	g := Grid{axis(t, "a=0:1:100000"), axis(t, "b=0:1:100000")}
+	g := Grid{axis(t, "a=0..1", 100000), axis(t, "b=0..1", 100000)}
 	if _, err := g.Size(); err == nil {
 		t.Error("a grid of 10¹⁰ points accepted")
 	}
 	if _, err := ParseShard("0/1000000000"); err == nil {
 		t.Error("10⁹ shards accepted")
 	}
-	opts := stableOpts(t, "s.lya", stableSrc, "a=1:5:9")
+	opts := stableOpts(t, "s.lya", stableSrc, "a=1..5", 9)
 	opts.Jobs = MaxJobs() + 1
 	if _, err := Sweep(context.Background(), opts, func(SweepPoint) error { return nil }); err == nil {
 		t.Errorf("%d workers accepted", opts.Jobs)

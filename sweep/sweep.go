@@ -205,7 +205,7 @@ func sweepPoint(opts *SweepOptions, base *model.Model, index, size int, source s
 	for i := range search.Equilibria {
 		e := &search.Equilibria[i]
 		line := SweepLine{Index: index, Of: size, Params: params, Eq: i + 1, Eqs: eqs,
-			Equilibrium: equilibriumDecimals(m, e), Status: e.Status, Class: e.Class}
+			Equilibrium: equilibriumDecimals(m, e), Status: e.Status, Class: e.Class, Own: equilibria.IsOwn(m, e)}
 		if v := equilibria.MaxRealPart(e.Eigenvalues); !math.IsNaN(v) {
 			v = round6(v)
 			line.MaxRealEig = &v

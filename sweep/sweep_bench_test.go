@@ -12,18 +12,19 @@ func BenchmarkSweep(b *testing.B) {
 	cases := []struct {
 		name, model string
 		axes        []string
+		points      []int
 	}{
 		// three states, one rational equilibrium per point
-		{"companion3", "companion3.lya", []string{"a2=-1:3:20", "a1=1/2:3:10", "a0=-1:3:10"}},
+		{"companion3", "companion3.lya", []string{"a2=-1..3", "a1=1/2..3", "a0=-1..3"}, []int{20, 10, 10}},
 		// three states, the origin and (for r > 1) two irrational equilibria
-		{"lorenz", "lorenz-classic.lya", []string{"r=1/2:30:200"}},
+		{"lorenz", "lorenz-classic.lya", []string{"r=1/2..30"}, []int{200}},
 	}
 	for _, c := range cases {
 		b.Run(c.name, func(b *testing.B) {
 			src := readModel(b, c.model)
 			var grid Grid
-			for _, a := range c.axes {
-				ax, err := ParseGridAxis(a)
+			for i, a := range c.axes {
+				ax, err := ParseGridAxis(a, c.points[i])
 				if err != nil {
 					b.Fatal(err)
 				}

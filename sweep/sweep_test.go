@@ -75,8 +75,8 @@ func TestRouthHurwitzSweep(t *testing.T) {
 	// Hurwitz iff a₂ > 0, a₀ > 0 and a₂a₁ > a₀. Swept: a₂ and a₀; a₁ fixed.
 	src := readModel(t, "companion3.lya")
 	for _, a1 := range []string{"1", "5/2"} {
-		ax2, _ := ParseGridAxis("a2=-1:3:17")
-		ax0, _ := ParseGridAxis("a0=-1:4:21")
+		ax2, _ := ParseGridAxis("a2=-1..3", 17)
+		ax0, _ := ParseGridAxis("a0=-1..4", 21)
 		set := []model.Setting{{Name: "a1", Value: qrat(a1)}}
 		if err := CheckSweep("companion3.lya", src, set, Grid{ax2, ax0}); err != nil {
 			t.Fatal(err)
@@ -122,7 +122,7 @@ func TestLorenzSweep(t *testing.T) {
 	// origin is stable for r < 1; C± exist for r > 1 and are linearly stable
 	// for 1 < r < σ(σ + b + 3)/(σ − b − 1) = 470/19 ≈ 24.74.
 	src := readModel(t, "lorenz-classic.lya")
-	ax, _ := ParseGridAxis("r=1/4:30:40")
+	ax, _ := ParseGridAxis("r=1/4..30", 40)
 	lines := sweepLines(t, SweepOptions{File: "lorenz-classic.lya", Src: src, Grid: Grid{ax}, Jobs: 2})
 	hopf := big.NewRat(470, 19)
 	one := big.NewRat(1, 1)

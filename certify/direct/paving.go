@@ -138,7 +138,7 @@ func (res *Result) paveRegion(ctx context.Context, vars []int, opts PaveOptions)
 		box = append(box, pave.Side{Var: v, Range: side})
 	}
 	if len(unbounded) > 0 {
-		res.PavingNote = fmt.Sprintf("no paving: %s; give --box NAME=LO:HI for it", strings.Join(unbounded, ", "))
+		res.PavingNote = fmt.Sprintf("no paving: %s; give --box NAME=LO..HI for it", strings.Join(unbounded, ", "))
 		res.Notes = append(res.Notes, res.PavingNote)
 		if len(vars) == 1 {
 			res.regionFor(r.Name(vars[0]))

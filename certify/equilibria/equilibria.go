@@ -174,12 +174,18 @@ func requireFixed(m *model.Model, what string) error {
 	}
 	var errs poly.ErrorList
 	for _, p := range free {
-		errs.Add(p.Pos, "parameter %s is free; %s works at one parameter point: fix it (--set %s=VALUE) or sweep it (--grid %s=LO:HI:N)", p.Name, what, p.Name, p.Name)
+		errs.Add(p.Pos, "parameter %s is free; %s works at one parameter point: fix it (--set %s=VALUE) or sweep it (--grid %s=LO..HI --points N)", p.Name, what, p.Name, p.Name)
 	}
 	return errs.Err()
 }
 
 // atPoint returns the model's equilibrium as rationals (no free parameters).
+// IsOwn reports whether e is the model's own equilibrium: its "at" point,
+// or the origin, found exactly.
+func IsOwn(m *model.Model, e *Equilibrium) bool {
+	return e.Status == EquilibriumExact && slices.EqualFunc(e.Point, atPoint(m), func(a, b *big.Rat) bool { return a.Cmp(b) == 0 })
+}
+
 func atPoint(m *model.Model) []*big.Rat {
 	zero := make([]*big.Rat, m.Ring.NumVars())
 	for i := range zero {

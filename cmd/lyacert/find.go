@@ -74,32 +74,26 @@ func parseQ(s string, n int) ([]*big.Rat, error) {
 func (c *findCmd) run(e *env) int {
 	name, src, err := readInput(c.File, e.stdin)
 	if err != nil {
-		fmt.Fprintln(e.stderr, "lyacert:", err)
-		return exitInput
+		return e.fail(exitInput, err)
 	}
 	settings, err := parseSettings(c.Set)
 	if err != nil {
-		fmt.Fprintln(e.stderr, "lyacert:", err)
-		return exitInput
+		return e.fail(exitInput, err)
 	}
 	m, err := model.Parse(name, src, settings...)
 	if err != nil {
-		printInputError(e.stderr, err)
-		return exitInput
+		return e.fail(exitInput, err)
 	}
 	q, err := parseQ(c.Q, len(m.States))
 	if err != nil {
-		fmt.Fprintln(e.stderr, "lyacert:", err)
-		return exitInput
+		return e.fail(exitInput, err)
 	}
 	res, err := equilibria.Find(m, equilibria.FindOptions{Q: q, All: c.All, Source: name})
 	if err != nil {
 		if errors.Is(err, certify.ErrUnverified) {
-			fmt.Fprintln(e.stderr, "lyacert:", err)
-			return exitFails
+			return e.fail(exitRejected, err)
 		}
-		printInputError(e.stderr, err)
-		return exitInput
+		return e.fail(exitInput, err)
 	}
 	written := make([]string, len(res.Certs))
 	if c.Out != "" {
@@ -115,8 +109,7 @@ func (c *findCmd) run(e *env) int {
 				path = strings.TrimSuffix(path, ext) + "-" + strconv.Itoa(k) + ext
 			}
 			if err := certificates.WriteFile(ct.Doc, path); err != nil {
-				fmt.Fprintln(e.stderr, "lyacert: writing the certificate:", err)
-				return exitInput
+				return e.failf(exitInput, "writing the certificate: %w", err)
 			}
 			written[i] = path
 		}

@@ -4,11 +4,11 @@ import (
 	"crypto/ed25519"
 	"errors"
 	"fmt"
-	"io"
 	"strings"
 
 	"lyacert/certificates"
 	"lyacert/checker"
+	"lyacert/report"
 )
 
 // keyCmd groups the key commands.
@@ -17,10 +17,12 @@ type keyCmd struct {
 }
 
 type keyNewCmd struct {
+	common
 	Out string `short:"o" name:"out" required:"" placeholder:"NAME" help:"Name of the key pair: the private key goes to NAME.key, the public key to NAME.pub.pem."`
 }
 
 type signCmd struct {
+	common
 	Cert string `arg:"" placeholder:"CERT" help:"Certificate file (JSON)."`
 	Key  string `name:"key" required:"" placeholder:"KEY" help:"Private key file: PEM, PKCS #8, ed25519 (NAME.key from lyacert key new)."`
 	Out  string `short:"o" name:"out" placeholder:"OUT" help:"Write the signed certificate here; by default CERT is rewritten in place (atomically)."`
@@ -40,53 +42,57 @@ func (c *signCmd) Run(e *env) error { return exit(c.run(e)) }
 func (c *keyNewCmd) run(e *env) int {
 	pub, priv, err := certificates.GenerateKey()
 	if err != nil {
-		fmt.Fprintln(e.stderr, "lyacert: generating a key:", err)
-		return exitInput
+		return e.failf(exitInput, "generating a key: %w", err)
 	}
 	privPath, pubPath, err := certificates.WriteKeyPair(c.Out, pub, priv)
 	if err != nil {
-		fmt.Fprintln(e.stderr, "lyacert:", err)
-		return exitInput
+		return e.fail(exitInput, err)
 	}
-	fmt.Fprintf(e.stdout, "wrote the private key %s (keep it secret) and the public key %s\n  fingerprint %s\n", privPath, pubPath, certificates.Fingerprint(pub))
+	k := report.KeyOutput{PrivateKey: privPath, PublicKey: pubPath, Fingerprint: certificates.Fingerprint(pub)}
+	if c.JSON {
+		writeJSON(e.stdout, k)
+	} else {
+		report.KeyText(e.stdout, k)
+	}
 	return exitHolds
 }
 
 func (c *signCmd) run(e *env) int {
 	key, err := certificates.ReadPrivateKeyFile(c.Key)
 	if err != nil {
-		fmt.Fprintln(e.stderr, "lyacert:", err)
-		return exitInput
+		return e.fail(exitInput, err)
 	}
 	name, src, err := readInput(c.Cert, e.stdin)
 	if err != nil {
-		fmt.Fprintln(e.stderr, "lyacert:", err)
-		return exitInput
+		return e.fail(exitInput, err)
 	}
 	doc, err := checker.Read(strings.NewReader(string(src)))
 	if err != nil {
-		fmt.Fprintf(e.stderr, "lyacert: %s: %v\n", name, err)
-		return exitInput
+		return e.failf(exitInput, "%s: %w", name, err)
 	}
 	// A signature vouches for the content: only a certificate that the
 	// checker accepts is signed.
 	old := doc.Signature
 	doc.Signature = nil
 	if res := checker.Verify(doc); !res.Valid {
-		renderVerify(e.stderr, name, doc, res)
-		fmt.Fprintf(e.stderr, "lyacert: %s: not signed: the checker rejects the certificate\n", name)
-		return exitFails
+		if !e.json {
+			report.VerifyText(e.stderr, name, doc, res, report.Trust{})
+		}
+		return e.failf(exitRejected, "%s: not signed: the checker rejects the certificate", name)
 	}
 	if err := certificates.Sign(doc, key); err != nil {
-		fmt.Fprintf(e.stderr, "lyacert: %s: %v\n", name, err)
-		return exitFails
+		return e.failf(exitInput, "%s: %w", name, err)
 	}
+	so := report.SignOutput{Certificate: c.Cert, Digest: doc.Digest, Fingerprint: certificates.Fingerprint(key.Public().(ed25519.PublicKey))}
 	if old != nil {
+		replaced := "a malformed signature"
 		if pub, err := (&checker.Document{Signature: old}).Signer(); err == nil {
-			fmt.Fprintf(e.stderr, "lyacert: %s: replacing the signature by key %s\n", name, certificates.Fingerprint(pub))
+			replaced = certificates.Fingerprint(pub)
+			fmt.Fprintf(e.stderr, "lyacert: %s: replacing the signature by key %s\n", name, replaced)
 		} else {
 			fmt.Fprintf(e.stderr, "lyacert: %s: replacing a malformed signature\n", name)
 		}
+		so.Replaced = &replaced
 	}
 	out := c.Out
 	if out == "" {
@@ -95,17 +101,23 @@ func (c *signCmd) run(e *env) int {
 	if out == "-" {
 		b, err := certificates.Marshal(doc)
 		if err != nil {
-			fmt.Fprintln(e.stderr, "lyacert:", err)
-			return exitInput
+			return e.fail(exitInput, err)
+		}
+		if c.JSON {
+			return e.failf(exitInput, "-o - writes the certificate to standard output: it cannot be combined with --json")
 		}
 		e.stdout.Write(b)
 		return exitHolds
 	}
 	if err := certificates.WriteFile(doc, out); err != nil {
-		fmt.Fprintln(e.stderr, "lyacert: writing the certificate:", err)
-		return exitInput
+		return e.failf(exitInput, "writing the certificate: %w", err)
 	}
-	fmt.Fprintf(e.stdout, "signed %s with key %s\n  digest %s\n", out, certificates.Fingerprint(key.Public().(ed25519.PublicKey)), doc.Digest)
+	so.Output = out
+	if c.JSON {
+		writeJSON(e.stdout, so)
+	} else {
+		report.SignText(e.stdout, so)
+	}
 	return exitHolds
 }
 
@@ -142,8 +154,7 @@ func signWritten(out string, key ed25519.PrivateKey, code int, asJSON bool, e *e
 		err = certificates.WriteFile(doc, out)
 	}
 	if err != nil {
-		fmt.Fprintln(e.stderr, "lyacert: signing the certificate:", err)
-		return exitInput
+		return e.failf(exitInput, "signing the certificate: %w", err)
 	}
 	w := e.stdout
 	if asJSON {
@@ -166,43 +177,27 @@ func readTrusted(paths []string) ([]ed25519.PublicKey, error) {
 	return keys, nil
 }
 
-// applyTrust adds the trust check of verify --trust to the checker's
-// result: a valid signature by one of the trusted keys is required. Without
-// trusted keys the result is unchanged (Verify has already checked a
-// present signature).
-func applyTrust(doc *checker.Document, res checker.Outcome, trusted []ed25519.PublicKey) checker.Outcome {
-	if len(trusted) == 0 {
-		return res
+// trustOf checks the signature against the keys of verify --trust; the
+// mathematics is checker.Verify's. Without trusted keys only the signer is
+// named (Verify has already checked a present signature).
+func trustOf(doc *checker.Document, trusted []ed25519.PublicKey) report.Trust {
+	t := report.Trust{Required: len(trusted) > 0}
+	if pub, err := doc.Signer(); err == nil {
+		t.Signer = certificates.Fingerprint(pub)
+	}
+	if !t.Required {
+		return t
 	}
 	pub, err := certificates.VerifyTrusted(doc, trusted)
-	ch := checker.Record{Name: "trust", OK: err == nil}
 	switch {
 	case err == nil:
-		ch.Reason = "signed by the trusted key " + certificates.Fingerprint(pub)
+		t.Trusted, t.Signer = true, certificates.Fingerprint(pub)
 	case errors.Is(err, checker.ErrUnsigned):
-		ch.Reason = "no signature, but --trust requires one by a trusted key"
+		t.Reason = "the certificate is not signed, and --trust requires a signature by a trusted key"
+	case errors.Is(err, certificates.ErrUntrusted):
+		t.Reason = "it is signed by key " + t.Signer + ", which is none of the keys given with --trust"
 	default:
-		ch.Reason = err.Error()
+		t.Reason = err.Error()
 	}
-	res.Records = append(res.Records, ch)
-	if !ch.OK {
-		res.Valid = false
-	}
-	return res
-}
-
-// renderSigner says who signed a valid certificate, after verify's text.
-func renderSigner(w io.Writer, doc *checker.Document, res checker.Outcome, trusted bool) {
-	if !res.Valid {
-		return
-	}
-	pub, err := doc.Signer()
-	switch {
-	case err != nil:
-		fmt.Fprintln(w, "  not signed")
-	case trusted:
-		fmt.Fprintf(w, "  signed by the trusted key %s\n", certificates.Fingerprint(pub))
-	default:
-		fmt.Fprintf(w, "  signed by key %s (signature valid; use --trust KEY.pub.pem to require a trusted signer)\n", certificates.Fingerprint(pub))
-	}
+	return t
 }

@@ -1,32 +1,46 @@
 package main
 
 import (
+	"context"
 	"encoding/json"
 	"errors"
 	"fmt"
 	"io"
 	"lyacert/certificates"
-	"lyacert/certify/direct"
 	"os"
 	"slices"
 	"strings"
 
 	"github.com/alecthomas/kong"
+	"github.com/willabides/kongplete"
 
 	"lyacert/certify"
 	"lyacert/checker"
 	"lyacert/examples"
 	"lyacert/model"
-	"lyacert/poly"
 	"lyacert/report"
 )
 
-// Exit codes.
+// Exit codes: each says what happened (the README and --help list them).
 const (
-	exitHolds = 0 // the claim holds for every allowed parameter value
-	exitFails = 1 // it does not, holds only on part of the range, or is undecided
-	exitInput = 2 // bad input or usage
+	exitHolds     = 0 // the claim holds for every allowed parameter value
+	exitFails     = 1 // it does not, holds only on part of the range, or is undecided
+	exitInput     = 2 // bad input or usage, or an input limit reached
+	exitStopped   = 3 // the run stopped early (timeout, interrupt, --max-points): continue with --resume
+	exitMissing   = 4 // merge: shards are missing
+	exitRejected  = 5 // verify (sign, report): the certificate failed verification
+	exitUntrusted = 6 // verify --trust: the mathematics passed, the signer is not trusted
 )
+
+// exitCodesText closes the top-level and per-command help.
+const exitCodesText = `Exit codes:
+  0  the claim holds for every allowed parameter value
+  1  the claim does not hold, holds only on part of the range, or is undecided
+  2  bad input or usage (an input limit reached too)
+  3  stopped early (--timeout, interrupt, --max-points); continue with --resume
+  4  merge: shards are missing
+  5  the certificate failed verification (altered, or its mathematics is wrong)
+  6  verify --trust: the mathematics passed but the signer is not trusted`
 
 const description = `lyacert checks Lyapunov-function certificates for polynomial dynamical systems.
 
@@ -38,16 +52,17 @@ Examples:
   lyacert demo                                   run the built-in demo model
   lyacert check model.lya                        check the candidate V in model.lya
   lyacert check model.lya --set r=1/2 -o c.json  fix a parameter, write a certificate
-  lyacert check model.lya --box a=0:2 --plot region.svg   pave a region in two parameters
+  lyacert check model.lya --box a=0..2 --plot region.svg  pave a region in two parameters
   lyacert check - < model.lya                    read the model from standard input
   lyacert verify c.json                          re-check a certificate
   lyacert find model.lya --set r=20 -o c.json    find equilibria, certify one from the linearization
-  lyacert sweep model.lya --grid r=0:30:61 -o r.jsonl   certify over a parameter grid
+  lyacert sweep model.lya --grid r=0..30 --points 61 -o r.jsonl   certify over a grid
   lyacert report c.json --format html -o c.html  a report for a review or a safety case
   lyacert check model.lya --json                 machine-readable output
+  lyacert help sweep                             help on one command, with examples
+  source <(lyacert completion bash)              shell completion (bash, zsh, fish)
 
-Exit codes: 0 the claim holds for every allowed parameter value; 1 it does not
-(or only on part of the range, or undecided); 2 bad input or usage.`
+` + exitCodesText
 
 // caution closes the text of every command that states a verdict.
 const caution = report.Caution
@@ -98,6 +113,25 @@ type common struct {
 type env struct {
 	stdin          io.Reader
 	stdout, stderr io.Writer
+	// json is set when the command runs with --json: errors are then a
+	// JSON document on standard output (report.ErrorJSON).
+	json bool
+}
+
+// fail reports err and returns code: with --json as report.ErrorJSON's
+// document on standard output, else as text on standard error.
+func (e *env) fail(code int, err error) int {
+	if e.json {
+		writeJSON(e.stdout, report.ErrorJSON(err, code))
+	} else {
+		report.ErrorText(e.stderr, err)
+	}
+	return code
+}
+
+// failf is fail with a formatted message.
+func (e *env) failf(code int, format string, args ...any) int {
+	return e.fail(code, fmt.Errorf(format, args...))
 }
 
 // status is an exit code returned by a command as an error.
@@ -106,11 +140,25 @@ type status int
 func (s status) Error() string { return fmt.Sprintf("exit status %d", int(s)) }
 
 func main() {
-	os.Exit(run(os.Args[1:], &env{os.Stdin, os.Stdout, os.Stderr}))
+	os.Exit(run(os.Args[1:], &env{stdin: os.Stdin, stdout: os.Stdout, stderr: os.Stderr}))
 }
 
 // exitCode carries an exit code out of kong's help and version handling.
 type exitCode int
+
+// wantsJSON reports whether the arguments ask for JSON; it decides the
+// form of errors met before the flags are parsed.
+func wantsJSON(args []string) bool {
+	for _, a := range args {
+		if a == "--" {
+			return false
+		}
+		if a == "--json" || a == "--json=true" {
+			return true
+		}
+	}
+	return false
+}
 
 func run(args []string, e *env) (code int) {
 	var c cli
@@ -123,27 +171,31 @@ func run(args []string, e *env) (code int) {
 			panic(r)
 		}
 	}()
+	e.json = wantsJSON(args)
 	opts := []kong.Option{
 		kong.Name("lyacert"),
 		kong.Description(description),
 		kong.Vars{"version": "lyacert " + certify.Version},
 		kong.Writers(e.stdout, e.stderr),
 		kong.Exit(func(n int) { panic(exitCode(n)) }),
-		kong.UsageOnError(),
 		kong.Bind(e),
+		kong.ConfigureHelp(kong.HelpOptions{Compact: true}),
+	}
+	if !e.json {
+		opts = append(opts, kong.UsageOnError())
 	}
 	for _, cmd := range orderedCommands() {
 		opts = append(opts, kong.DynamicCommand(cmd.name, cmd.help, "", cmd.make()))
 	}
 	parser, err := kong.New(&c, opts...)
 	if err != nil {
-		fmt.Fprintln(e.stderr, "lyacert:", err)
-		return exitInput
+		return e.fail(exitInput, err)
 	}
+	// A shell asking for completions (COMP_LINE set) is answered here.
+	kongplete.Complete(parser, kongplete.WithExitFunc(func(n int) { panic(exitCode(n)) }))
 	ctx, err := parser.Parse(args)
 	if err != nil {
-		fmt.Fprintln(e.stderr, "lyacert:", err)
-		return exitInput
+		return e.fail(exitInput, err)
 	}
 	err = ctx.Run(e)
 	var st status
@@ -153,8 +205,7 @@ func run(args []string, e *env) (code int) {
 	case errors.As(err, &st):
 		return int(st)
 	}
-	fmt.Fprintln(e.stderr, "lyacert:", err)
-	return exitInput
+	return e.fail(exitInput, err)
 }
 
 // exit turns an exit code into a command's result.
@@ -204,15 +255,13 @@ func (c *demoCmd) Run(e *env) error { return exit(c.run(e)) }
 func (c *checkCmd) run(e *env) int {
 	name, src, err := readInput(c.File, e.stdin)
 	if err != nil {
-		fmt.Fprintln(e.stderr, "lyacert:", err)
-		return exitInput
+		return e.fail(exitInput, err)
 	}
 	var settings []model.Setting
 	for _, s := range c.Set {
 		st, err := model.ParseSetting(s)
 		if err != nil {
-			fmt.Fprintln(e.stderr, "lyacert:", err)
-			return exitInput
+			return e.fail(exitInput, err)
 		}
 		settings = append(settings, st)
 	}
@@ -235,8 +284,7 @@ func (c *demoCmd) run(e *env) int {
 	}
 	if c.Report != "" && code != exitInput {
 		if err := writeDemoReports(c.Report, e); err != nil {
-			fmt.Fprintln(e.stderr, "lyacert: writing the demo's reports:", err)
-			return exitInput
+			return e.failf(exitInput, "writing the demo's reports: %w", err)
 		}
 	}
 	return code
@@ -262,27 +310,22 @@ func checkModel(name string, src []byte, settings []model.Setting, out string, a
 func runCheck(name string, src []byte, settings []model.Setting, out string, asJSON bool, e *env, pf *paveFlags) (code int, ran bool) {
 	m, err := model.Parse(name, src, settings...)
 	if err != nil {
-		printInputError(e.stderr, err)
-		return exitInput, false
+		return e.fail(exitInput, err), false
 	}
 	res, err := pf.check(m, name, e)
 	if err != nil {
-		if errors.Is(err, certify.ErrUnverified) {
-			fmt.Fprintln(e.stderr, "lyacert:", err)
-			return exitFails, false
+		switch {
+		case errors.Is(err, certify.ErrUnverified):
+			return e.fail(exitRejected, err), false
+		case errors.Is(err, context.Canceled), errors.Is(err, context.DeadlineExceeded):
+			return e.fail(exitStopped, err), false
 		}
-		if errors.Is(err, direct.ErrPaveOptions) {
-			fmt.Fprintln(e.stderr, "lyacert:", err)
-			return exitInput, false
-		}
-		printInputError(e.stderr, err)
-		return exitInput, false
+		return e.fail(exitInput, err), false
 	}
 	written := ""
 	if out != "" {
 		if err := certificates.WriteFile(res.Doc, out); err != nil {
-			fmt.Fprintln(e.stderr, "lyacert: writing the certificate:", err)
-			return exitInput, false
+			return e.failf(exitInput, "writing the certificate: %w", err), false
 		}
 		written = out
 	}
@@ -300,44 +343,33 @@ func runCheck(name string, src []byte, settings []model.Setting, out string, asJ
 	return exitFails, true
 }
 
-func printInputError(w io.Writer, err error) {
-	var list poly.ErrorList
-	if errors.As(err, &list) {
-		for _, e := range list {
-			fmt.Fprintln(w, e)
-		}
-		return
-	}
-	fmt.Fprintln(w, strings.TrimPrefix(err.Error(), "lyacert: "))
-}
-
 func (c *verifyCmd) run(e *env) int {
 	name, src, err := readInput(c.Cert, e.stdin)
 	if err != nil {
-		fmt.Fprintln(e.stderr, "lyacert:", err)
-		return exitInput
+		return e.fail(exitInput, err)
 	}
 	doc, err := checker.Read(strings.NewReader(string(src)))
 	if err != nil {
-		fmt.Fprintf(e.stderr, "lyacert: %s: %v\n", name, err)
-		return exitInput
+		return e.failf(exitInput, "%s: %w", name, err)
 	}
 	trusted, err := readTrusted(c.Trust)
 	if err != nil {
-		fmt.Fprintln(e.stderr, "lyacert:", err)
-		return exitInput
+		return e.fail(exitInput, err)
 	}
-	res := applyTrust(doc, checker.Verify(doc), trusted)
+	res := checker.Verify(doc)
+	trust := trustOf(doc, trusted)
 	if c.JSON {
-		writeJSON(e.stdout, report.VerifyJSON(doc, res))
+		writeJSON(e.stdout, report.VerifyJSON(doc, res, trust))
 	} else {
-		report.VerifyText(e.stdout, name, doc, res)
-		renderSigner(e.stdout, doc, res, len(trusted) > 0)
+		report.VerifyText(e.stdout, name, doc, res, trust)
 	}
-	if res.Valid {
-		return exitHolds
+	switch {
+	case !res.Valid:
+		return exitRejected
+	case trust.Required && !trust.Trusted:
+		return exitUntrusted
 	}
-	return exitFails
+	return exitHolds
 }
 
 func writeJSON(w io.Writer, v any) {
@@ -345,10 +377,4 @@ func writeJSON(w io.Writer, v any) {
 	enc.SetEscapeHTML(false)
 	enc.SetIndent("", "  ")
 	enc.Encode(v)
-}
-
-// renderVerify writes a re-check for people; sign reports a rejected
-// certificate with it.
-func renderVerify(w io.Writer, name string, doc *checker.Document, res checker.Outcome) {
-	report.VerifyText(w, name, doc, res)
 }

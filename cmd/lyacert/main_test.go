@@ -1,7 +1,10 @@
 package main
 
 import (
+	"errors"
 	"os"
+	"os/exec"
+	"strconv"
 	"testing"
 
 	"github.com/rogpeppe/go-internal/testscript"
@@ -11,7 +14,7 @@ import (
 // testdata/script runs lyacert and compares its output and exit code.
 func TestMain(m *testing.M) {
 	testscript.Main(m, map[string]func(){
-		"lyacert": func() { os.Exit(run(os.Args[1:], &env{os.Stdin, os.Stdout, os.Stderr})) },
+		"lyacert": func() { os.Exit(run(os.Args[1:], &env{stdin: os.Stdin, stdout: os.Stdout, stderr: os.Stderr})) },
 	})
 }
 
@@ -25,6 +28,30 @@ func TestScripts(t *testing.T) {
 			// The demo models, as files.
 			e.Setenv("EXAMPLES", mustAbs("../../examples"))
 			return nil
+		},
+		Cmds: map[string]func(ts *testscript.TestScript, neg bool, args []string){
+			// exits N PROG ARGS... runs PROG as exec does and requires exit
+			// status N (the exit codes are part of the interface).
+			"exits": func(ts *testscript.TestScript, neg bool, args []string) {
+				if neg || len(args) < 2 {
+					ts.Fatalf("usage: exits N PROG [ARGS...]")
+				}
+				want, err := strconv.Atoi(args[0])
+				if err != nil {
+					ts.Fatalf("exits: %v", err)
+				}
+				got := 0
+				if err := ts.Exec(args[1], args[2:]...); err != nil {
+					var ee *exec.ExitError
+					if !errors.As(err, &ee) {
+						ts.Fatalf("exits: %v", err)
+					}
+					got = ee.ExitCode()
+				}
+				if got != want {
+					ts.Fatalf("exit status %d, want %d", got, want)
+				}
+			},
 		},
 	})
 }

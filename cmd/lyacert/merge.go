@@ -3,21 +3,22 @@ package main
 import (
 	"bytes"
 	"errors"
-	"fmt"
 	"os"
 	"path/filepath"
 	"slices"
 	"strings"
 
 	"lyacert/certificates"
-	"lyacert/checker"
+	"lyacert/report"
 	"lyacert/sweep"
 )
 
 type mergeCmd struct {
-	Files []string `arg:"" placeholder:"OUT.jsonl" help:"Outputs of the shards of one sweep (lyacert sweep --shard i/N -o ...)."`
-	Out   string   `short:"o" name:"out" placeholder:"ALL.jsonl" help:"Write the merged lines to this file (atomically); standard output when omitted."`
-	Plot  string   `name:"plot" placeholder:"FILE" help:"Plot the merged verdicts (.svg, .png or .pdf), as sweep --plot does."`
+	common
+	Files         []string `arg:"" placeholder:"OUT.jsonl" help:"Outputs of the shards of one sweep (lyacert sweep --shard i/N -o ...)."`
+	Out           string   `short:"o" name:"out" placeholder:"ALL.jsonl" help:"Write the merged lines to this file (atomically); standard output when omitted."`
+	Plot          string   `name:"plot" placeholder:"FILE" help:"Plot the merged verdicts (.svg, .png or .pdf), as sweep --plot does."`
+	AllEquilibria bool     `name:"all-equilibria" help:"Exit 0 only if every equilibrium at every grid point is certified stable (default: the model's own), as for sweep."`
 }
 
 func init() {
@@ -29,8 +30,7 @@ func (c *mergeCmd) Run(e *env) error { return exit(c.run(e)) }
 
 func (c *mergeCmd) run(e *env) int {
 	fail := func(code int, format string, args ...any) int {
-		fmt.Fprintf(e.stderr, "lyacert: merge: "+format+"\n", args...)
-		return code
+		return e.failf(code, "merge: "+format, args...)
 	}
 	if c.Plot != "" && !slices.Contains([]string{".svg", ".png", ".pdf"}, strings.ToLower(filepath.Ext(c.Plot))) {
 		return fail(exitInput, "--plot %s: the file must end in .svg, .png or .pdf", c.Plot)
@@ -49,7 +49,7 @@ func (c *mergeCmd) run(e *env) int {
 	}
 	merged, err := sweep.Merge(files)
 	if errors.Is(err, sweep.ErrIncomplete) {
-		return fail(exitFails, "%v", err)
+		return fail(exitMissing, "%v", err)
 	}
 	if err != nil {
 		return fail(exitInput, "%v", err)
@@ -58,14 +58,15 @@ func (c *mergeCmd) run(e *env) int {
 	merged.WriteTo(&buf)
 	var points []gridPoint
 	allHold := true
+	verdicts := map[string]int{}
 	for _, b := range merged.Blocks {
 		lines := b.Lines()
 		for _, l := range lines {
-			if l.Verdict != checker.VerdictHolds {
-				allHold = false
-			}
+			verdicts[l.Verdict]++
 		}
-		points = append(points, gridPointOf(b.Index, lines))
+		p := gridPointOf(b.Index, lines)
+		allHold = allHold && p.holds(c.AllEquilibria)
+		points = append(points, p)
 	}
 	if c.Out == "" {
 		e.stdout.Write(buf.Bytes())
@@ -80,8 +81,21 @@ func (c *mergeCmd) run(e *env) int {
 			return fail(exitInput, "plot: %v", err)
 		}
 	}
+	sum := report.MergeSummary{Files: c.Files, GridPoints: merged.Of, Verdicts: verdicts, Holds: allHold}
 	if c.Out != "" {
-		fmt.Fprintf(e.stdout, "Merged %d grid points from %d files into %s\n", merged.Of, len(c.Files), c.Out)
+		sum.Output = &c.Out
+	}
+	if c.Plot != "" {
+		sum.Plot = &c.Plot
+	}
+	w := e.stdout
+	if c.Out == "" {
+		w = e.stderr // standard output holds the lines
+	}
+	if c.JSON {
+		writeJSON(w, report.MergeJSON(sum))
+	} else if c.Out != "" {
+		report.MergeText(w, sum)
 	}
 	if allHold {
 		return exitHolds

@@ -23,7 +23,7 @@ import (
 
 // paveFlags are the options of check for regions in several parameters.
 type paveFlags struct {
-	Box        []string `name:"box" placeholder:"NAME=LO:HI" help:"Pave this range of a parameter instead of its allowed range (repeatable), e.g. --box r=0:2."`
+	Box        []string `name:"box" placeholder:"NAME=LO..HI" help:"Pave this range of a parameter instead of its allowed range (repeatable), e.g. --box r=0..2."`
 	Resolution string   `name:"resolution" default:"1/256" placeholder:"P/Q" help:"Halve boxes until each side is at most this share of the box's side."`
 	Plot       string   `name:"plot" placeholder:"FILE.svg|FILE.png" help:"Draw the paving (two parameters, or a 2-D slice) to this file."`
 	Slice      []string `name:"slice" placeholder:"NAME=VALUE" help:"For more than two paved parameters: fix all but two for the plot (repeatable)."`
@@ -49,11 +49,9 @@ func (pf *paveFlags) options(e *env) (direct.PaveOptions, error) {
 	o.Workers = pf.Workers
 	o.Box = map[string][2]*big.Rat{}
 	for _, s := range pf.Box {
-		name, rng, ok := strings.Cut(s, "=")
-		lo, hi, ok2 := strings.Cut(rng, ":")
-		name = strings.TrimSpace(name)
-		if !ok || !ok2 || name == "" {
-			return o, fmt.Errorf("--box %q: expected NAME=LO:HI, e.g. r=0:2", s)
+		name, lo, hi, err := parseBox(s)
+		if err != nil {
+			return o, err
 		}
 		if _, dup := o.Box[name]; dup {
 			return o, fmt.Errorf("--box %s: given twice", name)
@@ -74,6 +72,23 @@ func (pf *paveFlags) options(e *env) (direct.PaveOptions, error) {
 		}
 	}
 	return o, nil
+}
+
+// parseBox reads a --box range "NAME=LO..HI". The colon form of earlier
+// versions is refused with the new spelling (a colon reads start:step:stop
+// to many engineers).
+func parseBox(s string) (name, lo, hi string, err error) {
+	name, rng, ok := strings.Cut(s, "=")
+	name = strings.TrimSpace(name)
+	if ok && name != "" && strings.Contains(rng, ":") {
+		l, h, _ := strings.Cut(rng, ":")
+		return "", "", "", fmt.Errorf("--box %q: ranges are now written with two dots: --box %s=%s..%s", s, name, strings.TrimSpace(l), strings.TrimSpace(h))
+	}
+	lo, hi, ok2 := strings.Cut(rng, "..")
+	if !ok || !ok2 || name == "" || strings.Contains(hi, "..") || strings.HasPrefix(hi, ".") {
+		return "", "", "", fmt.Errorf("--box %q: expected NAME=LO..HI, e.g. --box r=0..2", s)
+	}
+	return name, lo, hi, nil
 }
 
 // constant reads an exact number or constant expression such as 1/256, -2, 0.35.
@@ -135,8 +150,7 @@ func (pf *paveFlags) finish(res *direct.Result, e *env) int {
 		return 0
 	}
 	if err := writePlot(pf.Plot, res.Region.Paving, pf.Slice); err != nil {
-		fmt.Fprintln(e.stderr, "lyacert: --plot:", err)
-		return exitInput
+		return e.failf(exitInput, "--plot: %w", err)
 	}
 	return 0
 }

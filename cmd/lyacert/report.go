@@ -18,6 +18,7 @@ import (
 )
 
 type reportCmd struct {
+	common
 	Cert          string `arg:"" placeholder:"CERT" help:"Certificate file (JSON), or - for standard input."`
 	Format        string `name:"format" default:"md" enum:"md,tex,html" help:"Report format: md (GitHub Markdown), tex (LaTeX), html (one self-contained page)."`
 	WholeDocument bool   `name:"whole-document" help:"With --format tex: a whole LaTeX document (preamble, \\begin{document} ... \\end{document}) instead of a fragment."`
@@ -39,32 +40,54 @@ func checkerName() string { return "lyacert " + certify.Version }
 func (c *reportCmd) run(e *env) int {
 	format, err := report.ParseFormat(c.Format)
 	if err != nil {
-		fmt.Fprintln(e.stderr, "lyacert:", err)
-		return exitInput
+		return e.fail(exitInput, err)
 	}
 	if c.OldWholeDocument {
-		fmt.Fprintln(e.stderr, "lyacert: --standalone is now written --whole-document")
-		return exitInput
+		return e.failf(exitInput, "--standalone is now written --whole-document")
 	}
 	if c.WholeDocument && format != report.LaTeX {
-		fmt.Fprintln(e.stderr, "lyacert: --whole-document applies to --format tex only")
-		return exitInput
+		return e.failf(exitInput, "--whole-document applies to --format tex only")
 	}
 	name, src, err := readInput(c.Cert, e.stdin)
 	if err != nil {
-		fmt.Fprintln(e.stderr, "lyacert:", err)
-		return exitInput
+		return e.fail(exitInput, err)
 	}
 	doc, err := checker.Read(bytes.NewReader(src))
 	if err != nil {
-		fmt.Fprintf(e.stderr, "lyacert: %s: %v\n", name, err)
-		return exitInput
+		return e.failf(exitInput, "%s: %w", name, err)
 	}
 	opts := report.Options{Format: format, WholeDocument: c.WholeDocument, Checker: checkerName(), CertName: name}
+	ro := report.ReportOutput{Format: string(format), Figures: []string{}, Digest: doc.Digest}
 	if c.Out != "" {
-		opts.Figure = figureBeside(c.Out)
+		fig := figureBeside(c.Out)
+		opts.Figure = func(name string, data []byte) (string, error) {
+			base, err := fig(name, data)
+			if err == nil {
+				ro.Figures = append(ro.Figures, filepath.Join(filepath.Dir(c.Out), base))
+			}
+			return base, err
+		}
 	}
-	return writeReport(doc, opts, c.Out, e)
+	if !c.JSON {
+		return writeReport(doc, opts, c.Out, e)
+	}
+	// With --json the report goes to -o, or into the JSON's "content".
+	var buf bytes.Buffer
+	code := writeReport(doc, opts, c.Out, &env{stdin: e.stdin, stdout: &buf, stderr: e.stderr, json: true})
+	if code == exitInput || code == exitRejected {
+		e.stdout.Write(buf.Bytes()) // the error's JSON
+		return code
+	}
+	if c.Out != "" {
+		ro.Output = &c.Out
+	} else {
+		content := buf.String()
+		ro.Content = &content
+	}
+	out := checker.Verify(doc)
+	ro.Verdict, ro.Claim = out.Verdict, out.Kind
+	writeJSON(e.stdout, ro)
+	return code
 }
 
 // figureBeside writes a report's plots next to the report file, named after
@@ -84,17 +107,15 @@ func figureBeside(out string) func(string, []byte) (string, error) {
 func writeReport(doc *checker.Document, opts report.Options, out string, e *env) int {
 	var buf bytes.Buffer
 	if err := report.Render(&buf, doc, opts); err != nil {
-		fmt.Fprintf(e.stderr, "lyacert: %s: %v\n", opts.CertName, err)
 		if errors.Is(err, report.ErrInvalid) {
-			return exitFails
+			return e.failf(exitRejected, "%s: %w", opts.CertName, err)
 		}
-		return exitInput
+		return e.failf(exitInput, "%s: %w", opts.CertName, err)
 	}
 	if out == "" {
 		e.stdout.Write(buf.Bytes())
 	} else if err := certificates.WriteFileAtomic(out, buf.Bytes(), 0o644); err != nil {
-		fmt.Fprintln(e.stderr, "lyacert: writing the report:", err)
-		return exitInput
+		return e.failf(exitInput, "writing the report: %w", err)
 	}
 	if checker.Verify(doc).Verdict == checker.VerdictHolds {
 		return exitHolds

@@ -25,19 +25,21 @@ import (
 
 type sweepCmd struct {
 	common
-	File         string        `arg:"" help:"Model file (.lya), or - for standard input."`
-	Grid         []string      `name:"grid" required:"" placeholder:"NAME=LO:HI:N" help:"Sweep a parameter over N exact values from LO to HI inclusive (repeatable; the last one varies fastest)."`
-	Set          []string      `name:"set" placeholder:"NAME=VALUE" help:"Fix a parameter to an exact value for the whole sweep (repeatable)."`
-	Q            string        `name:"q" placeholder:"DIAG" default:"identity" help:"Q of the Lyapunov equation, as for find."`
-	Out          string        `short:"o" name:"out" placeholder:"OUT.jsonl" help:"Write the lines to this file (through OUT.jsonl.partial, renamed when the sweep is complete); standard output when omitted."`
-	Plot         string        `name:"plot" placeholder:"FILE" help:"Plot the verdicts over one or two swept parameters (.svg, .png or .pdf)."`
-	Timeout      time.Duration `name:"timeout" placeholder:"DURATION" help:"Stop cleanly after this long (e.g. 30m); continue later with --resume."`
-	Resume       bool          `name:"resume" help:"Continue the output file of an interrupted sweep without redoing finished grid points."`
-	Shard        string        `name:"shard" placeholder:"i/N" default:"0/1" help:"Run the i-th of N slices of the grid (the points with index mod N = i); merge the outputs with lyacert merge."`
-	Jobs         int           `name:"jobs" placeholder:"N" help:"Number of workers (default: every core)."`
-	MaxPoints    int           `name:"max-points" placeholder:"N" help:"Stop cleanly after N grid points of this run (continue with --resume)."`
-	Certificates string        `name:"certificates" placeholder:"DIR" help:"Write the certificate behind every line into DIR as INDEX-EQ.json."`
-	Full         bool          `name:"full" help:"At rational stable equilibria run the full nonlinear check of V (can give a global claim; slower)."`
+	File          string        `arg:"" help:"Model file (.lya), or - for standard input."`
+	Grid          []string      `name:"grid" required:"" placeholder:"NAME=LO..HI" help:"Sweep a parameter from LO to HI inclusive, e.g. --grid r=0..30 (repeatable; the last one varies fastest)."`
+	Points        []string      `name:"points" placeholder:"N|NAME=N" help:"Number of exact, evenly spaced values of every swept parameter (--points 61) or of one (--points r=61, repeatable)."`
+	AllEquilibria bool          `name:"all-equilibria" help:"Exit 0 only if every equilibrium at every grid point is certified stable (default: the model's own, its at point or the origin)."`
+	Set           []string      `name:"set" placeholder:"NAME=VALUE" help:"Fix a parameter to an exact value for the whole sweep (repeatable)."`
+	Q             string        `name:"q" placeholder:"DIAG" default:"identity" help:"Q of the Lyapunov equation, as for find."`
+	Out           string        `short:"o" name:"out" placeholder:"OUT.jsonl" help:"Write the lines to this file (through OUT.jsonl.partial, renamed when the sweep is complete); standard output when omitted."`
+	Plot          string        `name:"plot" placeholder:"FILE" help:"Plot the verdicts over one or two swept parameters (.svg, .png or .pdf)."`
+	Timeout       time.Duration `name:"timeout" placeholder:"DURATION" help:"Stop cleanly after this long (e.g. 30m); continue later with --resume."`
+	Resume        bool          `name:"resume" help:"Continue the output file of an interrupted sweep without redoing finished grid points."`
+	Shard         string        `name:"shard" placeholder:"i/N" default:"0/1" help:"Run the i-th of N slices of the grid (the points with index mod N = i); merge the outputs with lyacert merge."`
+	Jobs          int           `name:"jobs" placeholder:"N" help:"Number of workers (default: every core)."`
+	MaxPoints     int           `name:"max-points" placeholder:"N" help:"Stop cleanly after N grid points of this run (continue with --resume)."`
+	Certificates  string        `name:"certificates" placeholder:"DIR" help:"Write the certificate behind every line into DIR as INDEX-EQ.json."`
+	Full          bool          `name:"full" help:"At rational stable equilibria run the full nonlinear check of V (can give a global claim; slower)."`
 }
 
 func init() {
@@ -71,8 +73,7 @@ func isTerminal(w io.Writer) bool {
 
 func (c *sweepCmd) run(e *env) int {
 	fail := func(format string, args ...any) int {
-		fmt.Fprintf(e.stderr, "lyacert: "+format+"\n", args...)
-		return exitInput
+		return e.failf(exitInput, format, args...)
 	}
 	name, src, err := readInput(c.File, e.stdin)
 	if err != nil {
@@ -82,21 +83,16 @@ func (c *sweepCmd) run(e *env) int {
 	if err != nil {
 		return fail("%v", err)
 	}
-	var grid sweep.Grid
-	for _, g := range c.Grid {
-		a, err := sweep.ParseGridAxis(g)
-		if err != nil {
-			return fail("%v", err)
-		}
-		grid = append(grid, a)
+	grid, err := sweep.ParseGrid(c.Grid, c.Points)
+	if err != nil {
+		return e.fail(exitInput, err)
 	}
 	shard, err := sweep.ParseShard(c.Shard)
 	if err != nil {
 		return fail("%v", err)
 	}
 	if err := sweep.CheckSweep(name, src, settings, grid); err != nil {
-		printInputError(e.stderr, err)
-		return exitInput
+		return e.fail(exitInput, err)
 	}
 	m, _ := model.Parse(name, src, settings...)
 	q, err := parseQ(c.Q, len(m.States))
@@ -215,8 +211,7 @@ func (c *sweepCmd) run(e *env) int {
 		err = ferr
 	}
 	if err != nil {
-		fmt.Fprintln(e.stderr, "lyacert: sweep:", err)
-		return exitInput
+		return e.failf(exitInput, "sweep: %w", err)
 	}
 	complete := sum.Remaining == 0
 	if file != nil && complete {
@@ -245,7 +240,7 @@ func (c *sweepCmd) run(e *env) int {
 		verdicts[k] += v
 	}
 	for _, p := range points {
-		if p.cat != catStable {
+		if !p.holds(c.AllEquilibria) {
 			allHold = false
 		}
 	}
@@ -267,7 +262,10 @@ func (c *sweepCmd) run(e *env) int {
 	} else {
 		renderSweepSummary(report, s, ctx.Err())
 	}
-	if !complete || !allHold {
+	switch {
+	case !complete:
+		return exitStopped
+	case !allHold:
 		return exitFails
 	}
 	return exitHolds
@@ -341,10 +339,10 @@ type sweepSummary struct {
 	Remaining    int            `json:"remaining"`
 	Verdicts     map[string]int `json:"verdicts"`
 	Complete     bool           `json:"complete"`
-	Output       string         `json:"output,omitempty"`
-	Plot         string         `json:"plot,omitempty"`
-	Certificates string         `json:"certificates,omitempty"`
-	Boundaries   []string       `json:"boundaries,omitempty"`
+	Output       string         `json:"output"`
+	Plot         string         `json:"plot"`
+	Certificates string         `json:"certificates"`
+	Boundaries   []string       `json:"boundaries"`
 	Seconds      float64        `json:"seconds"`
 }
 

@@ -67,11 +67,28 @@ type gridPoint struct {
 	values []float64
 	exact  []string
 	cat    pointCategory
+	// own is the verdict of the model's own equilibrium ("" when it is not
+	// among the point's equilibria).
+	own string
+}
+
+// holds reports whether the point counts as holding for an exit status:
+// its own equilibrium certified stable, or every equilibrium with all.
+func (p gridPoint) holds(all bool) bool {
+	if all {
+		return p.cat == catStable
+	}
+	return p.own == checker.VerdictHolds
 }
 
 func gridPointOf(index int, lines []sweep.SweepLine) gridPoint {
 	p := lines[0].Params
 	gp := gridPoint{index: index, names: p.Keys, exact: p.Values, cat: categoryOf(lines)}
+	for _, l := range lines {
+		if l.Own {
+			gp.own = l.Verdict
+		}
+	}
 	for _, s := range p.Values {
 		gp.values = append(gp.values, ratFloat(s))
 	}

@@ -186,7 +186,7 @@ func TestPodsCoverTheGrid(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	grid := []string{"--grid", "r=1/2:30:41"}
+	grid := []string{"--grid", "r=1/2..30", "--points", "41"}
 	var base []string
 	for _, kv := range os.Environ() {
 		if !strings.HasPrefix(kv, "SLURM_") && !strings.HasPrefix(kv, "LYACERT") && !strings.HasPrefix(kv, "JOB_COMPLETION_INDEX=") {

@@ -24,10 +24,10 @@ import (
 // way sweep.sh takes it (LYACERT_GRID), in one place.
 const (
 	modelFile = "lorenz-classic.lya"
-	smallGrid = "--grid r=1/2:30:301"
+	smallGrid = "--grid r=1/2..30 --points 301"
 	// Large enough that one shard of three runs for a few seconds with one
 	// worker (about 500 points/s), so that it can be stopped mid-run.
-	largeGrid = "--grid r=1/2:30:9001"
+	largeGrid = "--grid r=1/2..30 --points 9001"
 	shards    = 3
 )
 

@@ -31,7 +31,7 @@ set -euo pipefail
 
 lyacert=${LYACERT:-lyacert}
 model=${LYACERT_MODEL:-model.lya}
-read -r -a grid <<<"${LYACERT_GRID:---grid a=0:10:2001 --grid b=0:5:1001}"
+read -r -a grid <<<"${LYACERT_GRID:---grid a=0..10 --grid b=0..5 --points a=2001 --points b=1001}"
 # The shard: the array task (Slurm) or the completion index (Kubernetes
 # Indexed Job, examples/kubernetes/sweep-job.yaml).
 shards=${LYACERT_SHARDS:-${SLURM_ARRAY_TASK_COUNT:?submit as an array job (sbatch --array=0-N) or set LYACERT_SHARDS}}
@@ -44,9 +44,10 @@ status=0
 	--jobs "$jobs" --timeout "${LYACERT_TIMEOUT:-3h50m}" \
 	--resume -o "$out" || status=$?
 
-# lyacert exits 1 both when a finished sweep found points that are not
-# certified stable and when it stopped early; only the second is a failed
-# task. A finished shard has its output renamed from $out.partial to $out.
+# lyacert exits 0 or 1 when the sweep finished (1: some grid point's own
+# equilibrium is not certified stable, a result, not a failure), 3 when it
+# stopped early (--timeout, a signal) and 2 on bad input or a held lock;
+# only the finished shard has its output renamed from $out.partial to $out.
 if [ "$status" -ge 2 ] || [ ! -e "$out" ]; then
 	echo "shard $shard/$shards unfinished (lyacert exit status $status): requeue this task to continue" >&2
 	exit "$((status > 0 ? status : 1))"

@@ -12,6 +12,7 @@ import (
 	"strings"
 
 	"lyacert/certify/pave"
+	"lyacert/certify/sdp"
 	"lyacert/model"
 	"lyacert/poly"
 )
@@ -105,7 +106,12 @@ type Result struct {
 	Paving *pave.Paving
 	// PavingNote says why no paving was made where one was wanted.
 	PavingNote string
-	pave       *paveState
+	// Methods say how each form was proven, with the sizes of the work.
+	Methods []Method
+	// SDP is the last semidefinite program solved in a sum-of-squares
+	// search, nil when none was.
+	SDP  *sdp.Problem
+	pave *paveState
 }
 
 // Check analyses the model's candidate V: it computes V̇ exactly, completes
@@ -672,6 +678,7 @@ func refuteLinear(m *model.Model, vs, lin poly.RatFunc) *checker.Refutation {
 // does not accept, or a verdict it does not derive, is an internal error,
 // never printed.
 func finish(res *Result, source string) (*Result, error) {
+	res.methods()
 	doc := res.document(source)
 	if err := certificates.Seal(doc); err != nil {
 		return nil, err

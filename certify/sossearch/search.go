@@ -148,7 +148,7 @@ func Search(ctx context.Context, m *model.Model, opts Options) (*Result, error) 
 			continue
 		}
 		prob := program(z1, z2, deriv, support, pairExp)
-		res.Problem = prob
+		res.Problem = sdp.MarginProblem(prob, 1)
 		res.Sizes.BasisVdot, res.Sizes.Low, res.Sizes.Constraints = len(z2), low, len(prob.A)
 		start := time.Now()
 		mr, err := sdp.SolveMargin(ctx, prob, 1, opts.SDP)

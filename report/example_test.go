@@ -93,6 +93,7 @@ func ExampleCheckText() {
 	// Verdict: holds on part of the range: the equilibrium is globally asymptotically stable for a in (1/4, 1), and the argument fails elsewhere.
 	// Refutation (exact) with a = 1/8: at x = 1/2, y = 1, V = 5/4 and V̇ = 1/4.
 	// Note: at a = 1/4 a condition is exactly zero: a form is only semidefinite there and the test above is inconclusive; run with --set a=1/4.
+	// Method: V: quadratic part, exact LDLᵀ, basis 2; −V̇: quadratic part, exact LDLᵀ, basis 2.
 }
 
 // The --json shape of a check is a plain value: encode it as you like.

@@ -764,14 +764,14 @@ func cautions(d *docView) []string {
 // monomial basis or, without one, the states.
 func (b *builder) squareBase(f certificates.FormView, k int) (poly.RatFunc, error) {
 	n := len(f.D)
-	z := poly.StateBasis(b.r, n)
+	z := make([]poly.RatFunc, n)
 	l := poly.NewMatrix(b.r, n)
 	var err error
 	for i := range n {
-		if len(f.Basis) > 0 {
-			if z[i], err = b.parse(f.Basis[i]); err != nil {
-				return z[i], err
-			}
+		if len(f.Basis) == 0 {
+			z[i] = poly.FromPoly(poly.Var(b.r, i))
+		} else if z[i], err = b.parse(f.Basis[i]); err != nil {
+			return z[i], err
 		}
 		for j := range i {
 			if l[i][j], err = b.parse(f.L[i][j]); err != nil {

@@ -159,6 +159,13 @@ func checkText(w io.Writer, res *direct.Result, written string) {
 	for _, n := range res.Notes {
 		fmt.Fprintf(w, "Note: %s.\n", n)
 	}
+	if len(res.Methods) > 0 {
+		ms := make([]string, len(res.Methods))
+		for i, mt := range res.Methods {
+			ms[i] = mt.String()
+		}
+		fmt.Fprintf(w, "Method: %s.\n", strings.Join(ms, "; "))
+	}
 	fmt.Fprintf(w, "\nCertificate re-checked by the exact checker: %d checks passed", len(res.Check.Records))
 	if written != "" {
 		fmt.Fprintf(w, "; written to %s", written)

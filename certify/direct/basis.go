@@ -2,6 +2,7 @@ package direct
 
 import (
 	"context"
+	"fmt"
 	"math/big"
 	"slices"
 
@@ -134,17 +135,33 @@ func (res *Result) tryBasis(ctx context.Context, opts PaveOptions) *Result {
 				return nil
 			}
 			nr.Forms = append(nr.Forms, f)
+			nr.Methods = append(nr.Methods, Method{Form: f.Name, Name: MethodQuadratic, Basis: len(f.Gram)})
 			continue
 		}
 		basis, g, ok := monomialGram(wholes[i], n)
-		if !ok {
-			return nil
-		}
 		var l LDL
-		if ok, _ := l.Factorize(g); !ok || l.Semidefinite() {
+		if ok {
+			fac, _ := l.Factorize(g)
+			ok = fac && !l.Semidefinite() && !nonPositivePivot(l)
+		}
+		if ok {
+			nr.Forms = append(nr.Forms, Form{Name: f.Name, Basis: basis, Gram: g, LDL: l, Minors: l.Minors()})
+			nr.Methods = append(nr.Methods, Method{Form: f.Name, Name: MethodCanonical, Basis: len(basis)})
+			continue
+		}
+		// The canonical Gram matrix fails: search the whole family.
+		sf, method, prob, why := sosGram(wholes[i], n)
+		if prob != nil {
+			res.SDP, nr.SDP = prob, prob
+		}
+		if why != "" {
+			res.Notes = append(res.Notes, fmt.Sprintf("no Gram certificate of %s as a whole: %s", formWord(f.Name), why))
+			res.refutePoints()
 			return nil
 		}
-		nr.Forms = append(nr.Forms, Form{Name: f.Name, Basis: basis, Gram: g, LDL: l, Minors: l.Minors()})
+		sf.Name, method.Form = f.Name, f.Name
+		nr.Forms = append(nr.Forms, sf)
+		nr.Methods = append(nr.Methods, method)
 	}
 	nr.Claim = checker.KindGlobal
 	nr.conditions()
@@ -153,4 +170,15 @@ func (res *Result) tryBasis(ctx context.Context, opts PaveOptions) *Result {
 	}
 	nr.Reason = "V and −V̇ are positive definite as wholes: each is zᵀGz with G ≻ 0 in a monomial basis z holding a pure power of every state"
 	return nr
+}
+
+// nonPositivePivot reports a pivot that is a constant ≤ 0: that Gram
+// matrix is not positive definite, though another of the family may be.
+func nonPositivePivot(l LDL) bool {
+	for _, d := range l.D {
+		if d.IsPoly() && d.Num.IsConst() && d.Num.ConstTerm().Sign() <= 0 {
+			return true
+		}
+	}
+	return false
 }

@@ -12,6 +12,7 @@ import (
 	"strings"
 
 	"lyacert/certify/pave"
+	"lyacert/certify/sdp"
 	"lyacert/model"
 	"lyacert/poly"
 )
@@ -32,9 +33,12 @@ type Form struct {
 // SquareBase returns the k-th base of the completed squares of the form
 // (poly.SquareBase), z its basis or the states.
 func (f Form) SquareBase(k int) poly.RatFunc {
-	z := poly.StateBasis(f.Gram[0][0].Ring(), len(f.LDL.D))
-	for i, b := range f.Basis {
-		z[i] = poly.FromPoly(b)
+	var z []poly.RatFunc
+	for _, b := range f.Basis {
+		z = append(z, poly.FromPoly(b))
+	}
+	if z == nil {
+		z = poly.StateBasis(f.Gram[0][0].Ring(), len(f.LDL.D))
 	}
 	return poly.SquareBase(f.LDL.L, z, k)
 }
@@ -95,6 +99,11 @@ type Result struct {
 	Paving *pave.Paving
 	// PavingNote says why no paving was made where one was wanted.
 	PavingNote string
+	// Methods say how each form was proven, with the sizes of the work.
+	Methods []Method
+	// SDP is the last semidefinite program solved in a sum-of-squares
+	// search, nil when none was.
+	SDP *sdp.Problem
 }
 
 // Check analyses the model's candidate V: it computes V̇ exactly, completes
@@ -661,6 +670,7 @@ func refuteLinear(m *model.Model, vs, lin poly.RatFunc) *checker.Refutation {
 // does not accept, or a verdict it does not derive, is an internal error,
 // never printed.
 func finish(res *Result, source string) (*Result, error) {
+	res.methods()
 	doc := res.document(source)
 	if err := certificates.Seal(doc); err != nil {
 		return nil, err

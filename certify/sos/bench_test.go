@@ -7,6 +7,7 @@ import (
 	"strings"
 	"testing"
 
+	"lyacert/certify/sdp"
 	"lyacert/certify/sos"
 	"lyacert/poly"
 )
@@ -52,6 +53,27 @@ func BenchmarkFind(b *testing.B) {
 				res, err := sos.Find(context.Background(), p, nil)
 				if err != nil || res.Certificate == nil {
 					b.Fatalf("no certificate: %v", err)
+				}
+			}
+		})
+	}
+}
+
+// BenchmarkFindSDP: the margin SDP alone for the forms of BenchmarkFind;
+// BenchmarkFind minus this is the rounding, projection and exact LDLᵀ.
+func BenchmarkFindSDP(b *testing.B) {
+	for n := 3; n <= 8; n++ {
+		p := randomForm4(b, n, 1)
+		g, _, err := sos.NewGram(p, 0)
+		if err != nil {
+			b.Fatal(err)
+		}
+		prob := g.Problem()
+		b.Run(fmt.Sprintf("vars=%d/basis=%d", n, len(g.Basis)), func(b *testing.B) {
+			for b.Loop() {
+				mr, err := sdp.SolveMargin(context.Background(), prob, 10, nil)
+				if err != nil || mr.T <= 0 {
+					b.Fatalf("margin %v: %v", mr, err)
 				}
 			}
 		})

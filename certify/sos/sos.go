@@ -66,6 +66,9 @@ type Result struct {
 	Sizes       Sizes
 	// SolverStatus is the status of the margin SDP.
 	SolverStatus sdp.Status
+	// Problem is the SDP that was solved (sdp.MarginProblem of the Gram
+	// family), for export; nil when none was.
+	Problem *sdp.Problem
 }
 
 // Key encodes an exponent vector for maps.
@@ -355,6 +358,7 @@ func Find(ctx context.Context, p *poly.Poly, opts *Options) (*Result, error) {
 		}
 	}
 	tmax := math.Max(1, 2*math.Abs(trace)/float64(n))
+	res.Problem = sdp.MarginProblem(prob, tmax)
 	mr, err := sdp.SolveMargin(ctx, prob, tmax, o.SDP)
 	if err != nil {
 		return nil, err

@@ -23,6 +23,7 @@ type findCmd struct {
 	Q    string   `name:"q" placeholder:"DIAG" default:"identity" help:"Q of AᵀP + PA = −Q (AᵀPA − P = −Q in discrete time): identity, one positive number (a multiple of I), or one per state, comma-separated (a diagonal)."`
 	All  bool     `help:"Certify every equilibrium found, not only the model's own (its at point, or the origin)."`
 	Out  string   `short:"o" name:"out" placeholder:"CERT" help:"Write the certificate to this file (atomically); with --all one file per certified equilibrium, CERT with -1, -2, … before its extension."`
+	sosFlags
 }
 
 func init() {
@@ -83,6 +84,9 @@ func (c *findCmd) run(e *env) int {
 	m, err := model.Parse(name, src, settings...)
 	if err != nil {
 		return e.fail(exitInput, err)
+	}
+	if c.Degree != 0 {
+		return c.findDegree(m, name, e)
 	}
 	q, err := parseQ(c.Q, len(m.States))
 	if err != nil {

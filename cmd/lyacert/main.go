@@ -218,10 +218,11 @@ func exit(code int) error {
 
 type checkCmd struct {
 	common
-	File string   `arg:"" help:"Model file (.lya), or - for standard input."`
-	Out  string   `short:"o" name:"out" placeholder:"CERT" help:"Write the certificate to this file (atomically)."`
-	Set  []string `name:"set" placeholder:"NAME=VALUE" help:"Fix a parameter to an exact value (repeatable), e.g. --set r=1/2."`
-	Sign string   `name:"sign" placeholder:"KEY" help:"Sign the written certificate with this ed25519 private key (PEM, PKCS #8: NAME.key from lyacert key new; needs -o)."`
+	File   string   `arg:"" help:"Model file (.lya), or - for standard input."`
+	Out    string   `short:"o" name:"out" placeholder:"CERT" help:"Write the certificate to this file (atomically)."`
+	Set    []string `name:"set" placeholder:"NAME=VALUE" help:"Fix a parameter to an exact value (repeatable), e.g. --set r=1/2."`
+	Sign   string   `name:"sign" placeholder:"KEY" help:"Sign the written certificate with this ed25519 private key (PEM, PKCS #8: NAME.key from lyacert key new; needs -o)."`
+	SDPOut string   `name:"sdp-out" placeholder:"FILE" help:"Write the last semidefinite program solved (a sum-of-squares search) to FILE in SDPA sparse format."`
 	paveFlags
 }
 
@@ -269,6 +270,7 @@ func (c *checkCmd) run(e *env) int {
 	if code != 0 {
 		return code
 	}
+	c.sdpOut = c.SDPOut
 	code = checkModel(name, src, settings, c.Out, c.JSON, e, &c.paveFlags)
 	return signWritten(c.Out, key, code, c.JSON, e)
 }
@@ -321,6 +323,11 @@ func runCheck(name string, src []byte, settings []model.Setting, out string, asJ
 			return e.fail(exitStopped, err), false
 		}
 		return e.fail(exitInput, err), false
+	}
+	if pf != nil && pf.sdpOut != "" {
+		if code := writeSDPOut(pf.sdpOut, res.SDP, e); code != 0 {
+			return code, false
+		}
 	}
 	written := ""
 	if out != "" {

@@ -21,7 +21,7 @@ var layers = [][]string{
 	{"certificates"},
 	{"certify", "certify/pave", "certify/sos"},
 	{"certify/direct", "certify/branches"},
-	{"certify/equilibria"},
+	{"certify/equilibria", "certify/sossearch"},
 	{"sweep"},
 	{"report"},
 	{"cmd/lyacert", "examples/slurm"},

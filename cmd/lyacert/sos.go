@@ -1,0 +1,85 @@
+package main
+
+import (
+	"bytes"
+	"context"
+	"errors"
+	"fmt"
+	"os"
+	"os/signal"
+
+	"lyacert/certificates"
+	"lyacert/certify"
+	"lyacert/certify/sdp"
+	"lyacert/certify/sossearch"
+	"lyacert/checker"
+	"lyacert/model"
+	"lyacert/report"
+)
+
+// sosFlags are find's options for a V found by a semidefinite program.
+type sosFlags struct {
+	Degree int    `name:"degree" placeholder:"2D" help:"Search V of this even degree by a semidefinite program (sums of squares) instead of solving a Lyapunov equation; every parameter must be fixed."`
+	SDPOut string `name:"sdp-out" placeholder:"FILE" help:"With --degree: write the last semidefinite program solved to FILE in SDPA sparse format."`
+}
+
+// writeSDPOut writes p in SDPA sparse format; it returns an exit code.
+func writeSDPOut(path string, p *sdp.Problem, e *env) int {
+	if p == nil {
+		fmt.Fprintln(e.stderr, "lyacert: --sdp-out: no semidefinite program was solved; nothing written")
+		return 0
+	}
+	var b bytes.Buffer
+	if err := sdp.WriteSDPA(&b, p); err != nil {
+		return e.failf(exitInput, "--sdp-out: %w", err)
+	}
+	if err := certificates.WriteFileAtomic(path, b.Bytes(), 0o644); err != nil {
+		return e.failf(exitInput, "--sdp-out: %w", err)
+	}
+	return 0
+}
+
+// findDegree searches V of degree --degree and proves it by the direct
+// method; the kernel re-checks the certificate.
+func (c *findCmd) findDegree(m *model.Model, name string, e *env) int {
+	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt)
+	defer stop()
+	res, err := sossearch.Search(ctx, m, sossearch.Options{Degree: c.Degree, Source: name})
+	if err != nil {
+		if errors.Is(err, certify.ErrUnverified) {
+			return e.fail(exitRejected, err)
+		}
+		return e.fail(exitInput, err)
+	}
+	if c.SDPOut != "" {
+		if code := writeSDPOut(c.SDPOut, res.Problem, e); code != 0 {
+			return code
+		}
+	}
+	s := res.Sizes
+	if !c.JSON {
+		fmt.Fprintf(e.stdout, "Search for V of degree %d by a semidefinite program (sums of squares)\n", c.Degree)
+		fmt.Fprintf(e.stdout, "  V = z₁ᵀG₁z₁, basis %d; −V̇ = z₂ᵀG₂z₂, basis %d; %d equations; SDP blocks %v, %d iterations, margin %.3g; %v solving, %v rounding and exact checks\n\n",
+			s.BasisV, s.BasisVdot, s.Constraints, s.Blocks, s.Iterations, s.Margin, s.Solve.Round(1e3), s.Round.Round(1e3))
+	}
+	if res.Check == nil {
+		fmt.Fprintln(e.stdout, "No V found: "+res.Reason+".")
+		return exitFails
+	}
+	written := ""
+	if c.Out != "" {
+		if err := certificates.WriteFile(res.Check.Doc, c.Out); err != nil {
+			return e.failf(exitInput, "writing the certificate: %w", err)
+		}
+		written = c.Out
+	}
+	if c.JSON {
+		writeJSON(e.stdout, report.CheckJSON(res.Check, written))
+	} else {
+		report.CheckText(e.stdout, res.Check, written)
+	}
+	if res.Check.Verdict == checker.VerdictHolds {
+		return exitHolds
+	}
+	return exitFails
+}

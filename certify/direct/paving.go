@@ -32,6 +32,12 @@ type PaveOptions struct {
 	Workers  int
 	Progress pave.Progress
 	MaxBoxes int
+	// Plan, if not nil, is told the paved parameters (in the order of the
+	// certificate's paving) once they are known and before the paving
+	// starts; an error from it stops the check before the costly part,
+	// wrapped in ErrPaveOptions. The command line uses it to refuse a plot
+	// that cannot be drawn without paving first.
+	Plan func(params []string) error
 }
 
 // DefaultResolution is the default finest box side, relative to each side of
@@ -164,6 +170,16 @@ func (res *Result) paveRegion(vars []int) {
 		conds = append(conds, c.Q)
 	}
 	o := res.pave.opts
+	if o.Plan != nil {
+		var names []string
+		for _, s := range box {
+			names = append(names, r.Name(s.Var))
+		}
+		if err := o.Plan(names); err != nil {
+			res.pave.err = fmt.Errorf("%w: %w", ErrPaveOptions, err)
+			return
+		}
+	}
 	pv, err := pave.PaveRegion(res.pave.ctx, conds, box, level, pave.Options{Workers: o.Workers, Progress: o.Progress, MaxBoxes: o.MaxBoxes})
 	if err != nil {
 		res.pave.err = err

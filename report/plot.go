@@ -11,6 +11,7 @@ import (
 	"regexp"
 	"slices"
 	"sort"
+	"strconv"
 	"strings"
 
 	"gonum.org/v1/plot"
@@ -351,8 +352,87 @@ type pavingView struct {
 	Resolution node
 	Counts     []rich
 	Leaves     int
-	SVG        string // the drawing, for HTML
+	SVG        string // the drawing, for HTML and (as a file) Markdown
+	Figure     string // Markdown: the drawing's file, when written
 	Note       string // why there is no drawing
+	params     []string
+	leaves     []certificates.PavingLeaf
+}
+
+// maxPictureLeaves bounds the boxes drawn in LaTeX's picture environment,
+// which keeps every box in TeX's memory; above it the LaTeX report says
+// where the drawing is.
+const maxPictureLeaves = 4000
+
+// pavingPicture draws a paving in LaTeX's picture environment, which needs
+// no package: the leaves projected on the first two paved parameters (on
+// the first alone, as a strip, when there is one), a filled box where every
+// condition holds, a framed one where the paving is undecided, nothing
+// where a condition fails. The positions are rounded for the picture only.
+func pavingPicture(v *pavingView) string {
+	if len(v.leaves) == 0 || len(v.leaves) > maxPictureLeaves {
+		return ""
+	}
+	f := func(q *big.Rat) float64 { x, _ := q.Float64(); return x }
+	x0, x1 := math.Inf(1), math.Inf(-1)
+	y0, y1 := 0.0, 1.0
+	two := len(v.params) > 1
+	if two {
+		y0, y1 = math.Inf(1), math.Inf(-1)
+	}
+	for _, lf := range v.leaves {
+		x0, x1 = math.Min(x0, f(lf.Lo[0])), math.Max(x1, f(lf.Hi[0]))
+		if two {
+			y0, y1 = math.Min(y0, f(lf.Lo[1])), math.Max(y1, f(lf.Hi[1]))
+		}
+	}
+	const width = 110.0 // mm
+	height := 12.0
+	if two {
+		height = 80
+	}
+	if x1 <= x0 || y1 <= y0 {
+		return ""
+	}
+	sx, sy := width/(x1-x0), height/(y1-y0)
+	var b strings.Builder
+	b.WriteString("\\begin{center}\n\\setlength{\\unitlength}{1mm}\n")
+	fmt.Fprintf(&b, "\\begin{picture}(%.0f,%.0f)(-12,-10)\n", width+12, height+12)
+	order := map[byte]int{checker.PaveInside: 0, checker.PaveOutside: 1, checker.PaveUndecided: 2}
+	sorted := append([]certificates.PavingLeaf(nil), v.leaves...)
+	sort.SliceStable(sorted, func(i, j int) bool { return order[sorted[i].Class] < order[sorted[j].Class] })
+	for _, lf := range sorted {
+		a, c := (f(lf.Lo[0])-x0)*sx, (f(lf.Hi[0])-x0)*sx
+		lo, hi := 0.0, height
+		if two {
+			lo, hi = (f(lf.Lo[1])-y0)*sy, (f(lf.Hi[1])-y0)*sy
+		}
+		switch lf.Class {
+		case checker.PaveInside:
+			fmt.Fprintf(&b, "\\put(%.2f,%.2f){\\rule{%.2fmm}{%.2fmm}}\n", a, lo, c-a, hi-lo)
+		case checker.PaveUndecided:
+			fmt.Fprintf(&b, "\\put(%.2f,%.2f){\\framebox(%.2f,%.2f){}}\n", a, lo, c-a, hi-lo)
+		}
+	}
+	fmt.Fprintf(&b, "\\put(0,0){\\framebox(%.0f,%.0f){}}\n", width, height)
+	num := func(x float64) string {
+		return strings.ReplaceAll(strconv.FormatFloat(x, 'g', 4, 64), "-", "$-$")
+	}
+	fmt.Fprintf(&b, "\\put(0,-2){\\makebox(0,0)[t]{\\scriptsize %s}}\n", num(x0))
+	fmt.Fprintf(&b, "\\put(%.0f,-2){\\makebox(0,0)[t]{\\scriptsize %s}}\n", width, num(x1))
+	fmt.Fprintf(&b, "\\put(%.0f,-6){\\makebox(0,0)[t]{\\small $%s$}}\n", width/2, texName(v.params[0]))
+	if two {
+		fmt.Fprintf(&b, "\\put(-1,0){\\makebox(0,0)[r]{\\scriptsize %s}}\n", num(y0))
+		fmt.Fprintf(&b, "\\put(-1,%.0f){\\makebox(0,0)[r]{\\scriptsize %s}}\n", height, num(y1))
+		fmt.Fprintf(&b, "\\put(-6,%.0f){\\makebox(0,0)[r]{\\small $%s$}}\n", height/2, texName(v.params[1]))
+	}
+	b.WriteString("\\end{picture}\n\\end{center}\n")
+	b.WriteString("\\noindent Filled: every condition holds on the box; framed: undecided at the resolution; blank: some condition fails on all of it.")
+	if len(v.params) > 2 {
+		b.WriteString(" The boxes are projected on the first two paved parameters, undecided ones drawn last.")
+	}
+	b.WriteString("\n")
+	return b.String()
 }
 
 // maxDrawnLeaves bounds the boxes drawn in a paving's picture; the counts
@@ -403,6 +483,10 @@ func newPavingView(pv *checker.Paving) *pavingView {
 	}
 	leaves, err := certificates.Leaves(pv)
 	v.Leaves = len(leaves)
+	v.params = pv.Params
+	if err == nil {
+		v.leaves = leaves
+	}
 	switch {
 	case err != nil:
 		v.Note = "The paving could not be drawn: " + err.Error()

@@ -260,3 +260,55 @@ func TestHTMLInChromium(t *testing.T) {
 		}
 	})
 }
+
+// TestGoldenLaTeXFits compiles every golden LaTeX report with pdflatex, in
+// the page the whole-document report uses (article, 11pt, 25 mm margins),
+// and fails on any "Overfull \hbox" in the log: TeX reports there every
+// line that runs into the margin (The TeXbook, ch. 6).
+func TestGoldenLaTeXFits(t *testing.T) {
+	pdflatex := tool(t, "pdflatex")
+	files, err := filepath.Glob("testdata/golden/*.tex")
+	if err != nil || len(files) == 0 {
+		t.Fatalf("no golden LaTeX reports: %v", err)
+	}
+	dir := t.TempDir()
+	for _, f := range files {
+		name := strings.TrimSuffix(filepath.Base(f), ".tex")
+		t.Run(name, func(t *testing.T) {
+			frag, err := os.ReadFile(f)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if err := os.WriteFile(filepath.Join(dir, name+"-fragment.tex"), frag, 0o644); err != nil {
+				t.Fatal(err)
+			}
+			doc := "\\documentclass[11pt]{article}\n\\usepackage{amsmath}\n\\usepackage[margin=25mm]{geometry}\n\\begin{document}\n\\input{" + name + "-fragment.tex}\n\\end{document}\n"
+			if err := os.WriteFile(filepath.Join(dir, name+".tex"), []byte(doc), 0o644); err != nil {
+				t.Fatal(err)
+			}
+			runTool(t, dir, 2*time.Minute, pdflatex, "-interaction=nonstopmode", "-halt-on-error", "-no-shell-escape", name+".tex")
+			log, err := os.ReadFile(filepath.Join(dir, name+".log"))
+			if err != nil {
+				t.Fatal(err)
+			}
+			for _, what := range []string{"Overfull \\hbox", "Missing character"} {
+				if bytes.Contains(log, []byte(what)) {
+					t.Errorf("%s:\n%s", what, grepContext(string(log), what, 3))
+				}
+			}
+		})
+	}
+}
+
+// grepContext returns the lines containing what, each with the n lines
+// after it (where TeX shows the offending material).
+func grepContext(s, what string, n int) string {
+	ls := strings.Split(s, "\n")
+	var out []string
+	for i, l := range ls {
+		if strings.Contains(l, what) {
+			out = append(out, ls[i:min(len(ls), i+n+1)]...)
+		}
+	}
+	return strings.Join(out, "\n")
+}

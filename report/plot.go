@@ -11,9 +11,11 @@ import (
 	"regexp"
 	"slices"
 	"sort"
+	"strconv"
 	"strings"
 
 	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/font"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
@@ -63,11 +65,12 @@ func view(ps []stripPiece) (lo, hi float64) {
 
 func clamp(x, lo, hi float64) float64 { return math.Max(lo, math.Min(hi, x)) }
 
-// stripSVG draws the one-parameter region as a strip along the parameter's
+// stripPlot draws the one-parameter region as a strip along the parameter's
 // range, each piece coloured by whether the conditions hold on it, with the
-// piece ends marked on the axis. It is drawn with gonum/plot; the float64
-// positions are for the picture only.
-func stripSVG(rv *regionView) (string, error) {
+// piece ends marked on the axis (an irrational end by its name and its
+// decimal). It is drawn with gonum/plot; the float64 positions are for the
+// picture only.
+func stripPlot(rv *regionView) (*plot.Plot, error) {
 	ps := rv.strip
 	lo, hi := view(ps)
 	p := plot.New()
@@ -92,7 +95,7 @@ func stripSVG(rv *regionView) (string, error) {
 		}
 		poly, err := plotter.NewPolygon(plotter.XYs{{X: a, Y: 0.15}, {X: b, Y: 0.15}, {X: b, Y: 0.6}, {X: a, Y: 0.6}})
 		if err != nil {
-			return "", err
+			return nil, err
 		}
 		poly.Color = failsColor
 		if pc.holds {
@@ -101,12 +104,13 @@ func stripSVG(rv *regionView) (string, error) {
 		poly.LineStyle.Width = vg.Points(0.5)
 		poly.LineStyle.Color = color.Gray{0x40}
 		p.Add(poly)
-		addTick(a, tickLabel(pc.lo, pc.loText, lo, hi))
-		addTick(b, tickLabel(pc.hi, pc.hiText, lo, hi))
+		addTick(clamp(pc.lo, lo, hi), tickLabel(pc.lo, pc.loText, pc.loName))
+		addTick(clamp(pc.hi, lo, hi), tickLabel(pc.hi, pc.hiText, pc.hiName))
 	}
 	sort.Slice(ticks, func(i, j int) bool { return ticks[i].Value < ticks[j].Value })
-	// Drop labels that would overlap; the closed form above has them all.
-	minGap := (hi - lo) / 14
+	// Drop labels that would overlap; the closed form in the report and
+	// the text output have them all.
+	minGap := (hi - lo) / 9
 	last := negInf
 	for i := range ticks {
 		if ticks[i].Value-last < minGap {
@@ -117,15 +121,67 @@ func stripSVG(rv *regionView) (string, error) {
 	}
 	p.X.Tick.Marker = plot.ConstantTicks(ticks)
 	p.Title.Text = "Where the conditions hold, along " + plainName(rv.Name)
-	return drawSVG(p, 16*vg.Centimeter, 5*vg.Centimeter)
+	p.Legend.Add("every condition holds", swatch{holdsColor})
+	p.Legend.Add("a condition fails", swatch{failsColor})
+	p.Legend.Top = true
+	return p, nil
 }
 
-func tickLabel(x float64, text string, lo, hi float64) string {
+// stripWidth and stripHeight are the strip's size.
+const (
+	stripWidth  = 16 * vg.Centimeter
+	stripHeight = 5 * vg.Centimeter
+)
+
+// drawStrip draws a strip with room on both sides for the labels of its
+// ends, which are centred on the ends of the axis.
+func drawStrip(p *plot.Plot, c draw.Canvas) {
+	p.Draw(draw.Crop(c, vg.Centimeter, -vg.Centimeter, 0, 0))
+}
+
+// stripSVG is stripPlot as an inline SVG element.
+func stripSVG(rv *regionView) (string, error) {
+	p, err := stripPlot(rv)
+	if err != nil {
+		return "", err
+	}
+	return drawSVGWith(stripWidth, stripHeight, func(c draw.Canvas) { drawStrip(p, c) })
+}
+
+// RegionPlot draws the one-parameter region of a certificate as a strip
+// along the parameter's range: the exact pieces where every condition holds
+// and where one fails, coloured, their ends marked (an irrational end by
+// its name and decimal, as in the report). format is "svg", "png" or "pdf".
+// The certificate is re-checked first, as for Render; one without a
+// one-parameter region gives an error.
+func RegionPlot(doc *checker.Document, format string) ([]byte, error) {
+	p, err := build(doc, Options{})
+	if err != nil {
+		return nil, err
+	}
+	if len(p.Regions) == 0 {
+		return nil, fmt.Errorf("the certificate has no one-parameter region to draw")
+	}
+	if len(p.Regions) > 1 {
+		return nil, fmt.Errorf("the region is a product of %d one-parameter regions; draw its paving instead", len(p.Regions))
+	}
+	pl, err := stripPlot(p.Regions[0])
+	if err != nil {
+		return nil, err
+	}
+	return renderPlot(stripWidth, stripHeight, format, func(c draw.Canvas) { drawStrip(pl, c) })
+}
+
+// tickLabel is an end's label on the strip's axis: an irrational end by
+// its name and decimal ("α1 ≈ 3.828").
+func tickLabel(x float64, text string, alpha *sub) string {
 	switch {
 	case math.IsInf(x, -1):
 		return "← −∞"
 	case math.IsInf(x, 1):
 		return "∞ →"
+	case alpha != nil:
+		return alpha.n.html() + alpha.idx + " ≈ " + text
 	}
 	return text
 }
@@ -135,16 +191,99 @@ var xmlProlog = regexp.MustCompile(`(?s)^<\?xml[^>]*\?>\s*(<!--.*?-->\s*)?`)
 // drawSVG renders a plot as an SVG element for inline use: without the XML
 // prolog, scaled to the page width by CSS.
 func drawSVG(p *plot.Plot, w, h vg.Length) (string, error) {
-	c := vgsvg.New(w, h)
-	p.Draw(draw.New(c))
-	var buf bytes.Buffer
-	if _, err := c.WriteTo(&buf); err != nil {
-		return "", fmt.Errorf("drawing the plot: %w", err)
+	return drawSVGWith(w, h, func(c draw.Canvas) { p.Draw(c) })
+}
+
+func drawSVGWith(w, h vg.Length, f func(draw.Canvas)) (string, error) {
+	b, err := renderPlot(w, h, "svg", f)
+	if err != nil {
+		return "", err
 	}
-	s := xmlProlog.ReplaceAllString(buf.String(), "")
+	s := xmlProlog.ReplaceAllString(string(b), "")
 	s = strings.Replace(s, "<svg ", `<svg role="img" class="plot" `, 1)
 	return s, nil
 }
+
+// Plot formats: the extensions a picture may be written with.
+var PlotFormats = []string{"svg", "png", "pdf"}
+
+// renderPlot draws on a w×h canvas of the format ("svg", "png" or "pdf")
+// and returns the file's bytes.
+func renderPlot(w, h vg.Length, format string, f func(draw.Canvas)) ([]byte, error) {
+	var buf bytes.Buffer
+	if format == "svg" {
+		c := &measuredSVG{Canvas: vgsvg.New(w, h)}
+		f(draw.New(c))
+		if _, err := c.WriteTo(&buf); err != nil {
+			return nil, fmt.Errorf("drawing the plot: %w", err)
+		}
+		return fixSVGText(buf.Bytes(), c.widths), nil
+	}
+	if !slices.Contains(PlotFormats, format) {
+		return nil, fmt.Errorf("unknown picture format %q (want svg, png or pdf)", format)
+	}
+	c, err := draw.NewFormattedCanvas(w, h, format)
+	if err != nil {
+		return nil, err
+	}
+	f(draw.New(c))
+	if _, err := c.WriteTo(&buf); err != nil {
+		return nil, fmt.Errorf("drawing the plot: %w", err)
+	}
+	return buf.Bytes(), nil
+}
+
+// measuredSVG records the width gonum/plot measured for every string it
+// sets, in order: the layout (legends flush with the right edge, centred
+// titles) was computed with these widths.
+type measuredSVG struct {
+	*vgsvg.Canvas
+	widths []vg.Length
+}
+
+func (c *measuredSVG) FillString(f font.Face, pt vg.Point, s string) {
+	c.widths = append(c.widths, f.Width(s))
+	c.Canvas.FillString(f, pt, s)
+}
+
+// svgFontStack replaces the single font gonum/plot names (Liberation
+// Serif, whose metrics it lays text out with) by a stack: the same font,
+// then metric-compatible ones (Times New Roman, Tinos), then any serif.
+const svgFontStack = `font-family:'Liberation Serif','Times New Roman',Tinos,Times,serif`
+
+var svgText = regexp.MustCompile(`<text x="[^"]*" y="[^"]*"`)
+
+// fixSVGText gives every text element the font stack and its measured
+// width as textLength: a browser that has none of the fonts (Chromium on a
+// system without Liberation falls back to a wider serif) squeezes or
+// stretches the glyphs to the width the layout assumed, so that no legend
+// or label runs past the picture's edge.
+func fixSVGText(b []byte, widths []vg.Length) []byte {
+	i := 0
+	b = svgText.ReplaceAllFunc(b, func(m []byte) []byte {
+		if i >= len(widths) {
+			return m
+		}
+		w := widths[i]
+		i++
+		return fmt.Appendf(slices.Clone(m), ` textLength="%.2f" lengthAdjust="spacingAndGlyphs"`, w.Points())
+	})
+	b = bytes.ReplaceAll(b, []byte("font-family:Liberation Serif"), []byte(svgFontStack))
+	// A margin of svgMargin points all round: a fallback font may have a
+	// taller ascent than the one the layout measured, and a title at the
+	// top edge would lose its accents.
+	return svgSize.ReplaceAllFunc(b, func(m []byte) []byte {
+		g := svgSize.FindSubmatch(m)
+		var w, h float64
+		fmt.Sscan(string(g[1]), &w)
+		fmt.Sscan(string(g[2]), &h)
+		return fmt.Appendf(nil, `<svg width="%.2fpt" height="%.2fpt" viewBox="%g %g %.2f %.2f"`, w+2*svgMargin, h+2*svgMargin, -svgMargin, -svgMargin, w+2*svgMargin, h+2*svgMargin)
+	})
+}
+
+const svgMargin = 4.0 // points
+
+var svgSize = regexp.MustCompile(`<svg width="([0-9.]+)pt" height="([0-9.]+)pt" viewBox="0 0 [0-9.]+ [0-9.]+"`)
 
 // plainName is a parameter name for plot labels: a Greek name as its
 // letter, others as written.
@@ -171,13 +310,15 @@ func stripPicture(rv *regionView) string {
 	b.WriteString("\\begin{center}\n\\setlength{\\unitlength}{1mm}\n")
 	fmt.Fprintf(&b, "\\begin{picture}(%.0f,18)\n", width)
 	last := math.Inf(-1)
-	label := func(pos float64, v float64, text string) {
+	label := func(pos float64, v float64, text string, alpha *sub) {
 		if pos-last < 9 && !math.IsInf(last, -1) {
 			return
 		}
 		last = pos
 		t := texText(text)
 		switch {
+		case alpha != nil:
+			t = "$" + alpha.tex() + ` \approx ` + strings.ReplaceAll(text, "−", "-") + "$"
 		case math.IsInf(v, -1):
 			t = `$-\infty$`
 		case math.IsInf(v, 1):
@@ -196,10 +337,10 @@ func stripPicture(rv *regionView) string {
 		} else {
 			fmt.Fprintf(&b, "\\put(%.2f,6){\\framebox(%.2f,5){}}\n", a, w)
 		}
-		label(x(pc.lo), pc.lo, pc.loText)
+		label(x(pc.lo), pc.lo, pc.loText, pc.loName)
 	}
 	end := ps[len(ps)-1]
-	label(x(end.hi), end.hi, end.hiText)
+	label(x(end.hi), end.hi, end.hiText, end.hiName)
 	fmt.Fprintf(&b, "\\put(%.0f,13){\\makebox(0,0)[r]{\\small $%s$: filled where every condition holds, open where one fails}}\n", width, texName(rv.Name))
 	b.WriteString("\\end{picture}\n\\end{center}\n")
 	return b.String()
@@ -211,8 +352,87 @@ type pavingView struct {
 	Resolution node
 	Counts     []rich
 	Leaves     int
-	SVG        string // the drawing, for HTML
+	SVG        string // the drawing, for HTML and (as a file) Markdown
+	Figure     string // Markdown: the drawing's file, when written
 	Note       string // why there is no drawing
+	params     []string
+	leaves     []certificates.PavingLeaf
+}
+
+// maxPictureLeaves bounds the boxes drawn in LaTeX's picture environment,
+// which keeps every box in TeX's memory; above it the LaTeX report says
+// where the drawing is.
+const maxPictureLeaves = 4000
+
+// pavingPicture draws a paving in LaTeX's picture environment, which needs
+// no package: the leaves projected on the first two paved parameters (on
+// the first alone, as a strip, when there is one), a filled box where every
+// condition holds, a framed one where the paving is undecided, nothing
+// where a condition fails. The positions are rounded for the picture only.
+func pavingPicture(v *pavingView) string {
+	if len(v.leaves) == 0 || len(v.leaves) > maxPictureLeaves {
+		return ""
+	}
+	f := func(q *big.Rat) float64 { x, _ := q.Float64(); return x }
+	x0, x1 := math.Inf(1), math.Inf(-1)
+	y0, y1 := 0.0, 1.0
+	two := len(v.params) > 1
+	if two {
+		y0, y1 = math.Inf(1), math.Inf(-1)
+	}
+	for _, lf := range v.leaves {
+		x0, x1 = math.Min(x0, f(lf.Lo[0])), math.Max(x1, f(lf.Hi[0]))
+		if two {
+			y0, y1 = math.Min(y0, f(lf.Lo[1])), math.Max(y1, f(lf.Hi[1]))
+		}
+	}
+	const width = 110.0 // mm
+	height := 12.0
+	if two {
+		height = 80
+	}
+	if x1 <= x0 || y1 <= y0 {
+		return ""
+	}
+	sx, sy := width/(x1-x0), height/(y1-y0)
+	var b strings.Builder
+	b.WriteString("\\begin{center}\n\\setlength{\\unitlength}{1mm}\n")
+	fmt.Fprintf(&b, "\\begin{picture}(%.0f,%.0f)(-12,-10)\n", width+12, height+12)
+	order := map[byte]int{checker.PaveInside: 0, checker.PaveOutside: 1, checker.PaveUndecided: 2}
+	sorted := append([]certificates.PavingLeaf(nil), v.leaves...)
+	sort.SliceStable(sorted, func(i, j int) bool { return order[sorted[i].Class] < order[sorted[j].Class] })
+	for _, lf := range sorted {
+		a, c := (f(lf.Lo[0])-x0)*sx, (f(lf.Hi[0])-x0)*sx
+		lo, hi := 0.0, height
+		if two {
+			lo, hi = (f(lf.Lo[1])-y0)*sy, (f(lf.Hi[1])-y0)*sy
+		}
+		switch lf.Class {
+		case checker.PaveInside:
+			fmt.Fprintf(&b, "\\put(%.2f,%.2f){\\rule{%.2fmm}{%.2fmm}}\n", a, lo, c-a, hi-lo)
+		case checker.PaveUndecided:
+			fmt.Fprintf(&b, "\\put(%.2f,%.2f){\\framebox(%.2f,%.2f){}}\n", a, lo, c-a, hi-lo)
+		}
+	}
+	fmt.Fprintf(&b, "\\put(0,0){\\framebox(%.0f,%.0f){}}\n", width, height)
+	num := func(x float64) string {
+		return strings.ReplaceAll(strconv.FormatFloat(x, 'g', 4, 64), "-", "$-$")
+	}
+	fmt.Fprintf(&b, "\\put(0,-2){\\makebox(0,0)[t]{\\scriptsize %s}}\n", num(x0))
+	fmt.Fprintf(&b, "\\put(%.0f,-2){\\makebox(0,0)[t]{\\scriptsize %s}}\n", width, num(x1))
+	fmt.Fprintf(&b, "\\put(%.0f,-6){\\makebox(0,0)[t]{\\small $%s$}}\n", width/2, texName(v.params[0]))
+	if two {
+		fmt.Fprintf(&b, "\\put(-1,0){\\makebox(0,0)[r]{\\scriptsize %s}}\n", num(y0))
+		fmt.Fprintf(&b, "\\put(-1,%.0f){\\makebox(0,0)[r]{\\scriptsize %s}}\n", height, num(y1))
+		fmt.Fprintf(&b, "\\put(-6,%.0f){\\makebox(0,0)[r]{\\small $%s$}}\n", height/2, texName(v.params[1]))
+	}
+	b.WriteString("\\end{picture}\n\\end{center}\n")
+	b.WriteString("\\noindent Filled: every condition holds on the box; framed: undecided at the resolution; blank: some condition fails on all of it.")
+	if len(v.params) > 2 {
+		b.WriteString(" The boxes are projected on the first two paved parameters, undecided ones drawn last.")
+	}
+	b.WriteString("\n")
+	return b.String()
 }
 
 // maxDrawnLeaves bounds the boxes drawn in a paving's picture; the counts
@@ -263,6 +483,10 @@ func newPavingView(pv *checker.Paving) *pavingView {
 	}
 	leaves, err := certificates.Leaves(pv)
 	v.Leaves = len(leaves)
+	v.params = pv.Params
+	if err == nil {
+		v.leaves = leaves
+	}
 	switch {
 	case err != nil:
 		v.Note = "The paving could not be drawn: " + err.Error()
@@ -406,15 +630,7 @@ func PavingPlot(pv *checker.Paving, fixed map[int]*big.Rat, format string) ([]by
 		p.Legend.Add(classNames[c]+", "+boxes(len(layers[c].boxes)), layers[c])
 	}
 	p.Legend.Top = true
-	wt, err := p.WriterTo(6*vg.Inch, 5*vg.Inch, format)
-	if err != nil {
-		return nil, err
-	}
-	var buf bytes.Buffer
-	if _, err := wt.WriteTo(&buf); err != nil {
-		return nil, err
-	}
-	return buf.Bytes(), nil
+	return renderPlot(6*vg.Inch, 5*vg.Inch, format, func(c draw.Canvas) { p.Draw(c) })
 }
 
 // boxLayer is a plot.Plotter of filled axis-parallel boxes
@@ -599,17 +815,9 @@ func SweepPlot(title string, names []string, cells []SweepCell, format string) (
 		height = 7 * vg.Centimeter
 	}
 	legend := 6 * vg.Centimeter
-	wt, err := draw.NewFormattedCanvas(width, height, format)
-	if err != nil {
-		return nil, err
-	}
 	// The plot on the left, the legend beside it where it hides no cell.
-	dc := draw.New(wt)
-	p.Draw(draw.Crop(dc, 0, -legend, 0, 0))
-	leg.Draw(draw.Crop(dc, width-legend+vg.Centimeter/2, 0, 0, -vg.Centimeter))
-	var buf bytes.Buffer
-	if _, err := wt.WriteTo(&buf); err != nil {
-		return nil, err
-	}
-	return buf.Bytes(), nil
+	return renderPlot(width, height, format, func(dc draw.Canvas) {
+		p.Draw(draw.Crop(dc, 0, -legend, 0, 0))
+		leg.Draw(draw.Crop(dc, width-legend+vg.Centimeter/2, 0, 0, -vg.Centimeter))
+	})
 }

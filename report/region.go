@@ -31,7 +31,7 @@ type alphaEnd struct {
 	poly    string
 	iso     [2]string
 	decimal string
-	sym     node
+	sym     sub
 }
 
 // stripPiece is a piece as drawn: its ends as float64 for the picture only
@@ -39,6 +39,7 @@ type alphaEnd struct {
 type stripPiece struct {
 	lo, hi           float64
 	loText, hiText   string
+	loName, hiName   *sub // the name of an irrational end, nil for others
 	holds, point     bool
 	loClosed, hiOpen bool
 }
@@ -95,6 +96,7 @@ func (b *builder) region(rg checker.SturmRegion) (*regionView, error) {
 		rv.Pieces = append(rv.Pieces, pieceView{pc.Holds, rich{word + " for ", relation{rv.Param, symIn, iv}}})
 		rv.strip = append(rv.strip, stripPiece{
 			lo: endFloat(pc.Lo), hi: endFloat(pc.Hi), loText: endLabel(pc.Lo), hiText: endLabel(pc.Hi),
+			loName: b.alphaOf(lo), hiName: b.alphaOf(hi),
 			holds: pc.Holds, point: point, loClosed: pc.LoClosed, hiOpen: !pc.HiClosed,
 		})
 	}
@@ -197,6 +199,16 @@ func endFloat(s string) float64 {
 	return 0
 }
 
+// alphaOf returns the named irrational end n, or nil when n is not one.
+func (b *builder) alphaOf(n node) *sub {
+	for i := range b.alphas {
+		if b.alphas[i].sym == n {
+			return &b.alphas[i].sym
+		}
+	}
+	return nil
+}
+
 // endLabel is a short label for an end on the plot's axis.
 func endLabel(s string) string {
 	switch s {
@@ -233,4 +245,12 @@ func pavingOf(d *docView) *pavingView {
 
 // attractionOf is the hook for a region-of-attraction section: certificates
 // carry no such data yet, so there is none.
+//
+// It is also where a bifurcation diagram or a basin plot joins the reports
+// once certificates carry one: set attractionView.Text to what it shows and
+// SVG to the drawing (drawSVG of a gonum plot, like the paving's), and each
+// format presents it with no further change — HTML inline, Markdown as a
+// file beside the report through Options.Figure ("attraction.svg", see
+// renderMarkdown), LaTeX through a picture-environment drawing in
+// attractionView.Picture (as pavingPicture draws the paving).
 func attractionOf(*checker.Document) *attractionView { return nil }

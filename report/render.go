@@ -110,7 +110,10 @@ var texTemplate = texttemplate.Must(texttemplate.New("report.tex.tmpl").Funcs(te
 	},
 	"one":     one,
 	"picture": stripPicture,
+	"paving":  pavingPicture,
 	"code":    func(s string) string { return `\texttt{` + texText(s) + `}` },
+	// longcode is code that may break anywhere (a file name of any length).
+	"longcode": func(s string) string { return `\texttt{` + texBreakable(s) + `}` },
 }).ParseFS(templateFiles, "templates/report.tex.tmpl"))
 
 // The HTML template gets only what this package generated itself as
@@ -151,6 +154,20 @@ func renderMarkdown(w io.Writer, p *page, opts Options) error {
 			return err
 		}
 		rv.Figure = ref
+	}
+	if pv := p.Paving; pv != nil && pv.SVG != "" && opts.Figure != nil {
+		ref, err := opts.Figure("paving.svg", []byte(`<?xml version="1.0" encoding="UTF-8"?>`+"\n"+pv.SVG))
+		if err != nil {
+			return err
+		}
+		pv.Figure = ref
+	}
+	if a := p.Attraction; a != nil && a.SVG != "" && opts.Figure != nil {
+		ref, err := opts.Figure("attraction.svg", []byte(`<?xml version="1.0" encoding="UTF-8"?>`+"\n"+a.SVG))
+		if err != nil {
+			return err
+		}
+		a.Figure = ref
 	}
 	return mdTemplate.Execute(w, p)
 }

@@ -167,8 +167,10 @@ type recordView struct {
 // attractionView is the region-of-attraction section. Certificates carry no
 // such data yet; build leaves it nil, and the templates skip it.
 type attractionView struct {
-	Text rich
-	SVG  string
+	Text    rich
+	SVG     string // the drawing: HTML inline, Markdown as a file
+	Figure  string // Markdown: the drawing's file, when written
+	Picture string // LaTeX: the drawing in the picture environment
 }
 
 func build(doc *checker.Document, opts Options) (*page, error) {

@@ -332,6 +332,28 @@ func TestFigureFiles(t *testing.T) {
 	if regexp.MustCompile(`<script`).Match(svg) {
 		t.Error("the plot carries a script")
 	}
+
+	// A paving's picture is handed out too, and referenced.
+	for _, c := range certs(t) {
+		if c.name != "twogains" {
+			continue
+		}
+		files := map[string][]byte{}
+		var buf bytes.Buffer
+		err := report.Render(&buf, c.doc, report.Options{Format: report.Markdown, Figure: func(name string, data []byte) (string, error) {
+			files[name] = data
+			return "out-" + name, nil
+		}})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if svg := files["paving.svg"]; !bytes.Contains(svg, []byte("<svg")) {
+			t.Errorf("no paving picture handed out: %v", files)
+		}
+		if !strings.Contains(buf.String(), "](out-paving.svg)") {
+			t.Error("the Markdown does not reference the paving picture")
+		}
+	}
 }
 
 func TestParseFormat(t *testing.T) {

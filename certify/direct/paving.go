@@ -32,6 +32,12 @@ type PaveOptions struct {
 	Workers  int
 	Progress pave.Progress
 	MaxBoxes int
+	// Plan, if not nil, is told the paved parameters (in the order of the
+	// certificate's paving) once they are known and before the paving
+	// starts; an error from it stops the check before the costly part,
+	// wrapped in ErrPaveOptions. The command line uses it to refuse a plot
+	// that cannot be drawn without paving first.
+	Plan func(params []string) error
 }
 
 // DefaultResolution is the default finest box side, relative to each side of
@@ -152,6 +158,15 @@ func (res *Result) paveRegion(ctx context.Context, vars []int, opts PaveOptions)
 	var conds []*poly.Poly
 	for _, c := range res.Conds {
 		conds = append(conds, c.Q)
+	}
+	if opts.Plan != nil {
+		var names []string
+		for _, s := range box {
+			names = append(names, r.Name(s.Var))
+		}
+		if err := opts.Plan(names); err != nil {
+			return fmt.Errorf("%w: %w", ErrPaveOptions, err)
+		}
 	}
 	pv, err := pave.PaveRegion(ctx, conds, box, level, pave.Options{Workers: opts.Workers, Progress: opts.Progress, MaxBoxes: opts.MaxBoxes})
 	if err != nil {

@@ -32,6 +32,15 @@ type Progress interface {
 	Paved(share float64)
 }
 
+// TaskProgress is a Progress that is also told how many of the paving's
+// subtrees are classified, out of how many. Work is counted, not volume:
+// the boxes near the boundary of the region cost the most and hold the least
+// volume, so a count of subtrees predicts the remaining time better.
+type TaskProgress interface {
+	Progress
+	Tasks(done, total int)
+}
+
 // Options tune PaveRegion; the zero value is ready to use.
 type Options struct {
 	// Workers is the number of goroutines; ≤ 0 means GOMAXPROCS. The
@@ -187,6 +196,10 @@ func PaveRegion(ctx context.Context, conds []*poly.Poly, box []Side, level int, 
 		}
 	}
 	report(topShare)
+	tp, _ := opts.Progress.(TaskProgress)
+	if tp != nil {
+		tp.Tasks(0, len(tasks))
+	}
 	rejectedTop := tw.rejected
 
 	results := make([]taskResult, len(tasks))
@@ -206,11 +219,15 @@ func PaveRegion(ctx context.Context, conds []*poly.Poly, box []Side, level int, 
 			return r
 		}
 	})
-	share := topShare
+	share, finished := topShare, 0
 	for r := range done {
 		results[r.Item] = r.Value
 		share += tasks[r.Item].g.share()
 		report(share)
+		finished++
+		if tp != nil {
+			tp.Tasks(finished, len(tasks))
+		}
 	}
 	// The first error in task order, so that the error, too, does not
 	// depend on scheduling; a cancellation from outside comes last.

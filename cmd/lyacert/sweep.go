@@ -15,8 +15,6 @@ import (
 	"syscall"
 	"time"
 
-	"github.com/schollz/progressbar/v3"
-
 	"lyacert/certificates"
 	"lyacert/checker"
 	"lyacert/model"
@@ -55,20 +53,6 @@ func (c *sweepCmd) Run(e *env) error {
 		debug.SetGCPercent(400)
 	}
 	return exit(c.run(e))
-}
-
-// barProgress adapts a progress bar to sweep.Progress.
-type barProgress struct{ bar *progressbar.ProgressBar }
-
-func (b barProgress) Add(n int) { b.bar.Add(n) }
-
-func isTerminal(w io.Writer) bool {
-	f, ok := w.(*os.File)
-	if !ok {
-		return false
-	}
-	st, err := f.Stat()
-	return err == nil && st.Mode()&os.ModeCharDevice != 0
 }
 
 func (c *sweepCmd) run(e *env) int {
@@ -161,13 +145,18 @@ func (c *sweepCmd) run(e *env) int {
 		todo = min(todo, c.MaxPoints)
 	}
 	var progress sweep.Progress
-	if isTerminal(e.stderr) && todo > 0 {
-		bar := progressbar.NewOptions(todo, progressbar.OptionSetWriter(e.stderr), progressbar.OptionSetDescription("sweep"),
-			progressbar.OptionShowCount(), progressbar.OptionShowIts(), progressbar.OptionSetItsString("points"),
-			progressbar.OptionThrottle(200*time.Millisecond), progressbar.OptionClearOnFinish())
-		progress = barProgress{bar}
-		defer bar.Finish()
+	var bar *bar
+	if todo > 0 {
+		bar = newBar(e.stderr, "sweep", "points", todo)
 	}
+	if bar != nil {
+		progress = bar
+	}
+	if bar != nil && file == nil {
+		// Lines on the terminal never share a line with the bar.
+		out = lineWriter{out, bar}
+	}
+	defer bar.stop()
 
 	w := bufio.NewWriterSize(out, 1<<16)
 	points := []gridPoint{}
@@ -210,6 +199,7 @@ func (c *sweepCmd) run(e *env) int {
 	if ferr := flush(); err == nil {
 		err = ferr
 	}
+	bar.stop() // before the summary and any message
 	if err != nil {
 		return e.failf(exitInput, "sweep: %w", err)
 	}

@@ -100,7 +100,7 @@ func sosGram(p poly.RatFunc, nstates int) (f Form, m Method, prob *sdp.Problem, 
 	c := res.Certificate
 	if c == nil {
 		switch {
-		case res.Refutation != nil:
+		case res.NotSOS != nil:
 			why = fmt.Sprintf("it is not a sum of squares in the %d-monomial Newton basis (an exact moment matrix separates it; the engine checked this, the kernel has no rule for it)", res.Sizes.Basis)
 		default:
 			why = fmt.Sprintf("the SDP found no positive definite Gram matrix in the %d-monomial Newton basis (solver: %v, margin %.3g)", res.Sizes.Basis, res.SolverStatus, res.Sizes.Margin)

@@ -18,7 +18,7 @@ func ExampleFind() {
 			fmt.Println(err)
 			return
 		}
-		fmt.Printf("basis %d: certificate %v, refutation %v\n", len(res.Basis), res.Certificate != nil, res.Refutation != nil)
+		fmt.Printf("basis %d: certificate %v, refutation %v\n", len(res.Basis), res.Certificate != nil, res.NotSOS != nil)
 	}
 	// Output:
 	// basis 3: certificate true, refutation false

@@ -33,13 +33,13 @@ type Certificate struct {
 	Bits    int      // rounding precision: entries were rounded to multiples of 2^−Bits before the projection
 }
 
-// Refutation proves that p is not a sum of squares: a linear functional L
+// NotSOS proves that p is not a sum of squares: a linear functional L
 // on the monomials of the classes (L(x^γ) = Moments[γ]) with L(p) < 0 whose
 // moment matrix M_ab = L(z_a·z_b) is positive definite. If p = zᵀGz with
 // G ⪰ 0, then L(p) = ⟨M, G⟩ ≥ 0, a contradiction. The argument rests on
 // the basis containing every monomial a Gram matrix of p can use (the
 // half Newton polytope, Reznick 1978); a checker must re-derive that too.
-type Refutation struct {
+type NotSOS struct {
 	Moments map[string]*big.Rat // by the key of the exponent (see Key)
 	Moment  [][]*big.Rat        // M in the basis
 	Factor  LDL                 // M = L·D·Lᵀ, every D[k] > 0 (or M = 0, Factor empty)
@@ -56,13 +56,13 @@ type Sizes struct {
 	Margin      float64 // the solver's margin t: λmin(G) ≈ t
 }
 
-// Result is the outcome of Find: a Certificate, a Refutation, or neither
+// Result is the outcome of Find: a Certificate, a NotSOS proof, or neither
 // (the method found no proof either way).
 type Result struct {
 	Vars        []int   // ring indices of the variables of the basis exponents
 	Basis       [][]int // exponents of the monomials z, over Vars
 	Certificate *Certificate
-	Refutation  *Refutation
+	NotSOS      *NotSOS
 	Sizes       Sizes
 	// SolverStatus is the status of the margin SDP.
 	SolverStatus sdp.Status
@@ -342,7 +342,7 @@ func Find(ctx context.Context, p *poly.Poly, opts *Options) (*Result, error) {
 		}
 		v := new(big.Rat).Neg(new(big.Rat).Abs(c))
 		m := big.NewRat(-int64(c.Sign()), 1)
-		res.Refutation = &Refutation{Moments: map[string]*big.Rat{Key(e): m}, Moment: zeroMatrix(len(g.Basis)), Value: v}
+		res.NotSOS = &NotSOS{Moments: map[string]*big.Rat{Key(e): m}, Moment: zeroMatrix(len(g.Basis)), Value: v}
 		return res, nil
 	}
 	if len(g.Basis) == 0 {
@@ -396,7 +396,7 @@ func Find(ctx context.Context, p *poly.Poly, opts *Options) (*Result, error) {
 		}
 	}
 	if mr.T < 0 {
-		res.Refutation = g.refute(mr.Y)
+		res.NotSOS = g.refute(mr.Y)
 	}
 	return res, nil
 }
@@ -476,7 +476,7 @@ func (g *Gram) round(x []float64, coef []*big.Rat, t float64) *Certificate {
 // measure on [−1, 1]ⁿ, whose moment matrix is positive definite (monomials
 // are linearly independent functions on the cube), with a weight θ small
 // enough to keep L(p) < 0.
-func (g *Gram) refute(y []float64) *Refutation {
+func (g *Gram) refute(y []float64) *NotSOS {
 	n := len(g.Basis)
 	ref := make([]*big.Rat, len(g.Classes))
 	for ci, c := range g.Classes {
@@ -531,7 +531,7 @@ func (g *Gram) refute(y []float64) *Refutation {
 			}
 			var f LDL
 			if f.Factorize(M) {
-				return &Refutation{Moments: mom, Moment: M, Factor: f, Value: v}
+				return &NotSOS{Moments: mom, Moment: M, Factor: f, Value: v}
 			}
 		}
 	}

@@ -81,7 +81,7 @@ func checkCertificate(t *testing.T, p *poly.Poly, res *sos.Result) {
 // positive pivots (or M = 0).
 func checkRefutation(t *testing.T, p *poly.Poly, res *sos.Result) {
 	t.Helper()
-	f := res.Refutation
+	f := res.NotSOS
 	val := new(big.Rat)
 	for _, term := range p.Terms() {
 		e := make([]int, len(res.Vars))
@@ -170,7 +170,7 @@ func TestMotzkin(t *testing.T) {
 	if len(res.Basis) != 4 {
 		t.Errorf("basis %v, want 1, xy, x²y, xy²", res.Basis)
 	}
-	if res.Refutation == nil {
+	if res.NotSOS == nil {
 		t.Fatal("no refutation")
 	}
 	checkRefutation(t, p, res)
@@ -181,7 +181,7 @@ func TestMotzkin(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if res.Certificate != nil || res.Refutation == nil {
+	if res.Certificate != nil || res.NotSOS == nil {
 		t.Fatal("variant: want a refutation")
 	}
 	checkRefutation(t, q, res)
@@ -268,7 +268,7 @@ func TestPlantedNegative(t *testing.T) {
 		if res.Certificate != nil {
 			t.Fatalf("certificate for %v, negative at (1,1)", p)
 		}
-		if res.Refutation != nil {
+		if res.NotSOS != nil {
 			checkRefutation(t, p, res)
 			found++
 		}

@@ -257,10 +257,9 @@ func (c *run) form(f *LDLForm, g poly.Matrix) (*checkedForm, bool) {
 		return cf, false
 	}
 	cf.d, cf.zero = d, make([]bool, n)
-	dm := poly.NewMatrix(c.r, n)
 	unit, zeroCols := true, true
 	for i := range n {
-		dm[i][i], cf.zero[i] = d[i], d[i].IsZero()
+		cf.zero[i] = d[i].IsZero()
 		cf.semidef = cf.semidef || cf.zero[i]
 		for j := range n {
 			switch {
@@ -275,7 +274,7 @@ func (c *run) form(f *LDLForm, g poly.Matrix) (*checkedForm, bool) {
 	}
 	if !c.add("ldl "+name, unit, "L is unit lower triangular") ||
 		!c.add("ldl "+name, zeroCols, "a zero pivot has a zero column of L below it") ||
-		!c.add("ldl "+name, l.Mul(dm).Mul(l.Transpose()).Equal(g), "L·D·Lᵀ reproduces the Gram matrix exactly") {
+		!c.add("ldl "+name, g.EqualLDL(l, d), "L·D·Lᵀ reproduces the Gram matrix exactly") {
 		return cf, false
 	}
 	// Minors: of G itself (no zero pivot), or of its principal submatrix on

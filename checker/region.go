@@ -89,10 +89,10 @@ func (c *run) readEnd(value, polyText string, iso *[2]string, closed bool, param
 // sturmRegion: the exact set of values of one parameter where every
 // condition holds. The pieces tile the parameter's allowed range; on each,
 // every condition is > 0 throughout, or some condition is ≤ 0 throughout.
-// Sturm's theorem counts the distinct real roots of a condition in a piece
-// (none inside means a constant sign, read at one rational sample), and
-// locates each irrational end: the unique root of its polynomial in an
-// isolating interval, whose decimal is checked the same way.
+// Sturm's theorem locates each irrational end (the unique root of its
+// polynomial in an isolating interval) and shows every real root of every
+// condition to be an end, so that one rational sample decides each piece
+// (poly.Tiling.Signs).
 func (c *run) sturmRegion(cl Claim) bool {
 	rg := cl.(*SturmRegion)
 	used, ok := c.conditionsUsed("region")

@@ -114,3 +114,20 @@ func benchCyclic(b *testing.B, n int) {
 		})
 	}
 }
+
+// BenchmarkDeriveCyclic times the derivation alone on the cyclic chain (V̇,
+// the Gram matrices, LDLᵀ, leading minors, factored conditions), for the
+// side-by-side comparison in bench/side_by_side.py.
+func BenchmarkDeriveCyclic(b *testing.B) {
+	for _, n := range []int{5, 10, 20, 40, 80} {
+		b.Run(fmt.Sprintf("n=%d", n), func(b *testing.B) {
+			m, err := model.Parse("cyclic.lya", []byte(cyclicChain(n)))
+			if err != nil {
+				b.Fatal(err)
+			}
+			for b.Loop() {
+				derive(m)
+			}
+		})
+	}
+}

@@ -257,10 +257,9 @@ func (c *run) form(f *LDLForm, g poly.Matrix) (*checkedForm, bool) {
 		return cf, false
 	}
 	cf.d, cf.zero = d, make([]bool, n)
-	dm := poly.NewMatrix(c.r, n)
 	unit, zeroCols := true, true
 	for i := range n {
-		dm[i][i], cf.zero[i] = d[i], d[i].IsZero()
+		cf.zero[i] = d[i].IsZero()
 		cf.semidef = cf.semidef || cf.zero[i]
 		for j := range n {
 			switch {
@@ -275,7 +274,7 @@ func (c *run) form(f *LDLForm, g poly.Matrix) (*checkedForm, bool) {
 	}
 	if !c.add("ldl "+name, unit, "L is unit lower triangular") ||
 		!c.add("ldl "+name, zeroCols, "a zero pivot has a zero column of L below it") ||
-		!c.add("ldl "+name, l.Mul(dm).Mul(l.Transpose()).Equal(g), "L·D·Lᵀ reproduces the Gram matrix exactly") {
+		!c.add("ldl "+name, g.EqualLDL(l, d), "L·D·Lᵀ reproduces the Gram matrix exactly") {
 		return cf, false
 	}
 	// Minors: of G itself (no zero pivot), or of its principal submatrix on
@@ -294,7 +293,7 @@ func (c *run) form(f *LDLForm, g poly.Matrix) (*checkedForm, bool) {
 	}
 	for i, mi := range minors {
 		if !c.add("minors "+name, mi.Equal(want[i]), "minor %d equals the product of the first pivots", i+1) ||
-			!c.add("minors "+name, c.denominatorsNonzero(mi), "the denominator of minor %d is non-zero on the parameter box", i+1) {
+			!c.add("minors "+name, mi.DenNonzeroOn(c.box), "the denominator of minor %d is non-zero on the parameter box", i+1) {
 			return cf, false
 		}
 	}
@@ -304,9 +303,9 @@ func (c *run) form(f *LDLForm, g poly.Matrix) (*checkedForm, bool) {
 	}
 	defined := true
 	for i := 0; cf.semidef && i < n; i++ {
-		defined = defined && c.denominatorsNonzero(d[i])
+		defined = defined && d[i].DenNonzeroOn(c.box)
 		for j := range n {
-			defined = defined && c.denominatorsNonzero(l[j][i])
+			defined = defined && l[j][i].DenNonzeroOn(c.box)
 		}
 	}
 	return cf, c.add("ldl "+name, defined, "the factors are defined on the whole parameter box (needed when semidefinite)")
@@ -325,15 +324,6 @@ func (c *run) list(name string, ss []string, n int, what string) ([]poly.RatFunc
 		}
 	}
 	return out, true
-}
-
-func (c *run) denominatorsNonzero(f poly.RatFunc) bool {
-	for _, d := range f.Den {
-		if d.P.Enclose(c.box).ContainsZero() {
-			return false
-		}
-	}
-	return true
 }
 
 // minorCondition: the factorization of a minor is an identity, and each
@@ -592,38 +582,12 @@ func (c *run) refutation(cl Claim) bool {
 		delete(rest, i)
 		a, _ := at(c.v, rest)
 		b, _ := at(c.vdot, rest)
-		if !c.add("refutation", a.Num.UsesVar(i) || b.Num.UsesVar(i) || denUses(a, i) || denUses(b, i), "V or V̇ there depends on %s, which the refutation fixes", c.r.Name(i)) {
+		if !c.add("refutation", a.UsesVar(i) || b.UsesVar(i), "V or V̇ there depends on %s, which the refutation fixes", c.r.Name(i)) {
 			return false
 		}
 	}
-	neg := vv.Num.Enclose(c.box).Mul(denSign(vv, c.box))
-	pos := dv.Num.Enclose(c.box).Mul(denSign(dv, c.box))
+	neg := vv.Num.Enclose(c.box).Mul(vv.DenSign(c.box))
+	pos := dv.Num.Enclose(c.box).Mul(dv.DenSign(c.box))
 	c.refuted = c.add("refutation", neg.NonPositive() || pos.NonNegative(), "V ≤ 0 or V̇ ≥ 0 there, for every value of the parameters left free")
 	return c.refuted
-}
-
-func denUses(f poly.RatFunc, i int) bool {
-	for _, d := range f.Den {
-		if d.P.UsesVar(i) {
-			return true
-		}
-	}
-	return false
-}
-
-// denSign returns an interval with the sign of f's denominator on the box
-// (the whole line when it is not fixed), so that num·sign has f's sign.
-func denSign(f poly.RatFunc, box []poly.Interval) poly.Interval {
-	one := poly.Point(big.NewRat(1, 1))
-	if len(f.Den) == 0 {
-		return one
-	}
-	e := f.DenPoly().Enclose(box)
-	switch {
-	case e.Positive():
-		return one
-	case e.Negative():
-		return poly.Point(big.NewRat(-1, 1))
-	}
-	return poly.Entire()
 }

@@ -58,22 +58,30 @@ func (c *run) readEnd(value, polyText string, iso *[2]string, closed bool, param
 		}
 		e.Value = q
 	default:
-		f, ok := c.parse("region", polyText)
-		if !ok {
-			return e, false
+		key := fmt.Sprint(param, " ", polyText)
+		if c.sturm[key] == nil {
+			f, ok := c.parse("region", polyText)
+			if !ok {
+				return e, false
+			}
+			u, uni := f.Num.Univariate(param)
+			if !c.add("region", f.IsPoly() && uni && u.Degree() >= 2, "%s end: %s is a polynomial of degree ≥ 2 in the region's parameter", what, polyText) {
+				return e, false
+			}
+			c.sturm[key] = poly.NewSturm(u) // built once per polynomial
 		}
-		u, uni := f.Num.Univariate(param)
-		if !c.add("region", f.IsPoly() && uni && u.Degree() >= 2 && iso != nil, "%s end: %s is a polynomial of degree ≥ 2 in the region's parameter with an isolating interval", what, polyText) {
+		st := c.sturm[key]
+		if !c.add("region", iso != nil, "%s end: %s comes with an isolating interval", what, polyText) {
 			return e, false
 		}
 		a, ok1 := parseRat(iso[0])
 		b, ok2 := parseRat(iso[1])
 		if !c.add("region", ok1 && ok2 && a.Cmp(b) < 0, "%s end: isolating interval (%s, %s)", what, iso[0], iso[1]) ||
-			!c.add("region", u.CountRoots(poly.UBound{Value: a}, poly.UBound{Value: b}) == 1, "%s end: %s has exactly one root in [%s, %s] (Sturm)", what, polyText, iso[0], iso[1]) ||
-			!c.add("region", poly.RoundsTo(u, a, b, value), "%s end: the root of %s rounds to %s", what, polyText, value) {
+			!c.add("region", st.Count(poly.UBound{Value: a}, poly.UBound{Value: b}) == 1, "%s end: %s has exactly one root in [%s, %s] (Sturm)", what, polyText, iso[0], iso[1]) ||
+			!c.add("region", st.RoundsTo(a, b, value), "%s end: the root of %s rounds to %s", what, polyText, value) {
 			return e, false
 		}
-		e.P, e.A, e.B = u, a, b
+		e.P, e.A, e.B = st.P, a, b
 	}
 	return e, e.Inf == 0 || c.add("region", !closed, "%s end %s is open", what, value)
 }
@@ -81,10 +89,10 @@ func (c *run) readEnd(value, polyText string, iso *[2]string, closed bool, param
 // sturmRegion: the exact set of values of one parameter where every
 // condition holds. The pieces tile the parameter's allowed range; on each,
 // every condition is > 0 throughout, or some condition is ≤ 0 throughout.
-// Sturm's theorem counts the distinct real roots of a condition in a piece
-// (none inside means a constant sign, read at one rational sample), and
-// locates each irrational end: the unique root of its polynomial in an
-// isolating interval, whose decimal is checked the same way.
+// Sturm's theorem locates each irrational end (the unique root of its
+// polynomial in an isolating interval) and shows every real root of every
+// condition to be an end, so that one rational sample decides each piece
+// (poly.Tiling.Signs).
 func (c *run) sturmRegion(cl Claim) bool {
 	rg := cl.(*SturmRegion)
 	used, ok := c.conditionsUsed("region")
@@ -146,17 +154,20 @@ func (c *run) regionPieces(rg *SturmRegion, pi int, conds []poly.Univariate, dom
 		}
 	}
 	// Each piece: all conditions > 0 on it, or one condition ≤ 0 on all of it.
+	signs, known := poly.Tiling(pieces).Signs(conds)
+	if !c.add("region", !slices.Contains(known, false), "every real root of every condition in the range is an end of a piece (Sturm)") {
+		return false, false, false
+	}
 	var holdsText []Interval
-	for i, p := range pieces {
+	for i := range pieces {
+		pos := slices.IndexFunc(signs, func(s poly.Signs) bool { return !s.Positive[i] })
 		if rg.Pieces[i].Holds {
 			anyHolds = true
 			holdsText = append(holdsText, rg.Pieces[i].Interval)
-			for j, q := range conds {
-				if !c.add("region", p.PositiveOn(q), "piece %d: condition %d is > 0 throughout", i+1, j+1) {
-					return false, false, false
-				}
+			if !c.add("region", pos < 0, "piece %d: every condition is > 0 throughout", i+1) {
+				return false, false, false
 			}
-		} else if anyFails = true; !c.add("region", slices.ContainsFunc(conds, p.NonPositiveOn), "piece %d: some condition is ≤ 0 throughout", i+1) {
+		} else if anyFails = true; !c.add("region", slices.ContainsFunc(signs, func(s poly.Signs) bool { return s.NonPositive[i] }), "piece %d: some condition is ≤ 0 throughout", i+1) {
 			return false, false, false
 		}
 	}

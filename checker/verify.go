@@ -72,7 +72,7 @@ var rules = []rule{
 // rule it names, the verdict derived from them, the digest and a present
 // signature (see the package documentation).
 func Verify(d *Document) Outcome {
-	c := &run{doc: d, records: make([]Record, 0, 64), forms: map[string]*checkedForm{}, seen: map[string]bool{}}
+	c := &run{doc: d, records: make([]Record, 0, 64), forms: map[string]*checkedForm{}, seen: map[string]bool{}, sturm: map[string]*poly.Sturm{}}
 	verdict, kind := c.verify()
 	if d.Signature != nil {
 		c.signature()
@@ -101,6 +101,7 @@ type run struct {
 	r       *poly.Ring
 	box     []poly.Interval
 	seen    map[string]bool
+	sturm   map[string]*poly.Sturm // the algebraic ends' polynomials, read once
 
 	// The direct method.
 	derived     bool         // the orbital derivative was checked

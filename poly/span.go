@@ -87,71 +87,6 @@ type Span struct{ Lo, Hi End }
 // Point reports a span of one point.
 func (s Span) Point() bool { return s.Lo.Same(s.Hi) && s.Lo.Closed && s.Hi.Closed }
 
-// PositiveOn reports q > 0 at every point of the span (Sturm's theorem: no
-// root inside, the sign of one rational sample; at an algebraic end the only
-// possible root is the end itself, decided through the gcd with its
-// polynomial).
-func (s Span) PositiveOn(q Univariate) bool {
-	if q.IsZero() {
-		return false
-	}
-	if s.Point() {
-		return pointSign(q, s.Lo) > 0
-	}
-	return s.rootFree(q, true) && q.Sign(s.sample()) > 0
-}
-
-// NonPositiveOn reports q ≤ 0 at every point of the span (by continuity at
-// the ends when q < 0 inside).
-func (s Span) NonPositiveOn(q Univariate) bool {
-	if q.IsZero() {
-		return true
-	}
-	if s.Point() {
-		return pointSign(q, s.Lo) <= 0
-	}
-	return s.rootFree(q, false) && q.Sign(s.sample()) < 0
-}
-
-// rootFree reports that q has no root in the span, with its closed ends
-// included when withEnds.
-func (s Span) rootFree(q Univariate, withEnds bool) bool {
-	lo, hi := s.Lo.inner(false), s.Hi.inner(true)
-	if !withEnds {
-		if s.Lo.Rational() {
-			lo.Open = true
-		}
-		if s.Hi.Rational() {
-			hi.Open = true
-		}
-	}
-	if q.CountRoots(lo, hi) != 0 {
-		return false
-	}
-	// Between an algebraic end α and the inner side of its isolating
-	// interval the only root q may have is α itself: q has one root in the
-	// interval and shares a root there with α's polynomial.
-	for _, e := range []End{s.Lo, s.Hi} {
-		if !e.Algebraic() {
-			continue
-		}
-		switch q.CountRoots(UBound{Value: e.A, Open: true}, UBound{Value: e.B, Open: true}) {
-		case 0:
-		case 1:
-			g := UnivariateGCD(q, e.P)
-			if g.Degree() < 1 || g.CountRoots(UBound{Value: e.A, Open: true}, UBound{Value: e.B, Open: true}) != 1 {
-				return false
-			}
-			if withEnds && e.Closed {
-				return false // q(α) = 0 on a closed algebraic end
-			}
-		default:
-			return false
-		}
-	}
-	return true
-}
-
 // sample returns a rational point inside a span of positive length.
 func (s Span) sample() *big.Rat {
 	lo, hi := s.Lo.inner(false), s.Hi.inner(true)
@@ -165,46 +100,6 @@ func (s Span) sample() *big.Rat {
 	}
 	m := new(big.Rat).Add(lo.Value, hi.Value)
 	return m.Quo(m, big.NewRat(2, 1))
-}
-
-// pointSign returns the sign of q at a finite end; 2 when it cannot be decided.
-func pointSign(q Univariate, e End) int {
-	if e.Rational() {
-		return q.Sign(e.Value)
-	}
-	if e.Inf != 0 {
-		return 2
-	}
-	open := func(v *big.Rat) UBound { return UBound{Value: v, Open: true} }
-	switch q.CountRoots(UBound{Value: e.A}, UBound{Value: e.B}) {
-	case 0:
-		return q.Sign(e.A)
-	case 1:
-		g := UnivariateGCD(q, e.P)
-		if g.Degree() >= 1 && g.CountRoots(open(e.A), open(e.B)) == 1 {
-			return 0
-		}
-	}
-	return 2
-}
-
-// RoundsTo reports that the unique root of u in (a, b) lies within half a
-// unit of the last digit of the decimal s (digits, an optional point, an
-// optional exponent): s is that root correctly rounded, or one of the two
-// roundings of a root at a tie, decided by Sturm's theorem.
-func RoundsTo(u Univariate, a, b *big.Rat, s string) bool {
-	v, half, ok := parseDecimal(s)
-	if !ok {
-		return false
-	}
-	lo, hi := new(big.Rat).Sub(v, half), new(big.Rat).Add(v, half)
-	if lo.Cmp(a) < 0 {
-		lo = a
-	}
-	if hi.Cmp(b) > 0 {
-		hi = b
-	}
-	return lo.Cmp(hi) < 0 && u.CountRoots(UBound{Value: lo, Open: true}, UBound{Value: hi, Open: true}) == 1
 }
 
 // parseDecimal reads a decimal and returns it with half a unit of its last digit.

@@ -257,6 +257,9 @@ func (p Univariate) SquareFree() Univariate {
 
 // Equal reports whether p and q are the same polynomial.
 func (p Univariate) Equal(q Univariate) bool {
+	if len(p.c) > 0 && len(p.c) == len(q.c) && &p.c[0] == &q.c[0] {
+		return true // shared coefficients (a Univariate is immutable)
+	}
 	if len(p.c) != len(q.c) {
 		return false
 	}
@@ -532,32 +535,7 @@ func (p Univariate) CountRoots(lo, hi UBound) int {
 	if (lo.Inf == 0 && lo.Value == nil) || (hi.Inf == 0 && hi.Value == nil) {
 		panic("poly: CountRoots with a nil finite bound")
 	}
-	if lo.Inf > 0 || hi.Inf < 0 {
-		return 0
-	}
-	if lo.Inf == 0 && hi.Inf == 0 {
-		switch lo.Value.Cmp(hi.Value) {
-		case 1:
-			return 0
-		case 0:
-			if !lo.Open && !hi.Open && p.Sign(lo.Value) == 0 {
-				return 1
-			}
-			return 0
-		}
-	}
-	if p.Degree() == 0 {
-		return 0
-	}
-	st := newUSturm(p.SquareFree())
-	n := st.varAtBound(lo) - st.varAtBound(hi)
-	if lo.Inf == 0 && !lo.Open && p.Sign(lo.Value) == 0 {
-		n++
-	}
-	if hi.Inf == 0 && hi.Open && p.Sign(hi.Value) == 0 {
-		n--
-	}
-	return n
+	return NewSturm(p).Count(lo, hi)
 }
 
 // ---------------------------------------------------------------------------

@@ -35,6 +35,22 @@ func (f *LDL) Factorize(g poly.Matrix) (ok bool, col int) {
 	f.L = poly.NewMatrix(r, n)
 	f.D = make([]poly.RatFunc, n)
 	f.Zero = make([]bool, n)
+	if c, ok := g.Consts(); ok {
+		// Constant entries: the same elimination in rational arithmetic.
+		l, d, ok, col := poly.RatLDL(c)
+		if !ok {
+			return false, col
+		}
+		for i := range n {
+			f.D[i], f.Zero[i] = poly.RatConst(r, d[i]), d[i].Sign() == 0
+			for j := 0; j <= i; j++ {
+				if l[i][j].Sign() != 0 {
+					f.L[i][j] = poly.RatConst(r, l[i][j])
+				}
+			}
+		}
+		return true, -1
+	}
 	one := poly.RatConst(r, big.NewRat(1, 1))
 	for k := 0; k < n; k++ {
 		f.L[k][k] = one

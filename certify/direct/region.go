@@ -2,6 +2,7 @@ package direct
 
 import (
 	"math/big"
+	"slices"
 
 	"lyacert/checker"
 	"lyacert/poly"
@@ -11,8 +12,8 @@ import (
 // irrational region endpoint.
 const Digits = 15
 
-// breakpoint is a real root of the product of the conditions inside the
-// parameter's range: rational (exact) or isolated.
+// breakpoint is a real root of a condition inside the parameter's range:
+// rational (exact) or isolated, with the coprime factor it is a root of.
 type breakpoint struct {
 	root poly.URoot
 }
@@ -37,19 +38,18 @@ func (b breakpoint) upperRat() *big.Rat {
 // OneParamRegion computes the exact set of values of one parameter, within
 // its range dom, where every condition q > 0 holds, as a partition of dom
 // into pieces on which all conditions hold or some condition is ≤ 0
-// throughout. The breakpoints are the real roots of the product of the
-// conditions (Sturm isolation), rational ones exact; between and at them the
-// signs are decided exactly.
+// throughout. The breakpoints are the real roots of the conditions, found
+// factor by factor: the conditions are split once into square-free,
+// pairwise coprime factors (poly.CoprimeBasis), the roots of each factor
+// isolated with its own Sturm sequence, rational ones exact, and each
+// irrational breakpoint names the factor it is a root of, which divides
+// every condition that vanishes there. Isolating intervals are refined only
+// until neighbours separate; between and at the breakpoints the signs are
+// decided exactly.
 func OneParamRegion(r *poly.Ring, param int, conds []poly.Univariate, dom poly.Interval) []checker.Piece {
-	prod := poly.UnivariateFromInts(1)
-	for _, q := range conds {
-		if q.Degree() >= 1 {
-			prod = prod.Mul(q)
-		}
-	}
 	var bps []breakpoint
-	if prod.Degree() >= 1 {
-		for _, root := range prod.SquareFree().IsolateRoots() {
+	for _, f := range poly.CoprimeBasis(conds) {
+		for _, root := range f.IsolateRoots() {
 			if bp, ok := insideRange(root, dom); ok {
 				bps = append(bps, bp)
 			}
@@ -60,17 +60,20 @@ func OneParamRegion(r *poly.Ring, param int, conds []poly.Univariate, dom poly.I
 	lo := rangeEnd(dom.Lo)
 	for _, bp := range bps {
 		atLo := dom.Lo.Inf == 0 && bp.rational() && bp.root.Exact.Cmp(dom.Lo.Value) == 0
+		open := endOf(r, param, bp)
+		closed := open
+		closed.closed = true
 		if !atLo {
 			iv := checker.Interval{}
 			setLo(&iv, lo)
-			setHi(&iv, endOf(r, param, bp, false))
+			setHi(&iv, open)
 			pieces = append(pieces, checker.Piece{Interval: iv})
 		}
 		pt := checker.Interval{}
-		setLo(&pt, endOf(r, param, bp, true))
-		setHi(&pt, endOf(r, param, bp, true))
+		setLo(&pt, closed)
+		setHi(&pt, closed)
 		pieces = append(pieces, checker.Piece{Interval: pt})
-		lo = endOf(r, param, bp, false)
+		lo = open
 	}
 	last := bps == nil || !(dom.Hi.Inf == 0 && bps[len(bps)-1].rational() && bps[len(bps)-1].root.Exact.Cmp(dom.Hi.Value) == 0)
 	if last {
@@ -107,11 +110,9 @@ func rangeEnd(b poly.Bound) pend {
 	return e
 }
 
-// endOf returns the breakpoint as an end; closed says whether the piece
-// being built contains it.
-func endOf(r *poly.Ring, param int, bp breakpoint, closed bool) pend {
+// endOf returns the breakpoint as an open end.
+func endOf(r *poly.Ring, param int, bp breakpoint) pend {
 	var e pend
-	e.closed = closed
 	if bp.rational() {
 		e.iv.Lo = bp.root.Exact.RatString()
 		return e
@@ -159,17 +160,26 @@ func insideRange(root poly.URoot, dom poly.Interval) (breakpoint, bool) {
 	}
 }
 
-// separate refines isolating intervals until neighbouring breakpoints are
-// strictly apart: each one's upper rational bound below the next one's lower.
+// separate orders the breakpoints and refines isolating intervals until
+// neighbours are strictly apart: each one's upper rational bound below the
+// next one's lower. The breakpoints are distinct roots (of coprime factors),
+// so halving the intervals of overlapping neighbours ends.
 func separate(bps []breakpoint) {
 	half := big.NewRat(1, 2)
-	for i := 0; i+1 < len(bps); i++ {
-		for bps[i].upperRat().Cmp(bps[i+1].lowerRat()) >= 0 {
-			for _, j := range []int{i, i + 1} {
-				if !bps[j].rational() {
-					w := new(big.Rat).Sub(bps[j].root.Hi, bps[j].root.Lo)
-					bps[j].root = bps[j].root.Refine(w.Mul(w, half))
-				}
+	halve := func(b *breakpoint) {
+		if !b.rational() {
+			w := new(big.Rat).Sub(b.root.Hi, b.root.Lo)
+			b.root = b.root.Refine(w.Mul(w, half))
+		}
+	}
+	for apart := false; !apart; {
+		slices.SortFunc(bps, func(a, b breakpoint) int { return a.lowerRat().Cmp(b.lowerRat()) })
+		apart = true
+		for i := 0; i+1 < len(bps); i++ {
+			if bps[i].upperRat().Cmp(bps[i+1].lowerRat()) >= 0 {
+				halve(&bps[i])
+				halve(&bps[i+1])
+				apart = false
 			}
 		}
 	}

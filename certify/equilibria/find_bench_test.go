@@ -1,0 +1,85 @@
+package equilibria
+
+import (
+	"fmt"
+	"math"
+	"math/rand/v2"
+	"strings"
+	"testing"
+
+	"gonum.org/v1/gonum/mat"
+
+	"lyacert/checker"
+	"lyacert/model"
+)
+
+// randomLinear is an invented benchmark model: x' = A·x with A = M − s·I,
+// M's entries k/(10·⌈√n⌉) for random integers k in [−9, 9] (a fixed seed),
+// and s the least integer ≥ α(M) + 1 (α the spectral abscissa, from gonum's
+// eigenvalues), so that A is stable with abscissa about −1 (common practice
+// for random stable test matrices).
+func randomLinear(n int, seed uint64) string {
+	rng := rand.New(rand.NewPCG(seed, 0))
+	den := 10 * int(math.Ceil(math.Sqrt(float64(n))))
+	k := make([][]int, n)
+	m := mat.NewDense(n, n, nil)
+	for i := range k {
+		k[i] = make([]int, n)
+		for j := range k[i] {
+			k[i][j] = rng.IntN(19) - 9
+			m.Set(i, j, float64(k[i][j])/float64(den))
+		}
+	}
+	var eig mat.Eigen
+	if !eig.Factorize(m, mat.EigenNone) {
+		panic("eigenvalues")
+	}
+	alpha := math.Inf(-1)
+	for _, v := range eig.Values(nil) {
+		alpha = math.Max(alpha, real(v))
+	}
+	s := int(math.Ceil(alpha + 1))
+	var b strings.Builder
+	names := make([]string, n)
+	for i := range names {
+		names[i] = fmt.Sprintf("x%d", i+1)
+	}
+	fmt.Fprintf(&b, "state %s\n", strings.Join(names, ", "))
+	for i := range n {
+		var terms []string
+		for j := range n {
+			c := k[i][j]
+			if i == j {
+				c -= s * den
+			}
+			if c != 0 {
+				terms = append(terms, fmt.Sprintf("%d/%d*%s", c, den, names[j]))
+			}
+		}
+		fmt.Fprintf(&b, "%s' = %s\n", names[i], strings.Join(terms, " + "))
+	}
+	return b.String()
+}
+
+// BenchmarkFindLinear times `find` end to end on random stable linear
+// models: the equilibria, the float Lyapunov solve, the rational P, the
+// exact certificate and its re-check by the kernel.
+func BenchmarkFindLinear(b *testing.B) {
+	for _, n := range []int{10, 20, 50, 100, 200} {
+		b.Run(fmt.Sprintf("n=%d", n), func(b *testing.B) {
+			m, err := model.Parse("linear.lya", []byte(randomLinear(n, 1)))
+			if err != nil {
+				b.Fatal(err)
+			}
+			for b.Loop() {
+				res, err := Find(m, FindOptions{Source: "linear.lya"})
+				if err != nil {
+					b.Fatal(err)
+				}
+				if c := res.Certs[res.Target]; c == nil || c.Verdict != checker.VerdictHolds || c.Method != MethodFull {
+					b.Fatalf("not certified: %+v", c)
+				}
+			}
+		})
+	}
+}

@@ -1,0 +1,165 @@
+package poly
+
+import "math/big"
+
+// Consts returns the entries of a as rationals when every entry is a
+// constant (no variable, no denominator); ok is false otherwise.
+func (a Matrix) Consts() (c [][]*big.Rat, ok bool) {
+	c = make([][]*big.Rat, len(a))
+	for i := range a {
+		c[i] = make([]*big.Rat, len(a[i]))
+		for j, e := range a[i] {
+			if !e.IsPoly() || !e.Num.IsConst() {
+				return nil, false
+			}
+			c[i][j] = e.Num.ConstTerm()
+		}
+	}
+	return c, true
+}
+
+// EqualLDL reports a = L·diag(d)·Lᵀ exactly, for square a and L of the same
+// size and len(d) rows of them. When every entry is a rational constant the
+// identity is checked in rational arithmetic, Σₖ (Lᵢₖ·dₖ)·Lⱼₖ for j ≤ i and
+// a symmetric a, at O(n³) products of numbers; otherwise as an identity of
+// rational functions.
+func (a Matrix) EqualLDL(l Matrix, d []RatFunc) bool {
+	n := len(a)
+	if len(l) != n || len(d) != n {
+		return false
+	}
+	for i := range n {
+		if len(a[i]) != n || len(l[i]) != n {
+			return false
+		}
+	}
+	ac, ok1 := a.Consts()
+	lc, ok2 := l.Consts()
+	dc, ok3 := Matrix{d}.Consts()
+	if !ok1 || !ok2 || !ok3 {
+		dm := NewMatrix(a[0][0].Ring(), n)
+		for i := range n {
+			dm[i][i] = d[i]
+		}
+		return l.Mul(dm).Mul(l.Transpose()).Equal(a)
+	}
+	ld := make([][]*big.Rat, n) // L·diag(d)
+	for i := range n {
+		ld[i] = make([]*big.Rat, n)
+		for k := range n {
+			ld[i][k] = MulRat(new(big.Rat), lc[i][k], dc[0][k])
+		}
+	}
+	s, t := new(big.Rat), new(big.Rat)
+	for i := range n {
+		for j := 0; j <= i; j++ {
+			s.SetInt64(0)
+			for k := range n {
+				if ld[i][k].Sign() != 0 && lc[j][k].Sign() != 0 {
+					AddRat(s, s, MulRat(t, ld[i][k], lc[j][k]))
+				}
+			}
+			if s.Cmp(ac[i][j]) != 0 || ac[i][j].Cmp(ac[j][i]) != 0 {
+				return false
+			}
+		}
+	}
+	return true
+}
+
+// RatLDL factors a symmetric rational matrix exactly without pivoting,
+// a = L·diag(D)·Lᵀ with L unit lower triangular (Lagrange's completing of
+// squares). A zero pivot is kept, with a zero column of L below it, when the
+// rest of its column is zero too; otherwise ok is false and col is its
+// index. a is not modified.
+func RatLDL(a [][]*big.Rat) (l [][]*big.Rat, d []*big.Rat, ok bool, col int) {
+	n := len(a)
+	w := make([][]*big.Rat, n)
+	l = make([][]*big.Rat, n)
+	for i := range a {
+		w[i], l[i] = make([]*big.Rat, n), make([]*big.Rat, n)
+		for j := range a[i] {
+			w[i][j], l[i][j] = new(big.Rat).Set(a[i][j]), new(big.Rat)
+		}
+		l[i][i].SetInt64(1)
+	}
+	d = make([]*big.Rat, n)
+	t := new(big.Rat)
+	for k := range n {
+		d[k] = w[k][k]
+		if d[k].Sign() == 0 {
+			for i := k + 1; i < n; i++ {
+				if w[i][k].Sign() != 0 {
+					return nil, nil, false, k
+				}
+			}
+			continue
+		}
+		for i := k + 1; i < n; i++ {
+			if w[i][k].Sign() != 0 {
+				QuoRat(l[i][k], w[i][k], d[k])
+			}
+		}
+		// Schur complement, lower triangle: w[i][j] −= l[i][k]·w[j][k].
+		for i := k + 1; i < n; i++ {
+			if l[i][k].Sign() == 0 {
+				continue
+			}
+			for j := k + 1; j <= i; j++ {
+				if w[j][k].Sign() != 0 {
+					SubRat(w[i][j], w[i][j], MulRat(t, l[i][k], w[j][k]))
+					w[j][i] = w[i][j]
+				}
+			}
+		}
+	}
+	return l, d, true, -1
+}
+
+// bareissPivot is FirstNonPositivePivot by fraction-free elimination
+// (Bareiss 1968). Row and column i are scaled by sᵢ, the lcm of the
+// denominators in row i, so B = S·a·S is an integer matrix with leading
+// minors Δₖ(B) = Δₖ(a)·Π sᵢ² (the same signs); Bareiss' step
+// bᵢⱼ ← (bₖₖ·bᵢⱼ − bᵢₖ·bₖⱼ)/b_prev divides exactly and leaves Δₖ₊₁(B) at
+// bₖₖ, so the k-th pivot of a is Δₖ(B)/(Δₖ₋₁(B)·sₖ²), with no gcd in the loop.
+func bareissPivot(a [][]*big.Rat) (int, *big.Rat) {
+	n := len(a)
+	s := make([]*big.Int, n)
+	b := make([][]*big.Int, n)
+	g := new(big.Int)
+	for i := range a {
+		s[i] = big.NewInt(1)
+		for _, x := range a[i] {
+			if d := x.Denom(); !d.IsInt64() || d.Int64() != 1 {
+				g.GCD(nil, nil, s[i], d)
+				s[i].Mul(s[i], new(big.Int).Quo(d, g))
+			}
+		}
+	}
+	for i := range a {
+		b[i] = make([]*big.Int, n)
+		for j, x := range a[i] {
+			v := new(big.Int).Mul(x.Num(), s[i])
+			v.Mul(v, s[j])
+			b[i][j] = v.Quo(v, x.Denom())
+		}
+	}
+	prev := big.NewInt(1)
+	t := new(big.Int)
+	for k := range n {
+		if b[k][k].Sign() <= 0 {
+			p := new(big.Rat).SetFrac(b[k][k], prev)
+			s2 := new(big.Int).Mul(s[k], s[k])
+			return k, p.Quo(p, new(big.Rat).SetInt(s2))
+		}
+		for i := k + 1; i < n; i++ {
+			for j := k + 1; j < n; j++ {
+				b[i][j].Mul(b[i][j], b[k][k])
+				b[i][j].Sub(b[i][j], t.Mul(b[i][k], b[k][j]))
+				b[i][j].Quo(b[i][j], prev)
+			}
+		}
+		prev = b[k][k]
+	}
+	return -1, nil
+}

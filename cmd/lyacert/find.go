@@ -94,8 +94,8 @@ func (c *findCmd) run(e *env) int {
 	}
 	res, err := equilibria.Find(m, equilibria.FindOptions{Q: q, All: c.All, Source: name})
 	if err != nil {
-		if errors.Is(err, certify.ErrUnverified) {
-			fmt.Fprintln(e.stderr, "lyacert:", err)
+		if errors.Is(err, certify.ErrUnverified) || errors.Is(err, equilibria.ErrNonIsolated) {
+			fmt.Fprintf(e.stderr, "lyacert: %s: %v\n", name, err)
 			return exitFails
 		}
 		printInputError(e.stderr, err)

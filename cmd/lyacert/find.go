@@ -1,6 +1,7 @@
 package main
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"lyacert/certificates"
@@ -23,6 +24,8 @@ type findCmd struct {
 	Q    string   `name:"q" placeholder:"DIAG" default:"identity" help:"Q of AᵀP + PA = −Q (AᵀPA − P = −Q in discrete time): identity, one positive number (a multiple of I), or one per state, comma-separated (a diagonal)."`
 	All  bool     `help:"Certify every equilibrium found, not only the model's own (its at point, or the origin)."`
 	Out  string   `short:"o" name:"out" placeholder:"CERT" help:"Write the certificate to this file (atomically); with --all one file per certified equilibrium, CERT with -1, -2, … before its extension."`
+	limitFlags
+	timeoutFlag
 }
 
 func init() {
@@ -72,6 +75,15 @@ func parseQ(s string, n int) ([]*big.Rat, error) {
 }
 
 func (c *findCmd) run(e *env) int {
+	if !c.limitFlags.apply(e) {
+		return exitInput
+	}
+	ctx, cancel := c.timeoutFlag.budget()
+	defer cancel()
+	return within(ctx, e, func(context.Context) int { return c.find(e) })
+}
+
+func (c *findCmd) find(e *env) int {
 	name, src, err := readInput(c.File, e.stdin)
 	if err != nil {
 		fmt.Fprintln(e.stderr, "lyacert:", err)

@@ -58,7 +58,7 @@ func (c *signCmd) run(e *env) int {
 		fmt.Fprintln(e.stderr, "lyacert:", err)
 		return exitInput
 	}
-	name, src, err := readInput(c.Cert, e.stdin)
+	name, src, err := readCertificate(c.Cert, e.stdin)
 	if err != nil {
 		fmt.Fprintln(e.stderr, "lyacert:", err)
 		return exitInput

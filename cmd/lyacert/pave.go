@@ -106,13 +106,13 @@ func (b *bar) Paved(share float64) {
 }
 
 // check runs the engine with the paving flags (defaults when pf is nil).
-func (pf *paveFlags) check(m *model.Model, name string, e *env) (*direct.Result, error) {
+func (pf *paveFlags) check(ctx context.Context, m *model.Model, name string, e *env) (*direct.Result, error) {
 	o, err := pf.options(e)
 	if err != nil {
 		return nil, fmt.Errorf("%w: %w", direct.ErrPaveOptions, err)
 	}
 	// An interrupt stops a long paving cleanly (nothing is written).
-	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt)
+	ctx, stop := signal.NotifyContext(ctx, os.Interrupt)
 	defer stop()
 	return direct.CheckPaving(ctx, m, name, o)
 }

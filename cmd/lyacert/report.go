@@ -50,7 +50,7 @@ func (c *reportCmd) run(e *env) int {
 		fmt.Fprintln(e.stderr, "lyacert: --whole-document applies to --format tex only")
 		return exitInput
 	}
-	name, src, err := readInput(c.Cert, e.stdin)
+	name, src, err := readCertificate(c.Cert, e.stdin)
 	if err != nil {
 		fmt.Fprintln(e.stderr, "lyacert:", err)
 		return exitInput

@@ -38,6 +38,7 @@ type sweepCmd struct {
 	MaxPoints    int           `name:"max-points" placeholder:"N" help:"Stop cleanly after N grid points of this run (continue with --resume)."`
 	Certificates string        `name:"certificates" placeholder:"DIR" help:"Write the certificate behind every line into DIR as INDEX-EQ.json."`
 	Full         bool          `name:"full" help:"At rational stable equilibria run the full nonlinear check of V (can give a global claim; slower)."`
+	limitFlags
 }
 
 func init() {
@@ -72,6 +73,9 @@ func isTerminal(w io.Writer) bool {
 func (c *sweepCmd) run(e *env) int {
 	fail := func(format string, args ...any) int {
 		fmt.Fprintf(e.stderr, "lyacert: "+format+"\n", args...)
+		return exitInput
+	}
+	if !c.limitFlags.apply(e) {
 		return exitInput
 	}
 	name, src, err := readInput(c.File, e.stdin)
@@ -266,6 +270,9 @@ func (c *sweepCmd) run(e *env) int {
 		writeJSON(report, s)
 	} else {
 		renderSweepSummary(report, s, ctx.Err())
+	}
+	if !complete && errors.Is(ctx.Err(), context.DeadlineExceeded) {
+		return exitStopped
 	}
 	if !complete || !allHold {
 		return exitFails

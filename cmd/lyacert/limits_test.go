@@ -1,0 +1,89 @@
+package main
+
+import (
+	"bytes"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"lyacert/poly"
+)
+
+// runCmd runs the command line in this process and returns its exit code
+// and outputs; the limits of a run are reset afterwards.
+func runCmd(t *testing.T, args ...string) (int, string, string) {
+	t.Helper()
+	t.Cleanup(func() { poly.SetDefaultLimits(poly.Limits{}) })
+	var out, errb bytes.Buffer
+	code := run(args, &env{strings.NewReader(""), &out, &errb})
+	return code, out.String(), errb.String()
+}
+
+func writeModel(t *testing.T, name, src string) string {
+	t.Helper()
+	p := filepath.Join(t.TempDir(), name)
+	if err := os.WriteFile(p, []byte(src), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	return p
+}
+
+// Exit codes and messages of the limits, the deadline and the cases that
+// once ended in an internal error or a misleading message. The verdicts are
+// facts of the trade (common practice): V = x² + x⁸⁰ is a Lyapunov function
+// of x' = −x (V̇ = −2x² − 80x⁸⁰); V = a·x has a linear part, so the
+// equilibrium is not a minimum; x' = x + y, y' = x + y has a line of
+// equilibria through the origin.
+func TestLimitsCommandLine(t *testing.T) {
+	dir := t.TempDir()
+	pow := writeModel(t, "pow.lya", "state x\nx' = -x\nV = x^2 + (x^2)^40\n")
+	cert := filepath.Join(dir, "pow.json")
+	lin := writeModel(t, "lin.lya", "state x\nparameter a in [-3, 3)\nx' = 0\nV = a*x\n")
+	sing := writeModel(t, "sing.lya", "state x, y\nx' = x + y\ny' = x + y\nV = x^2 + y^2\n")
+	var bad strings.Builder
+	bad.WriteString("state x\n")
+	for range 30 {
+		bad.WriteString("x' = = 1\n")
+	}
+	bad.WriteString("V = x^2\n")
+	badf := writeModel(t, "bad.lya", bad.String())
+	lorenz := "../../testdata/models/lorenz.lya"
+
+	for _, c := range []struct {
+		name   string
+		args   []string
+		code   int
+		stdout string // a substring, or ""
+		stderr string
+	}{
+		{"canonical power", []string{"check", pow, "-o", cert}, exitHolds, "Verdict: holds", ""},
+		{"its certificate", []string{"verify", cert}, exitHolds, "valid", ""},
+		{"degree limit", []string{"check", pow, "--limit", "degree=40"}, exitInput, "", "above the limit degree=40 (raise it with --limit degree=N)"},
+		{"degree limit in the kernel", []string{"verify", cert, "--limit", "degree=40"}, exitInput, "degree=40", "a limit was reached"},
+		{"unknown limit", []string{"check", pow, "--limit", "nosuch=1"}, exitInput, "", `unknown limit "nosuch"`},
+		{"limit not a number", []string{"check", pow, "--limit", "degree=x"}, exitInput, "", "not a positive integer"},
+		{"inconsistent limits", []string{"check", pow, "--limit", "exponent=10"}, exitInput, "", "raise exponent with it"},
+		{"endless model file", []string{"check", "/dev/zero"}, exitInput, "", "above the limit input-bytes=4194304 (raise it with --limit input-bytes=N)"},
+		{"raised input bytes", []string{"check", "/dev/zero", "--limit", "input-bytes=100", "--limit", "line-length=100"}, exitInput, "", "input-bytes=100"},
+		{"endless certificate", []string{"verify", "/dev/zero"}, exitInput, "", "larger than"},
+		{"errors listed", []string{"check", badf, "--limit", "errors=3"}, exitInput, "", "\nand 27 more errors\n"},
+		{"timeout", []string{"find", lorenz, "--set", "sigma=10", "--set", "b=8/3", "--set", "r=28", "--timeout", "1ns"}, exitStopped, "", "stopped early: the time limit --timeout 1ns was reached"},
+		{"timeout of check", []string{"check", lorenz, "--timeout", "1ns"}, exitStopped, "", "stopped early"},
+		{"linear part vanishing at a sample", []string{"check", lin}, exitFails, "Refutation (exact)", ""},
+		{"non-isolated origin", []string{"find", sing}, exitFails, "", "the equilibrium is not isolated"},
+		{"beyond float range", []string{"find", lorenz, "--set", "sigma=10", "--set", "b=8/3", "--set", "r=1e400"}, exitFails, "beyond floating-point range", ""},
+	} {
+		code, out, errs := runCmd(t, c.args...)
+		if code != c.code || !strings.Contains(out, c.stdout) || !strings.Contains(errs, c.stderr) {
+			t.Errorf("%s: lyacert %s: exit %d, want %d\nstdout:\n%s\nstderr:\n%s", c.name, strings.Join(c.args, " "), code, c.code, out, errs)
+		}
+	}
+	// The errors list: three errors with their positions, then the count
+	// without a position.
+	_, _, errs := runCmd(t, "check", badf, "--limit", "errors=3")
+	lines := strings.Split(strings.TrimSpace(errs), "\n")
+	if len(lines) != 4 || !strings.HasPrefix(lines[0], badf+":2:") || lines[3] != "and 27 more errors" {
+		t.Errorf("errors list:\n%s", errs)
+	}
+}

@@ -87,3 +87,40 @@ func TestLimitsCommandLine(t *testing.T) {
 		t.Errorf("errors list:\n%s", errs)
 	}
 }
+
+// sign and check --sign refuse a private key file that others may read,
+// and accept it with --insecure-key; a certificate rewritten in place keeps
+// its mode.
+func TestInsecureKey(t *testing.T) {
+	dir := t.TempDir()
+	name := filepath.Join(dir, "team")
+	if code, _, errs := runCmd(t, "key", "new", "-o", name); code != exitHolds {
+		t.Fatalf("key new: %d %s", code, errs)
+	}
+	if err := os.Chmod(name+".key", 0o644); err != nil {
+		t.Fatal(err)
+	}
+	cert := filepath.Join(dir, "c.json")
+	ogata := "../../testdata/models/ogata.lya"
+	if code, _, errs := runCmd(t, "check", ogata, "-o", cert, "--sign", name+".key"); code != exitInput || !strings.Contains(errs, "readable by group or others") || !strings.Contains(errs, "--insecure-key") {
+		t.Errorf("check --sign with a shared key: exit %d\n%s", code, errs)
+	}
+	if code, _, errs := runCmd(t, "check", ogata, "-o", cert); code != exitHolds {
+		t.Fatalf("check: %d %s", code, errs)
+	}
+	if err := os.Chmod(cert, 0o600); err != nil {
+		t.Fatal(err)
+	}
+	if code, _, errs := runCmd(t, "sign", cert, "--key", name+".key"); code != exitInput || !strings.Contains(errs, "--insecure-key") {
+		t.Errorf("sign with a shared key: exit %d\n%s", code, errs)
+	}
+	if code, _, errs := runCmd(t, "sign", cert, "--key", name+".key", "--insecure-key"); code != exitHolds {
+		t.Errorf("sign --insecure-key: exit %d\n%s", code, errs)
+	}
+	if st, err := os.Stat(cert); err != nil || st.Mode().Perm() != 0o600 {
+		t.Errorf("the signed certificate's mode: %v %v, want 0600 kept", st.Mode(), err)
+	}
+	if code, out, errs := runCmd(t, "verify", cert, "--trust", name+".pub.pem"); code != exitHolds || !strings.Contains(out, "signed by the trusted key") {
+		t.Errorf("verify: exit %d\n%s%s", code, out, errs)
+	}
+}

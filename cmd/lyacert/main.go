@@ -175,6 +175,7 @@ type checkCmd struct {
 	paveFlags
 	limitFlags
 	timeoutFlag
+	keyFlags
 }
 
 type verifyCmd struct {
@@ -226,7 +227,7 @@ func (c *checkCmd) run(e *env) int {
 		}
 		settings = append(settings, st)
 	}
-	key, code := loadSigningKey(c.Sign, c.Out, e)
+	key, code := loadSigningKey(c.Sign, c.Out, c.keyFlags, e)
 	if code != 0 {
 		return code
 	}

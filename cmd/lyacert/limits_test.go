@@ -70,6 +70,8 @@ func TestLimitsCommandLine(t *testing.T) {
 		{"errors listed", []string{"check", badf, "--limit", "errors=3"}, exitInput, "", "\nand 27 more errors\n"},
 		{"timeout", []string{"find", lorenz, "--set", "sigma=10", "--set", "b=8/3", "--set", "r=28", "--timeout", "1ns"}, exitStopped, "", "stopped early: the time limit --timeout 1ns was reached"},
 		{"timeout of check", []string{"check", lorenz, "--timeout", "1ns"}, exitStopped, "", "stopped early"},
+		{"timeout of sweep", []string{"sweep", "../../testdata/models/lorenz-classic.lya", "--grid", "r=1/2:30:200000", "--jobs", "1", "-o", filepath.Join(dir, "s.jsonl"), "--timeout", "300ms"}, exitStopped, "stopped at the timeout", ""},
+		{"limit in sweep", []string{"sweep", pow, "--grid", "x=0:1:2", "--limit", "degree=40"}, exitInput, "", "degree=40"},
 		{"linear part vanishing at a sample", []string{"check", lin}, exitFails, "Refutation (exact)", ""},
 		{"non-isolated origin", []string{"find", sing}, exitFails, "", "the equilibrium is not isolated"},
 		{"beyond float range", []string{"find", lorenz, "--set", "sigma=10", "--set", "b=8/3", "--set", "r=1e400"}, exitFails, "beyond floating-point range", ""},

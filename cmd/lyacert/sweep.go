@@ -271,8 +271,8 @@ func (c *sweepCmd) run(e *env) int {
 	} else {
 		renderSweepSummary(report, s, ctx.Err())
 	}
-	if !complete && errors.Is(ctx.Err(), context.DeadlineExceeded) {
-		return exitStopped
+	if !complete && ctx.Err() != nil {
+		return exitStopped // at --timeout or interrupted: continue with --resume
 	}
 	if !complete || !allHold {
 		return exitFails

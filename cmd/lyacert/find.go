@@ -80,7 +80,7 @@ func (c *findCmd) run(e *env) int {
 	}
 	ctx, cancel := c.timeoutFlag.budget()
 	defer cancel()
-	return within(ctx, e, func(context.Context) int { return c.find(e) })
+	return within(ctx, e, func(_ context.Context, e *env) int { return c.find(e) })
 }
 
 func (c *findCmd) find(e *env) int {

@@ -7,6 +7,7 @@ import (
 	"io"
 	"os"
 	"strings"
+	"sync"
 	"time"
 
 	"lyacert/certify"
@@ -62,14 +63,21 @@ func (tf *timeoutFlag) budget() (context.Context, context.CancelFunc) {
 
 // within runs work and returns its exit code, or exitStopped with a message
 // when ctx ends first (the deadline, or an interrupt). The work is left
-// running then; the process exits right after.
-func within(ctx context.Context, e *env, work func(ctx context.Context) int) int {
+// running then, its output cut off; the process exits right after.
+func within(ctx context.Context, e *env, work func(ctx context.Context, e *env) int) int {
+	out, errw := &gate{w: e.stdout}, &gate{w: e.stderr}
 	done := make(chan int, 1)
-	go func() { done <- work(ctx) }()
+	go func() { done <- work(ctx, &env{e.stdin, out, errw}) }()
+	stop := func() int {
+		out.close()
+		errw.close()
+		fmt.Fprintln(e.stderr, "lyacert:", stoppedMessage(ctx))
+		return exitStopped
+	}
 	select {
 	case code := <-done:
 		if code == exitStopped {
-			fmt.Fprintln(e.stderr, "lyacert:", stoppedMessage(ctx))
+			return stop()
 		}
 		return code
 	case <-ctx.Done():
@@ -81,9 +89,30 @@ func within(ctx context.Context, e *env, work func(ctx context.Context) int) int
 			}
 		default:
 		}
-		fmt.Fprintln(e.stderr, "lyacert:", stoppedMessage(ctx))
-		return exitStopped
+		return stop()
 	}
+}
+
+// gate passes writes through until it is closed, and drops them after.
+type gate struct {
+	mu     sync.Mutex
+	w      io.Writer
+	closed bool
+}
+
+func (g *gate) Write(p []byte) (int, error) {
+	g.mu.Lock()
+	defer g.mu.Unlock()
+	if g.closed {
+		return len(p), nil
+	}
+	return g.w.Write(p)
+}
+
+func (g *gate) close() {
+	g.mu.Lock()
+	g.closed = true
+	g.mu.Unlock()
 }
 
 // stoppedMessage says why a run stopped early.

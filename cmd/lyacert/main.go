@@ -233,7 +233,7 @@ func (c *checkCmd) run(e *env) int {
 	}
 	ctx, cancel := c.timeoutFlag.budget()
 	defer cancel()
-	code = within(ctx, e, func(ctx context.Context) int {
+	code = within(ctx, e, func(ctx context.Context, e *env) int {
 		return checkModel(ctx, name, src, settings, c.Out, c.JSON, e, &c.paveFlags)
 	})
 	if code == exitStopped {
@@ -253,7 +253,7 @@ func (c *demoCmd) run(e *env) int {
 	ctx, cancel := c.timeoutFlag.budget()
 	defer cancel()
 	var ran bool
-	code := within(ctx, e, func(ctx context.Context) int {
+	code := within(ctx, e, func(ctx context.Context, e *env) int {
 		code, r := runCheck(ctx, examples.CoolantName, examples.Coolant, nil, c.Out, c.JSON, e, nil)
 		ran = r
 		return code
@@ -342,7 +342,7 @@ func (c *verifyCmd) run(e *env) int {
 	}
 	ctx, cancel := c.timeoutFlag.budget()
 	defer cancel()
-	return within(ctx, e, func(context.Context) int { return c.verify(e) })
+	return within(ctx, e, func(_ context.Context, e *env) int { return c.verify(e) })
 }
 
 func (c *verifyCmd) verify(e *env) int {

@@ -25,6 +25,7 @@ type signCmd struct {
 	Key  string `name:"key" required:"" placeholder:"KEY" help:"Private key file: PEM, PKCS #8, ed25519 (NAME.key from lyacert key new)."`
 	Out  string `short:"o" name:"out" placeholder:"OUT" help:"Write the signed certificate here; by default CERT is rewritten in place (atomically)."`
 	keyFlags
+	limitFlags
 }
 
 // keyFlags are the flags of the commands that read a private key.
@@ -68,6 +69,9 @@ func (c *keyNewCmd) run(e *env) int {
 }
 
 func (c *signCmd) run(e *env) int {
+	if !c.limitFlags.apply(e) {
+		return exitInput
+	}
 	key, err := c.keyFlags.read(c.Key)
 	if err != nil {
 		fmt.Fprintln(e.stderr, "lyacert:", err)

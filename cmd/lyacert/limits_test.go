@@ -61,6 +61,8 @@ func TestLimitsCommandLine(t *testing.T) {
 		{"its certificate", []string{"verify", cert}, exitHolds, "valid", ""},
 		{"degree limit", []string{"check", pow, "--limit", "degree=40"}, exitInput, "", "above the limit degree=40 (raise it with --limit degree=N)"},
 		{"degree limit in the kernel", []string{"verify", cert, "--limit", "degree=40"}, exitInput, "degree=40", "a limit was reached"},
+		{"limits of report", []string{"report", cert, "--limit", "degree=40"}, exitInput, "", "(raise it with --limit degree=N)"},
+		{"limits of report, raised", []string{"report", cert, "--limit", "degree=80"}, exitHolds, "", ""},
 		{"unknown limit", []string{"check", pow, "--limit", "nosuch=1"}, exitInput, "", `unknown limit "nosuch"`},
 		{"limit not a number", []string{"check", pow, "--limit", "degree=x"}, exitInput, "", "not a positive integer"},
 		{"inconsistent limits", []string{"check", pow, "--limit", "exponent=10"}, exitInput, "", "raise exponent with it"},

@@ -14,6 +14,7 @@ import (
 	"lyacert/checker"
 	"lyacert/examples"
 	"lyacert/model"
+	"lyacert/poly"
 	"lyacert/report"
 )
 
@@ -25,6 +26,7 @@ type reportCmd struct {
 	// with the new one.
 	OldWholeDocument bool   `name:"standalone" hidden:""`
 	Out              string `short:"o" name:"out" placeholder:"FILE" help:"Write the report to this file (atomically) instead of standard output; a Markdown report's plot goes beside it."`
+	limitFlags
 }
 
 func init() {
@@ -37,6 +39,9 @@ func (c *reportCmd) Run(e *env) error { return exit(c.run(e)) }
 func checkerName() string { return "lyacert " + certify.Version }
 
 func (c *reportCmd) run(e *env) int {
+	if !c.limitFlags.apply(e) {
+		return exitInput
+	}
 	format, err := report.ParseFormat(c.Format)
 	if err != nil {
 		fmt.Fprintln(e.stderr, "lyacert:", err)
@@ -85,8 +90,8 @@ func writeReport(doc *checker.Document, opts report.Options, out string, e *env)
 	var buf bytes.Buffer
 	if err := report.Render(&buf, doc, opts); err != nil {
 		fmt.Fprintf(e.stderr, "lyacert: %s: %v\n", opts.CertName, err)
-		if errors.Is(err, report.ErrInvalid) {
-			return exitFails
+		if errors.Is(err, report.ErrInvalid) && !poly.IsExceeded(err.Error()) {
+			return exitFails // a limit reached is exit 2, as for verify
 		}
 		return exitInput
 	}

@@ -218,26 +218,46 @@ func KeyFileNames(name string) (private, public string) {
 // given by mistake, a certificate) is refused after reading this much.
 const MaxKeyFileBytes = 64 << 10
 
-// readKeyFile reads at most MaxKeyFileBytes of a key file.
-func readKeyFile(path string) ([]byte, error) {
+// ErrSharedKey reports a private key file that group or others may read:
+// whoever can read it can sign as its owner.
+var ErrSharedKey = errors.New("the private key file is readable by group or others")
+
+// readKeyFile reads at most MaxKeyFileBytes of a key file and returns its
+// mode too (of the opened file, so that it is the file read).
+func readKeyFile(path string) ([]byte, os.FileMode, error) {
 	f, err := os.Open(path)
 	if err != nil {
-		return nil, err
+		return nil, 0, err
 	}
 	defer f.Close()
+	st, err := f.Stat()
+	if err != nil {
+		return nil, 0, err
+	}
 	b, err := io.ReadAll(io.LimitReader(f, MaxKeyFileBytes+1))
 	if err != nil {
-		return nil, err
+		return nil, 0, err
 	}
 	if len(b) > MaxKeyFileBytes {
-		return nil, fmt.Errorf("%s: not a lyacert key file: larger than %d bytes", path, MaxKeyFileBytes)
+		return nil, 0, fmt.Errorf("%s: not a lyacert key file: larger than %d bytes", path, MaxKeyFileBytes)
 	}
-	return b, nil
+	return b, st.Mode(), nil
 }
 
-// ReadPrivateKeyFile reads a private key file.
+// ReadPrivateKeyFile reads a private key file, which must be readable by
+// its owner alone (mode 0600 or stricter; ErrSharedKey otherwise).
 func ReadPrivateKeyFile(path string) (ed25519.PrivateKey, error) {
-	b, err := readKeyFile(path)
+	return readPrivateKeyFile(path, true)
+}
+
+// ReadSharedPrivateKeyFile is ReadPrivateKeyFile without the check of the
+// file's mode (the command line's --insecure-key).
+func ReadSharedPrivateKeyFile(path string) (ed25519.PrivateKey, error) {
+	return readPrivateKeyFile(path, false)
+}
+
+func readPrivateKeyFile(path string, private bool) (ed25519.PrivateKey, error) {
+	b, mode, err := readKeyFile(path)
 	if err != nil {
 		return nil, err
 	}
@@ -245,12 +265,16 @@ func ReadPrivateKeyFile(path string) (ed25519.PrivateKey, error) {
 	if err != nil {
 		return nil, fmt.Errorf("%s: %w", path, err)
 	}
+	// After parsing, so that a file of the wrong kind is named as such.
+	if perm := mode.Perm(); private && perm&0o077 != 0 {
+		return nil, fmt.Errorf("%s: %w (mode %04o); make it private with chmod 600 %s, or accept it with --insecure-key", path, ErrSharedKey, perm, path)
+	}
 	return k, nil
 }
 
 // ReadPublicKeyFile reads a public key file.
 func ReadPublicKeyFile(path string) (ed25519.PublicKey, error) {
-	b, err := readKeyFile(path)
+	b, _, err := readKeyFile(path)
 	if err != nil {
 		return nil, err
 	}
@@ -302,7 +326,9 @@ func createExclusive(path string, data []byte, perm os.FileMode) error {
 		return err
 	}
 	tmp := f.Name()
-	defer os.Remove(tmp)
+	g := guardTemp(tmp) // removed on an interrupt too
+	defer g.release()
+	defer g.remove()
 	// CreateTemp makes the file 0600, so a private key is never readable by
 	// others, not even while it is being written.
 	_, werr := f.Write(data)

@@ -1,6 +1,7 @@
 package certify
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"strings"
@@ -8,6 +9,7 @@ import (
 
 	"lyacert/checker"
 	"lyacert/model"
+	"lyacert/poly"
 )
 
 // Version is the engine's version, written into certificates.
@@ -55,4 +57,31 @@ func NewDocument(m *model.Model, source string) *checker.Document {
 		Model:       m.Canonical(),
 		Claims:      []checker.Claim{},
 	}
+}
+
+// Budget is what one run of the engine may spend: the limits on reading
+// (poly.Limits; the engine's derived polynomials are bounded by them too)
+// and the time. It travels in a context.Context, whose deadline is the one
+// the engine honours (see WithBudget).
+type Budget struct {
+	Limits  poly.Limits
+	Timeout time.Duration // zero: no deadline
+}
+
+type budgetKey struct{}
+
+// WithBudget returns a context that carries b, with the deadline
+// b.Timeout from now when it is positive.
+func WithBudget(ctx context.Context, b Budget) (context.Context, context.CancelFunc) {
+	ctx = context.WithValue(ctx, budgetKey{}, b)
+	if b.Timeout > 0 {
+		return context.WithTimeout(ctx, b.Timeout)
+	}
+	return context.WithCancel(ctx)
+}
+
+// BudgetOf returns the budget that ctx carries, if any.
+func BudgetOf(ctx context.Context) (Budget, bool) {
+	b, ok := ctx.Value(budgetKey{}).(Budget)
+	return b, ok
 }

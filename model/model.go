@@ -92,6 +92,31 @@ func isOldNext(toks []poly.Token) bool {
 		toks[1].Kind == poly.Name && isOp(toks[2], "=")
 }
 
+// plainStart reports, without scanning the line, that its first token is a
+// name other than the keywords that start the lines of pass 1 (state,
+// parameter, param, next): an ASCII word not followed by more of a name.
+// False means "scan it to know".
+func plainStart(text string) bool {
+	text = strings.TrimLeft(text, " \t")
+	j := 0
+	for j < len(text) {
+		c := text[j]
+		if c == '_' || 'a' <= c && c <= 'z' || 'A' <= c && c <= 'Z' || j > 0 && '0' <= c && c <= '9' {
+			j++
+			continue
+		}
+		break
+	}
+	if j == 0 || j < len(text) && text[j] >= utf8.RuneSelf {
+		return false
+	}
+	switch text[:j] {
+	case "state", "parameter", "param", "next":
+		return false
+	}
+	return true
+}
+
 // isDecl reports a "state" or "parameter" line (or the old "param"), read in
 // pass 1.
 func isDecl(toks []poly.Token) bool {
@@ -165,7 +190,8 @@ func parse(file string, src []byte, lim poly.Limits, canonical bool, settings ..
 	}
 	text := strings.TrimPrefix(string(src), "\ufeff") // a UTF-8 byte-order mark
 	m := &Model{File: file}
-	var lines []line
+	// Sized once: growing a slice of a million lines costs more than reading them.
+	lines := make([]line, 0, strings.Count(text, "\n")+1)
 	seenDecl := false
 	scan := func(l line) []poly.Token {
 		toks, err := poly.ScanLine(l.text, l.pos, lim)
@@ -191,6 +217,10 @@ func parse(file string, src []byte, lim poly.Limits, canonical bool, settings ..
 		return poly.Scan(l.text, l.pos)
 	}
 	for i := 0; text != ""; i++ {
+		if errs.Full() {
+			errs.Stop()
+			break
+		}
 		lt, rest, _ := strings.Cut(text, "\n")
 		text = rest
 		lt = strings.TrimSuffix(lt, "\r")
@@ -221,6 +251,13 @@ func parse(file string, src []byte, lim poly.Limits, canonical bool, settings ..
 	// take ten times the input's memory.
 	paramIdx := map[string]int{}
 	for _, l := range lines {
+		if errs.Full() {
+			errs.Stop()
+			break
+		}
+		if plainStart(l.text) {
+			continue // neither a declaration nor an old "next" line
+		}
 		ltoks := head(l)
 		t := ltoks[0]
 		if t.Kind == poly.Invalid {
@@ -376,8 +413,14 @@ func parse(file string, src []byte, lim poly.Limits, canonical bool, settings ..
 	have := make([]bool, len(m.States))
 	kinds := map[bool]poly.Pos{}
 	for _, ln := range lines {
-		if h := head(ln); isDecl(h) || isOldNext(h) {
-			continue // read in pass 1
+		if errs.Full() {
+			errs.Stop()
+			break
+		}
+		if !plainStart(ln.text) {
+			if h := head(ln); isDecl(h) || isOldNext(h) {
+				continue // read in pass 1
+			}
 		}
 		l := struct{ toks []poly.Token }{scan(ln)}
 		if l.toks == nil {

@@ -5,6 +5,7 @@ import (
 	"math"
 	"strconv"
 	"strings"
+	"sync/atomic"
 )
 
 // Limits bounds what reading one input may cost, so that hostile input
@@ -65,13 +66,43 @@ var limitSpecs = []limitSpec{
 	{"errors", func(l *Limits) *int { return &l.Errors }, 20, 1 << 20, "errors reported"},
 }
 
-// DefaultLimits returns the default limits, every field set.
+// DefaultLimits returns the default limits, every field set: those of
+// SetDefaultLimits when it was called, else the built-in ones.
 func DefaultLimits() Limits {
+	if l := processLimits.Load(); l != nil {
+		return *l
+	}
+	return builtinLimits()
+}
+
+func builtinLimits() Limits {
 	var l Limits
 	for _, s := range limitSpecs {
 		*s.field(&l) = s.def
 	}
 	return l
+}
+
+// processLimits, when set, replaces the built-in defaults.
+var processLimits atomic.Pointer[Limits]
+
+// SetDefaultLimits makes l (its zero fields the built-in defaults) the
+// default limits of every reader in the process that is given no limits of
+// its own: the model parser, the expression reader, and the model text
+// inside a certificate that the kernel re-reads. It is for a command line's
+// --limit flags, set once before any reading; it returns the error of
+// Validate and then changes nothing.
+func SetDefaultLimits(l Limits) error {
+	for _, s := range limitSpecs {
+		if p := s.field(&l); *p == 0 {
+			*p = s.def
+		}
+	}
+	if err := l.Validate(); err != nil {
+		return err
+	}
+	processLimits.Store(&l)
+	return nil
 }
 
 // LimitNames returns the names of the limits, in the order of Limits' fields.
@@ -95,9 +126,10 @@ func LimitHelp() string {
 
 // WithDefaults returns l with every zero field set to its default.
 func (l Limits) WithDefaults() Limits {
+	d := DefaultLimits()
 	for _, s := range limitSpecs {
 		if p := s.field(&l); *p == 0 {
-			*p = s.def
+			*p = *s.field(&d)
 		}
 	}
 	return l
@@ -144,7 +176,7 @@ func (l *Limits) SetLimit(arg string) error {
 // ParseLimits applies every "NAME=VALUE" of args to the default limits, in
 // order, and validates the result.
 func ParseLimits(args []string) (Limits, error) {
-	l := DefaultLimits()
+	l := builtinLimits()
 	for _, a := range args {
 		if err := l.SetLimit(a); err != nil {
 			return Limits{}, err
@@ -182,3 +214,7 @@ func (l Limits) Validate() error {
 func Exceeded(name, found string, limit int) string {
 	return fmt.Sprintf("%s, above the limit %s=%d (raise it with --limit %s=N)", found, name, limit, name)
 }
+
+// IsExceeded reports that msg contains a message of Exceeded: a limit was
+// reached, rather than the input found wrong.
+func IsExceeded(msg string) bool { return strings.Contains(msg, "(raise it with --limit ") }

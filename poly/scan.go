@@ -278,7 +278,22 @@ type Errors struct {
 	List    ErrorList // the errors kept, in the order found
 	Max     int       // how many to keep; 0 keeps all
 	Dropped int       // how many were found beyond Max
+	Stopped bool      // the reader stopped at a full list (see Stop): Dropped is a lower bound
 }
+
+// Full reports that many more errors were found than are kept (a thousand
+// more): a reader may stop there (see Stop) rather than spend the time to
+// count the rest of a file of a million bad lines. Below that the count is
+// exact.
+func (e *Errors) Full() bool { return e.Max > 0 && e.Dropped >= errorsCounted }
+
+// errorsCounted is how many errors beyond the kept ones a reader counts
+// before it may stop.
+const errorsCounted = 1000
+
+// Stop records that the reader stopped at a full list, so that Err says
+// "and more errors" without a count.
+func (e *Errors) Stop() { e.Stopped = true }
 
 // Add records an error at pos.
 func (e *Errors) Add(pos Pos, format string, args ...any) {
@@ -312,7 +327,10 @@ func (e *Errors) Err() error {
 	l.Sort()
 	if e.Dropped > 0 {
 		msg := fmt.Sprintf("and %d more errors", e.Dropped)
-		if e.Dropped == 1 {
+		switch {
+		case e.Stopped:
+			msg = fmt.Sprintf("and at least %d more errors (reading stopped there; see more with --limit errors=N)", e.Dropped)
+		case e.Dropped == 1:
 			msg = "and 1 more error"
 		}
 		l = append(l, &Error{Msg: msg})

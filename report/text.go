@@ -603,10 +603,13 @@ func Altered(doc *checker.Document) (bool, string) {
 // after "lyacert: " unless it begins with its position.
 func ErrorText(w io.Writer, err error) error {
 	ew := &errWriter{w: w}
-	for _, it := range errorItems(err) {
-		if it.Position != nil {
+	for i, it := range errorItems(err) {
+		switch {
+		case it.Position != nil:
 			fmt.Fprintf(ew, "%s: %s\n", *it.Position, it.Message)
-		} else {
+		case i > 0: // the count that closes a list ("and K more errors")
+			fmt.Fprintf(ew, "%s\n", it.Message)
+		default:
 			fmt.Fprintf(ew, "lyacert: %s\n", it.Message)
 		}
 	}

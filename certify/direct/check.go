@@ -616,6 +616,11 @@ func alongRay(m *model.Model, res *Result, vals map[string]string, params []*big
 		}
 		at[i] = v
 	}
+	if !slices.ContainsFunc(y, func(v *big.Rat) bool { return v.Sign() != 0 }) {
+		// Every point of a zero ray is the equilibrium itself, where V and
+		// V̇ vanish: no refutation (the kernel rightly rejects one there).
+		return nil
+	}
 	t := big.NewRat(1, 1)
 	tries := 40
 	if !strict {
@@ -646,24 +651,56 @@ func alongRay(m *model.Model, res *Result, vals map[string]string, params []*big
 
 // refuteLinear finds a point near the equilibrium where V < 0, moving
 // against the gradient of V's linear part.
+//
+// The linear part may vanish at some parameter values (V = a·x at a = 0);
+// there the gradient gives no direction, so the parameter samples are tried
+// in turn until one gives a non-zero gradient.
 func refuteLinear(m *model.Model, vs, lin poly.RatFunc) *checker.Refutation {
 	res := &Result{Model: m}
-	vals, point, _ := failingParams(res)
-	n := len(m.States)
-	y := make([]*big.Rat, n)
-	for i := 0; i < n; i++ {
-		e := make([]int, m.Ring.NumVars())
-		e[i] = 1
-		c := lin.Coefficient(e, m.Ring.StateMask())
-		v, err := c.Eval(point)
-		if err != nil {
-			return nil
-		}
-		y[i] = v.Neg(v)
-	}
 	res.V = *m.V
 	res.Vdot = m.Derivative(res.V)
-	return alongRay(m, res, vals, point, y, true)
+	vals, point, _ := failingParams(res)
+	n := len(m.States)
+	r := m.Ring
+	free := m.FreeParams()
+	grids := make([][]*big.Rat, len(free))
+	tries := 1
+	for k, p := range free {
+		grids[k] = samples(p.Range)
+		tries = max(tries, len(grids[k]))
+	}
+	for t := 0; t < tries; t++ {
+		if t > 0 {
+			// The t-th sample of every parameter (its last one when it has
+			// fewer), after the middle ones of failingParams.
+			for k, p := range free {
+				g := grids[k]
+				x := g[min(t-1, len(g)-1)]
+				j, _ := r.Index(p.Name)
+				point[j] = x
+				vals[p.Name] = x.RatString()
+			}
+		}
+		y := make([]*big.Rat, n)
+		for i := 0; i < n; i++ {
+			e := make([]int, r.NumVars())
+			e[i] = 1
+			c := lin.Coefficient(e, r.StateMask())
+			v, err := c.Eval(point)
+			if err != nil {
+				y = nil
+				break
+			}
+			y[i] = v.Neg(v)
+		}
+		if y == nil {
+			continue
+		}
+		if rf := alongRay(m, res, vals, point, y, true); rf != nil {
+			return rf
+		}
+	}
+	return nil
 }
 
 // finish builds the certificate and re-checks it; a claim that the checker

@@ -125,6 +125,12 @@ func FindEquilibria(m *model.Model) (*EquilibriumSearch, error) {
 		addExact(pt)
 	}
 	for _, c := range cands {
+		if !finiteWithin(c, math.Inf(1)) {
+			// An elimination root or a Newton iterate beyond float64:
+			// nothing to snap or enclose (the exact equilibria stay).
+			search.Complete = false
+			continue
+		}
 		if pt, ok := snapRational(g, c); ok {
 			addExact(pt)
 			continue
@@ -575,6 +581,9 @@ func newton(fg []floatPoly, fj [][]floatPoly, x0 []float64) ([]float64, bool) {
 // snapRational tries small-denominator rationals near c and keeps them when
 // the equations vanish there exactly.
 func snapRational(g []*poly.Poly, c []float64) ([]*big.Rat, bool) {
+	if !finiteWithin(c, math.Inf(1)) {
+		return nil, false
+	}
 	pt := make([]*big.Rat, len(c))
 	for i, x := range c {
 		pt[i] = rationalize(x, 1e-9*(1+math.Abs(x)))
@@ -646,13 +655,41 @@ func (e *Equilibrium) linearize(fj [][]floatPoly, jac [][]*poly.Poly, discrete b
 			}
 		}
 	}
+	if !finiteWithin(e.Jacobian.RawMatrix().Data, FloatRange) {
+		// LAPACK overflows (and may panic) on such entries; the exact
+		// Jacobian stays, the floating-point guide does not.
+		e.Class = ClassOutOfRange
+		return
+	}
 	e.Eigenvalues = eigenvalues(e.Jacobian)
 	e.Class = Classify(e.Jacobian, e.ExactJacobian, e.Eigenvalues, discrete)
+}
+
+// FloatRange bounds the entries of a Jacobian given to the floating-point
+// solvers (eigenvalues, the Lyapunov equation): their products must stay
+// finite, so it is about √MaxFloat64.
+const FloatRange = 1e150
+
+// ClassOutOfRange is the class of an equilibrium whose linearization has
+// entries beyond FloatRange: it is not classified, and not certified.
+const ClassOutOfRange = "unknown (the linearization has entries beyond floating-point range)"
+
+// finiteWithin reports that every x is finite with |x| ≤ bound.
+func finiteWithin(xs []float64, bound float64) bool {
+	for _, x := range xs {
+		if math.IsNaN(x) || math.IsInf(x, 0) || math.Abs(x) > bound {
+			return false
+		}
+	}
+	return true
 }
 
 // eigenvalues returns the eigenvalues of a (mat.Eigen) by decreasing real
 // part, then decreasing imaginary part; nil if the factorization fails.
 func eigenvalues(a *mat.Dense) []complex128 {
+	if !finiteWithin(a.RawMatrix().Data, FloatRange) {
+		return nil
+	}
 	var eg mat.Eigen
 	if !eg.Factorize(a, mat.EigenNone) {
 		return nil

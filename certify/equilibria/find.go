@@ -114,6 +114,9 @@ func CertifyEquilibrium(m *model.Model, e *Equilibrium, opts CertifyOptions) (*C
 		}
 		q.Set(i, i, qi)
 	}
+	if !finiteWithin(e.Jacobian.RawMatrix().Data, FloatRange) {
+		return undecided("not certified: the linearization has entries beyond floating-point range (above %g in magnitude), so the floating-point solver cannot propose P", FloatRange)
+	}
 	pf, err := solveLyapunov(e.Jacobian, q, m.Discrete)
 	if err != nil {
 		where := "on or too near the imaginary axis (λi + λj ≈ 0)"
@@ -391,6 +394,43 @@ type FindResult struct {
 // names none.
 var ErrNoTarget = errors.New("the origin is not an equilibrium of this model")
 
+// ErrNonIsolated reports that the model's equilibrium (its "at" point, or
+// the origin) is not isolated: every neighbourhood of it holds other
+// equilibria, which stay where they are, so it is not asymptotically stable
+// and no Lyapunov function certifies it (common practice).
+var ErrNonIsolated = errors.New("the equilibrium is not isolated (it lies on a curve or surface of equilibria), so it is not asymptotically stable")
+
+// isEquilibrium reports that pt (the states) solves the equilibrium
+// equations exactly.
+func isEquilibrium(m *model.Model, pt []*big.Rat) bool {
+	g, err := model.EquilibriumEquations(m.F, m.Discrete)
+	if err != nil {
+		return false
+	}
+	x := make([]*big.Rat, m.Ring.NumVars())
+	for i := range x {
+		x[i] = new(big.Rat)
+		if i < len(pt) {
+			x[i] = pt[i]
+		}
+	}
+	for _, gi := range g {
+		if gi.Eval(x).Sign() != 0 {
+			return false
+		}
+	}
+	return true
+}
+
+// pointText writes a point as "x = 0, y = 0".
+func pointText(m *model.Model, pt []*big.Rat) string {
+	var parts []string
+	for i, s := range m.States {
+		parts = append(parts, s+" = "+pt[i].RatString())
+	}
+	return strings.Join(parts, ", ")
+}
+
 // Find lists the equilibria of a model without free parameters and
 // certifies the model's own (its "at" point, or the origin), or every one
 // with opts.All. Rational equilibria that the linearization shows stable go
@@ -416,6 +456,12 @@ func Find(m *model.Model, opts FindOptions) (*FindResult, error) {
 		if e.Status == EquilibriumExact && slices.EqualFunc(e.Point, target, func(a, b *big.Rat) bool { return a.Cmp(b) == 0 }) {
 			res.Target = i
 		}
+	}
+	if res.Target < 0 && !opts.All && search.Complete && isEquilibrium(m, target) {
+		// The search lists every isolated equilibrium when it is complete,
+		// so an equilibrium it does not list lies on a curve or surface of
+		// them (a singular linear system: the kernel of its matrix).
+		return nil, fmt.Errorf("at %s: %w", pointText(m, target), ErrNonIsolated)
 	}
 	if res.Target < 0 && !opts.All {
 		return nil, &poly.Error{Pos: poly.Pos{File: m.File, Line: 1, Col: 1},

@@ -364,6 +364,11 @@ func (w *worker) floatClass(g grid) byte {
 	for i := range g.a {
 		s := interval.F{Lo: math.Ldexp(float64(g.a[i]), -g.k[i]), Hi: math.Ldexp(float64(g.a[i]+1), -g.k[i])}
 		w.x[i] = w.lo[i].Add(w.w[i].Mul(s))
+		if math.IsInf(w.x[i].Lo, 0) || math.IsInf(w.x[i].Hi, 0) {
+			// A side beyond float64 (an end past 1e308): the float pass
+			// proposes nothing there; the exact test decides alone.
+			return checker.PaveUndecided
+		}
 		w.pm[i] = interval.Pt(w.x[i].Mid())
 	}
 	ps, pm := powersOf(w.x, w.deg), powersOf(w.pm, w.deg)

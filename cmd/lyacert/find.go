@@ -1,6 +1,7 @@
 package main
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"lyacert/certificates"
@@ -24,6 +25,8 @@ type findCmd struct {
 	All  bool     `help:"Certify every equilibrium found, not only the model's own (its at point, or the origin)."`
 	Out  string   `short:"o" name:"out" placeholder:"CERT" help:"Write the certificate to this file (atomically); with --all one file per certified equilibrium, CERT with -1, -2, … before its extension."`
 	sosFlags
+	limitFlags
+	timeoutFlag
 }
 
 func init() {
@@ -73,6 +76,15 @@ func parseQ(s string, n int) ([]*big.Rat, error) {
 }
 
 func (c *findCmd) run(e *env) int {
+	if !c.limitFlags.apply(e) {
+		return exitInput
+	}
+	ctx, cancel := c.timeoutFlag.budget()
+	defer cancel()
+	return within(ctx, e, func(_ context.Context, e *env) int { return c.find(e) })
+}
+
+func (c *findCmd) find(e *env) int {
 	name, src, err := readInput(c.File, e.stdin)
 	if err != nil {
 		return e.fail(exitInput, err)
@@ -96,6 +108,9 @@ func (c *findCmd) run(e *env) int {
 	if err != nil {
 		if errors.Is(err, certify.ErrUnverified) {
 			return e.fail(exitRejected, err)
+		}
+		if errors.Is(err, equilibria.ErrNonIsolated) {
+			return e.failf(exitFails, "%s: %w", name, err)
 		}
 		return e.fail(exitInput, err)
 	}

@@ -26,6 +26,22 @@ type signCmd struct {
 	Cert string `arg:"" placeholder:"CERT" help:"Certificate file (JSON)."`
 	Key  string `name:"key" required:"" placeholder:"KEY" help:"Private key file: PEM, PKCS #8, ed25519 (NAME.key from lyacert key new)."`
 	Out  string `short:"o" name:"out" placeholder:"OUT" help:"Write the signed certificate here; by default CERT is rewritten in place (atomically)."`
+	keyFlags
+	limitFlags
+}
+
+// keyFlags are the flags of the commands that read a private key.
+type keyFlags struct {
+	InsecureKey bool `name:"insecure-key" help:"Accept a private key file that group or others may read (refused otherwise)."`
+}
+
+// read reads a private key file, refusing one that others may read
+// unless --insecure-key.
+func (kf keyFlags) read(path string) (ed25519.PrivateKey, error) {
+	if kf.InsecureKey {
+		return certificates.ReadSharedPrivateKeyFile(path)
+	}
+	return certificates.ReadPrivateKeyFile(path)
 }
 
 func init() {
@@ -58,11 +74,14 @@ func (c *keyNewCmd) run(e *env) int {
 }
 
 func (c *signCmd) run(e *env) int {
-	key, err := certificates.ReadPrivateKeyFile(c.Key)
+	if !c.limitFlags.apply(e) {
+		return exitInput
+	}
+	key, err := c.keyFlags.read(c.Key)
 	if err != nil {
 		return e.fail(exitInput, err)
 	}
-	name, src, err := readInput(c.Cert, e.stdin)
+	name, src, err := readCertificate(c.Cert, e.stdin)
 	if err != nil {
 		return e.fail(exitInput, err)
 	}
@@ -123,7 +142,7 @@ func (c *signCmd) run(e *env) int {
 
 // loadSigningKey reads the key of check --sign; signing needs a certificate
 // file to sign.
-func loadSigningKey(path, out string, e *env) (ed25519.PrivateKey, int) {
+func loadSigningKey(path, out string, kf keyFlags, e *env) (ed25519.PrivateKey, int) {
 	if path == "" {
 		return nil, 0
 	}
@@ -131,7 +150,7 @@ func loadSigningKey(path, out string, e *env) (ed25519.PrivateKey, int) {
 		fmt.Fprintln(e.stderr, "lyacert: --sign needs -o CERT: it signs the certificate file that check writes")
 		return nil, exitInput
 	}
-	key, err := certificates.ReadPrivateKeyFile(path)
+	key, err := kf.read(path)
 	if err != nil {
 		fmt.Fprintln(e.stderr, "lyacert:", err)
 		return nil, exitInput

@@ -175,7 +175,7 @@ func run(args []string, e *env) (code int) {
 	opts := []kong.Option{
 		kong.Name("lyacert"),
 		kong.Description(description),
-		kong.Vars{"version": "lyacert " + certify.Version},
+		kong.Vars{"version": "lyacert " + certify.Version, "limits": limitNames()},
 		kong.Writers(e.stdout, e.stderr),
 		kong.Exit(func(n int) { panic(exitCode(n)) }),
 		kong.Bind(e),
@@ -224,18 +224,25 @@ type checkCmd struct {
 	Sign   string   `name:"sign" placeholder:"KEY" help:"Sign the written certificate with this ed25519 private key (PEM, PKCS #8: NAME.key from lyacert key new; needs -o)."`
 	SDPOut string   `name:"sdp-out" placeholder:"FILE" help:"Write the last semidefinite program solved (a sum-of-squares search) to FILE in SDPA sparse format."`
 	paveFlags
+	limitFlags
+	timeoutFlag
+	keyFlags
 }
 
 type verifyCmd struct {
 	common
 	Cert  string   `arg:"" placeholder:"CERT" help:"Certificate file (JSON), or - for standard input."`
 	Trust []string `name:"trust" placeholder:"PUB" help:"Require a valid signature by this public key (PEM SubjectPublicKeyInfo: NAME.pub.pem from lyacert key new; repeatable: any of them)."`
+	limitFlags
+	timeoutFlag
 }
 
 type demoCmd struct {
 	common
 	Out    string `short:"o" name:"out" placeholder:"CERT" help:"Write the demo's certificate to this file."`
 	Report string `name:"report" placeholder:"DIR" help:"Also write the demo's certificate and its report in every format (md, tex, html) into DIR."`
+	limitFlags
+	timeoutFlag
 }
 
 func init() {
@@ -254,6 +261,9 @@ func (c *verifyCmd) Run(e *env) error { return exit(c.run(e)) }
 func (c *demoCmd) Run(e *env) error { return exit(c.run(e)) }
 
 func (c *checkCmd) run(e *env) int {
+	if !c.limitFlags.apply(e) {
+		return exitInput
+	}
 	name, src, err := readInput(c.File, e.stdin)
 	if err != nil {
 		return e.fail(exitInput, err)
@@ -266,12 +276,19 @@ func (c *checkCmd) run(e *env) int {
 		}
 		settings = append(settings, st)
 	}
-	key, code := loadSigningKey(c.Sign, c.Out, e)
+	key, code := loadSigningKey(c.Sign, c.Out, c.keyFlags, e)
 	if code != 0 {
 		return code
 	}
 	c.sdpOut = c.SDPOut
-	code = checkModel(name, src, settings, c.Out, c.JSON, e, &c.paveFlags)
+	ctx, cancel := c.timeoutFlag.budget()
+	defer cancel()
+	code = within(ctx, e, func(ctx context.Context, e *env) int {
+		return checkModel(ctx, name, src, settings, c.Out, c.JSON, e, &c.paveFlags)
+	})
+	if code == exitStopped {
+		return code
+	}
 	return signWritten(c.Out, key, code, c.JSON, e)
 }
 
@@ -280,7 +297,20 @@ func (c *checkCmd) run(e *env) int {
 // first run does not look like a failure. Errors keep their codes: a bad
 // input, and a certificate the checker does not accept (1).
 func (c *demoCmd) run(e *env) int {
-	code, ran := runCheck(examples.CoolantName, examples.Coolant, nil, c.Out, c.JSON, e, nil)
+	if !c.limitFlags.apply(e) {
+		return exitInput
+	}
+	ctx, cancel := c.timeoutFlag.budget()
+	defer cancel()
+	var ran bool
+	code := within(ctx, e, func(ctx context.Context, e *env) int {
+		code, r := runCheck(ctx, examples.CoolantName, examples.Coolant, nil, c.Out, c.JSON, e, nil)
+		ran = r
+		return code
+	})
+	if code == exitStopped {
+		return code
+	}
 	if ran {
 		code = exitHolds
 	}
@@ -292,29 +322,23 @@ func (c *demoCmd) run(e *env) int {
 	return code
 }
 
-func readInput(path string, stdin io.Reader) (string, []byte, error) {
-	if path == "-" {
-		b, err := io.ReadAll(stdin)
-		return "<stdin>", b, err
-	}
-	b, err := os.ReadFile(path)
-	return path, b, err
-}
-
 // checkModel checks a model; pf, when not nil, carries the paving flags.
-func checkModel(name string, src []byte, settings []model.Setting, out string, asJSON bool, e *env, pf *paveFlags) int {
-	code, _ := runCheck(name, src, settings, out, asJSON, e, pf)
+func checkModel(ctx context.Context, name string, src []byte, settings []model.Setting, out string, asJSON bool, e *env, pf *paveFlags) int {
+	code, _ := runCheck(ctx, name, src, settings, out, asJSON, e, pf)
 	return code
 }
 
 // runCheck is checkModel; ran reports that the check reached its verdict
 // and wrote it out (the exit code then says which verdict).
-func runCheck(name string, src []byte, settings []model.Setting, out string, asJSON bool, e *env, pf *paveFlags) (code int, ran bool) {
+func runCheck(ctx context.Context, name string, src []byte, settings []model.Setting, out string, asJSON bool, e *env, pf *paveFlags) (code int, ran bool) {
 	m, err := model.Parse(name, src, settings...)
 	if err != nil {
 		return e.fail(exitInput, err), false
 	}
-	res, err := pf.check(m, name, e)
+	res, err := pf.check(ctx, m, name, e)
+	if err != nil && (errors.Is(err, context.DeadlineExceeded) || errors.Is(err, context.Canceled)) {
+		return exitStopped, false // within says why
+	}
 	if err != nil {
 		switch {
 		case errors.Is(err, certify.ErrUnverified):
@@ -351,7 +375,16 @@ func runCheck(name string, src []byte, settings []model.Setting, out string, asJ
 }
 
 func (c *verifyCmd) run(e *env) int {
-	name, src, err := readInput(c.Cert, e.stdin)
+	if !c.limitFlags.apply(e) {
+		return exitInput
+	}
+	ctx, cancel := c.timeoutFlag.budget()
+	defer cancel()
+	return within(ctx, e, func(_ context.Context, e *env) int { return c.verify(e) })
+}
+
+func (c *verifyCmd) verify(e *env) int {
+	name, src, err := readCertificate(c.Cert, e.stdin)
 	if err != nil {
 		return e.fail(exitInput, err)
 	}
@@ -371,6 +404,9 @@ func (c *verifyCmd) run(e *env) int {
 		report.VerifyText(e.stdout, name, doc, res, trust)
 	}
 	switch {
+	case !res.Valid && limitReached(res):
+		fmt.Fprintf(e.stderr, "lyacert: %s: not checked to the end: a limit was reached (see the failed check for the flag that raises it)\n", name)
+		return exitInput
 	case !res.Valid:
 		return exitRejected
 	case trust.Required && !trust.Trusted:

@@ -159,7 +159,7 @@ func constant(s, what string) (*big.Rat, error) {
 }
 
 // check runs the engine with the paving flags (defaults when pf is nil).
-func (pf *paveFlags) check(m *model.Model, name string, e *env) (*direct.Result, error) {
+func (pf *paveFlags) check(ctx context.Context, m *model.Model, name string, e *env) (*direct.Result, error) {
 	o, b, err := pf.options(m, e)
 	if err != nil {
 		return nil, fmt.Errorf("%w: %w", direct.ErrPaveOptions, err)
@@ -167,7 +167,7 @@ func (pf *paveFlags) check(m *model.Model, name string, e *env) (*direct.Result,
 	// The bar is gone before the first line of output.
 	defer b.stop()
 	// An interrupt stops a long paving cleanly (nothing is written).
-	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt)
+	ctx, stop := signal.NotifyContext(ctx, os.Interrupt)
 	defer stop()
 	return direct.CheckPaving(ctx, m, name, o)
 }

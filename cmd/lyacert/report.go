@@ -14,6 +14,7 @@ import (
 	"lyacert/checker"
 	"lyacert/examples"
 	"lyacert/model"
+	"lyacert/poly"
 	"lyacert/report"
 )
 
@@ -26,6 +27,7 @@ type reportCmd struct {
 	// with the new one.
 	OldWholeDocument bool   `name:"standalone" hidden:""`
 	Out              string `short:"o" name:"out" placeholder:"FILE" help:"Write the report to this file (atomically) instead of standard output; a Markdown report's plot goes beside it."`
+	limitFlags
 }
 
 func init() {
@@ -38,6 +40,9 @@ func (c *reportCmd) Run(e *env) error { return exit(c.run(e)) }
 func checkerName() string { return "lyacert " + certify.Version }
 
 func (c *reportCmd) run(e *env) int {
+	if !c.limitFlags.apply(e) {
+		return exitInput
+	}
 	format, err := report.ParseFormat(c.Format)
 	if err != nil {
 		return e.fail(exitInput, err)
@@ -48,7 +53,7 @@ func (c *reportCmd) run(e *env) int {
 	if c.WholeDocument && format != report.LaTeX {
 		return e.failf(exitInput, "--whole-document applies to --format tex only")
 	}
-	name, src, err := readInput(c.Cert, e.stdin)
+	name, src, err := readCertificate(c.Cert, e.stdin)
 	if err != nil {
 		return e.fail(exitInput, err)
 	}
@@ -107,7 +112,7 @@ func figureBeside(out string) func(string, []byte) (string, error) {
 func writeReport(doc *checker.Document, opts report.Options, out string, e *env) int {
 	var buf bytes.Buffer
 	if err := report.Render(&buf, doc, opts); err != nil {
-		if errors.Is(err, report.ErrInvalid) {
+		if errors.Is(err, report.ErrInvalid) && !poly.IsExceeded(err.Error()) {
 			return e.failf(exitRejected, "%s: %w", opts.CertName, err)
 		}
 		return e.failf(exitInput, "%s: %w", opts.CertName, err)

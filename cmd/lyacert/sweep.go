@@ -38,6 +38,7 @@ type sweepCmd struct {
 	MaxPoints     int           `name:"max-points" placeholder:"N" help:"Stop cleanly after N grid points of this run (continue with --resume)."`
 	Certificates  string        `name:"certificates" placeholder:"DIR" help:"Write the certificate behind every line into DIR as INDEX-EQ.json."`
 	Full          bool          `name:"full" help:"At rational stable equilibria run the full nonlinear check of V (can give a global claim; slower)."`
+	limitFlags
 }
 
 func init() {
@@ -58,6 +59,9 @@ func (c *sweepCmd) Run(e *env) error {
 func (c *sweepCmd) run(e *env) int {
 	fail := func(format string, args ...any) int {
 		return e.failf(exitInput, format, args...)
+	}
+	if !c.limitFlags.apply(e) {
+		return exitInput
 	}
 	name, src, err := readInput(c.File, e.stdin)
 	if err != nil {

@@ -56,7 +56,7 @@ type Condition struct {
 
 // FactorStatus is a factor with what the assumptions say of its sign.
 type FactorStatus struct {
-	Factor
+	PowerFactor
 	Status string
 }
 
@@ -96,7 +96,7 @@ type Result struct {
 	// Paving is the engine's paving of a region in several parameters
 	// (Region.Paving is its exact record in the certificate); nil when
 	// none was made.
-	Paving *pave.Paving
+	Paving *pave.Result
 	// PavingNote says why no paving was made where one was wanted.
 	PavingNote string
 	// Methods say how each form was proven, with the sizes of the work.

@@ -7,8 +7,8 @@ import (
 	"lyacert/poly"
 )
 
-// Factor is one factor of a factorization, raised to Power >= 1.
-type Factor struct {
+// PowerFactor is one factor of a factorization, raised to Power >= 1.
+type PowerFactor struct {
 	P     *poly.Poly
 	Power int
 }
@@ -22,7 +22,7 @@ type Factor struct {
 // any one variable t whose roots ρ are rational constants. What is left is
 // returned as one factor; the factorization is exact but need not be into
 // irreducibles. The zero polynomial gives c = 0 and no factors.
-func Factorize(p *poly.Poly) (*big.Rat, []Factor) {
+func Factorize(p *poly.Poly) (*big.Rat, []PowerFactor) {
 	if p.IsZero() {
 		return new(big.Rat), nil
 	}
@@ -31,7 +31,7 @@ func Factorize(p *poly.Poly) (*big.Rat, []Factor) {
 	}
 	c, q := p.PrimitivePart()
 	r := p.Ring()
-	var out []Factor
+	var out []PowerFactor
 	// Monomial content: each variable separately.
 	minExp := make([]int, r.NumVars())
 	for i, t := range q.Terms() {
@@ -43,7 +43,7 @@ func Factorize(p *poly.Poly) (*big.Rat, []Factor) {
 	}
 	for j, m := range minExp {
 		if m > 0 {
-			out = append(out, Factor{poly.Var(r, j), m})
+			out = append(out, PowerFactor{poly.Var(r, j), m})
 			e := make([]int, r.NumVars())
 			e[j] = m
 			q.DivExact(q, poly.Monomial(r, e, big.NewRat(1, 1)))
@@ -55,7 +55,7 @@ func Factorize(p *poly.Poly) (*big.Rat, []Factor) {
 	// Normalize every factor to primitive with positive leading coefficient
 	// and merge equal factors; the constant is then p's leading coefficient
 	// over the product's, and the product is checked to be exact.
-	var merged []Factor
+	var merged []PowerFactor
 	for _, f := range out {
 		_, g := f.P.PrimitivePart()
 		found := false
@@ -66,7 +66,7 @@ func Factorize(p *poly.Poly) (*big.Rat, []Factor) {
 			}
 		}
 		if !found {
-			merged = append(merged, Factor{g, f.Power})
+			merged = append(merged, PowerFactor{g, f.Power})
 		}
 	}
 	prod := poly.ConstInt(r, 1)
@@ -88,14 +88,14 @@ func Factorize(p *poly.Poly) (*big.Rat, []Factor) {
 }
 
 // splitFactors factors a primitive polynomial without monomial content.
-func splitFactors(q *poly.Poly) []Factor {
+func splitFactors(q *poly.Poly) []PowerFactor {
 	r := q.Ring()
 	vars := q.VarsUsed()
 	if len(vars) == 1 {
 		u, _ := q.Univariate(vars[0])
 		return univariateFactors(r, vars[0], u)
 	}
-	var out []Factor
+	var out []PowerFactor
 	rest := q.Clone()
 	for _, v := range vars {
 		for _, root := range candidateRoots(rest, v) {
@@ -109,13 +109,13 @@ func splitFactors(q *poly.Poly) []Factor {
 				if n := len(out); n > 0 && out[n-1].P.Equal(lin) {
 					out[n-1].Power++
 				} else {
-					out = append(out, Factor{lin, 1})
+					out = append(out, PowerFactor{lin, 1})
 				}
 			}
 		}
 	}
 	if !rest.IsConst() {
-		out = append(out, Factor{rest, 1})
+		out = append(out, PowerFactor{rest, 1})
 	}
 	return out
 }
@@ -148,8 +148,8 @@ func candidateRoots(q *poly.Poly, v int) []*big.Rat {
 
 // univariateFactors splits u (in variable v) into rational linear factors
 // with multiplicity and the square-free parts of the rest (Yun 1976).
-func univariateFactors(r *poly.Ring, v int, u poly.Univariate) []Factor {
-	var out []Factor
+func univariateFactors(r *poly.Ring, v int, u poly.Univariate) []PowerFactor {
+	var out []PowerFactor
 	for _, rho := range u.RationalRoots() {
 		lin := poly.NewUnivariate(new(big.Rat).Neg(rho), big.NewRat(1, 1))
 		m := 0
@@ -161,7 +161,7 @@ func univariateFactors(r *poly.Ring, v int, u poly.Univariate) []Factor {
 			u = quo
 			m++
 		}
-		out = append(out, Factor{linear(r, v, rho), m})
+		out = append(out, PowerFactor{linear(r, v, rho), m})
 	}
 	if u.Degree() < 1 {
 		return out
@@ -176,7 +176,7 @@ func univariateFactors(r *poly.Ring, v int, u poly.Univariate) []Factor {
 	for i := 1; b.Degree() >= 1; i++ {
 		g := poly.UnivariateGCD(b, dd)
 		if g.Degree() >= 1 {
-			out = append(out, Factor{poly.FromUnivariate(r, v, g), i})
+			out = append(out, PowerFactor{poly.FromUnivariate(r, v, g), i})
 		}
 		b, _ = b.DivMod(g)
 		cc, _ = dd.DivMod(g)

@@ -59,9 +59,9 @@ const DefaultMaxBoxes = 4 << 20
 // ErrTooManyBoxes is returned when the tree would exceed Options.MaxBoxes.
 var ErrTooManyBoxes = errors.New("the paving needs more boxes than allowed; use a coarser resolution or a smaller box")
 
-// Paving is the result of PaveRegion: the tree in the encoding of
+// Result is the result of PaveRegion: the tree in the encoding of
 // checker.Paving, and statistics.
-type Paving struct {
+type Result struct {
 	Box   []Side
 	Level int    // the resolution is 2^-Level of each side
 	Tree  string // depth-first codes, see checker.Paving
@@ -110,7 +110,7 @@ func Level(res *big.Rat) (int, error) {
 // (wrapped) when ctx is cancelled, ErrTooManyBoxes when the tree would
 // exceed Options.MaxBoxes, and an error when a condition involves a
 // variable that is not a side of the box or a side is not bounded.
-func PaveRegion(ctx context.Context, conds []*poly.Poly, box []Side, level int, opts Options) (*Paving, error) {
+func PaveRegion(ctx context.Context, conds []*poly.Poly, box []Side, level int, opts Options) (*Result, error) {
 	n := len(box)
 	if n == 0 || n > poly.MaxCenteredDims {
 		return nil, fmt.Errorf("a paving needs 1 to %d parameters, not %d", poly.MaxCenteredDims, n)
@@ -249,7 +249,7 @@ func PaveRegion(ctx context.Context, conds []*poly.Poly, box []Side, level int, 
 	}
 
 	var b strings.Builder
-	pv := &Paving{Box: slices.Clone(box), Level: level, Rejected: rejectedTop}
+	pv := &Result{Box: slices.Clone(box), Level: level, Rejected: rejectedTop}
 	for _, s := range segs {
 		if s.task == 0 {
 			b.WriteByte(s.code)

@@ -3,6 +3,7 @@ package report
 import (
 	"fmt"
 	"io"
+	"lyacert/certify/sossearch"
 	"math"
 	"math/big"
 	"strconv"
@@ -273,4 +274,18 @@ func findText(w io.Writer, res *equilibria.FindResult, q []*big.Rat, written []s
 		}
 	}
 	fmt.Fprintf(w, "\n%s\n", Caution)
+}
+
+// DegreeSearchText writes what a search for V of the given degree did: the
+// sizes of its semidefinite program, and why no V was found when none was.
+func DegreeSearchText(w io.Writer, degree int, res *sossearch.Result) error {
+	ew := &errWriter{w: w}
+	s := res.Sizes
+	fmt.Fprintf(ew, "Search for V of degree %d by a semidefinite program (sums of squares)\n", degree)
+	fmt.Fprintf(ew, "  V = z₁ᵀG₁z₁, basis %d; −V̇ = z₂ᵀG₂z₂, basis %d; %d equations; SDP blocks %v, %d iterations, margin %.3g; %v solving, %v rounding and exact checks\n\n",
+		s.BasisV, s.BasisVdot, s.Constraints, s.Blocks, s.Iterations, s.Margin, s.Solve.Round(1e3), s.Round.Round(1e3))
+	if res.Check == nil {
+		fmt.Fprintln(ew, "No V found: "+res.Reason+".")
+	}
+	return ew.err
 }

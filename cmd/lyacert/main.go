@@ -64,8 +64,6 @@ Examples:
 
 ` + exitCodesText
 
-// caution closes the text of every command that states a verdict.
-const caution = report.Caution
 
 type cli struct {
 	Version kong.VersionFlag `help:"Print the version and exit."`

@@ -56,14 +56,10 @@ func (c *findCmd) findDegree(m *model.Model, name string, e *env) int {
 			return code
 		}
 	}
-	s := res.Sizes
 	if !c.JSON {
-		fmt.Fprintf(e.stdout, "Search for V of degree %d by a semidefinite program (sums of squares)\n", c.Degree)
-		fmt.Fprintf(e.stdout, "  V = z₁ᵀG₁z₁, basis %d; −V̇ = z₂ᵀG₂z₂, basis %d; %d equations; SDP blocks %v, %d iterations, margin %.3g; %v solving, %v rounding and exact checks\n\n",
-			s.BasisV, s.BasisVdot, s.Constraints, s.Blocks, s.Iterations, s.Margin, s.Solve.Round(1e3), s.Round.Round(1e3))
+		report.DegreeSearchText(e.stdout, c.Degree, res)
 	}
 	if res.Check == nil {
-		fmt.Fprintln(e.stdout, "No V found: "+res.Reason+".")
 		return exitFails
 	}
 	written := ""

@@ -6,6 +6,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"lyacert/report"
 	"os"
 	"os/signal"
 	"path/filepath"
@@ -16,7 +17,6 @@ import (
 	"time"
 
 	"lyacert/certificates"
-	"lyacert/checker"
 	"lyacert/model"
 	"lyacert/sweep"
 )
@@ -238,11 +238,11 @@ func (c *sweepCmd) run(e *env) int {
 			allHold = false
 		}
 	}
-	report := e.stdout
+	summary := e.stdout
 	if c.Out == "" {
-		report = e.stderr
+		summary = e.stderr
 	}
-	s := sweepSummary{
+	s := report.SweepSummary{
 		Model: name, Params: axisNames(grid), GridPoints: size, Shard: c.Shard, ShardPoints: len(points) + sum.Remaining,
 		Done: len(points), ThisRun: sum.Points, Remaining: sum.Remaining, Verdicts: verdicts, Complete: complete,
 		Output: c.Out, Plot: plotted, Certificates: c.Certificates, Boundaries: boundaries(points),
@@ -252,9 +252,9 @@ func (c *sweepCmd) run(e *env) int {
 		s.Output = partial
 	}
 	if c.JSON {
-		writeJSON(report, s)
+		writeJSON(summary, s)
 	} else {
-		renderSweepSummary(report, s, ctx.Err())
+		report.SweepText(summary, s, ctx.Err())
 	}
 	switch {
 	case !complete:
@@ -319,65 +319,4 @@ func openSweepOutput(out, partial string, resume bool, id sweep.Identity, grid s
 	}
 	file, err := os.OpenFile(partial, os.O_WRONLY|os.O_APPEND, 0o644)
 	return f.Blocks, file, err
-}
-
-// sweepSummary is the summary of a sweep (--json keys are a contract).
-type sweepSummary struct {
-	Model        string         `json:"model"`
-	Params       []string       `json:"params"`
-	GridPoints   int            `json:"grid_points"`
-	Shard        string         `json:"shard"`
-	ShardPoints  int            `json:"shard_points"`
-	Done         int            `json:"done"`
-	ThisRun      int            `json:"this_run"`
-	Remaining    int            `json:"remaining"`
-	Verdicts     map[string]int `json:"verdicts"`
-	Complete     bool           `json:"complete"`
-	Output       string         `json:"output"`
-	Plot         string         `json:"plot"`
-	Certificates string         `json:"certificates"`
-	Boundaries   []string       `json:"boundaries"`
-	Seconds      float64        `json:"seconds"`
-}
-
-func renderSweepSummary(w io.Writer, s sweepSummary, stopped error) {
-	fmt.Fprintf(w, "Sweep of %s over %s: %d grid points", s.Model, strings.Join(s.Params, ", "), s.GridPoints)
-	if s.Shard != "0/1" {
-		fmt.Fprintf(w, ", shard %s with %d", s.Shard, s.ShardPoints)
-	}
-	fmt.Fprintln(w)
-	rate := ""
-	if s.ThisRun > 0 && s.Seconds > 0 {
-		rate = fmt.Sprintf(", %.0f points/s", float64(s.ThisRun)/s.Seconds)
-	}
-	fmt.Fprintf(w, "  %d done (%d in this run, %.1f s%s), %d remaining\n", s.Done, s.ThisRun, s.Seconds, rate, s.Remaining)
-	var parts []string
-	for _, v := range []string{checker.VerdictHolds, checker.VerdictFails, checker.VerdictUndecided} {
-		parts = append(parts, fmt.Sprintf("%s %d", v, s.Verdicts[v]))
-	}
-	fmt.Fprintf(w, "  lines by verdict: %s\n", strings.Join(parts, ", "))
-	for _, b := range s.Boundaries {
-		fmt.Fprintf(w, "  the verdict changes %s\n", b)
-	}
-	if s.Output != "" {
-		fmt.Fprintf(w, "  lines in %s\n", s.Output)
-	}
-	if s.Plot != "" {
-		fmt.Fprintf(w, "  plot in %s\n", s.Plot)
-	}
-	if s.Certificates != "" {
-		fmt.Fprintf(w, "  certificates in %s\n", s.Certificates)
-	}
-	if !s.Complete {
-		why := "stopped"
-		switch {
-		case errors.Is(stopped, context.DeadlineExceeded):
-			why = "stopped at the timeout"
-		case errors.Is(stopped, context.Canceled):
-			why = "interrupted"
-		}
-		fmt.Fprintf(w, "  %s: continue with --resume\n", why)
-	}
-	fmt.Fprintln(w, "  every line with a certificate_digest is backed by a certificate the exact checker accepted")
-	fmt.Fprintf(w, "\n%s\n", caution)
 }

@@ -64,7 +64,6 @@ Examples:
 
 ` + exitCodesText
 
-
 type cli struct {
 	Version kong.VersionFlag `help:"Print the version and exit."`
 }

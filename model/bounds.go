@@ -167,8 +167,9 @@ func (m *Model) checkDerived(errs *poly.Errors, lim poly.Limits) {
 		dv.terms = satAdd(dv.terms, int64(v.Num.NumTerms()))
 	} else {
 		sv := shapeOf(v)
-		// The degree of ∂V/∂xᵢ: the terms that contain xᵢ, one less.
+		// ∂V/∂xᵢ has the terms of V that contain xᵢ (with[i] of them), one degree less.
 		dd := make([]int, len(m.States))
+		with := make([]int64, len(m.States))
 		for i := range dd {
 			dd[i] = -1
 		}
@@ -180,6 +181,7 @@ func (m *Model) checkDerived(errs *poly.Errors, lim poly.Limits) {
 			for i := range dd {
 				if t.Exp[i] > 0 {
 					dd[i] = max(dd[i], s-1)
+					with[i]++
 				}
 			}
 		}
@@ -188,12 +190,17 @@ func (m *Model) checkDerived(errs *poly.Errors, lim poly.Limits) {
 				dv.deg = max(dv.deg, dd[i]+fs[i].deg)
 			}
 			dv.denDeg += fs[i].denDeg
-			t := satMul(sv.terms, fs[i].terms)
-			dv.terms = satAdd(dv.terms, t)
+		}
+		// Σ ∂V/∂xᵢ·fᵢ: each product costs with[i]·terms(fᵢ) term products,
+		// and adding it to the running sum at most one per term of the sum,
+		// which never has more terms than there are monomials of its degree.
+		most := monomials(n, dv.deg)
+		for i := range m.States {
+			t := satMul(with[i], fs[i].terms)
+			dv.terms = min(satAdd(dv.terms, t), most)
 			dv.work = satAdd(dv.work, satAdd(t, dv.terms))
 		}
 		dv.denDeg += sv.denDeg
-		dv.terms = min(dv.terms, monomials(n, dv.deg))
 	}
 	if !check(m.VPos, what, dv) || shift == nil {
 		return

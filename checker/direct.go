@@ -89,7 +89,7 @@ type Witness struct {
 	Holds  bool              `json:"holds"`
 }
 
-// Refutation is a point where the candidate fails: V ≤ 0 or V̇ ≥ 0 at a state
+// Refutation is a point where the candidate fails: V ≤ 0 or V̇ > 0 at a state
 // other than the equilibrium. Params fixes only the parameters on which V or
 // V̇ at Point depends; V and Vdot are the exact values there, as functions
 // of the remaining parameters, whose sign must hold on their whole range.
@@ -588,6 +588,9 @@ func (c *run) refutation(cl Claim) bool {
 	}
 	neg := vv.Num.Enclose(c.box).Mul(vv.DenSign(c.box))
 	pos := dv.Num.Enclose(c.box).Mul(dv.DenSign(c.box))
-	c.refuted = c.add("refutation", neg.NonPositive() || pos.NonNegative(), "V ≤ 0 or V̇ ≥ 0 there, for every value of the parameters left free")
+	// V ≤ 0 away from the equilibrium denies that V is positive definite;
+	// V̇ > 0 denies V̇ ≤ 0 near any point, so V proves not even stability.
+	// V̇ = 0 refutes nothing: a semidefinite V̇ may still prove stability.
+	c.refuted = c.add("refutation", neg.NonPositive() || pos.Positive(), "V ≤ 0 or V̇ > 0 there, for every value of the parameters left free")
 	return c.refuted
 }

@@ -640,7 +640,9 @@ func alongRay(m *model.Model, res *Result, vals map[string]string, params []*big
 			if err1 != nil || err2 != nil {
 				return nil
 			}
-			if vv.Sign() <= 0 || dv.Sign() >= 0 {
+			// V ≤ 0, or V̇ > 0 strictly: V̇ = 0 at a point refutes nothing
+			// (a semidefinite V̇ may still prove stability).
+			if vv.Sign() <= 0 || dv.Sign() > 0 {
 				return minimalRefutation(m, res, vals, x)
 			}
 		}

@@ -139,7 +139,7 @@ func TestOtherVerdicts(t *testing.T) {
 		{"cubic.lya", checker.KindGlobal, checker.VerdictHolds, false},
 		{"quartic.lya", checker.KindGlobal, checker.VerdictHolds, false},
 		{"unstable.lya", checker.KindNone, checker.VerdictFails, true},
-		{"twogains.lya", checker.KindGlobal, checker.VerdictOnRegion, true},
+		{"twogains.lya", checker.KindGlobal, checker.VerdictOnRegion, false}, // fails only at the corners |a − b| = 2, where V̇ = −2(x ∓ y)² ≤ 0: no point has V̇ > 0 (hand computation)
 		{"shifted.lya", checker.KindLocal, checker.VerdictHolds, false},
 		{"linearpart.lya", checker.KindNone, checker.VerdictFails, true},
 		{"discrete.lya", checker.KindGlobal, checker.VerdictHolds, false},

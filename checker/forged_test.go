@@ -1,6 +1,7 @@
 package checker_test
 
 import (
+	"context"
 	"path/filepath"
 	"testing"
 
@@ -55,5 +56,21 @@ func TestStrayWitnessRejected(t *testing.T) {
 	}
 	if checker.Verify(doc).Valid {
 		t.Error("an unchecked witness beside a region is accepted")
+	}
+}
+
+// A verification stopped by its context is invalid, never a verdict.
+func TestVerifyStopped(t *testing.T) {
+	doc, err := certificates.ReadFile(filepath.Join("..", "testdata", "certificates", "lorenz.json"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	ctx, cancel := context.WithCancel(context.Background())
+	cancel()
+	if out := checker.VerifyContext(ctx, doc); out.Valid || out.Verdict != "" {
+		t.Errorf("a cancelled verification gives %+v", out)
+	}
+	if out := checker.VerifyContext(context.Background(), doc); !out.Valid {
+		t.Error("the certificate does not verify")
 	}
 }

@@ -273,7 +273,9 @@ func (c *run) pavingTree(tree string, vars []int, sides []poly.Interval, open po
 		if code == PaveSplit {
 			return nil // a split box claims nothing; walkPaving checked its width
 		}
-		count[code]++
+		if count[code]++; count[code]%4096 == 0 && c.ctx.Err() != nil {
+			return c.ctx.Err()
+		}
 		fs := forms[d]
 		faces := g.OpenFacesOn(open)
 		positive, nonPositive := true, false

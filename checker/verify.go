@@ -1,6 +1,7 @@
 package checker
 
 import (
+	"context"
 	"fmt"
 	"math/big"
 	"slices"
@@ -71,8 +72,12 @@ var rules = []rule{
 // Verify re-checks d: the model text and its parameters, every claim by the
 // rule it names, the verdict derived from them, the digest and a present
 // signature (see the package documentation).
-func Verify(d *Document) Outcome {
-	c := &run{doc: d, records: make([]Record, 0, 64), forms: map[string]*checkedForm{}, seen: map[string]bool{}, sturm: map[string]*poly.Sturm{}}
+func Verify(d *Document) Outcome { return VerifyContext(context.Background(), d) }
+
+// VerifyContext is Verify within ctx's deadline: a run that ctx stops is
+// invalid (its record says so), never a verdict.
+func VerifyContext(ctx context.Context, d *Document) Outcome {
+	c := &run{ctx: ctx, doc: d, records: make([]Record, 0, 64), forms: map[string]*checkedForm{}, seen: map[string]bool{}, sturm: map[string]*poly.Sturm{}}
 	verdict, kind := c.verify()
 	if d.Signature != nil {
 		c.signature()
@@ -94,6 +99,7 @@ func Verify(d *Document) Outcome {
 
 // run is the state of one verification: the facts established so far.
 type run struct {
+	ctx     context.Context
 	doc     *Document
 	records []Record
 	failed  bool
@@ -184,6 +190,10 @@ func (c *run) verify() (verdict, kind string) {
 	last := 0
 	for i, cl := range d.Claims {
 		k := slices.IndexFunc(rules, func(r rule) bool { return cl != nil && r.name == cl.Rule() })
+		if err := c.ctx.Err(); err != nil {
+			c.add("claims", false, "stopped before claim %d: %v", i+1, err)
+			return
+		}
 		if !c.add("claims", k >= 0, "claim %d names a rule of the kernel", i+1) ||
 			!c.add("claims", rules[k].rank >= last, "claim %d (%s) comes in the order of the rule table", i+1, rules[k].name) ||
 			!rules[k].check(c, cl) {

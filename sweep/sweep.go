@@ -216,7 +216,9 @@ func sweepPoint(opts *SweepOptions, base *model.Model, index, size int, source s
 				line.SpectralRadius = &v
 			}
 		}
-		c, err := equilibria.CertifyEquilibrium(m, e, co)
+		// A grid point runs to its end: the sweep stops between points, so
+		// that no line records a point cut off half way.
+		c, err := equilibria.CertifyEquilibrium(context.Background(), m, e, co)
 		var doc *checker.Document
 		switch {
 		case err != nil:

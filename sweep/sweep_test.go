@@ -106,7 +106,7 @@ func TestRouthHurwitzSweep(t *testing.T) {
 			}
 			// find (with the full check at the origin) agrees with the sweep.
 			m := parseModel(t, string(src), "a1="+a1, "a2="+a2v, "a0="+a0v)
-			res, err := equilibria.Find(m, equilibria.FindOptions{})
+			res, err := equilibria.Find(context.Background(), m, equilibria.FindOptions{})
 			if err != nil {
 				t.Fatal(err)
 			}

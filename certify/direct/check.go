@@ -129,6 +129,9 @@ func runCheck(ctx context.Context, m *model.Model, source string, opts PaveOptio
 	r := m.Ring
 	states := r.StateMask()
 	res.Vdot = m.Derivative(res.V)
+	if err := ctx.Err(); err != nil {
+		return nil, err
+	}
 	vs, ds := m.Shift(res.V), m.Shift(res.Vdot)
 	res.Shifted.V, res.Shifted.Vdot = vs, ds
 	if c := vs.Homogeneous(0, states); !c.IsZero() {
@@ -145,7 +148,7 @@ func runCheck(ctx context.Context, m *model.Model, source string, opts PaveOptio
 		if res.Refutation == nil {
 			res.Verdict = checker.VerdictUndecided
 		}
-		return finish(res, source)
+		return finish(ctx, res, source)
 	}
 	n := len(m.States)
 	for _, f := range []struct {
@@ -164,7 +167,7 @@ func runCheck(ctx context.Context, m *model.Model, source string, opts PaveOptio
 			if res.Refutation == nil {
 				res.Verdict = checker.VerdictUndecided
 			}
-			return finish(res, source)
+			return finish(ctx, res, source)
 		}
 		res.Forms = append(res.Forms, Form{Name: f.name, Gram: g, LDL: l, Minors: l.Minors()})
 	}
@@ -219,7 +222,7 @@ func runCheck(ctx context.Context, m *model.Model, source string, opts PaveOptio
 		up.Notes = append(up.Notes, "the quadratic parts alone give "+quad+"; the Gram matrices of the whole functions in monomial bases give the global claim")
 		res = up
 	}
-	return finish(res, source)
+	return finish(ctx, res, source)
 }
 
 func formWord(name string) string {
@@ -708,14 +711,17 @@ func refuteLinear(m *model.Model, vs, lin poly.RatFunc) *checker.Refutation {
 // finish builds the certificate and re-checks it; a claim that the checker
 // does not accept, or a verdict it does not derive, is an internal error,
 // never printed.
-func finish(res *Result, source string) (*Result, error) {
+func finish(ctx context.Context, res *Result, source string) (*Result, error) {
 	res.methods()
 	doc := res.document(source)
 	if err := certificates.Seal(doc); err != nil {
 		return nil, err
 	}
 	res.Doc = doc
-	res.Check = checker.Verify(doc)
+	res.Check = checker.VerifyContext(ctx, doc)
+	if err := ctx.Err(); err != nil {
+		return nil, err // stopped: no verdict
+	}
 	if err := certify.Agrees(res.Check, res.Verdict, res.Claim); err != nil {
 		return nil, err
 	}

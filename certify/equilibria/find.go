@@ -1,6 +1,7 @@
 package equilibria
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"lyacert/certificates"
@@ -94,7 +95,10 @@ var rationalizeTolerances = []float64{1e-3, 1e-6, 1e-9, 1e-12, 0}
 // unit circle, where the linearization decides nothing) or when no rounding
 // passes; the verdict is then undecided with the reason. An error is
 // returned only for a certificate the checker rejects (certify.ErrUnverified, a bug).
-func CertifyEquilibrium(m *model.Model, e *Equilibrium, opts CertifyOptions) (*Certification, error) {
+func CertifyEquilibrium(ctx context.Context, m *model.Model, e *Equilibrium, opts CertifyOptions) (*Certification, error) {
+	if err := ctx.Err(); err != nil {
+		return nil, err
+	}
 	n := len(m.States)
 	undecided := func(format string, args ...any) (*Certification, error) {
 		return &Certification{Method: MethodLinearization, Verdict: checker.VerdictUndecided, Claim: checker.KindNone,
@@ -182,7 +186,7 @@ func CertifyEquilibrium(m *model.Model, e *Equilibrium, opts CertifyOptions) (*C
 			c.V = &v
 		}
 		if k < 0 && opts.Full && e.Status == EquilibriumExact {
-			if err := c.full(m, e, opts); err != nil {
+			if err := c.full(ctx, m, e, opts); err != nil {
 				return nil, err
 			}
 			if c.Doc != nil {
@@ -194,7 +198,7 @@ func CertifyEquilibrium(m *model.Model, e *Equilibrium, opts CertifyOptions) (*C
 			return nil, err
 		}
 		c.Doc = doc
-		c.Verified = checker.Verify(doc)
+		c.Verified = checker.VerifyContext(ctx, doc)
 		if err := certify.Agrees(c.Verified, c.Verdict, c.Claim); err != nil {
 			return nil, err
 		}
@@ -259,7 +263,7 @@ func decayName(m *model.Model) string {
 // full runs Check on V = (x − x*)ᵀP(x − x*) with the model's equilibrium set
 // to x*. It leaves c.Doc nil when Check does not confirm the claim (the
 // linearization certificate is used then).
-func (c *Certification) full(m *model.Model, e *Equilibrium, opts CertifyOptions) error {
+func (c *Certification) full(ctx context.Context, m *model.Model, e *Equilibrium, opts CertifyOptions) error {
 	mc := *m
 	mc.V = c.V
 	mc.At = make([]poly.RatFunc, len(e.Point))
@@ -267,7 +271,7 @@ func (c *Certification) full(m *model.Model, e *Equilibrium, opts CertifyOptions
 		mc.At[i] = poly.RatConst(m.Ring, v)
 	}
 	mc.AtGiven = true
-	res, err := direct.Check(&mc, opts.Source)
+	res, err := direct.CheckPaving(ctx, &mc, opts.Source, direct.PaveOptions{})
 	if err != nil {
 		return err
 	}
@@ -279,7 +283,7 @@ func (c *Certification) full(m *model.Model, e *Equilibrium, opts CertifyOptions
 		if err := certificates.Seal(res.Doc); err != nil {
 			return err
 		}
-		res.Check = checker.Verify(res.Doc)
+		res.Check = checker.VerifyContext(ctx, res.Doc)
 		if err := certify.Agrees(res.Check, res.Verdict, res.Claim); err != nil {
 			return err
 		}
@@ -437,7 +441,7 @@ func pointText(m *model.Model, pt []*big.Rat) string {
 // through the full check (Check on V = (x − x*)ᵀP(x − x*)); the others get
 // linearization checker. Input errors (free parameters, an "at" point
 // that is not an equilibrium, no target) are returned as errors.
-func Find(m *model.Model, opts FindOptions) (*FindResult, error) {
+func Find(ctx context.Context, m *model.Model, opts FindOptions) (*FindResult, error) {
 	if err := requireFixed(m, "find"); err != nil {
 		return nil, err
 	}
@@ -472,7 +476,7 @@ func Find(m *model.Model, opts FindOptions) (*FindResult, error) {
 		if !opts.All && i != res.Target {
 			continue
 		}
-		c, err := CertifyEquilibrium(m, &search.Equilibria[i], co)
+		c, err := CertifyEquilibrium(ctx, m, &search.Equilibria[i], co)
 		if err != nil {
 			return nil, err
 		}

@@ -1,6 +1,7 @@
 package equilibria
 
 import (
+	"context"
 	"fmt"
 	"math"
 	"math/rand/v2"
@@ -72,7 +73,7 @@ func BenchmarkFindLinear(b *testing.B) {
 				b.Fatal(err)
 			}
 			for b.Loop() {
-				res, err := Find(m, FindOptions{Source: "linear.lya"})
+				res, err := Find(context.Background(), m, FindOptions{Source: "linear.lya"})
 				if err != nil {
 					b.Fatal(err)
 				}

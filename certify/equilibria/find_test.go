@@ -1,6 +1,7 @@
 package equilibria
 
 import (
+	"context"
 	"math"
 	"math/big"
 	"os"
@@ -74,7 +75,7 @@ func TestFindLinearExact(t *testing.T) {
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
 			m := parseModel(t, c.src)
-			res, err := Find(m, FindOptions{})
+			res, err := Find(context.Background(), m, FindOptions{})
 			if err != nil {
 				t.Fatal(err)
 			}

@@ -1,6 +1,7 @@
 package equilibria
 
 import (
+	"context"
 	"flag"
 	"os"
 	"path/filepath"
@@ -37,7 +38,7 @@ func TestTestdataLinearizationCertificates(t *testing.T) {
 			if err != nil {
 				t.Fatal(err)
 			}
-			ct, err := CertifyEquilibrium(m, &s.Equilibria[c.eq], CertifyOptions{Source: c.model, Issued: "2026-12-01T00:00:00Z"})
+			ct, err := CertifyEquilibrium(context.Background(), m, &s.Equilibria[c.eq], CertifyOptions{Source: c.model, Issued: "2026-12-01T00:00:00Z"})
 			if err != nil {
 				t.Fatal(err)
 			}

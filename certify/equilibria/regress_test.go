@@ -1,6 +1,7 @@
 package equilibria
 
 import (
+	"context"
 	"errors"
 	"strings"
 	"testing"
@@ -19,14 +20,14 @@ func TestFindNonIsolatedOrigin(t *testing.T) {
 		"state x, y\nx+ = x\ny+ = y/2\nV = x^2 + y^2\n",
 	} {
 		m := parseModel(t, src)
-		_, err := Find(m, FindOptions{})
+		_, err := Find(context.Background(), m, FindOptions{})
 		if !errors.Is(err, ErrNonIsolated) {
 			t.Errorf("%q: Find error %v, want ErrNonIsolated", src, err)
 		}
 	}
 	// A model whose origin is not an equilibrium at all keeps its message.
 	m := parseModel(t, "state x\nx' = 1 - x\nV = x^2\n")
-	if _, err := Find(m, FindOptions{}); err == nil || errors.Is(err, ErrNonIsolated) || !strings.Contains(err.Error(), ErrNoTarget.Error()) {
+	if _, err := Find(context.Background(), m, FindOptions{}); err == nil || errors.Is(err, ErrNonIsolated) || !strings.Contains(err.Error(), ErrNoTarget.Error()) {
 		t.Errorf("x' = 1 - x: Find error %v, want ErrNoTarget", err)
 	}
 }
@@ -39,7 +40,7 @@ func TestFindBeyondFloatRange(t *testing.T) {
 		"x' = sigma*(y - x)\ny' = r*x - y - x*z\nz' = x*y - b*z\nV = x^2/sigma + y^2 + z^2\n"
 	for _, r := range []string{"1e300", "1e400", "-1e400"} {
 		m := parseModel(t, strings.Replace(src, "r >= 0", "r", 1), "sigma=10", "b=8/3", "r="+r)
-		res, err := Find(m, FindOptions{})
+		res, err := Find(context.Background(), m, FindOptions{})
 		if err != nil {
 			t.Fatalf("r = %s: %v", r, err)
 		}

@@ -81,10 +81,10 @@ func (c *findCmd) run(e *env) int {
 	}
 	ctx, cancel := c.timeoutFlag.budget()
 	defer cancel()
-	return within(ctx, e, func(_ context.Context, e *env) int { return c.find(e) })
+	return within(ctx, e, func(ctx context.Context, e *env) int { return c.find(ctx, e) })
 }
 
-func (c *findCmd) find(e *env) int {
+func (c *findCmd) find(ctx context.Context, e *env) int {
 	name, src, err := readInput(c.File, e.stdin)
 	if err != nil {
 		return e.fail(exitInput, err)
@@ -104,7 +104,7 @@ func (c *findCmd) find(e *env) int {
 	if err != nil {
 		return e.fail(exitInput, err)
 	}
-	res, err := equilibria.Find(m, equilibria.FindOptions{Q: q, All: c.All, Source: name})
+	res, err := equilibria.Find(ctx, m, equilibria.FindOptions{Q: q, All: c.All, Source: name})
 	if err != nil {
 		if errors.Is(err, certify.ErrUnverified) {
 			return e.fail(exitRejected, err)

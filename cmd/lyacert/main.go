@@ -377,10 +377,10 @@ func (c *verifyCmd) run(e *env) int {
 	}
 	ctx, cancel := c.timeoutFlag.budget()
 	defer cancel()
-	return within(ctx, e, func(_ context.Context, e *env) int { return c.verify(e) })
+	return within(ctx, e, func(ctx context.Context, e *env) int { return c.verify(ctx, e) })
 }
 
-func (c *verifyCmd) verify(e *env) int {
+func (c *verifyCmd) verify(ctx context.Context, e *env) int {
 	name, src, err := readCertificate(c.Cert, e.stdin)
 	if err != nil {
 		return e.fail(exitInput, err)
@@ -393,7 +393,10 @@ func (c *verifyCmd) verify(e *env) int {
 	if err != nil {
 		return e.fail(exitInput, err)
 	}
-	res := checker.Verify(doc)
+	res := checker.VerifyContext(ctx, doc)
+	if ctx.Err() != nil {
+		return exitStopped
+	}
 	trust := trustOf(doc, trusted)
 	if c.JSON {
 		writeJSON(e.stdout, report.VerifyJSON(doc, res, trust))

@@ -37,7 +37,7 @@ func shapeOf(f poly.RatFunc) est {
 func monomials(n, d int) int64 {
 	r := int64(1)
 	for i := 1; i <= n; i++ {
-		r = satMul(r, int64(d+i)) / int64(i)
+		r = poly.SatMul(r, int64(d+i)) / int64(i)
 		if r >= math.MaxInt64/int64(n+d+1) {
 			return math.MaxInt64
 		}
@@ -45,28 +45,11 @@ func monomials(n, d int) int64 {
 	return r
 }
 
-func satAdd(a, b int64) int64 {
-	if a > math.MaxInt64-b {
-		return math.MaxInt64
-	}
-	return a + b
-}
-
-func satMul(a, b int64) int64 {
-	if a == 0 || b == 0 {
-		return 0
-	}
-	if a > math.MaxInt64/b {
-		return math.MaxInt64
-	}
-	return a * b
-}
-
 // powTerms bounds the terms of s^e.
 func powTerms(s est, e, nvars int) int64 {
 	t := int64(1)
 	for range min(e, 64) {
-		t = satMul(t, s.terms)
+		t = poly.SatMul(t, s.terms)
 	}
 	if e > 64 && s.terms > 1 {
 		t = math.MaxInt64
@@ -97,20 +80,20 @@ func compose(p poly.RatFunc, sub []est, has []bool, nvars int) est {
 			d += e * sub[i].deg
 			dd += e * sub[i].denDeg
 			half := powTerms(sub[i], (e+1)/2, nvars)
-			w = satAdd(w, satMul(half, half))
-			tt = satMul(tt, powTerms(sub[i], e, nvars))
+			w = poly.SatAdd(w, poly.SatMul(half, half))
+			tt = poly.SatMul(tt, powTerms(sub[i], e, nvars))
 		}
 		tt = min(tt, monomials(nvars, d))
 		out.deg = max(out.deg, d)
 		out.denDeg = max(out.denDeg, shapeOf(p).denDeg+dd)
-		sum = satAdd(sum, tt)
-		out.work = satAdd(out.work, satAdd(w, tt))
+		sum = poly.SatAdd(sum, tt)
+		out.work = poly.SatAdd(out.work, poly.SatAdd(w, tt))
 	}
 	out.terms = min(sum, monomials(nvars, out.deg))
 	// Each image is added to the running sum, which is copied.
-	out.work = satAdd(out.work, satMul(nt, out.terms))
+	out.work = poly.SatAdd(out.work, poly.SatMul(nt, out.terms))
 	if out.denDeg > 0 {
-		out.work = satAdd(out.work, satMul(out.terms, out.terms))
+		out.work = poly.SatAdd(out.work, poly.SatMul(out.terms, out.terms))
 	}
 	return out
 }
@@ -164,7 +147,7 @@ func (m *Model) checkDerived(errs *poly.Errors, lim poly.Limits) {
 	if m.Discrete {
 		what = "ΔV = V(f(x)) − V(x)"
 		dv = compose(v, fs, has, n)
-		dv.terms = satAdd(dv.terms, int64(v.Num.NumTerms()))
+		dv.terms = poly.SatAdd(dv.terms, int64(v.Num.NumTerms()))
 	} else {
 		sv := shapeOf(v)
 		// ∂V/∂xᵢ has the terms of V that contain xᵢ (with[i] of them), one degree less.
@@ -196,9 +179,9 @@ func (m *Model) checkDerived(errs *poly.Errors, lim poly.Limits) {
 		// which never has more terms than there are monomials of its degree.
 		most := monomials(n, dv.deg)
 		for i := range m.States {
-			t := satMul(with[i], fs[i].terms)
-			dv.terms = min(satAdd(dv.terms, t), most)
-			dv.work = satAdd(dv.work, satAdd(t, dv.terms))
+			t := poly.SatMul(with[i], fs[i].terms)
+			dv.terms = min(poly.SatAdd(dv.terms, t), most)
+			dv.work = poly.SatAdd(dv.work, poly.SatAdd(t, dv.terms))
 		}
 		dv.denDeg += sv.denDeg
 	}
@@ -216,8 +199,8 @@ func (m *Model) checkDerived(errs *poly.Errors, lim poly.Limits) {
 		p := powTerms(shift[i], worst.deg, n)
 		sh.deg = max(sh.deg, worst.deg*shift[i].deg)
 		sh.denDeg = max(sh.denDeg, worst.denDeg+worst.deg*shift[i].denDeg)
-		sh.terms = satAdd(sh.terms, satMul(worst.terms, p))
-		sh.work = satAdd(sh.work, satMul(worst.terms, satMul(p, p)))
+		sh.terms = poly.SatAdd(sh.terms, poly.SatMul(worst.terms, p))
+		sh.work = poly.SatAdd(sh.work, poly.SatMul(worst.terms, poly.SatMul(p, p)))
 	}
 	sh.terms = min(sh.terms, monomials(n, sh.deg))
 	check(m.VPos, what+" in coordinates centred at the equilibrium", sh)

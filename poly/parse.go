@@ -163,7 +163,7 @@ func (p *ExprParser) enter() bool {
 
 // spend charges work; false (and an error at pos) when the budget is gone.
 func (p *ExprParser) spend(pos Pos, w int64) bool {
-	p.Spent = satAdd(p.Spent, w)
+	p.Spent = SatAdd(p.Spent, w)
 	if p.Spent > int64(p.lim.Work) {
 		p.failLimit(pos, "work", "the arithmetic needed", p.lim.Work)
 		return false
@@ -242,7 +242,7 @@ func (p *ExprParser) checkSum(a, b RatFunc, pos Pos) bool {
 	if len(a.Den) > 0 || len(b.Den) > 0 {
 		// Bringing to a common denominator multiplies the numerators, and
 		// cancelling divides the sum exactly: quadratic in the terms.
-		w = satAdd(w, satMul(satMul(ta+tb, ta+tb), int64(len(a.Den)+len(b.Den))))
+		w = SatAdd(w, SatMul(SatMul(ta+tb, ta+tb), int64(len(a.Den)+len(b.Den))))
 	}
 	if d := max(denDegree(a), denDegree(b)); a.Num.Degree()+d > p.lim.Degree || b.Num.Degree()+d > p.lim.Degree {
 		p.failLimit(pos, "degree", fmt.Sprintf("degree %d over a common denominator", max(a.Num.Degree(), b.Num.Degree())+d), p.lim.Degree)
@@ -294,7 +294,7 @@ func inverseShape(f RatFunc) shape {
 	for _, d := range f.Den {
 		pt := int64(d.P.NumTerms())
 		for range min(d.Mult, 64) {
-			t = satMul(t, pt)
+			t = SatMul(t, pt)
 		}
 		if d.Mult > 64 && pt > 1 {
 			t = math.MaxInt64
@@ -318,7 +318,7 @@ func satInt(n int) int {
 
 // checkProduct checks and charges a·b before it is computed.
 func (p *ExprParser) checkProduct(a, b shape, pos Pos) bool {
-	if t := satMul(a.terms, b.terms); t > int64(p.lim.Terms) {
+	if t := SatMul(a.terms, b.terms); t > int64(p.lim.Terms) {
 		p.failLimit(pos, "terms", fmt.Sprintf("a product of %d·%d terms", a.terms, b.terms), p.lim.Terms)
 		return false
 	}
@@ -345,8 +345,8 @@ func (p *ExprParser) checkProduct(a, b shape, pos Pos) bool {
 	if a.nden+b.nden > 0 {
 		// Cancelling a denominator factor is an exact division, quadratic
 		// in the terms of the numerator.
-		t := satMul(a.terms, b.terms)
-		w = satAdd(w, satMul(satMul(t, t), int64(a.nden+b.nden)))
+		t := SatMul(a.terms, b.terms)
+		w = SatAdd(w, SatMul(SatMul(t, t), int64(a.nden+b.nden)))
 	}
 	return p.spend(pos, w)
 }
@@ -469,7 +469,7 @@ func (p *ExprParser) power() RatFunc {
 	// times the bits of v's, plus the multinomial coefficients (below
 	// terms^n).
 	tv := int64(v.Num.NumTerms())
-	if bits := satMul(int64(coefBits(v)), int64(n)) + satMul(int64(bitLen(tv)), int64(n)); tv > 0 && bits > int64(p.lim.ConstBits) {
+	if bits := SatMul(int64(coefBits(v)), int64(n)) + SatMul(int64(bitLen(tv)), int64(n)); tv > 0 && bits > int64(p.lim.ConstBits) {
 		p.failLimit(caret.Pos, "const-bits", fmt.Sprintf("a power with coefficients of up to %d bits", bits), p.lim.ConstBits)
 		return v
 	}
@@ -581,7 +581,7 @@ func denDegree(f RatFunc) int {
 // coefficients, more for large ones (schoolbook size in 64-bit words).
 func mulWork(ta, tb int64, ba, bb int) int64 {
 	wa, wb := int64(ba/64+1), int64(bb/64+1)
-	return satMul(satMul(ta, tb), 1+wa*wb/16)
+	return SatMul(SatMul(ta, tb), 1+wa*wb/16)
 }
 
 func bitLen(n int64) int {
@@ -593,16 +593,16 @@ func bitLen(n int64) int {
 	return b
 }
 
-// satAdd and satMul are addition and multiplication of non-negative numbers
-// that stop at the largest int64 instead of wrapping.
-func satAdd(a, b int64) int64 {
+// SatAdd and SatMul are addition and multiplication of non-negative numbers
+// that stop at the largest int64 instead of wrapping (for cost estimates).
+func SatAdd(a, b int64) int64 {
 	if a > math.MaxInt64-b {
 		return math.MaxInt64
 	}
 	return a + b
 }
 
-func satMul(a, b int64) int64 {
+func SatMul(a, b int64) int64 {
 	if a == 0 || b == 0 {
 		return 0
 	}

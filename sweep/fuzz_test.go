@@ -67,3 +67,25 @@ func FuzzParseShard(f *testing.F) {
 		}
 	})
 }
+
+// FuzzReadLines reads arbitrary bytes as a sweep output and merges what is
+// read: no panic, nothing allocated from an unchecked number, and a file
+// that is read accounts for its bytes (Good ≤ Size) and merges with itself
+// (common practice: a reader never trusts the numbers it reads). Seeds: the
+// output of a small sweep, whole and cut.
+func FuzzReadLines(f *testing.F) {
+	whole := run(f, stableOpts(f, "s.lya", stableSrc, "a=1..5", 5))
+	f.Add(whole)
+	f.Add(whole[:len(whole)/2])
+	f.Add([]byte(`{"index":0,"of":1000000000000}` + "\n"))
+	f.Fuzz(func(t *testing.T, data []byte) {
+		file, err := Read("fuzz.jsonl", data)
+		if err != nil {
+			return
+		}
+		if file.Good > file.Size || file.Of < 0 || file.Of > MaxGridPoints {
+			t.Fatalf("read as Good %d of %d bytes, of %d", file.Good, file.Size, file.Of)
+		}
+		Merge([]*File{file, file})
+	})
+}

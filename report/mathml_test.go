@@ -12,8 +12,8 @@ import (
 	"lyacert/report"
 )
 
-// mathmlArity is every element of W3C MathML Core (Recommendation
-// candidate, 2023, §3 "Presentation markup") with the number of children
+// mathmlArity is every element of W3C MathML Core (from memory: its
+// presentation elements) with the number of children
 // its layout requires (-1: any number).
 var mathmlArity = map[string]int{
 	"math": -1, "mrow": -1, "mstyle": -1, "merror": -1, "mpadded": -1, "mphantom": -1, "msqrt": -1,

@@ -10,7 +10,7 @@ import (
 type radical struct{ w *big.Int }
 
 func (r radical) tex() string  { return `\sqrt{` + r.w.String() + `}` }
-func (r radical) html() string { return `√<span class="radicand">` + r.w.String() + `</span>` }
+func (r radical) html() string { return "<msqrt>" + mn(r.w.String()) + "</msqrt>" }
 
 // quadraticRoot returns the root of the quadratic q that lies in the open
 // interval (a, b) in closed form u ± v·√w (u, v rational, v > 0, w > 1 an

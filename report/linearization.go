@@ -1,7 +1,6 @@
 package report
 
 import (
-	"html"
 	"lyacert/checker"
 	"math"
 	"math/big"
@@ -90,7 +89,7 @@ func (b *builder) linearization(p *page) error {
 		lo, _ = new(big.Rat).SetString(iv[0])
 		hi, _ = new(big.Rat).SetString(iv[1])
 		if lo == nil || hi == nil {
-			return symbol{texText(iv[0] + ", " + iv[1]), html.EscapeString(iv[0] + ", " + iv[1])}
+			return symbol{texText(iv[0] + ", " + iv[1]), mtext(iv[0] + ", " + iv[1])}
 		}
 		rounded = true
 		var a, b string
@@ -101,17 +100,19 @@ func (b *builder) linearization(p *page) error {
 			}
 		}
 		if lo.Cmp(hi) == 0 {
-			return symbol{a, minusSign(a)}
+			return decimalSym(a)
 		}
-		return interval{lo: symbol{a, minusSign(a)}, hi: symbol{b, minusSign(b)}, loClosed: true, hiClosed: true}
+		return interval{lo: decimalSym(a), hi: decimalSym(b), loClosed: true, hiClosed: true}
 	}
-	star := func(s string) node { return symbol{texName(s) + "^{*}", htmlName(s) + "<sup>*</sup>"} }
+	star := func(s string) node {
+		return symbol{texName(s) + "^{*}", "<msup>" + htmlName(s) + mo("*") + "</msup>"}
+	}
 	if kz != nil {
 		var box list
 		for i, s := range m.States {
 			box = append(box, relation{star(s), symIn, ivNode(kz.Box[i], 10)})
 		}
-		v.Equilibrium = rich{"The equilibrium ", symbol{"x^{*}", "<i>x</i><sup>*</sup>"}, " is the only one in the box ", box, "."}
+		v.Equilibrium = rich{"The equilibrium ", symbol{"x^{*}", xStar}, " is the only one in the box ", box, "."}
 		v.Krawczyk = rich{"The Krawczyk operator of the box lies in its interior, which proves that the box holds exactly one equilibrium (Krawczyk 1969; Moore 1977); the certificate states the operator's exact image and the preconditioner used."}
 	} else {
 		var at list
@@ -124,15 +125,16 @@ func (b *builder) linearization(p *page) error {
 	if err != nil {
 		return err
 	}
-	pSym := symbol{"P", "<i>P</i>"}
+	pSym := symbol{"P", "<mi>P</mi>"}
 	v.P = []display{{pSym, []node{pm}, nil}}
-	dx := symbol{`(x - x^{*})`, "(<i>x</i> − <i>x</i><sup>*</sup>)"}
-	v.V = []display{{vSym, []node{symbol{dx.t + `^{\mathsf{T}} P\, ` + dx.t, dx.h + "<sup>T</sup>\u2009<i>P</i>\u2009" + dx.h}}, nil}}
-	mSym := symbol{"M(x)", "<i>M</i>(<i>x</i>)"}
+	dx := symbol{`(x - x^{*})`, mrow("<mo>(</mo><mi>x</mi><mo>−</mo>" + xStar + "<mo>)</mo>")}
+	v.V = []display{{vSym, []node{symbol{dx.t + `^{\mathsf{T}} P\, ` + dx.t, mrow("<msup>" + dx.m + transpose + "</msup><mi>P</mi>" + thinSpace + dx.m)}}, nil}}
+	mSym := symbol{"M(x)", mrow("<mi>M</mi><mo>(</mo><mi>x</mi><mo>)</mo>")}
+	jT := "<msup>" + jac.m + transpose + "</msup>"
 	if m.Discrete {
-		v.MRule = []display{{mSym, []node{symbol{`P - J(x)^{\mathsf{T}} P\, J(x)`, "<i>P</i> − <i>J</i>(<i>x</i>)<sup>T</sup>\u2009<i>P</i>\u2009<i>J</i>(<i>x</i>)"}}, nil}}
+		v.MRule = []display{{mSym, []node{symbol{`P - J(x)^{\mathsf{T}} P\, J(x)`, mrow("<mi>P</mi><mo>−</mo>" + jT + "<mi>P</mi>" + thinSpace + jac.m)}}, nil}}
 	} else {
-		v.MRule = []display{{mSym, []node{symbol{`-\left(J(x)^{\mathsf{T}} P + P\, J(x)\right)`, "−(<i>J</i>(<i>x</i>)<sup>T</sup><i>P</i> + <i>P</i>\u2009<i>J</i>(<i>x</i>))"}}, nil}}
+		v.MRule = []display{{mSym, []node{symbol{`-\left(J(x)^{\mathsf{T}} P + P\, J(x)\right)`, mrow("<mo>−</mo><mrow><mo>(</mo>" + jT + "<mi>P</mi><mo>+</mo><mi>P</mi>" + thinSpace + jac.m + "<mo>)</mo></mrow>")}}, nil}}
 	}
 	var dm matrix
 	for i, row := range lz.Decay {
@@ -141,7 +143,7 @@ func (b *builder) linearization(p *page) error {
 			dm[i] = append(dm[i], ivNode(iv, 4)) // a looser enclosure, still one
 		}
 	}
-	lhs := symbol{"M(x^{*})", "<i>M</i>(<i>x</i><sup>*</sup>)"}
+	lhs := symbol{"M(x^{*})", mrow("<mi>M</mi><mo>(</mo>" + xStar + "<mo>)</mo>")}
 	if kz != nil {
 		// M over the whole box, entry by entry: it holds M(x*) wherever in
 		// the box x* is.
@@ -152,9 +154,9 @@ func (b *builder) linearization(p *page) error {
 	v.Rounded = rounded
 	switch b.doc.Claim {
 	case checker.KindUnstable:
-		v.Conclusion = rich{"The matrix ", lhs, " is positive definite (for every matrix in the enclosure), and ", pSym, " has a negative pivot in its exact ", symbol{`L\,D\,L^{\mathsf{T}}`, "<i>L</i><i>D</i><i>L</i><sup>T</sup>"}, " factorization: ", symbol{"W = -V", "<i>W</i> = −<i>V</i>"}, " increases near the equilibrium and is positive arbitrarily close to it, so the equilibrium is unstable (Lyapunov's instability theorem)."}
+		v.Conclusion = rich{"The matrix ", lhs, " is positive definite (for every matrix in the enclosure), and ", pSym, " has a negative pivot in its exact ", ldlT, " factorization: ", symbol{"W = -V", mrow("<mi>W</mi><mo>=</mo><mo>−</mo><mi>V</mi>")}, " increases near the equilibrium and is positive arbitrarily close to it, so the equilibrium is unstable (Lyapunov's instability theorem)."}
 	default:
-		v.Conclusion = rich{"The matrices ", pSym, " and ", lhs, " are positive definite (exact ", symbol{`L\,D\,L^{\mathsf{T}}`, "<i>L</i><i>D</i><i>L</i><sup>T</sup>"}, " with positive pivots; for ", lhs, " every matrix in the enclosure), so ", vSym, " decreases near the equilibrium: it is locally asymptotically stable (Lyapunov's indirect method)."}
+		v.Conclusion = rich{"The matrices ", pSym, " and ", lhs, " are positive definite (exact ", ldlT, " with positive pivots; for ", lhs, " every matrix in the enclosure), so ", vSym, " decreases near the equilibrium: it is locally asymptotically stable (Lyapunov's indirect method)."}
 	}
 	p.Linearization = v
 	if kz != nil {
@@ -162,3 +164,9 @@ func (b *builder) linearization(p *page) error {
 	}
 	return nil
 }
+
+var (
+	// xStar is x*, the equilibrium.
+	xStar = "<msup><mi>x</mi><mo>*</mo></msup>"
+	ldlT  = symbol{`L\,D\,L^{\mathsf{T}}`, mrow("<mi>L</mi>" + thinSpace + "<mi>D</mi>" + thinSpace + "<msup><mi>L</mi>" + transpose + "</msup>")}
+)

@@ -13,7 +13,12 @@ import (
 
 // A node is a piece of mathematics as it is set: numbers, names, powers,
 // products, signed sums and fractions. Polynomials are turned into nodes
-// once and printed as LaTeX (md and tex reports) or as HTML.
+// once and printed as LaTeX (md and tex reports) or as MathML (html
+// reports: presentation markup, the content of a <math> element, which
+// current browsers render natively). html returns well-formed XML: every
+// name and number from a certificate is escaped, and only markup built
+// here is left as markup. It is always exactly one element, so that it can
+// stand as an argument of msup, msub or mfrac without an mrow around it.
 type node interface {
 	tex() string
 	html() string
@@ -48,8 +53,9 @@ type fraction struct{ num, den node }
 // parens groups a node.
 type parens struct{ n node }
 
-// symbol is fixed notation of ours, with its LaTeX and its HTML.
-type symbol struct{ t, h string }
+// symbol is fixed notation of ours, with its LaTeX and its MathML (markup
+// of ours; text from elsewhere goes through mn or mtext, which escape it).
+type symbol struct{ t, m string }
 
 // relation is lhs op rhs.
 type relation struct {
@@ -59,14 +65,34 @@ type relation struct {
 }
 
 var (
-	symLess    = symbol{"<", "&lt;"}
-	symGreater = symbol{">", "&gt;"}
-	symLeq     = symbol{`\le`, "≤"}
-	symGeq     = symbol{`\ge`, "≥"}
-	symEq      = symbol{"=", "="}
-	symIn      = symbol{`\in`, "∈"}
-	symApprox  = symbol{`\approx`, "≈"}
+	symLess    = symbol{"<", "<mo>&lt;</mo>"}
+	symGreater = symbol{">", "<mo>&gt;</mo>"}
+	symLeq     = symbol{`\le`, "<mo>≤</mo>"}
+	symGeq     = symbol{`\ge`, "<mo>≥</mo>"}
+	symEq      = symbol{"=", "<mo>=</mo>"}
+	symIn      = symbol{`\in`, "<mo>∈</mo>"}
+	symApprox  = symbol{`\approx`, "<mo>≈</mo>"}
 )
+
+// MathML pieces. Text that is not ours (digits of a rational, a decimal
+// from a certificate, a name) is escaped here.
+func mn(s string) string    { return "<mn>" + html.EscapeString(s) + "</mn>" }
+func mi(s string) string    { return "<mi>" + html.EscapeString(s) + "</mi>" }
+func mo(s string) string    { return "<mo>" + html.EscapeString(s) + "</mo>" }
+func mtext(s string) string { return "<mtext>" + html.EscapeString(s) + "</mtext>" }
+func mrow(s string) string  { return "<mrow>" + s + "</mrow>" }
+
+// thinSpace is LaTeX's \, (3/18 em).
+const thinSpace = `<mspace width="0.1667em"></mspace>`
+
+// decimalSym is a decimal number from a certificate ("-1.25"), set with a
+// minus sign.
+func decimalSym(s string) symbol {
+	if strings.HasPrefix(s, "-") {
+		return symbol{s, mrow(mo("−") + mn(s[1:]))}
+	}
+	return symbol{s, mn(s)}
+}
 
 func (n number) tex() string {
 	if n.r.IsInt() {
@@ -77,13 +103,9 @@ func (n number) tex() string {
 
 func (n number) html() string {
 	if n.r.IsInt() {
-		return n.r.Num().String()
+		return mn(n.r.Num().String())
 	}
-	return htmlFrac(n.r.Num().String(), n.r.Denom().String())
-}
-
-func htmlFrac(num, den string) string {
-	return `<span class="frac"><span class="num">` + num + `</span><span class="den">` + den + `</span></span>`
+	return "<mfrac>" + mn(n.r.Num().String()) + mn(n.r.Denom().String()) + "</mfrac>"
 }
 
 func (n name) tex() string  { return texName(n.s) }
@@ -97,7 +119,9 @@ func (p power) tex() string {
 	return fmt.Sprintf("%s^{%d}", b, p.exp)
 }
 
-func (p power) html() string { return fmt.Sprintf("%s<sup>%d</sup>", p.base.html(), p.exp) }
+func (p power) html() string {
+	return "<msup>" + p.base.html() + mn(fmt.Sprint(p.exp)) + "</msup>"
+}
 
 func (p product) tex() string {
 	parts := make([]string, len(p))
@@ -114,39 +138,43 @@ func (p product) html() string {
 	for i, f := range p {
 		parts[i] = f.html()
 	}
-	return strings.Join(parts, "\u2009") // thin space
+	return mrow(strings.Join(parts, thinSpace))
 }
 
-func (s sum) tex() string  { return s.join(func(n node) string { return n.tex() }, "-") }
-func (s sum) html() string { return s.join(func(n node) string { return n.html() }, "−") }
+func (s sum) tex() string { return s.join(func(n node) string { return n.tex() }, "-", " + ", " - ") }
+func (s sum) html() string {
+	return mrow(s.join(func(n node) string { return n.html() }, mo("−"), mo("+"), mo("−")))
+}
 
-func (s sum) join(f func(node) string, minus string) string {
+func (s sum) join(f func(node) string, lead, plus, minus string) string {
 	var b strings.Builder
 	for i, t := range s {
 		switch {
 		case i == 0 && t.neg:
-			b.WriteString(minus)
+			b.WriteString(lead)
 		case i > 0 && t.neg:
-			b.WriteString(" " + minus + " ")
+			b.WriteString(minus)
 		case i > 0:
-			b.WriteString(" + ")
+			b.WriteString(plus)
 		}
 		b.WriteString(f(t.n))
 	}
 	return b.String()
 }
 
-func (f fraction) tex() string  { return fmt.Sprintf(`\frac{%s}{%s}`, f.num.tex(), f.den.tex()) }
-func (f fraction) html() string { return htmlFrac(f.num.html(), f.den.html()) }
+func (f fraction) tex() string { return fmt.Sprintf(`\frac{%s}{%s}`, f.num.tex(), f.den.tex()) }
+func (f fraction) html() string {
+	return "<mfrac>" + f.num.html() + f.den.html() + "</mfrac>"
+}
 
 func (p parens) tex() string  { return `\left(` + p.n.tex() + `\right)` }
-func (p parens) html() string { return "(" + p.n.html() + ")" }
+func (p parens) html() string { return mrow(mo("(") + p.n.html() + mo(")")) }
 
 func (s symbol) tex() string  { return s.t }
-func (s symbol) html() string { return s.h }
+func (s symbol) html() string { return s.m }
 
 func (r relation) tex() string  { return r.lhs.tex() + " " + r.op.tex() + " " + r.rhs.tex() }
-func (r relation) html() string { return r.lhs.html() + " " + r.op.html() + " " + r.rhs.html() }
+func (r relation) html() string { return mrow(r.lhs.html() + r.op.html() + r.rhs.html()) }
 
 // greek maps the spelled-out and the Unicode Greek letters to LaTeX.
 var greek = map[string]string{}
@@ -257,23 +285,34 @@ func texMathText(s string) string {
 	return b.String()
 }
 
+// htmlName sets a variable name in MathML as texName does in LaTeX.
 func htmlName(s string) string {
 	base, sub := splitName(s)
 	out := htmlNamePart(base)
 	if sub != "" {
-		out += "<sub>" + htmlNamePart(sub) + "</sub>"
+		out = "<msub>" + out + htmlNamePart(sub) + "</msub>"
 	}
 	return out
 }
 
+// htmlNamePart is one mi or mn: a one-letter mi is italic by MathML's
+// rule, a longer one upright, so a word-name gets the class that the
+// stylesheet sets in italics (as \mathit does).
 func htmlNamePart(s string) string {
 	if g, ok := greekHTML[s]; ok {
-		return "<i>" + g + "</i>"
+		if unicode.IsUpper([]rune(s)[0]) {
+			// Upright, as \Omega is.
+			return `<mi mathvariant="normal">` + g + "</mi>"
+		}
+		s = g
 	}
 	if strings.Trim(s, "0123456789") == "" {
-		return s
+		return mn(s)
 	}
-	return "<i>" + html.EscapeString(s) + "</i>"
+	if len([]rune(s)) == 1 {
+		return mi(s)
+	}
+	return `<mi class="word">` + html.EscapeString(s) + "</mi>"
 }
 
 // ratNode sets a rational of any sign.
@@ -457,7 +496,9 @@ func continued(n node, tex bool) string {
 	case neg && tex:
 		return "- " + body
 	case neg:
-		return "− " + body
+		return mrow(mo("−") + body)
+	case tex:
+		return "+ " + body
 	}
-	return "+ " + body
+	return mrow(mo("+") + body)
 }

@@ -181,7 +181,7 @@ func tickLabel(x float64, text string, alpha *sub) string {
 	case math.IsInf(x, 1):
 		return "∞ →"
 	case alpha != nil:
-		return alpha.n.html() + alpha.idx + " ≈ " + text
+		return "α" + alpha.idx + " ≈ " + text
 	}
 	return text
 }

@@ -119,10 +119,10 @@ func (b *builder) region(rg checker.SturmRegion) (*regionView, error) {
 		lo, _ := new(big.Rat).SetString(a.iso[0])
 		hi, _ := new(big.Rat).SetString(a.iso[1])
 		iso := interval{lo: ratNode(lo), hi: ratNode(hi)}
-		r := rich{relation{a.sym, symApprox, symbol{a.decimal, a.decimal}}}
+		r := rich{relation{a.sym, symApprox, decimalSym(a.decimal)}}
 		if u, ok := f.Num.Univariate(pi); ok {
 			if cf, ok := quadraticRoot(u, lo, hi); ok {
-				r = rich{relation{relation{a.sym, symEq, cf}, symApprox, symbol{a.decimal, a.decimal}}}
+				r = rich{relation{relation{a.sym, symEq, cf}, symApprox, decimalSym(a.decimal)}}
 			}
 		}
 		r = append(r, ", the root of ", relation{ratFuncNode(f), symEq, zeroNode}, " in ", iso, " (the only one there, by Sturm's theorem).")
@@ -149,11 +149,11 @@ func (u union) html() string {
 	s := ""
 	for i, n := range u {
 		if i > 0 {
-			s += " ∪ "
+			s += mo("∪")
 		}
 		s += n.html()
 	}
-	return s
+	return mrow(s)
 }
 
 // end sets one end of a piece: ±∞, a rational, or a named irrational root.
@@ -178,7 +178,7 @@ func (b *builder) end(value, polyText string, iso *[2]string) (node, error) {
 			return a.sym, nil
 		}
 	}
-	a := alphaEnd{poly: polyText, iso: *iso, decimal: value, sym: sub{symbol{`\alpha`, "α"}, strconv.Itoa(len(b.alphas) + 1)}}
+	a := alphaEnd{poly: polyText, iso: *iso, decimal: value, sym: sub{symbol{`\alpha`, "<mi>α</mi>"}, strconv.Itoa(len(b.alphas) + 1)}}
 	b.alphas = append(b.alphas, a)
 	return a.sym, nil
 }

@@ -27,19 +27,22 @@ func texAlign(ds []display) string {
 	return strings.Join(rows, " \\\\\n")
 }
 
+// htmlAlign sets displays as one block math element: a three-column
+// table (left side, relation, right side) aligned like align*, a long right
+// side continued on further rows.
 func htmlAlign(ds []display) string {
 	var b strings.Builder
-	b.WriteString(`<table class="align">`)
+	b.WriteString(`<math display="block"><mtable class="align">`)
 	for _, d := range ds {
 		for i, l := range d.RHS {
 			if i == 0 {
-				b.WriteString(`<tr><td class="lhs">` + d.LHS.html() + `</td><td>` + d.op().html() + `</td><td class="rhs">` + l.html() + `</td></tr>`)
+				b.WriteString(`<mtr><mtd class="lhs">` + d.LHS.html() + `</mtd><mtd>` + d.op().html() + `</mtd><mtd class="rhs">` + l.html() + `</mtd></mtr>`)
 			} else {
-				b.WriteString(`<tr><td></td><td></td><td class="rhs cont">` + continued(l, false) + `</td></tr>`)
+				b.WriteString(`<mtr><mtd></mtd><mtd></mtd><mtd class="rhs cont">` + continued(l, false) + `</mtd></mtr>`)
 			}
 		}
 	}
-	b.WriteString(`</table>`)
+	b.WriteString(`</mtable></math>`)
 	return b.String()
 }
 
@@ -49,10 +52,15 @@ func inc(i int) int { return i + 1 }
 
 // Fixed notation used in the templates.
 var (
-	gramRule = symbol{`G = L\,D\,L^{\mathsf{T}}`, "<i>G</i> = <i>L</i>\u2009<i>D</i>\u2009<i>L</i><sup>T</sup>"}
-	jac      = symbol{"J(x)", "<i>J</i>(<i>x</i>)"}
-	xGx      = symbol{`x^{\mathsf{T}} G\, x`, "<i>x</i><sup>T</sup>\u2009<i>G</i>\u2009<i>x</i>"}
+	gramRule = symbol{`G = L\,D\,L^{\mathsf{T}}`, mrow("<mi>G</mi><mo>=</mo><mi>L</mi>" + thinSpace + "<mi>D</mi>" + thinSpace + "<msup><mi>L</mi>" + transpose + "</msup>")}
+	jac      = symbol{"J(x)", mrow("<mi>J</mi><mo>(</mo><mi>x</mi><mo>)</mo>")}
+	xGx      = symbol{`x^{\mathsf{T}} G\, x`, mrow("<msup><mi>x</mi>" + transpose + "</msup><mi>G</mi>" + thinSpace + "<mi>x</mi>")}
 )
+
+// transpose is the upright sans-serif T of \mathsf{T}.
+const transpose = `<mi mathvariant="normal">T</mi>`
+
+var ()
 
 // texReason is texText with break points inside long words (big
 // rationals, digests), so that a checker's reason never runs off the page.
@@ -127,7 +135,7 @@ var htmlTemplate = htmltemplate.Must(htmltemplate.New("report.html.tmpl").Funcs(
 	"jac":  func() node { return jac },
 	"inc":  inc,
 	"r":    func(x rich) htmltemplate.HTML { return htmltemplate.HTML(htmlRich(x)) },
-	"m":    func(n node) htmltemplate.HTML { return htmltemplate.HTML(`<span class="math">` + n.html() + `</span>`) },
+	"m":    func(n node) htmltemplate.HTML { return htmltemplate.HTML(inlineMath(n)) },
 	"disp": func(ds []display) htmltemplate.HTML { return htmltemplate.HTML(htmlAlign(ds)) },
 	"one":  one,
 	"svg":  func(s string) htmltemplate.HTML { return htmltemplate.HTML(s) },

@@ -339,9 +339,9 @@ func (b *builder) derivation(p *page) error {
 	p.V = display{vSym, lines(ratFuncNode(v), 4), nil}
 	p.Vdot = display{dn, lines(ratFuncNode(vdot), 4), nil}
 	if m.Discrete {
-		p.DerivRule = rich{"The difference along the map, ", relation{dn, symEq, symbol{`V(f(x)) - V(x)`, "<i>V</i>(<i>f</i>(<i>x</i>)) − <i>V</i>(<i>x</i>)"}}, ", computed exactly:"}
+		p.DerivRule = rich{"The difference along the map, ", relation{dn, symEq, symbol{`V(f(x)) - V(x)`, mrow("<mi>V</mi><mo>(</mo><mi>f</mi><mo>(</mo><mi>x</mi><mo>)</mo><mo>)</mo><mo>−</mo><mi>V</mi><mo>(</mo><mi>x</mi><mo>)</mo>")}}, ", computed exactly:"}
 	} else {
-		p.DerivRule = rich{"The derivative along the flow, ", relation{dn, symEq, symbol{`\sum_i \frac{\partial V}{\partial x_i}\, f_i`, "Σ<sub><i>i</i></sub> ∂<i>V</i>/∂<i>x</i><sub><i>i</i></sub> · <i>f</i><sub><i>i</i></sub>"}}, ", computed exactly:"}
+		p.DerivRule = rich{"The derivative along the flow, ", relation{dn, symEq, symbol{`\sum_i \frac{\partial V}{\partial x_i}\, f_i`, mrow("<munder><mo>∑</mo><mi>i</mi></munder><mfrac><mrow><mo>∂</mo><mi>V</mi></mrow><mrow><mo>∂</mo><msub><mi>x</mi><mi>i</mi></msub></mrow></mfrac>" + thinSpace + "<msub><mi>f</mi><mi>i</mi></msub>")}}, ", computed exactly:"}
 	}
 	states := b.r.StateMask()
 	vs, ds := m.Shift(v), m.Shift(vdot)
@@ -382,9 +382,9 @@ func (b *builder) derivation(p *page) error {
 		if err != nil {
 			return err
 		}
-		gname := symbol{`G_{V}`, "<i>G</i><sub><i>V</i></sub>"}
+		gname := symbol{`G_{V}`, "<msub><mi>G</mi><mi>V</mi></msub>"}
 		if f.Name != "V" {
-			gname = symbol{`G_{-` + dn.tex() + `}`, "<i>G</i><sub>−" + dn.html() + "</sub>"}
+			gname = symbol{`G_{-` + dn.tex() + `}`, "<msub><mi>G</mi>" + mrow(mo("−")+dn.html()) + "</msub>"}
 		}
 		p.Grams = append(p.Grams, display{gname, []node{g}, nil})
 		var ms list
@@ -393,7 +393,7 @@ func (b *builder) derivation(p *page) error {
 			if err != nil {
 				return err
 			}
-			ms = append(ms, relation{sub{symbol{`\Delta`, "Δ"}, fmt.Sprint(i + 1)}, symEq, ratFuncNode(mi)})
+			ms = append(ms, relation{sub{symbol{`\Delta`, `<mi mathvariant="normal">Δ</mi>`}, fmt.Sprint(i + 1)}, symEq, ratFuncNode(mi)})
 		}
 		who := rich{"of ", vSym, ": "}
 		if f.Name != "V" {
@@ -556,7 +556,7 @@ func (b *builder) condition(c checker.MinorCondition) (rich, error) {
 	if c.Form != "V" {
 		form = neg(b.derivName())
 	}
-	delta := sub{symbol{`\Delta`, "Δ"}, fmt.Sprint(c.Index)}
+	delta := sub{symbol{`\Delta`, `<mi mathvariant="normal">Δ</mi>`}, fmt.Sprint(c.Index)}
 	out := rich{"Minor ", delta, " of ", form, ": "}
 	var discharged []any
 	for _, f := range c.Factors {

@@ -37,11 +37,11 @@ type (
 )
 
 var (
-	infinity  = symbol{`\infty`, "∞"}
-	vdotSym   = symbol{`\dot V`, `<span class="dotted"><i>V</i></span>`}
-	deltaVSym = symbol{`\Delta V`, "Δ<i>V</i>"}
-	vSym      = symbol{"V", "<i>V</i>"}
-	emptySet  = symbol{`\emptyset`, "∅"}
+	infinity  = symbol{`\infty`, "<mi>∞</mi>"}
+	vdotSym   = symbol{`\dot V`, dotAbove("<mi>V</mi>")}
+	deltaVSym = symbol{`\Delta V`, `<mrow><mi mathvariant="normal">Δ</mi><mi>V</mi></mrow>`}
+	vSym      = symbol{"V", "<mi>V</mi>"}
+	emptySet  = symbol{`\emptyset`, `<mi mathvariant="normal">∅</mi>`}
 	zeroNode  = number{new(big.Rat)}
 )
 
@@ -61,7 +61,7 @@ func (iv interval) tex() string {
 
 func (iv interval) html() string {
 	if iv.point {
-		return "{" + iv.lo.html() + "}"
+		return mrow(mo("{") + iv.lo.html() + mo("}"))
 	}
 	l, r := "(", ")"
 	if iv.loClosed {
@@ -70,7 +70,7 @@ func (iv interval) html() string {
 	if iv.hiClosed {
 		r = "]"
 	}
-	return l + iv.lo.html() + ", " + iv.hi.html() + r
+	return mrow(mo(l) + iv.lo.html() + mo(",") + iv.hi.html() + mo(r))
 }
 
 func (l list) tex() string {
@@ -86,7 +86,7 @@ func (l list) html() string {
 	for i, n := range l {
 		parts[i] = n.html()
 	}
-	return strings.Join(parts, ", ")
+	return mrow(strings.Join(parts, mo(",")+`<mspace width="0.5em"></mspace>`))
 }
 
 func (m matrix) tex() string {
@@ -101,19 +101,23 @@ func (m matrix) tex() string {
 	return `\begin{pmatrix} ` + strings.Join(rows, ` \\ `) + ` \end{pmatrix}`
 }
 
+// A matrix is an mtable between stretched parentheses, as pmatrix.
 func (m matrix) html() string {
 	var b strings.Builder
-	b.WriteString(`<table class="matrix">`)
+	b.WriteString(mo("(") + `<mtable class="matrix">`)
 	for _, r := range m {
-		b.WriteString("<tr>")
+		b.WriteString("<mtr>")
 		for _, c := range r {
-			b.WriteString("<td>" + c.html() + "</td>")
+			b.WriteString("<mtd>" + c.html() + "</mtd>")
 		}
-		b.WriteString("</tr>")
+		b.WriteString("</mtr>")
 	}
-	b.WriteString("</table>")
-	return b.String()
+	b.WriteString("</mtable>" + mo(")"))
+	return mrow(b.String())
 }
+
+// dotAbove is the time-derivative dot over a MathML element.
+func dotAbove(s string) string { return `<mover accent="true">` + s + "<mo>˙</mo></mover>" }
 
 // The dot (or the plus) goes on the name's base, before its subscript:
 // ẋ₁, x₁⁺.
@@ -134,15 +138,15 @@ func (d dotted) tex() string {
 func (d dotted) html() string {
 	base, sub := splitName(d.n.s)
 	s := htmlNamePart(base)
-	if d.discrete {
-		s += "<sup>+</sup>"
-	} else {
-		s = `<span class="dotted">` + s + `</span>`
+	switch {
+	case d.discrete && sub != "":
+		return "<msubsup>" + s + htmlNamePart(sub) + mo("+") + "</msubsup>"
+	case d.discrete:
+		return "<msup>" + s + mo("+") + "</msup>"
+	case sub != "":
+		return "<msub>" + dotAbove(s) + htmlNamePart(sub) + "</msub>"
 	}
-	if sub != "" {
-		s += "<sub>" + htmlNamePart(sub) + "</sub>"
-	}
-	return s
+	return dotAbove(s)
 }
 
 func (s sub) tex() string {
@@ -151,7 +155,13 @@ func (s sub) tex() string {
 	}
 	return "{" + s.n.tex() + "}_{" + s.idx + "}"
 }
-func (s sub) html() string { return s.n.html() + "<sub>" + html.EscapeString(s.idx) + "</sub>" }
+func (s sub) html() string {
+	idx := mi(s.idx)
+	if strings.Trim(s.idx, "0123456789") == "" {
+		idx = mn(s.idx)
+	}
+	return "<msub>" + s.n.html() + idx + "</msub>"
+}
 
 // neg is −n.
 func neg(n node) node { return sum{{true, n}} }
@@ -194,7 +204,7 @@ func mdRich(r rich) string {
 	return b.String()
 }
 
-// htmlRich sets running text for HTML: words escaped, math as HTML.
+// htmlRich sets running text for HTML: words escaped, math as inline MathML.
 func htmlRich(r rich) string {
 	var b strings.Builder
 	for _, it := range r {
@@ -202,8 +212,11 @@ func htmlRich(r rich) string {
 		case string:
 			b.WriteString(html.EscapeString(v))
 		case node:
-			b.WriteString(`<span class="math">` + v.html() + `</span>`)
+			b.WriteString(inlineMath(v))
 		}
 	}
 	return b.String()
 }
+
+// inlineMath is a node as an inline math element.
+func inlineMath(n node) string { return "<math>" + n.html() + "</math>" }

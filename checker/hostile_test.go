@@ -5,9 +5,9 @@ import (
 	"flag"
 	"fmt"
 	"io"
+	"lyacert/internal/bounded"
 	"os"
 	"path/filepath"
-	"runtime"
 	"sort"
 	"strings"
 	"testing"
@@ -199,53 +199,12 @@ func runHostileCertificate(t *testing.T, c hostileInput) (string, bool) {
 		return "", false
 	}
 	defer closeFn()
-	runtime.GC()
-	var base runtime.MemStats
-	runtime.ReadMemStats(&base)
-	type result struct {
-		out   string
-		panic any
+	out, err := bounded.Run(func() string { return outcome(r) }, *hostileTimeout, hostileMemory)
+	if err != nil {
+		t.Errorf("%s: %v", c.name, err)
+		return "", false
 	}
-	done := make(chan result, 1)
-	go func() {
-		defer func() {
-			if p := recover(); p != nil {
-				done <- result{panic: p}
-			}
-		}()
-		done <- result{out: outcome(r)}
-	}()
-	var peak uint64
-	tick := time.NewTicker(2 * time.Millisecond)
-	defer tick.Stop()
-	deadline := time.After(*hostileTimeout)
-	sample := func() {
-		var ms runtime.MemStats
-		runtime.ReadMemStats(&ms)
-		if ms.HeapInuse > base.HeapInuse {
-			peak = max(peak, ms.HeapInuse-base.HeapInuse)
-		}
-	}
-	for {
-		select {
-		case res := <-done:
-			sample()
-			if res.panic != nil {
-				t.Errorf("%s: panic: %v", c.name, res.panic)
-				return "", false
-			}
-			if peak > hostileMemory {
-				t.Errorf("%s: heap grew by %d MiB, above %d MiB", c.name, peak>>20, hostileMemory>>20)
-				return "", false
-			}
-			return res.out, true
-		case <-tick.C:
-			sample()
-		case <-deadline:
-			t.Errorf("%s: not read and verified within %v", c.name, *hostileTimeout)
-			return "", false
-		}
-	}
+	return out, true
 }
 
 func init() { _ = fmt.Sprint }

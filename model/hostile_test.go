@@ -4,9 +4,9 @@ import (
 	"bytes"
 	"flag"
 	"fmt"
+	"lyacert/internal/bounded"
 	"os"
 	"path/filepath"
-	"runtime"
 	"sort"
 	"strings"
 	"testing"
@@ -185,66 +185,25 @@ func runHostile(t *testing.T, c hostileCase) (string, bool) {
 		t.Fatalf("%s: %v", c.name, err)
 	}
 	src := c.src()
-	runtime.GC()
-	var base runtime.MemStats
-	runtime.ReadMemStats(&base)
-	type result struct {
-		out   string
-		panic any
-	}
-	done := make(chan result, 1)
-	go func() {
-		defer func() {
-			if r := recover(); r != nil {
-				done <- result{panic: r}
-			}
-		}()
+	out, err := bounded.Run(func() string {
 		m, err := ParseWithLimits(c.name, src, lim)
 		if err != nil {
-			done <- result{out: err.Error() + "\n"}
-			return
+			return err.Error() + "\n"
 		}
 		// What a command does next must not panic either.
 		if m.V != nil {
 			m.Shift(m.Derivative(*m.V))
 		}
 		if _, err := ParseWithLimits("canonical", []byte(m.Canonical()), lim); err != nil {
-			done <- result{out: "canonical text refused: " + err.Error() + "\n"}
-			return
+			return "canonical text refused: " + err.Error() + "\n"
 		}
-		done <- result{out: "ok\n"}
-	}()
-	var peak uint64
-	tick := time.NewTicker(2 * time.Millisecond)
-	defer tick.Stop()
-	deadline := time.After(*hostileTimeout)
-	sample := func() {
-		var ms runtime.MemStats
-		runtime.ReadMemStats(&ms)
-		if ms.HeapInuse > base.HeapInuse {
-			peak = max(peak, ms.HeapInuse-base.HeapInuse)
-		}
+		return "ok\n"
+	}, *hostileTimeout, hostileMemory)
+	if err != nil {
+		t.Errorf("%s: %v", c.name, err)
+		return "", false
 	}
-	for {
-		select {
-		case r := <-done:
-			sample()
-			if r.panic != nil {
-				t.Errorf("%s: panic: %v", c.name, r.panic)
-				return "", false
-			}
-			if peak > hostileMemory {
-				t.Errorf("%s: heap grew by %d MiB, above %d MiB", c.name, peak>>20, hostileMemory>>20)
-				return "", false
-			}
-			return r.out, true
-		case <-tick.C:
-			sample()
-		case <-deadline:
-			t.Errorf("%s: not read within %v", c.name, *hostileTimeout)
-			return "", false
-		}
-	}
+	return out, true
 }
 
 // The golden file holds text; a message quoting a NUL byte must not break it.

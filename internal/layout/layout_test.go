@@ -15,7 +15,7 @@ import (
 // only packages of lower layers (common practice: a layered architecture
 // with one-way imports).
 var layers = [][]string{
-	{"poly", "internal/workpool", "examples", "certify/interval", "certify/lyapunov", "certify/sdp"},
+	{"poly", "internal/workpool", "internal/bounded", "examples", "certify/interval", "certify/lyapunov", "certify/sdp"},
 	{"model"},
 	{"checker"},
 	{"certificates"},

@@ -806,28 +806,17 @@ func minimalRefutation(m *model.Model, res *Result, vals map[string]string, x []
 		}
 		return g
 	}
-	uses := func(f poly.RatFunc, i int) bool {
-		if f.Num.UsesVar(i) {
-			return true
-		}
-		for _, d := range f.Den {
-			if d.P.UsesVar(i) {
-				return true
-			}
-		}
-		return false
-	}
 	for _, i := range slices.Sorted(maps.Keys(keep)) {
 		rest := maps.Clone(keep)
 		delete(rest, i)
 		// The equilibrium must stay fixed too.
 		eqUses := false
 		for _, a := range m.At {
-			if uses(a, i) {
+			if a.UsesVar(i) {
 				eqUses = true
 			}
 		}
-		if !eqUses && !uses(at(res.V, rest), i) && !uses(at(res.Vdot, rest), i) {
+		if !eqUses && !at(res.V, rest).UsesVar(i) && !at(res.Vdot, rest).UsesVar(i) {
 			keep = rest
 		}
 	}

@@ -171,23 +171,23 @@ func PaveRegion(ctx context.Context, conds []*poly.Poly, box []Side, level int, 
 		}
 		if !split {
 			segs = append(segs, segment{code: code})
-			topShare += g.share()
+			topShare += volumeShare(g)
 			return nil
 		}
-		if g.depth() >= taskDepth {
+		if depth(g) >= taskDepth {
 			segs = append(segs, segment{task: len(tasks) + 1})
 			tasks = append(tasks, task{g: g, forms: forms})
 			return nil
 		}
 		segs = append(segs, segment{code: checker.PaveSplit})
-		dim := poly.SplitDim(g.k)
-		lo, hi := g.halves(dim)
+		dim := poly.SplitDim(g.K)
+		lo, hi := g.Halves(dim)
 		if err := top(lo, halves(forms, dim, false)); err != nil {
 			return err
 		}
 		return top(hi, halves(forms, dim, true))
 	}
-	if err := top(grid{make([]int64, n), make([]int, n)}, root); err != nil {
+	if err := top(grid{A: make([]int64, n), K: make([]int, n)}, root); err != nil {
 		return nil, err
 	}
 	report := func(share float64) {
@@ -222,7 +222,7 @@ func PaveRegion(ctx context.Context, conds []*poly.Poly, box []Side, level int, 
 	share, finished := topShare, 0
 	for r := range done {
 		results[r.Item] = r.Value
-		share += tasks[r.Item].g.share()
+		share += volumeShare(tasks[r.Item].g)
 		report(share)
 		finished++
 		if tp != nil {
@@ -307,31 +307,21 @@ func halves(forms []*poly.CenteredForm, dim int, upper bool) []*poly.CenteredFor
 	return out
 }
 
-// grid is a box in normalized coordinates: side i is [a[i], a[i]+1]·2^-k[i]
-// of the unit interval (as in certificates).
-type grid struct {
-	a []int64
-	k []int
-}
+// grid is a box of the paving in normalized coordinates (poly.DyadicBox,
+// the kernel's encoding).
+type grid = poly.DyadicBox
 
-func (g grid) halves(dim int) (grid, grid) {
-	lo := grid{slices.Clone(g.a), slices.Clone(g.k)}
-	lo.a[dim] *= 2
-	lo.k[dim]++
-	hi := grid{slices.Clone(lo.a), slices.Clone(lo.k)}
-	hi.a[dim]++
-	return lo, hi
-}
-
-func (g grid) depth() int {
+// depth returns the number of halvings that made g.
+func depth(g grid) int {
 	d := 0
-	for _, k := range g.k {
+	for _, k := range g.K {
 		d += k
 	}
 	return d
 }
 
-func (g grid) share() float64 { return math.Ldexp(1, -g.depth()) }
+// volumeShare returns g's share of the paved box's volume.
+func volumeShare(g grid) float64 { return math.Ldexp(1, -depth(g)) }
 
 // engine holds what all workers share (read only).
 type engine struct {
@@ -361,8 +351,8 @@ func (e *engine) newWorker() *worker {
 
 // floatClass proposes a class for the box by the float pass.
 func (w *worker) floatClass(g grid) byte {
-	for i := range g.a {
-		s := interval.F{Lo: math.Ldexp(float64(g.a[i]), -g.k[i]), Hi: math.Ldexp(float64(g.a[i]+1), -g.k[i])}
+	for i := range g.A {
+		s := interval.F{Lo: math.Ldexp(float64(g.A[i]), -g.K[i]), Hi: math.Ldexp(float64(g.A[i]+1), -g.K[i])}
 		w.x[i] = w.lo[i].Add(w.w[i].Mul(s))
 		if math.IsInf(w.x[i].Lo, 0) || math.IsInf(w.x[i].Hi, 0) {
 			// A side beyond float64 (an end past 1e308): the float pass
@@ -388,7 +378,7 @@ func (w *worker) floatClass(g grid) byte {
 
 // exactClass decides the box by the centred forms, as the checker does.
 func (w *worker) exactClass(g grid, forms []*poly.CenteredForm) byte {
-	faces := openFaces(g, w.open)
+	faces := g.OpenFacesOn(w.open)
 	inside := true
 	for _, f := range forms {
 		if f.NonPositive() {
@@ -402,18 +392,6 @@ func (w *worker) exactClass(g grid, forms []*poly.CenteredForm) byte {
 	return checker.PaveUndecided
 }
 
-func openFaces(g grid, open poly.OpenFaces) poly.OpenFaces {
-	var f poly.OpenFaces
-	for i := range g.a {
-		if open.Lo&(1<<i) != 0 && g.a[i] == 0 {
-			f.Lo |= 1 << i
-		}
-		if open.Hi&(1<<i) != 0 && g.a[i] == int64(1)<<g.k[i]-1 {
-			f.Hi |= 1 << i
-		}
-	}
-	return f
-}
 
 // classify returns the code of a leaf, or split true when the box is to be
 // halved: the float pass proposes, the exact test decides.
@@ -421,7 +399,7 @@ func (w *worker) classify(g grid, forms []*poly.CenteredForm) (code byte, split 
 	if w.boxes.Add(1) > w.max {
 		return 0, false, ErrTooManyBoxes
 	}
-	splittable := g.k[poly.SplitDim(g.k)] < w.level
+	splittable := g.K[poly.SplitDim(g.K)] < w.level
 	if fc := w.floatClass(g); fc != checker.PaveUndecided {
 		ec := w.exactClass(g, forms)
 		if ec != checker.PaveUndecided {
@@ -456,7 +434,7 @@ func (w *worker) subtree(ctx context.Context, g grid, forms []*poly.CenteredForm
 	b.WriteByte(checker.PaveSplit)
 	// Children's forms live in per-depth buffers: the lower child's subtree
 	// only uses deeper ones, so the upper child can reuse the same slot.
-	d := g.depth() + 1
+	d := depth(g) + 1
 	for len(w.bufs) <= d {
 		fs := make([]*poly.CenteredForm, len(forms))
 		for j := range fs {
@@ -465,8 +443,8 @@ func (w *worker) subtree(ctx context.Context, g grid, forms []*poly.CenteredForm
 		w.bufs = append(w.bufs, fs)
 	}
 	child := w.bufs[d]
-	dim := poly.SplitDim(g.k)
-	lo, hi := g.halves(dim)
+	dim := poly.SplitDim(g.K)
+	lo, hi := g.Halves(dim)
 	for j, f := range forms {
 		child[j].Half(f, dim, false)
 	}

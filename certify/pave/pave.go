@@ -392,7 +392,6 @@ func (w *worker) exactClass(g grid, forms []*poly.CenteredForm) byte {
 	return checker.PaveUndecided
 }
 
-
 // classify returns the code of a leaf, or split true when the box is to be
 // halved: the float pass proposes, the exact test decides.
 func (w *worker) classify(g grid, forms []*poly.CenteredForm) (code byte, split bool, err error) {

@@ -117,7 +117,14 @@ type env struct {
 
 // fail reports err and returns code: with --json as report.ErrorJSON's
 // document on standard output, else as text on standard error.
+//
+// An error that says the run's context ended (the deadline, or an
+// interrupt) is no failure of the input: fail returns exitStopped and
+// prints nothing, and within says why the run stopped.
 func (e *env) fail(code int, err error) int {
+	if errors.Is(err, context.DeadlineExceeded) || errors.Is(err, context.Canceled) {
+		return exitStopped
+	}
 	if e.json {
 		writeJSON(e.stdout, report.ErrorJSON(err, code))
 	} else {
@@ -333,17 +340,11 @@ func runCheck(ctx context.Context, name string, src []byte, settings []model.Set
 		return e.fail(exitInput, err), false
 	}
 	res, err := pf.check(ctx, m, name, e)
-	if err != nil && (errors.Is(err, context.DeadlineExceeded) || errors.Is(err, context.Canceled)) {
-		return exitStopped, false // within says why
-	}
 	if err != nil {
-		switch {
-		case errors.Is(err, certify.ErrUnverified):
+		if errors.Is(err, certify.ErrUnverified) {
 			return e.fail(exitRejected, err), false
-		case errors.Is(err, context.Canceled), errors.Is(err, context.DeadlineExceeded):
-			return e.fail(exitStopped, err), false
 		}
-		return e.fail(exitInput, err), false
+		return e.fail(exitInput, err), false // a stopped run gives exitStopped
 	}
 	if pf != nil && pf.sdpOut != "" {
 		if code := writeSDPOut(pf.sdpOut, res.SDP, e); code != 0 {

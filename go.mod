@@ -1,4 +1,4 @@
-module lyacert
+module github.com/lyacert/lyacert
 
 go 1.26
 

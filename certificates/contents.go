@@ -1,6 +1,6 @@
 package certificates
 
-import "lyacert/checker"
+import "github.com/lyacert/lyacert/checker"
 
 // Contents gathers a certificate's claims by kind, for people and programs
 // that present them (reports, terminal text, --json). It decides nothing:

@@ -11,7 +11,7 @@ import (
 	"sync"
 	"syscall"
 
-	"lyacert/checker"
+	"github.com/lyacert/lyacert/checker"
 )
 
 // Seal sets d's digest: the SHA-256 of its canonical serialization, as

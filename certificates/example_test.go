@@ -5,10 +5,10 @@ import (
 	"fmt"
 	"log"
 
-	"lyacert/certificates"
-	"lyacert/certify/direct"
-	"lyacert/checker"
-	"lyacert/model"
+	"github.com/lyacert/lyacert/certificates"
+	"github.com/lyacert/lyacert/certify/direct"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/model"
 )
 
 // A certificate travels as JSON: written by Marshal, read back by

@@ -5,8 +5,8 @@ import (
 	"math/big"
 	"slices"
 
-	"lyacert/checker"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // PavingSummary is what follows from a paving's tree: the volume of its box,

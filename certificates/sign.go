@@ -17,7 +17,7 @@ import (
 	"slices"
 	"strings"
 
-	"lyacert/checker"
+	"github.com/lyacert/lyacert/checker"
 )
 
 // Key files are PEM (RFC 7468) so that general tools read them: the private

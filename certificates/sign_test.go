@@ -16,7 +16,7 @@ import (
 	"strings"
 	"testing"
 
-	"lyacert/checker"
+	"github.com/lyacert/lyacert/checker"
 )
 
 func testKey(t *testing.T, seedByte byte) ed25519.PrivateKey {

@@ -7,9 +7,9 @@ import (
 	"strings"
 	"time"
 
-	"lyacert/checker"
-	"lyacert/model"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/model"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // Version is the engine's version, written into certificates.

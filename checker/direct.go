@@ -6,7 +6,7 @@ import (
 	"math/big"
 	"slices"
 
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // OrbitalDerivative restates the candidate V and its derivative along the

@@ -6,7 +6,7 @@ import (
 	"os"
 	"path/filepath"
 
-	"lyacert/checker"
+	"github.com/lyacert/lyacert/checker"
 )
 
 // Re-checking a certificate needs nothing but the file: the kernel reads it

@@ -5,8 +5,8 @@ import (
 	"path/filepath"
 	"testing"
 
-	"lyacert/certificates"
-	"lyacert/checker"
+	"github.com/lyacert/lyacert/certificates"
+	"github.com/lyacert/lyacert/checker"
 )
 
 // A forged verdict is rejected even with every derived number left intact

@@ -7,7 +7,7 @@ import (
 	"testing"
 	"time"
 
-	"lyacert/checker"
+	"github.com/lyacert/lyacert/checker"
 )
 
 // FuzzReadVerify feeds arbitrary bytes to the kernel's reader and, when they

@@ -11,8 +11,8 @@ import (
 	"strings"
 	"testing"
 
-	"lyacert/certificates"
-	"lyacert/checker"
+	"github.com/lyacert/lyacert/certificates"
+	"github.com/lyacert/lyacert/checker"
 )
 
 var writeHostile = flag.Bool("hostile.write", false, "rewrite the files of testdata/hostile/certificates from testdata/certificates")

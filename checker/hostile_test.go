@@ -5,7 +5,6 @@ import (
 	"flag"
 	"fmt"
 	"io"
-	"lyacert/internal/bounded"
 	"os"
 	"path/filepath"
 	"sort"
@@ -14,9 +13,11 @@ import (
 	"time"
 	"unicode/utf8"
 
+	"github.com/lyacert/lyacert/internal/bounded"
+
 	"github.com/rogpeppe/go-internal/txtar"
 
-	"lyacert/checker"
+	"github.com/lyacert/lyacert/checker"
 )
 
 var (

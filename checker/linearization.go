@@ -3,8 +3,8 @@ package checker
 import (
 	"math/big"
 
-	"lyacert/model"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/model"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // KrawczykEnclosure proves that a box holds exactly one equilibrium of a

@@ -6,7 +6,7 @@ import (
 	"path/filepath"
 	"testing"
 
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // TestLinearizationForgeries changes a valid certificate consistently — the

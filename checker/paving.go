@@ -7,7 +7,7 @@ import (
 	"math/big"
 	"slices"
 
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // Codes of a paving's tree, one letter a box.

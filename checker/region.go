@@ -5,7 +5,7 @@ import (
 	"reflect"
 	"slices"
 
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // SturmRegion is the exact set of values of one parameter where every

@@ -13,8 +13,8 @@ import (
 	"strings"
 	"testing"
 
-	"lyacert/certificates"
-	"lyacert/checker"
+	"github.com/lyacert/lyacert/certificates"
+	"github.com/lyacert/lyacert/checker"
 )
 
 // noClaim lists the fields that carry no claim; the mutation test leaves

@@ -7,8 +7,8 @@ import (
 	"slices"
 	"strings"
 
-	"lyacert/model"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/model"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // Kinds of claim and verdicts that Verify derives.

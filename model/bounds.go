@@ -5,7 +5,7 @@ import (
 	"fmt"
 	"math"
 
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // The derived polynomials (V̇ or ΔV, the residuals at the equilibrium, V and

@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"strings"
 
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // RangeText returns the assumption as it is written in a model file, without

@@ -1,6 +1,6 @@
 package model
 
-import "lyacert/poly"
+import "github.com/lyacert/lyacert/poly"
 
 // Derivative returns the derivative of v along the flow: the orbital (Lie)
 // derivative V̇ = Σ ∂V/∂xᵢ · fᵢ for continuous time, and the difference

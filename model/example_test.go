@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"log"
 
-	"lyacert/model"
+	"github.com/lyacert/lyacert/model"
 )
 
 // A model file is read into states, parameters, equations and the candidate;

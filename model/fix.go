@@ -5,7 +5,7 @@ import (
 	"math/big"
 	"slices"
 
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // FixParams returns base with the named free parameters fixed to the given

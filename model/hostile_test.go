@@ -4,7 +4,6 @@ import (
 	"bytes"
 	"flag"
 	"fmt"
-	"lyacert/internal/bounded"
 	"os"
 	"path/filepath"
 	"sort"
@@ -12,9 +11,11 @@ import (
 	"testing"
 	"time"
 
+	"github.com/lyacert/lyacert/internal/bounded"
+
 	"github.com/rogpeppe/go-internal/txtar"
 
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/poly"
 )
 
 var (

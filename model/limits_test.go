@@ -4,7 +4,7 @@ import (
 	"strings"
 	"testing"
 
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // plainStart may skip scanning a line only when the scanner's first token

@@ -9,7 +9,7 @@ import (
 	"unicode"
 	"unicode/utf8"
 
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // Param is a declared parameter with its assumed range.

@@ -7,7 +7,7 @@ import (
 	"strings"
 	"testing"
 
-	"lyacert/examples"
+	"github.com/lyacert/lyacert/examples"
 )
 
 // The sample model of the format's documentation (an invented scenario).

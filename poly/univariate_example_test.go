@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"math/big"
 
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/poly"
 )
 
 func ExampleUnivariate_IsolateRoots() {

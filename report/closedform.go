@@ -3,7 +3,7 @@ package report
 import (
 	"math/big"
 
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // radical is √w for a positive integer w.

@@ -6,10 +6,10 @@ import (
 	"log"
 	"strings"
 
-	"lyacert/certify/direct"
-	"lyacert/checker"
-	"lyacert/model"
-	"lyacert/report"
+	"github.com/lyacert/lyacert/certify/direct"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/model"
+	"github.com/lyacert/lyacert/report"
 )
 
 // gain is an invented scenario: two coupled first-order lags whose second

@@ -5,8 +5,6 @@ import (
 	"context"
 	"encoding/json"
 	"html"
-	"lyacert/certificates"
-	"lyacert/checker"
 	"os"
 	"os/exec"
 	"path/filepath"
@@ -15,7 +13,9 @@ import (
 	"testing"
 	"time"
 
-	"lyacert/report"
+	"github.com/lyacert/lyacert/certificates"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/report"
 )
 
 // tool finds an external program for a test. Without it the test is

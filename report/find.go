@@ -3,16 +3,16 @@ package report
 import (
 	"fmt"
 	"io"
-	"lyacert/certify/sossearch"
 	"math"
 	"math/big"
 	"strconv"
 	"strings"
 
-	"lyacert/certify/equilibria"
-	"lyacert/checker"
-	"lyacert/model"
-	"lyacert/sweep"
+	"github.com/lyacert/lyacert/certify/equilibria"
+	"github.com/lyacert/lyacert/certify/sossearch"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/model"
+	"github.com/lyacert/lyacert/sweep"
 )
 
 // FindVerdict is the verdict and claim of a search for equilibria as the

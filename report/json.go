@@ -5,12 +5,12 @@ import (
 	"strconv"
 	"strings"
 
-	"lyacert/certificates"
-	"lyacert/certify/direct"
-	"lyacert/certify/equilibria"
-	"lyacert/checker"
-	"lyacert/poly"
-	"lyacert/sweep"
+	"github.com/lyacert/lyacert/certificates"
+	"github.com/lyacert/lyacert/certify/direct"
+	"github.com/lyacert/lyacert/certify/equilibria"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/poly"
+	"github.com/lyacert/lyacert/sweep"
 )
 
 // The --json shapes of the command line. Their keys are a contract: a

@@ -1,10 +1,11 @@
 package report
 
 import (
-	"lyacert/checker"
 	"math"
 	"math/big"
 	"strings"
+
+	"github.com/lyacert/lyacert/checker"
 )
 
 // linearizationView is the section of a certificate that rests on the

@@ -8,7 +8,7 @@ import (
 	"strings"
 	"unicode"
 
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // A node is a piece of mathematics as it is set: numbers, names, powers,

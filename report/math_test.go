@@ -5,7 +5,7 @@ import (
 	"strings"
 	"testing"
 
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/poly"
 )
 
 func TestRatFuncNode(t *testing.T) {

@@ -9,7 +9,7 @@ import (
 	"strings"
 	"testing"
 
-	"lyacert/report"
+	"github.com/lyacert/lyacert/report"
 )
 
 // mathmlArity is every element of W3C MathML Core (from memory: its

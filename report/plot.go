@@ -4,8 +4,6 @@ import (
 	"bytes"
 	"fmt"
 	"image/color"
-	"lyacert/certificates"
-	"lyacert/checker"
 	"math"
 	"math/big"
 	"regexp"
@@ -13,6 +11,9 @@ import (
 	"sort"
 	"strconv"
 	"strings"
+
+	"github.com/lyacert/lyacert/certificates"
+	"github.com/lyacert/lyacert/checker"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/font"

@@ -2,9 +2,10 @@ package report
 
 import (
 	"fmt"
-	"lyacert/checker"
 	"math/big"
 	"strconv"
+
+	"github.com/lyacert/lyacert/checker"
 )
 
 // regionView is the one-parameter region: the pieces of the parameter's

@@ -5,13 +5,13 @@ import (
 	"errors"
 	"fmt"
 	"io"
-	"lyacert/certificates"
-	"lyacert/checker"
 	"math/big"
 	"strings"
 
-	"lyacert/model"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/certificates"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/model"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // Format is a report format.

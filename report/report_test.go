@@ -5,8 +5,6 @@ import (
 	"crypto/ed25519"
 	"errors"
 	"flag"
-	"lyacert/certify/direct"
-	"lyacert/checker"
 	"os"
 	"path/filepath"
 	"regexp"
@@ -14,9 +12,11 @@ import (
 	"strings"
 	"testing"
 
-	"lyacert/certificates"
-	"lyacert/model"
-	"lyacert/report"
+	"github.com/lyacert/lyacert/certificates"
+	"github.com/lyacert/lyacert/certify/direct"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/model"
+	"github.com/lyacert/lyacert/report"
 )
 
 var update = flag.Bool("update", false, "rewrite the golden files and the certificates generated for these tests")

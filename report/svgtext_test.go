@@ -3,7 +3,6 @@ package report_test
 import (
 	"encoding/json"
 	"html"
-	"lyacert/certificates"
 	"os"
 	"path/filepath"
 	"regexp"
@@ -11,7 +10,8 @@ import (
 	"testing"
 	"time"
 
-	"lyacert/report"
+	"github.com/lyacert/lyacert/certificates"
+	"github.com/lyacert/lyacert/report"
 )
 
 // textProbe measures, after layout, every text element of the page's

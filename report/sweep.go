@@ -7,7 +7,7 @@ import (
 	"io"
 	"strings"
 
-	"lyacert/checker"
+	"github.com/lyacert/lyacert/checker"
 )
 
 // SweepSummary is the summary of a sweep (its --json keys are a contract).

@@ -7,11 +7,11 @@ import (
 	"sort"
 	"strings"
 
-	"lyacert/certificates"
-	"lyacert/certify/direct"
-	"lyacert/checker"
-	"lyacert/model"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/certificates"
+	"github.com/lyacert/lyacert/certify/direct"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/model"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // Caution is printed under every verdict of the terminal text and under a

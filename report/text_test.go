@@ -4,8 +4,8 @@ import (
 	"strings"
 	"testing"
 
-	"lyacert/checker"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // TestConditionText checks the one reading of q > 0 that the terminal

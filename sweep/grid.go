@@ -9,8 +9,8 @@ import (
 	"strconv"
 	"strings"
 
-	"lyacert/model"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/model"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // GridAxis is one swept parameter: N exact values Lo + k·(Hi − Lo)/(N − 1),

@@ -8,7 +8,7 @@ import (
 	"slices"
 	"strings"
 
-	"lyacert/model"
+	"github.com/lyacert/lyacert/model"
 )
 
 // identityVersion names the line format and the identity text below; it

@@ -7,7 +7,7 @@ import (
 	"fmt"
 	"slices"
 
-	"lyacert/checker"
+	"github.com/lyacert/lyacert/checker"
 )
 
 // OrderedStrings is a JSON object of strings whose keys keep their order.

@@ -10,7 +10,7 @@ import (
 	"sync"
 	"testing"
 
-	"lyacert/model"
+	"github.com/lyacert/lyacert/model"
 )
 
 // stableSrc is a model of our own: x' = -a x + y, y' = -y is stable for

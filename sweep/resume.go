@@ -4,7 +4,7 @@ import (
 	"errors"
 	"fmt"
 
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // ErrIncomplete marks an output that lacks grid points: a merge with a shard

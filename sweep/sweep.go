@@ -10,11 +10,11 @@ import (
 	"strconv"
 	"strings"
 
-	"lyacert/certify/equilibria"
-	"lyacert/checker"
-	"lyacert/internal/workpool"
-	"lyacert/model"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/certify/equilibria"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/internal/workpool"
+	"github.com/lyacert/lyacert/model"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // SweepPoint is the result at one grid point: its lines, and the

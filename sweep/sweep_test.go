@@ -2,13 +2,14 @@ package sweep
 
 import (
 	"context"
-	"lyacert/certify/equilibria"
-	"lyacert/checker"
-	"lyacert/model"
 	"math/big"
 	"os"
 	"path/filepath"
 	"testing"
+
+	"github.com/lyacert/lyacert/certify/equilibria"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/model"
 )
 
 func parseModel(t testing.TB, src string, set ...string) *model.Model {

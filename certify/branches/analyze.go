@@ -6,8 +6,8 @@ import (
 	"fmt"
 	"slices"
 
-	"lyacert/model"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/model"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // Options bound the work of Analyze.

@@ -7,8 +7,8 @@ import (
 	"path/filepath"
 	"testing"
 
-	"lyacert/model"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/model"
+	"github.com/lyacert/lyacert/poly"
 )
 
 func readModel(t testing.TB, name string) *model.Model {

@@ -6,8 +6,8 @@ import (
 	"fmt"
 	"math/big"
 
-	"lyacert/model"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/model"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // Label is the linear type of one branch on one piece of the parameter range.

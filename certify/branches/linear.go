@@ -4,7 +4,7 @@ import (
 	"context"
 	"errors"
 
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // Matrix is a square matrix of surds.

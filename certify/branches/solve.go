@@ -7,7 +7,7 @@ import (
 	"math/big"
 	"slices"
 
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // errNoClosedForm marks a system the elimination does not bring to closed

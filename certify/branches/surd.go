@@ -5,7 +5,7 @@ import (
 	"fmt"
 	"math/big"
 
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // Surd is a + b·√w with a, b and w rational functions of the parameters.

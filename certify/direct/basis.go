@@ -6,8 +6,8 @@ import (
 	"math/big"
 	"slices"
 
-	"lyacert/checker"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // monomialGram writes a polynomial p in the states (coefficients in the

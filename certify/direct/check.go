@@ -3,18 +3,18 @@ package direct
 import (
 	"context"
 	"fmt"
-	"lyacert/certificates"
-	"lyacert/certify"
-	"lyacert/checker"
 	"maps"
 	"math/big"
 	"slices"
 	"strings"
 
-	"lyacert/certify/pave"
-	"lyacert/certify/sdp"
-	"lyacert/model"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/certificates"
+	"github.com/lyacert/lyacert/certify"
+	"github.com/lyacert/lyacert/certify/pave"
+	"github.com/lyacert/lyacert/certify/sdp"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/model"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // Version is the tool version written into checker.

@@ -10,9 +10,9 @@ import (
 
 	"gonum.org/v1/gonum/mat"
 
-	"lyacert/checker"
-	"lyacert/model"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/model"
+	"github.com/lyacert/lyacert/poly"
 )
 
 func check(t testing.TB, file string, set ...string) *Result {

@@ -4,7 +4,7 @@ import (
 	"math/big"
 	"sort"
 
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // PowerFactor is one factor of a factorization, raised to Power >= 1.

@@ -6,9 +6,9 @@ import (
 	"path/filepath"
 	"testing"
 
-	"lyacert/certify"
-	"lyacert/examples"
-	"lyacert/model"
+	"github.com/lyacert/lyacert/certify"
+	"github.com/lyacert/lyacert/examples"
+	"github.com/lyacert/lyacert/model"
 )
 
 // FuzzCheck runs the whole engine on arbitrary models that parse: it may

@@ -4,7 +4,7 @@ import (
 	"errors"
 	"math/big"
 
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // LDL is the exact factorization G = L·diag(D)·Lᵀ of a symmetric matrix of

@@ -4,16 +4,16 @@ import (
 	"context"
 	"errors"
 	"fmt"
-	"lyacert/certificates"
-	"lyacert/checker"
 	"maps"
 	"math/big"
 	"slices"
 	"strings"
 
-	"lyacert/certify/pave"
-	"lyacert/model"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/certificates"
+	"github.com/lyacert/lyacert/certify/pave"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/model"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // PaveOptions control how CheckPaving paves a region in several parameters.

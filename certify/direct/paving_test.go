@@ -4,7 +4,6 @@ import (
 	"context"
 	"encoding/json"
 	"errors"
-	"lyacert/certificates"
 	"math"
 	"math/big"
 	"math/rand/v2"
@@ -13,11 +12,13 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/lyacert/lyacert/certificates"
+
 	"gonum.org/v1/gonum/mat"
 
-	"lyacert/certify/pave"
-	"lyacert/checker"
-	"lyacert/model"
+	"github.com/lyacert/lyacert/certify/pave"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/model"
 )
 
 // Sources named in the tables:

@@ -4,8 +4,8 @@ import (
 	"math/big"
 	"slices"
 
-	"lyacert/checker"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // Digits is the number of significant digits of the decimal shown for an

@@ -5,10 +5,10 @@ import (
 	"strings"
 	"testing"
 
-	"lyacert/certificates"
-	"lyacert/checker"
-	"lyacert/model"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/certificates"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/model"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // cyclicChain is an invented benchmark model: n states coupled in a ring,

@@ -4,8 +4,8 @@ import (
 	"math/big"
 	"testing"
 
-	"lyacert/checker"
-	"lyacert/model"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/model"
 )
 
 // V = a·x has the linear part a·x at the equilibrium x = 0, so the

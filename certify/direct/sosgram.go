@@ -6,10 +6,10 @@ import (
 	"math/big"
 	"strings"
 
-	"lyacert/certify/sdp"
-	"lyacert/certify/sos"
-	"lyacert/checker"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/certify/sdp"
+	"github.com/lyacert/lyacert/certify/sos"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // Method says how one form of the argument was proven, with the sizes of

@@ -4,8 +4,8 @@ import (
 	"math/big"
 	"testing"
 
-	"lyacert/checker"
-	"lyacert/model"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/model"
 )
 
 func checkText(t *testing.T, src string) *Result {

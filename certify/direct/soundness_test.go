@@ -11,9 +11,9 @@ import (
 	"testing"
 	"time"
 
-	"lyacert/certify"
-	"lyacert/checker"
-	"lyacert/model"
+	"github.com/lyacert/lyacert/certify"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/model"
 )
 
 // Randomized soundness: models with a planted truth, run through Check, the

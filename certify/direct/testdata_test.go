@@ -7,10 +7,10 @@ import (
 	"strings"
 	"testing"
 
-	"lyacert/certificates"
-	"lyacert/checker"
-	"lyacert/examples"
-	"lyacert/model"
+	"github.com/lyacert/lyacert/certificates"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/examples"
+	"github.com/lyacert/lyacert/model"
 )
 
 var update = flag.Bool("update", false, "rewrite testdata/certificates from testdata/models")

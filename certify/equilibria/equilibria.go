@@ -12,8 +12,8 @@ import (
 
 	"gonum.org/v1/gonum/mat"
 
-	"lyacert/model"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/model"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // Equilibrium statuses.

@@ -4,21 +4,22 @@ import (
 	"context"
 	"errors"
 	"fmt"
-	"lyacert/certificates"
-	"lyacert/certify"
-	"lyacert/checker"
 	"math"
 	"math/big"
 	"slices"
 	"strings"
 	"time"
 
+	"github.com/lyacert/lyacert/certificates"
+	"github.com/lyacert/lyacert/certify"
+	"github.com/lyacert/lyacert/checker"
+
 	"gonum.org/v1/gonum/mat"
 
-	"lyacert/certify/direct"
-	"lyacert/certify/lyapunov"
-	"lyacert/model"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/certify/direct"
+	"github.com/lyacert/lyacert/certify/lyapunov"
+	"github.com/lyacert/lyacert/model"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // Certification methods.

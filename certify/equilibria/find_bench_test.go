@@ -10,8 +10,8 @@ import (
 
 	"gonum.org/v1/gonum/mat"
 
-	"lyacert/checker"
-	"lyacert/model"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/model"
 )
 
 // randomLinear is an invented benchmark model: x' = A·x with A = M − s·I,

@@ -8,8 +8,8 @@ import (
 	"path/filepath"
 	"testing"
 
-	"lyacert/checker"
-	"lyacert/model"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/model"
 )
 
 func parseModel(t testing.TB, src string, set ...string) *model.Model {

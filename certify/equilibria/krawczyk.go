@@ -6,7 +6,7 @@ import (
 
 	"gonum.org/v1/gonum/mat"
 
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // krawczykRadii are the relative half-widths tried for the box around a

@@ -8,9 +8,9 @@ import (
 	"strings"
 	"testing"
 
-	"lyacert/certificates"
-	"lyacert/checker"
-	"lyacert/model"
+	"github.com/lyacert/lyacert/certificates"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/model"
 )
 
 // linearizationCases are the linearization certificates kept in

@@ -6,7 +6,7 @@ import (
 	"strings"
 	"testing"
 
-	"lyacert/checker"
+	"github.com/lyacert/lyacert/checker"
 )
 
 // x' = x + y, y' = x + y has the singular matrix [[1, 1], [1, 1]]: every

@@ -5,7 +5,7 @@ import (
 
 	"gonum.org/v1/gonum/mat"
 
-	"lyacert/certify/lyapunov"
+	"github.com/lyacert/lyacert/certify/lyapunov"
 )
 
 // The worked example of Ogata's Modern Control Engineering: for ẋ = Ax with

@@ -5,7 +5,7 @@ import (
 	"math/big"
 	"testing"
 
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // BenchmarkPaveRegion: the engine alone (float pass and exact confirmation

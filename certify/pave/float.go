@@ -3,8 +3,8 @@ package pave
 import (
 	"math"
 
-	"lyacert/certify/interval"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/certify/interval"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // floatPoly is a condition in float64 intervals over the paved coordinates:

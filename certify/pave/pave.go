@@ -12,10 +12,10 @@ import (
 
 	"sync/atomic"
 
-	"lyacert/certify/interval"
-	"lyacert/checker"
-	"lyacert/internal/workpool"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/certify/interval"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/internal/workpool"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // Side is one side of the box to pave: the ring index of a parameter and its

@@ -3,15 +3,15 @@ package pave
 import (
 	"context"
 	"errors"
-	"lyacert/certificates"
 	"math"
 	"math/big"
 	"math/rand/v2"
 	"testing"
 
-	"lyacert/certify/interval"
-	"lyacert/checker"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/certificates"
+	"github.com/lyacert/lyacert/certify/interval"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // Sources named in the tables:

@@ -5,7 +5,7 @@ import (
 	"math/big"
 	"testing"
 
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // Box ends beyond float64 (1e400, 1e309) leave the float pass with

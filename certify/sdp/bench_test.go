@@ -13,9 +13,9 @@ import (
 	"testing"
 	"time"
 
-	"lyacert/certify/sdp"
-	"lyacert/certify/sos"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/certify/sdp"
+	"github.com/lyacert/lyacert/certify/sos"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // sosMargin returns the margin SDP of a random degree-4 SOS form in n

@@ -4,7 +4,7 @@ import (
 	"context"
 	"fmt"
 
-	"lyacert/certify/sdp"
+	"github.com/lyacert/lyacert/certify/sdp"
 )
 
 // The largest eigenvalue of [[2, 1], [1, 2]] is 3: max ⟨C, X⟩ subject to

@@ -18,9 +18,9 @@ import (
 
 	"gonum.org/v1/gonum/mat"
 
-	"lyacert/certify/sdp"
-	"lyacert/certify/sos"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/certify/sdp"
+	"github.com/lyacert/lyacert/certify/sos"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // randomFeasible returns a random SDP whose primal and dual are both

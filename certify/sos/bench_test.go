@@ -7,9 +7,9 @@ import (
 	"strings"
 	"testing"
 
-	"lyacert/certify/sdp"
-	"lyacert/certify/sos"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/certify/sdp"
+	"github.com/lyacert/lyacert/certify/sos"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // randomForm4 returns Σ qₖ² for N+2 random integer quadratic forms qₖ in n

@@ -4,8 +4,8 @@ import (
 	"context"
 	"fmt"
 
-	"lyacert/certify/sos"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/certify/sos"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // x⁴ − 2x²y² + 2y⁴ = (x² − y²)² + y⁴ gets an exact certificate; Motzkin's

@@ -8,8 +8,8 @@ import (
 	"math/big"
 	"slices"
 
-	"lyacert/certify/sdp"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/certify/sdp"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // Options control Find. The zero value asks for the defaults.

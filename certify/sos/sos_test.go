@@ -8,8 +8,8 @@ import (
 	"strings"
 	"testing"
 
-	"lyacert/certify/sos"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/certify/sos"
+	"github.com/lyacert/lyacert/poly"
 )
 
 func parse(t testing.TB, vars []string, text string) *poly.Poly {

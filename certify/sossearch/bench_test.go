@@ -6,8 +6,8 @@ import (
 	"strings"
 	"testing"
 
-	"lyacert/checker"
-	"lyacert/model"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/model"
 )
 
 // ring returns a constructed n-state model: a ring of oscillators with

@@ -8,12 +8,12 @@ import (
 	"math/big"
 	"time"
 
-	"lyacert/certify/direct"
-	"lyacert/certify/sdp"
-	"lyacert/certify/sos"
-	"lyacert/checker"
-	"lyacert/model"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/certify/direct"
+	"github.com/lyacert/lyacert/certify/sdp"
+	"github.com/lyacert/lyacert/certify/sos"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/model"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // Options control Search.

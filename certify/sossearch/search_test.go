@@ -4,8 +4,8 @@ import (
 	"context"
 	"testing"
 
-	"lyacert/checker"
-	"lyacert/model"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/model"
 )
 
 // centre is a constructed system (hand-checked) whose linearization

@@ -4,17 +4,17 @@ import (
 	"context"
 	"errors"
 	"fmt"
-	"lyacert/certificates"
-	"lyacert/certify/equilibria"
-	"lyacert/report"
 	"math/big"
 	"path/filepath"
 	"strconv"
 	"strings"
 
-	"lyacert/certify"
-	"lyacert/checker"
-	"lyacert/model"
+	"github.com/lyacert/lyacert/certificates"
+	"github.com/lyacert/lyacert/certify"
+	"github.com/lyacert/lyacert/certify/equilibria"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/model"
+	"github.com/lyacert/lyacert/report"
 )
 
 type findCmd struct {

@@ -6,9 +6,9 @@ import (
 	"fmt"
 	"strings"
 
-	"lyacert/certificates"
-	"lyacert/checker"
-	"lyacert/report"
+	"github.com/lyacert/lyacert/certificates"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/report"
 )
 
 // keyCmd groups the key commands.

@@ -10,9 +10,9 @@ import (
 	"sync"
 	"time"
 
-	"lyacert/certify"
-	"lyacert/checker"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/certify"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // limitFlags are the --limit flags of every command that reads a model, an

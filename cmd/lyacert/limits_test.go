@@ -7,7 +7,7 @@ import (
 	"strings"
 	"testing"
 
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // runCmd runs the command line in this process and returns its exit code

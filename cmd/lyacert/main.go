@@ -6,19 +6,20 @@ import (
 	"errors"
 	"fmt"
 	"io"
-	"lyacert/certificates"
 	"os"
 	"slices"
 	"strings"
 
+	"github.com/lyacert/lyacert/certificates"
+
 	"github.com/alecthomas/kong"
 	"github.com/willabides/kongplete"
 
-	"lyacert/certify"
-	"lyacert/checker"
-	"lyacert/examples"
-	"lyacert/model"
-	"lyacert/report"
+	"github.com/lyacert/lyacert/certify"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/examples"
+	"github.com/lyacert/lyacert/model"
+	"github.com/lyacert/lyacert/report"
 )
 
 // Exit codes: each says what happened (the README and --help list them).

@@ -8,9 +8,9 @@ import (
 	"slices"
 	"strings"
 
-	"lyacert/certificates"
-	"lyacert/report"
-	"lyacert/sweep"
+	"github.com/lyacert/lyacert/certificates"
+	"github.com/lyacert/lyacert/report"
+	"github.com/lyacert/lyacert/sweep"
 )
 
 type mergeCmd struct {

@@ -3,9 +3,6 @@ package main
 import (
 	"context"
 	"fmt"
-	"lyacert/certify/direct"
-	"lyacert/checker"
-	"lyacert/report"
 	"maps"
 	"math/big"
 	"os"
@@ -14,9 +11,12 @@ import (
 	"slices"
 	"strings"
 
-	"lyacert/certificates"
-	"lyacert/model"
-	"lyacert/poly"
+	"github.com/lyacert/lyacert/certificates"
+	"github.com/lyacert/lyacert/certify/direct"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/model"
+	"github.com/lyacert/lyacert/poly"
+	"github.com/lyacert/lyacert/report"
 )
 
 // paveFlags are the options of check for regions in several parameters.

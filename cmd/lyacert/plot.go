@@ -4,8 +4,8 @@ import (
 	"path/filepath"
 	"strings"
 
-	"lyacert/certificates"
-	"lyacert/report"
+	"github.com/lyacert/lyacert/certificates"
+	"github.com/lyacert/lyacert/report"
 )
 
 // sweepCategories maps a grid point's category to the plot's.

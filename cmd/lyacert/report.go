@@ -8,14 +8,14 @@ import (
 	"path/filepath"
 	"strings"
 
-	"lyacert/certificates"
-	"lyacert/certify"
-	"lyacert/certify/direct"
-	"lyacert/checker"
-	"lyacert/examples"
-	"lyacert/model"
-	"lyacert/poly"
-	"lyacert/report"
+	"github.com/lyacert/lyacert/certificates"
+	"github.com/lyacert/lyacert/certify"
+	"github.com/lyacert/lyacert/certify/direct"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/examples"
+	"github.com/lyacert/lyacert/model"
+	"github.com/lyacert/lyacert/poly"
+	"github.com/lyacert/lyacert/report"
 )
 
 type reportCmd struct {

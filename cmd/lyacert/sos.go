@@ -8,13 +8,13 @@ import (
 	"os"
 	"os/signal"
 
-	"lyacert/certificates"
-	"lyacert/certify"
-	"lyacert/certify/sdp"
-	"lyacert/certify/sossearch"
-	"lyacert/checker"
-	"lyacert/model"
-	"lyacert/report"
+	"github.com/lyacert/lyacert/certificates"
+	"github.com/lyacert/lyacert/certify"
+	"github.com/lyacert/lyacert/certify/sdp"
+	"github.com/lyacert/lyacert/certify/sossearch"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/model"
+	"github.com/lyacert/lyacert/report"
 )
 
 // sosFlags are find's options for a V found by a semidefinite program.

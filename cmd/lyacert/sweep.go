@@ -6,7 +6,6 @@ import (
 	"errors"
 	"fmt"
 	"io"
-	"lyacert/report"
 	"os"
 	"os/signal"
 	"path/filepath"
@@ -16,9 +15,10 @@ import (
 	"syscall"
 	"time"
 
-	"lyacert/certificates"
-	"lyacert/model"
-	"lyacert/sweep"
+	"github.com/lyacert/lyacert/certificates"
+	"github.com/lyacert/lyacert/model"
+	"github.com/lyacert/lyacert/report"
+	"github.com/lyacert/lyacert/sweep"
 )
 
 type sweepCmd struct {

@@ -10,8 +10,8 @@ import (
 	"strconv"
 	"strings"
 
-	"lyacert/checker"
-	"lyacert/sweep"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/sweep"
 )
 
 // pointCategory sums up the verdicts at one grid point for plots and

@@ -554,7 +554,7 @@ func buildLyacert(t *testing.T, dir string) string {
 	bin := filepath.Join(dir, "lyacert")
 	ctx, cancel := context.WithTimeout(context.Background(), 5*time.Minute)
 	defer cancel()
-	out, err := exec.CommandContext(ctx, "go", "build", "-o", bin, "lyacert/cmd/lyacert").CombinedOutput()
+	out, err := exec.CommandContext(ctx, "go", "build", "-o", bin, "github.com/lyacert/lyacert/cmd/lyacert").CombinedOutput()
 	if err != nil {
 		t.Fatalf("go build: %v\n%s", err, out)
 	}

@@ -27,7 +27,7 @@ var layers = [][]string{
 	{"cmd/lyacert", "examples/slurm"},
 }
 
-const module = "lyacert"
+const module = "github.com/lyacert/lyacert"
 
 func root(t *testing.T) string {
 	t.Helper()

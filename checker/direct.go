@@ -256,7 +256,7 @@ func (c *run) form(f *LDLForm, g poly.Matrix) (*checkedForm, bool) {
 	if !ok1 || !ok2 || !ok3 || !c.add("gram "+name, claimedG.Equal(g), "the Gram matrix equals the one recomputed from the model") {
 		return cf, false
 	}
-	cf.d, cf.zero = d, make([]bool, n)
+	cf.d, cf.l, cf.zero = d, l, make([]bool, n)
 	unit, zeroCols := true, true
 	for i := range n {
 		cf.zero[i] = d[i].IsZero()
@@ -565,14 +565,16 @@ func (c *run) refutation(cl Claim) bool {
 	if !c.add("refutation", ok1 && ok2 && ok3 && ok4 && vv.Equal(cv) && dv.Equal(cd), "V = %s and V̇ = %s there, exactly", rf.V, rf.Vdot) {
 		return false
 	}
-	// The point differs from the equilibrium for every remaining parameter
-	// value: some coordinate differs from a constant equilibrium coordinate.
-	differs := false
+	// The point differs from the equilibrium, fixed once the stated
+	// parameters are: dir, the direction from it to the point, is not zero.
+	differs, dir := false, maps.Clone(vals)
 	for i := range c.m.States {
 		e, ok := at(c.m.At[i], vals)
-		if ok && e.IsPoly() && e.Num.IsConst() && e.Num.ConstTerm().Cmp(point[i]) != 0 {
-			differs = true
+		if !c.add("refutation", ok && e.IsPoly() && e.Num.IsConst(), "the equilibrium's %s is a constant there", c.m.States[i]) {
+			return false
 		}
+		dir[i] = new(big.Rat).Sub(point[i], e.Num.ConstTerm())
+		differs = differs || dir[i].Sign() != 0
 	}
 	if !c.add("refutation", differs, "the point is not the equilibrium") {
 		return false
@@ -586,11 +588,17 @@ func (c *run) refutation(cl Claim) bool {
 			return false
 		}
 	}
-	neg := vv.Num.Enclose(c.box).Mul(vv.DenSign(c.box))
-	pos := dv.Num.Enclose(c.box).Mul(dv.DenSign(c.box))
-	// V ≤ 0 away from the equilibrium denies that V is positive definite;
-	// V̇ > 0 denies V̇ ≤ 0 near any point, so V proves not even stability.
-	// V̇ = 0 refutes nothing: a semidefinite V̇ may still prove stability.
-	c.refuted = c.add("refutation", neg.NonPositive() || pos.Positive(), "V ≤ 0 or V̇ > 0 there, for every value of the parameters left free")
+	// The failure reaches the equilibrium: along the ray from it through
+	// the point, the lowest-order part of V that does not vanish is < 0 (or
+	// none does: V ≡ 0 on the ray), or that of V̇ is > 0; then V ≤ 0 or V̇ > 0
+	// at points arbitrarily close to the equilibrium, so V proves nothing
+	// there. A failure far from it alone would deny a global claim only, and
+	// V̇ = 0 refutes nothing (a semidefinite V̇ may still prove stability).
+	lv, dv0, ok1 := c.m.Shift(c.v).LowestAlong(c.r.StateMask(), dir)
+	ld, _, ok2 := c.m.Shift(c.vdot).LowestAlong(c.r.StateMask(), dir)
+	nearV := ok1 && (dv0 < 0 || lv.SignOn(c.box).Negative())
+	nearD := ok2 && ld.SignOn(c.box).Positive()
+	c.refuted = c.add("refutation", vv.SignOn(c.box).NonPositive() && nearV || dv.SignOn(c.box).Positive() && nearD,
+		"V ≤ 0 or V̇ > 0 there, and along the ray from the equilibrium the lowest-order part of V (V̇) that does not vanish is < 0 (> 0), for every value of the parameters left free")
 	return c.refuted
 }

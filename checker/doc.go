@@ -23,6 +23,9 @@
 //	                     exact interval enclosure over the parameter box (Moore 1966)
 //	semidefinite-kernel  the kernel of a semidefinite −V̇: independent vectors with
 //	                     G·k = 0, one per zero pivot
+//	invariance           the invariance principle (LaSalle 1960): per state, g(s) =
+//	                     Σ cⱼ·(derivatives of −V̇'s square bases) with the equilibrium
+//	                     g's only real root (Sturm), so {V̇ = 0} holds no other solution
 //	sturm-region         Sturm's theorem: the pieces of one parameter's range where
 //	                     every condition holds, algebraic ends by isolating intervals
 //	paving               set inversion (Jaulin & Walter 1993): every box of the tree
@@ -37,8 +40,10 @@
 // Lyapunov's direct method combines them: V and −V̇ definite as wholes give
 // global asymptotic stability, their quadratic parts local asymptotic
 // stability, a definite V with an exactly quadratic semidefinite −V̇
-// stability; where the conditions hold is what the region claims say, and a
-// failing test turns into "fails" only beside a refutation.
+// stability, asymptotic stability with the invariance claim; where the
+// conditions hold is what the region claims say, each piece holds, fails
+// (refuted by a negative leading minor) or is undecided, and a failing test
+// turns into "fails" only beside a refutation that reaches the equilibrium.
 //
 // Read takes a file only byte for byte as File writes it; the digest (SHA-256
 // of the canonical serialization) is checked last, and a present ed25519

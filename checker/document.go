@@ -11,7 +11,7 @@ import (
 )
 
 // Format is the format version of the certificates this kernel reads.
-const Format = "lyacert-certificate/2"
+const Format = "lyacert-certificate/3"
 
 // MaxDocumentBytes bounds the size of a certificate that Read accepts.
 const MaxDocumentBytes = 64 << 20

@@ -123,10 +123,10 @@ func hostileFiles(t *testing.T) map[string][]byte {
 		"trailing-object.json":           append(honestBytes(t, "cubic.json"), "{}\n"...),
 		"trailing-garbage.json":          append(honestBytes(t, "cubic.json"), "holds\n"...),
 		"trailing-second-doc.json":       append(honestBytes(t, "cubic.json"), honestBytes(t, "unstable.json")...),
-		"format-v1.json":                 replace(t, "cubic.json", "lyacert-certificate/2", "lyacert-certificate/1"),
-		"format-v3.json":                 replace(t, "cubic.json", "lyacert-certificate/2", "lyacert-certificate/3"),
-		"format-missing.json":            replace(t, "cubic.json", "\"format\": \"lyacert-certificate/2\",", ""),
-		"format-number.json":             replace(t, "cubic.json", "\"lyacert-certificate/2\"", "2"),
+		"format-v2.json":                 replace(t, "cubic.json", "lyacert-certificate/3", "lyacert-certificate/2"),
+		"format-v4.json":                 replace(t, "cubic.json", "lyacert-certificate/3", "lyacert-certificate/4"),
+		"format-missing.json":            replace(t, "cubic.json", "\"format\": \"lyacert-certificate/3\",", ""),
+		"format-number.json":             replace(t, "cubic.json", "\"lyacert-certificate/3\"", "2"),
 		"empty.json":                     nil,
 		"null.json":                      []byte("null\n"),
 		"array.json":                     []byte("[]\n"),
@@ -141,7 +141,7 @@ func hostileFiles(t *testing.T) map[string][]byte {
 		"rule-unknown.json":              replace(t, "cubic.json", `"rule": "monomial-gram-ldl"`, `"rule": "sum-of-squares"`),
 		"rule-renamed-case.json":         replace(t, "cubic.json", `"rule": "orbital-derivative"`, `"rule": "Orbital-Derivative"`),
 		"rule-renamed-to-other.json":     replace(t, "cubic.json", `"rule": "quadratic-part-ldl"`, `"rule": "monomial-gram-ldl"`),
-		"rule-renamed-refutation.json":   replace(t, "unstable.json", `"rule": "refutation"`, `"rule": "witness-points"`),
+		"rule-renamed-refutation.json":   replace(t, "coolant.json", `"rule": "refutation"`, `"rule": "witness-points"`),
 
 		// The claims: content a forger re-sealed.
 		"claims-null.json": edit(t, "cubic.json", func(d *checker.Document) { d.Claims = nil }),
@@ -169,21 +169,63 @@ func hostileFiles(t *testing.T) map[string][]byte {
 		"forged-refutation-values.json": edit(t, "cubic.json", func(d *checker.Document) {
 			d.Claims = append(d.Claims, &checker.Refutation{Params: map[string]string{}, Point: map[string]string{"x": "1"}, V: "1", Vdot: "2"})
 		}),
-		"forged-refutation-equilibrium.json": edit(t, "unstable.json", func(d *checker.Document) {
+		"forged-refutation-equilibrium.json": edit(t, "coolant.json", func(d *checker.Document) {
 			rf := claimOf[*checker.Refutation](t, d, 0)
-			rf.Point = map[string]string{"x": "0"}
+			rf.Point = map[string]string{"h": "0", "q": "0", "z": "0"}
 			rf.V, rf.Vdot = "0", "0"
 		}),
-		"forged-refutation-param-outside.json": edit(t, "unstable.json", func(d *checker.Document) {
-			claimOf[*checker.Refutation](t, d, 0).Params = map[string]string{"a": "-1"}
+		"forged-refutation-param-outside.json": edit(t, "coolant.json", func(d *checker.Document) {
+			claimOf[*checker.Refutation](t, d, 0).Params = map[string]string{"k": "-1"}
 		}),
-		"forged-refutation-unknown-state.json": edit(t, "unstable.json", func(d *checker.Document) {
+		"forged-refutation-unknown-state.json": edit(t, "coolant.json", func(d *checker.Document) {
 			claimOf[*checker.Refutation](t, d, 0).Point = map[string]string{"y": "1"}
+		}),
+		// A point where V̇ > 0 far from the equilibrium only: V = x² + y²
+		// for x' = −x, y' = −y³ + y⁵ has V̇ = −2x² − 2y⁴ + 2y⁶, < 0 near the
+		// origin, > 0 at (0, 2); it denies no local claim.
+		"forged-refutation-far.json": edit(t, "local.json", func(d *checker.Document) {
+			d.Model = "state x, y\nx' = -x\ny' = -y^3 + y^5\nV = x^2 + y^2\n"
+			d.Claims = []checker.Claim{
+				&checker.OrbitalDerivative{V: "x^2 + y^2", Vdot: "-2*x^2 - 2*y^4 + 2*y^6"},
+				&checker.Refutation{Params: map[string]string{}, Point: map[string]string{"x": "0", "y": "2"}, V: "4", Vdot: "96"},
+			}
 		}),
 		"forged-region-piece-holds.json": edit(t, "lorenz.json", func(d *checker.Document) {
 			rg := claimOf[*checker.SturmRegion](t, d, 0)
 			rg.Pieces[2].Holds = true
 			rg.Intervals = append(rg.Intervals, rg.Pieces[2].Interval)
+		}),
+		"forged-region-piece-refuted.json": edit(t, "lorenz.json", func(d *checker.Document) {
+			rg := claimOf[*checker.SturmRegion](t, d, 0)
+			for i := range rg.Pieces {
+				if rg.Pieces[i].Status == checker.PieceUndecided {
+					rg.Pieces[i].Status = checker.PieceFails
+				}
+			}
+		}),
+		"forged-region-status-unknown.json": edit(t, "lorenz.json", func(d *checker.Document) {
+			claimOf[*checker.SturmRegion](t, d, 0).Pieces[0].Status = "likely"
+		}),
+		"forged-invariance-cofactor.json": edit(t, "oscillator.json", func(d *checker.Document) {
+			iv := claimOf[*checker.Invariance](t, d, 0)
+			iv.States[0].Cofactors[0] = "2"
+		}),
+		"forged-invariance-other-root.json": edit(t, "oscillator.json", func(d *checker.Document) {
+			// x³ − x has the real roots −1, 0, 1: a solution could sit at x = ±1.
+			iv := claimOf[*checker.Invariance](t, d, 0)
+			iv.States[0].Poly = "x^3 - x"
+		}),
+		"forged-invariance-order.json": edit(t, "oscillator.json", func(d *checker.Document) {
+			claimOf[*checker.Invariance](t, d, 0).Lie[0].Order = 99
+		}),
+		"forged-invariance-zero-pivot.json": edit(t, "oscillator.json", func(d *checker.Document) {
+			claimOf[*checker.Invariance](t, d, 0).Lie[0].Square = 1
+		}),
+		"forged-invariance-line.json": edit(t, "oscillator.json", func(d *checker.Document) {
+			// x' = y, y' = −c·y: every point of the x axis is an equilibrium,
+			// so no identity can exist; the oscillator's claims, V̇ first,
+			// no longer match the model.
+			d.Model = strings.Replace(d.Model, "y' = -k*x - c*y", "y' = -c*y", 1)
 		}),
 		"forged-region-piece-moved.json": edit(t, "lorenz.json", func(d *checker.Document) {
 			rg := claimOf[*checker.SturmRegion](t, d, 0)
@@ -375,8 +417,8 @@ func generatedCertificates(t *testing.T) []hostileInput {
 		return sealed(t, d)
 	}
 	deep := 1000000
-	head := `{"format":"lyacert-certificate/2","tool":`
-	rows := `{"format":"lyacert-certificate/2","claims":[{"rule":"quadratic-part-ldl","of":"V","gram":[`
+	head := `{"format":"lyacert-certificate/3","tool":`
+	rows := `{"format":"lyacert-certificate/3","claims":[{"rule":"quadratic-part-ldl","of":"V","gram":[`
 	row := "[" + strings.TrimSuffix(strings.Repeat(`"0",`, 10000), ",") + "],"
 	_ = cubic
 	return []hostileInput{

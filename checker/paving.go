@@ -207,7 +207,7 @@ func (c *run) paving(cl Claim) bool {
 					conds = append(conds, u)
 				}
 			}
-			holds, fails, ok := c.regionPieces(f, v, conds, sides[k])
+			holds, fails, _, ok := c.regionPieces(f, v, conds, sides[k])
 			if !ok {
 				return false
 			}

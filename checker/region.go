@@ -35,11 +35,23 @@ type Interval struct {
 	HiIsolating *[2]string `json:"hi_isolating,omitempty"`
 }
 
-// Piece is one interval of the partition of a parameter's range.
+// Piece is one interval of the partition of a parameter's range. Status
+// is "holds" (every condition > 0 throughout; Holds), "fails" (the
+// candidate is refuted throughout: a quadratic part takes negative values,
+// see regionPieces) or "undecided" (some condition ≤ 0 throughout, and no
+// refutation).
 type Piece struct {
 	Interval
-	Holds bool `json:"holds"`
+	Holds  bool   `json:"holds"`
+	Status string `json:"status"`
 }
+
+// Statuses of a piece.
+const (
+	PieceHolds     = "holds"
+	PieceFails     = "fails"
+	PieceUndecided = "undecided"
+)
 
 // readEnd reads one end of a piece: ±inf, a rational, or an algebraic
 // number (Sturm: exactly one root of its polynomial in the isolating
@@ -113,8 +125,9 @@ func (c *run) sturmRegion(cl Claim) bool {
 		u, _ := q.Num.Univariate(pi)
 		conds = append(conds, u)
 	}
-	holds, fails, ok := c.regionPieces(rg, pi, conds, c.box[pi])
-	c.region = &regionFacts{used, holds, fails, !fails, !holds}
+	holds, fails, refuted, ok := c.regionPieces(rg, pi, conds, c.box[pi])
+	c.region = &regionFacts{used, holds, fails, !fails, refuted}
+	c.refuted = c.refuted || refuted
 	c.seen["sturm-region"] = true
 	return ok
 }
@@ -123,10 +136,20 @@ func (c *run) sturmRegion(cl Claim) bool {
 // parameter with index pi), that every condition is > 0 throughout each
 // holding piece and some condition is ≤ 0 throughout each other piece
 // (Sturm), and that Intervals lists the holding pieces. It reports whether
-// some piece holds and whether some piece fails.
-func (c *run) regionPieces(rg *SturmRegion, pi int, conds []poly.Univariate, dom poly.Interval) (anyHolds, anyFails, ok bool) {
+// some piece holds, whether some piece does not, and whether every piece
+// is refuted.
+//
+// A piece is refuted when the quadratic part of V or −V̇ has a negative
+// direction at every parameter value in it: the first of its leading
+// principal minors that is not > 0 throughout is < 0 throughout (Jacobi:
+// with Δ₁ … Δₖ₋₁ > 0 and Δₖ < 0 the leading k×k block has a negative
+// eigenvalue). Along that direction v, V(t·v) < 0 or V̇(t·v) > 0 for every
+// small t ≠ 0, whatever the higher-order terms: the candidate fails
+// arbitrarily close to the equilibrium. A Gram matrix in a monomial basis
+// is not unique, so only quadratic parts count.
+func (c *run) regionPieces(rg *SturmRegion, pi int, conds []poly.Univariate, dom poly.Interval) (anyHolds, anyFails, allRefuted, ok bool) {
 	if !c.add("region", len(rg.Pieces) > 0, "the pieces partition the range %s of %s", dom, rg.Param) {
-		return false, false, false
+		return false, false, false, false
 	}
 	var pieces []poly.Span
 	for i, p := range rg.Pieces {
@@ -135,7 +158,7 @@ func (c *run) regionPieces(rg *SturmRegion, pi int, conds []poly.Univariate, dom
 		hi, ok2 := c.readEnd(p.Hi, p.HiPoly, p.HiIsolating, p.HiClosed, pi, what+" upper")
 		sp := poly.Span{Lo: lo, Hi: hi}
 		if !ok1 || !ok2 || !c.add("region", sp.Point() || poly.Less(lo, hi), "%s is a non-empty interval", what) {
-			return false, false, false
+			return false, false, false, false
 		}
 		pieces = append(pieces, sp)
 	}
@@ -145,34 +168,48 @@ func (c *run) regionPieces(rg *SturmRegion, pi int, conds []poly.Univariate, dom
 	first, last := pieces[0].Lo, pieces[len(pieces)-1].Hi
 	if !c.add("region", first.Matches(dom.Lo), "the first piece starts at the lower end of the range %s", dom) ||
 		!c.add("region", last.Matches(dom.Hi), "the last piece ends at the upper end of the range %s", dom) {
-		return false, false, false
+		return false, false, false, false
 	}
 	for i := 1; i < len(pieces); i++ {
 		a, b := pieces[i-1].Hi, pieces[i].Lo
 		if !c.add("region", a.Same(b) && a.Closed != b.Closed, "pieces %d and %d meet, their common end in exactly one", i, i+1) {
-			return false, false, false
+			return false, false, false, false
 		}
 	}
 	// Each piece: all conditions > 0 on it, or one condition ≤ 0 on all of it.
 	signs, known := poly.Tiling(pieces).Signs(conds)
 	if !c.add("region", !slices.Contains(known, false), "every real root of every condition in the range is an end of a piece (Sturm)") {
-		return false, false, false
+		return false, false, false, false
+	}
+	refuted := make([]bool, len(pieces))
+	for _, of := range []string{"V", "-Vdot"} {
+		if f := c.forms[of]; f != nil && !f.basis {
+			for i, neg := range poly.Tiling(pieces).Indefinite(f.minors, pi) {
+				refuted[i] = refuted[i] || neg
+			}
+		}
 	}
 	var holdsText []Interval
-	for i := range pieces {
+	allRefuted = true
+	for i, p := range rg.Pieces {
 		pos := slices.IndexFunc(signs, func(s poly.Signs) bool { return !s.Positive[i] })
-		if rg.Pieces[i].Holds {
+		allRefuted = allRefuted && p.Status == PieceFails
+		if !c.add("region", p.Holds == (p.Status == PieceHolds) && (p.Status != PieceFails || refuted[i]) && slices.Contains([]string{PieceHolds, PieceFails, PieceUndecided}, p.Status),
+			"piece %d: status %q agrees with holds = %v (fails only where a leading minor is negative: %v)", i+1, p.Status, p.Holds, refuted[i]) {
+			return false, false, false, false
+		}
+		if p.Holds {
 			anyHolds = true
-			holdsText = append(holdsText, rg.Pieces[i].Interval)
+			holdsText = append(holdsText, p.Interval)
 			if !c.add("region", pos < 0, "piece %d: every condition is > 0 throughout", i+1) {
-				return false, false, false
+				return false, false, false, false
 			}
 		} else if anyFails = true; !c.add("region", slices.ContainsFunc(signs, func(s poly.Signs) bool { return s.NonPositive[i] }), "piece %d: some condition is ≤ 0 throughout", i+1) {
-			return false, false, false
+			return false, false, false, false
 		}
 	}
 	if !c.add("region", slices.EqualFunc(holdsText, rg.Intervals, func(x, y Interval) bool { return reflect.DeepEqual(x, y) }), "the listed intervals are the holding pieces") {
-		return false, false, false
+		return false, false, false, false
 	}
-	return anyHolds, anyFails, true
+	return anyHolds, anyFails, allRefuted, true
 }

@@ -61,6 +61,7 @@ var rules = []rule{
 	{"monomial-gram-ldl", 1, func() Claim { return new(MonomialGram) }, (*run).monomialGram},
 	{"minor-condition", 2, func() Claim { return new(MinorCondition) }, (*run).minorCondition},
 	{"semidefinite-kernel", 3, func() Claim { return new(NullSpace) }, (*run).nullSpace},
+	{"invariance", 3, func() Claim { return new(Invariance) }, (*run).invariance},
 	{"sturm-region", 4, func() Claim { return new(SturmRegion) }, (*run).sturmRegion},
 	{"paving", 4, func() Claim { return new(Paving) }, (*run).paving},
 	{"witness-points", 4, func() Claim { return new(WitnessPoints) }, (*run).witnessPoints},
@@ -120,6 +121,7 @@ type run struct {
 	region      *regionFacts   // what a one-parameter region or a paving showed
 	witness     *[2]bool       // witness points: the conditions hold at one, fail at one
 	hasKernel   bool
+	invariant   bool // the largest invariant set in {V̇ = 0} is the equilibrium
 	refuted     bool
 	equilibrium []poly.Interval // a box (or point) established by krawczyk-enclosure
 	linear      string          // the kind a linearization gave
@@ -133,7 +135,7 @@ type slot struct {
 }
 
 type checkedForm struct {
-	g       poly.Matrix
+	g, l    poly.Matrix
 	d       []poly.RatFunc
 	zero    []bool // identically zero pivots
 	minors  []poly.RatFunc
@@ -289,6 +291,14 @@ func (c *run) conclude() (verdict, kind string) {
 	}
 	needKernel := kind == KindStable
 	c.add("claims", c.hasKernel == needKernel, "a kernel of −V̇ exactly when stability rests on a semidefinite V̇ (%v)", needKernel)
+	switch {
+	case !c.invariant:
+	case !c.add("claims", needKernel, "the invariance principle only where V̇ is semidefinite"):
+	case !c.higherV || fv.basis: // V radially unbounded: every solution bounded
+		kind = KindGlobal
+	default: // small sublevel sets of V are compact and positively invariant
+		kind = KindLocal
+	}
 	return verdict, kind
 }
 

@@ -41,3 +41,36 @@ func (f RatFunc) DenSign(box []Interval) Interval {
 	}
 	return Entire()
 }
+
+// SignOn returns an interval that holds the sign of f on the box where f is
+// defined: the numerator's exact enclosure times DenSign.
+func (f RatFunc) SignOn(box []Interval) Interval {
+	return f.Num.Enclose(box).Mul(f.DenSign(box))
+}
+
+// LowestAlong is f's behaviour along a ray out of the origin of the
+// variables selected by in: with those variables set to the direction v
+// and the other variables of vals substituted, it returns h_d(v) for the
+// least d such that the part h_d of f homogeneous of degree d in the
+// selected variables does not vanish at v, and d; the zero function and −1
+// when every part vanishes there (f(t·v) ≡ 0). Since f(t·v) = Σ tᵈ·h_d(v),
+// for small t > 0 f(t·v) has the sign of h_d(v). The denominator of f must
+// be free of the selected variables; ok is false otherwise, or when it
+// vanishes at vals.
+func (f RatFunc) LowestAlong(in []bool, vals map[int]*big.Rat) (h RatFunc, d int, ok bool) {
+	for _, df := range f.Den {
+		if df.P.DegreeIn(in) > 0 {
+			return RatFunc{}, 0, false
+		}
+	}
+	for d := range f.DegreeIn(in) + 1 {
+		hv, err := f.Homogeneous(d, in).EvalVars(vals)
+		if err != nil {
+			return RatFunc{}, 0, false
+		}
+		if !hv.IsZero() {
+			return hv, d, true
+		}
+	}
+	return FromPoly(Zero(f.Ring())), -1, true
+}

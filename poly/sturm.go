@@ -1,6 +1,9 @@
 package poly
 
-import "math/big"
+import (
+	"math/big"
+	"slices"
+)
 
 // Sturm is the Sturm sequence of the square-free part of a non-zero
 // polynomial P, built once: every later count of distinct real roots in an
@@ -84,6 +87,7 @@ type Tiling []Span
 type Signs struct {
 	Positive    []bool // q > 0 at every point of the span
 	NonPositive []bool // q ≤ 0 at every point of the span
+	Negative    []bool // q < 0 at every point of the span
 }
 
 // Signs decides the sign of every polynomial of qs on every span of t,
@@ -141,7 +145,7 @@ func (t Tiling) Signs(qs []Univariate) (out []Signs, ok []bool) {
 	out = make([]Signs, len(qs))
 	ok = make([]bool, len(qs))
 	for j, q := range qs {
-		out[j] = Signs{make([]bool, len(t)), make([]bool, len(t))}
+		out[j] = Signs{make([]bool, len(t)), make([]bool, len(t)), make([]bool, len(t))}
 		if q.IsZero() {
 			ok[j] = true
 			for i := range t {
@@ -182,6 +186,7 @@ func (t Tiling) Signs(qs []Univariate) (out []Signs, ok []bool) {
 			closedZero := (s.Lo.Closed && s.Lo.Inf == 0 && zero[k]) || (s.Hi.Closed && s.Hi.Inf == 0 && zero[k+boolInt(!point[i])])
 			out[j].Positive[i] = sign == 1 && !closedZero
 			out[j].NonPositive[i] = sign == 0 || sign == -1
+			out[j].Negative[i] = sign == -1 && !closedZero
 		}
 	}
 	return out, ok
@@ -260,4 +265,32 @@ func CoprimeBasis(ps []Univariate) []Univariate {
 		basis = next
 	}
 	return basis
+}
+
+// Indefinite tells, for each span, that a symmetric matrix with the leading
+// principal minors ms (rational functions; those that involve variable v
+// only are read, up to the first that does not) has a negative direction
+// at every point of the span: its first leading minor that is not > 0
+// throughout is < 0 throughout. Jacobi: with Δ₁ … Δₖ₋₁ > 0 and Δₖ < 0 the
+// leading k×k block has exactly one negative eigenvalue. A span is false
+// when the signs cannot be told.
+func (t Tiling) Indefinite(ms []RatFunc, v int) []bool {
+	var us []Univariate
+	for _, mi := range ms {
+		u, ok := new(Poly).Mul(mi.Num, mi.DenPoly()).Univariate(v) // the sign of mi
+		if !ok {
+			break
+		}
+		us = append(us, u)
+	}
+	out := make([]bool, len(t))
+	signs, known := t.Signs(us)
+	if slices.Contains(known, false) {
+		return out
+	}
+	for i := range t {
+		k := slices.IndexFunc(signs, func(s Signs) bool { return !s.Positive[i] })
+		out[i] = k >= 0 && signs[k].Negative[i]
+	}
+	return out
 }

@@ -1073,3 +1073,12 @@ func uFormatDigits(sign int, n *big.Int, e, digits int) string {
 	}
 	return sb.String()
 }
+
+// OnlyRealRoot reports that x is a root of p and p has no other real root
+// (Sturm's theorem counts the distinct real roots on the whole line).
+func (p Univariate) OnlyRealRoot(x *big.Rat) bool {
+	if p.IsZero() || p.Sign(x) != 0 {
+		return false
+	}
+	return NewSturm(p).Count(UBound{Inf: -1}, UBound{Inf: 1}) == 1
+}

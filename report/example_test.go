@@ -53,7 +53,7 @@ func ExampleRender() {
 	// valid: true
 	// verdict: holds-on-region
 	// # Lyapunov certificate: gain.lya
-	// **Verdict: holds on part of the range.** Holds on part of the range: the equilibrium is globally asymptotically stable for $a \in (\frac{1}{4}, 1)$; the argument fails for the other allowed values.
+	// **Verdict: holds on part of the range.** Holds on part of the range: the equilibrium is globally asymptotically stable for $a \in (\frac{1}{4}, 1)$; elsewhere the candidate is refuted or the test is undecided (see the pieces of the region).
 }
 
 // The terminal text of a check; here only its conditions and verdict
@@ -86,13 +86,13 @@ func ExampleCheckText() {
 	//   −V̇ Δ2 > 0 requires a > 1/4
 	//
 	// Region of a (exact)
-	//   fails    a ∈ (0, 1/4)
-	//   fails    a ∈ {1/4}
-	//   holds    a ∈ (1/4, 1)
+	//   fails     a ∈ (0, 1/4)
+	//   undecided a ∈ {1/4}
+	//   holds     a ∈ (1/4, 1)
 	//
-	// Verdict: holds on part of the range: the equilibrium is globally asymptotically stable for a in (1/4, 1), and the argument fails elsewhere.
+	// Verdict: holds on part of the range: the equilibrium is globally asymptotically stable for a in (1/4, 1), and elsewhere the candidate is refuted or the test is undecided (see the pieces of the region).
 	// Refutation (exact) with a = 1/8: at x = 1/2, y = 1, V = 5/4 and V̇ = 1/4.
-	// Note: at a = 1/4 a condition is exactly zero: a form is only semidefinite there and the test above is inconclusive; run with --set a=1/4.
+	// Note: at a = 1/4 a condition is exactly zero: a form is only semidefinite there and the quadratic test is inconclusive; run with --set a=1/4 for the tests of the whole functions.
 	// Method: V: quadratic part, exact LDLᵀ, basis 2; −V̇: quadratic part, exact LDLᵀ, basis 2.
 }
 

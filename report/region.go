@@ -89,9 +89,8 @@ func (b *builder) region(rg checker.SturmRegion) (*regionView, error) {
 		}
 		point := pc.Lo == pc.Hi && pc.LoPoly == pc.HiPoly && pc.LoClosed && pc.HiClosed
 		iv := interval{lo: lo, hi: hi, loClosed: pc.LoClosed, hiClosed: pc.HiClosed, point: point}
-		word := "fails"
+		word := pieceWord(pc)
 		if pc.Holds {
-			word = "holds"
 			holds = append(holds, iv)
 		}
 		rv.Pieces = append(rv.Pieces, pieceView{pc.Holds, rich{word + " for ", relation{rv.Param, symIn, iv}}})

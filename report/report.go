@@ -685,7 +685,11 @@ func (b *builder) verdict(p *page) {
 			if p.Product {
 				v.Text = append(v.Text, " within the paved box")
 			}
-			v.Text = append(v.Text, "; the argument fails for the other allowed values.")
+			rest := "the argument fails for the other allowed values"
+			if len(p.Regions) == 1 && !p.Product && d.Region != nil {
+				rest = elsewhere(d.Region.Pieces)
+			}
+			v.Text = append(v.Text, "; "+rest+".")
 		case p.Paving != nil:
 			v.Text = append(v.Text, " on the boxes of the paving where every condition holds; see the paving below.")
 		default:

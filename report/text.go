@@ -322,6 +322,40 @@ func rootLines(lines []string, indent string, iv checker.Interval) []string {
 	return lines
 }
 
+// elsewhere says what the pieces of a one-parameter region that do not hold
+// are: refuted (the candidate fails there), undecided, or some of each.
+func elsewhere(pieces []checker.Piece) string {
+	fails, undecided := false, false
+	for _, p := range pieces {
+		fails = fails || pieceWord(p) == checker.PieceFails
+		undecided = undecided || pieceWord(p) == checker.PieceUndecided
+	}
+	switch {
+	case fails && undecided:
+		return "elsewhere the candidate is refuted or the test is undecided (see the pieces of the region)"
+	case fails:
+		return "the candidate is refuted everywhere else"
+	}
+	return "the test is undecided elsewhere"
+}
+
+// maxOrder is the highest order of derivative the invariance identities use.
+func maxOrder(iv *checker.Invariance) int {
+	k := 0
+	for _, t := range iv.Lie {
+		k = max(k, t.Order)
+	}
+	return k
+}
+
+// pieceWord is a piece's status: holds, fails (refuted) or undecided.
+func pieceWord(p checker.Piece) string {
+	if p.Status == "" { // a region written before pieces had a status
+		return map[bool]string{true: checker.PieceHolds, false: checker.PieceUndecided}[p.Holds]
+	}
+	return p.Status
+}
+
 func verdictText(w io.Writer, res *direct.Result) {
 	claim := textClaims[res.Claim]
 	if res.Region != nil && res.Region.Paving != nil {
@@ -330,11 +364,7 @@ func verdictText(w io.Writer, res *direct.Result) {
 		fmt.Fprintf(w, "Region of %s (exact)\n", res.Region.Param)
 		var isol []string
 		for _, p := range res.Region.Pieces {
-			state := "fails"
-			if p.Holds {
-				state = "holds"
-			}
-			fmt.Fprintf(w, "  %-8s %s %s\n", state, res.Region.Param+" ∈", intervalText(p.Interval))
+			fmt.Fprintf(w, "  %-9s %s %s\n", pieceWord(p), res.Region.Param+" ∈", intervalText(p.Interval))
 			isol = rootLines(isol, "  ", p.Interval)
 		}
 		for _, s := range isol {
@@ -360,7 +390,11 @@ func verdictText(w io.Writer, res *direct.Result) {
 			}
 			where = fmt.Sprintf("for %s in %s", res.Region.Param, strings.Join(ivs, " ∪ "))
 		}
-		fmt.Fprintf(w, "Verdict: holds on part of the range: %s %s, and the argument fails elsewhere.\n", claim, where)
+		rest := "the argument fails elsewhere"
+		if res.Region != nil && res.Region.Paving == nil {
+			rest = elsewhere(res.Region.Pieces)
+		}
+		fmt.Fprintf(w, "Verdict: holds on part of the range: %s %s, and %s.\n", claim, where, rest)
 		if res.Region == nil {
 			for _, wt := range res.Witnesses {
 				fmt.Fprintf(w, "  conditions %s at %s\n", map[bool]string{true: "hold", false: "fail"}[wt.Holds], paramsText(wt.Params))
@@ -381,7 +415,17 @@ func verdictText(w io.Writer, res *direct.Result) {
 			eqs = append(eqs, f.SquareBase(k).String()+" = 0")
 		}
 		fmt.Fprintf(w, "  %s = 0 exactly where %s (states measured from the equilibrium).\n", dotName(res.Model), strings.Join(eqs, ", "))
-		fmt.Fprintln(w, "  Asymptotic stability would need more (for example the invariance principle).")
+		if iv := res.Invariance; iv != nil {
+			var gs []string
+			for _, v := range iv.States {
+				gs = append(gs, v.Poly)
+			}
+			fmt.Fprintf(w, "  Invariance principle (LaSalle): on a solution that stays there, these and their derivatives\n")
+			fmt.Fprintf(w, "  along the flow up to order %d vanish, hence so do %s (exact combinations of them),\n", maxOrder(iv), strings.Join(gs, ", "))
+			fmt.Fprintln(w, "  whose only real roots are the equilibrium: no other solution stays where V̇ = 0.")
+		} else {
+			fmt.Fprintln(w, "  Asymptotic stability would need more (for example the invariance principle).")
+		}
 	}
 }
 

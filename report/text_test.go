@@ -67,7 +67,7 @@ func TestPercent(t *testing.T) {
 // digest is SHA-256 of the canonical serialization: common practice for
 // telling a changed file from a wrong one).
 func TestVerifyTextInvalidNotAltered(t *testing.T) {
-	doc := &checker.Document{Format: "lyacert-certificate/2"}
+	doc := &checker.Document{Format: "lyacert-certificate/3"}
 	d, err := doc.ComputeDigest()
 	if err != nil {
 		t.Fatal(err)

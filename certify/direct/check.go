@@ -91,6 +91,7 @@ type Result struct {
 	Witnesses  []checker.Witness
 	Refutation *checker.Refutation
 	Kernel     [][]poly.RatFunc
+	Invariance *checker.Invariance // the invariance principle's identities, when found
 	Doc        *checker.Document
 	Check      checker.Outcome
 	// Paving is the engine's paving of a region in several parameters
@@ -202,10 +203,19 @@ func runCheck(ctx context.Context, m *model.Model, source string, opts PaveOptio
 	}
 	if res.Claim == checker.KindStable && (res.Verdict == checker.VerdictHolds || res.Verdict == checker.VerdictOnRegion) {
 		res.Kernel = fd.LDL.Kernel()
+		// The invariance principle: V̇ ≤ 0 everywhere (exactly quadratic),
+		// and no solution but the equilibrium stays where V̇ = 0.
+		if res.Invariance = res.invariance(); res.Invariance != nil {
+			res.Claim = checker.KindLocal
+			if res.HigherV.IsZero() {
+				res.Claim = checker.KindGlobal
+			}
+		}
 	}
-	if res.Verdict == checker.VerdictFails || res.Verdict == checker.VerdictOnRegion {
+	// A region refuted piece by piece needs no point besides.
+	if (res.Verdict == checker.VerdictFails || res.Verdict == checker.VerdictOnRegion) && !res.Region.refuted() {
 		res.Refutation = refuteAnywhere(m, res)
-		if res.Verdict == checker.VerdictFails && res.Refutation == nil {
+		if res.Verdict == checker.VerdictFails && res.Refutation == nil && !res.Region.refuted() {
 			res.Verdict = checker.VerdictUndecided
 			res.Reason += "; no exact refutation point was found"
 			res.Region = nil
@@ -223,6 +233,19 @@ func runCheck(ctx context.Context, m *model.Model, source string, opts PaveOptio
 		res = up
 	}
 	return finish(ctx, res, source)
+}
+
+// refuted reports a one-parameter region every piece of which is refuted.
+func (rg *Region) refuted() bool {
+	if rg == nil || rg.Paving != nil || len(rg.Pieces) == 0 {
+		return false
+	}
+	for _, pc := range rg.Pieces {
+		if pc.Status != checker.PieceFails {
+			return false
+		}
+	}
+	return true
 }
 
 func formWord(name string) string {
@@ -346,24 +369,29 @@ func (res *Result) regionFor(name string) {
 		conds = append(conds, u)
 	}
 	pieces := OneParamRegion(m.Ring, i, conds, p.Range)
+	refuteOn(pieces, res.Forms, i)
 	res.Region = &Region{Param: name, Intervals: Intervals(pieces), Pieces: pieces}
-	holds, fails := false, false
+	holds, fails, refuted := false, false, true
 	for _, pc := range pieces {
 		holds = holds || pc.Holds
 		fails = fails || !pc.Holds
+		refuted = refuted && pc.Status == checker.PieceFails
 	}
 	for _, pc := range pieces {
-		if !pc.Holds && pc.Lo == pc.Hi && pc.LoPoly == "" && pc.LoClosed && pc.HiClosed {
-			res.Notes = append(res.Notes, fmt.Sprintf("at %s = %s a condition is exactly zero: a form is only semidefinite there and the test above is inconclusive; run with --set %s=%s", name, pc.Lo, name, pc.Lo))
+		if pc.Status == checker.PieceUndecided && pc.Lo == pc.Hi && pc.LoPoly == "" && pc.LoClosed && pc.HiClosed {
+			res.Notes = append(res.Notes, fmt.Sprintf("at %s = %s a condition is exactly zero: a form is only semidefinite there and the quadratic test is inconclusive; run with --set %s=%s for the tests of the whole functions", name, pc.Lo, name, pc.Lo))
 		}
 	}
 	switch {
 	case !fails:
 		res.Verdict = checker.VerdictHolds
 		res.Reason = fmt.Sprintf("the conditions hold for every allowed %s", name)
-	case !holds:
+	case refuted:
 		res.Verdict = checker.VerdictFails
-		res.Reason = fmt.Sprintf("the conditions fail for every allowed %s", name)
+		res.Reason = fmt.Sprintf("a quadratic part has a negative direction for every allowed %s", name)
+	case !holds:
+		res.Verdict = checker.VerdictUndecided
+		res.Reason = fmt.Sprintf("the conditions fail for every allowed %s, but not every piece is refuted", name)
 	default:
 		res.Verdict = checker.VerdictOnRegion
 		res.Reason = fmt.Sprintf("the conditions hold only on part of the range of %s", name)
@@ -645,13 +673,56 @@ func alongRay(m *model.Model, res *Result, vals map[string]string, params []*big
 			}
 			// V ≤ 0, or V̇ > 0 strictly: V̇ = 0 at a point refutes nothing
 			// (a semidefinite V̇ may still prove stability).
-			if vv.Sign() <= 0 || dv.Sign() > 0 {
+			if (vv.Sign() <= 0 || dv.Sign() > 0) && failsNear(m, res, x, vv.Sign() <= 0, dv.Sign() > 0) {
 				return minimalRefutation(m, res, vals, x)
 			}
 		}
 		t.Quo(t, big.NewRat(2, 1))
 	}
 	return nil
+}
+
+// failsNear reports that the failure at the point x (all variables given)
+// reaches the equilibrium, as the kernel's refutation rule requires: along
+// the ray from the equilibrium through x, the lowest-order part of V that
+// does not vanish is negative (or none does), when badV, or that of V̇ is
+// positive, when badD. A point where V or V̇ has the wrong sign only far
+// from the equilibrium does not refute a local claim.
+func failsNear(m *model.Model, res *Result, x []*big.Rat, badV, badD bool) bool {
+	n := len(m.States)
+	dir := map[int]*big.Rat{}
+	for i := n; i < len(x); i++ {
+		dir[i] = x[i]
+	}
+	for i := range n {
+		e, err := m.At[i].Eval(x)
+		if err != nil {
+			return false
+		}
+		dir[i] = new(big.Rat).Sub(x[i], e)
+	}
+	states := m.Ring.StateMask()
+	if badV {
+		h, d, ok := m.Shift(res.V).LowestAlong(states, dir)
+		if ok && (d < 0 || h.Num.ConstTerm().Sign()*denSign(h) < 0) {
+			return true
+		}
+	}
+	if badD {
+		h, d, ok := m.Shift(res.Vdot).LowestAlong(states, dir)
+		if ok && d >= 0 && h.Num.ConstTerm().Sign()*denSign(h) > 0 {
+			return true
+		}
+	}
+	return false
+}
+
+// denSign is the sign of a constant rational function's denominator.
+func denSign(h poly.RatFunc) int {
+	if h.IsPoly() {
+		return 1
+	}
+	return h.DenPoly().ConstTerm().Sign()
 }
 
 // refuteLinear finds a point near the equilibrium where V < 0, moving
@@ -768,6 +839,9 @@ func (res *Result) document(source string) *checker.Document {
 		}
 		add(ns)
 	}
+	if res.Invariance != nil {
+		add(res.Invariance)
+	}
 	switch rg := res.Region; {
 	case rg != nil && rg.Paving != nil:
 		add(rg.Paving)
@@ -806,6 +880,26 @@ func minimalRefutation(m *model.Model, res *Result, vals map[string]string, x []
 		}
 		return g
 	}
+	// The lowest-order parts along the ray from the equilibrium, which the
+	// kernel's refutation rule reads, must not depend on a dropped
+	// parameter either.
+	dir := map[int]*big.Rat{}
+	for i := range n {
+		e, err := m.At[i].Eval(x)
+		if err != nil {
+			panic(err) // the point was evaluated before
+		}
+		dir[i] = new(big.Rat).Sub(x[i], e)
+	}
+	vx, _ := res.V.Eval(x)
+	dx, _ := res.Vdot.Eval(x)
+	badV, badD := vx.Sign() <= 0, dx.Sign() > 0
+	lowest := func(f poly.RatFunc, params map[int]*big.Rat) poly.RatFunc {
+		all := maps.Clone(params)
+		maps.Copy(all, dir)
+		h, _, _ := m.Shift(f).LowestAlong(r.StateMask(), all)
+		return h
+	}
 	for _, i := range slices.Sorted(maps.Keys(keep)) {
 		rest := maps.Clone(keep)
 		delete(rest, i)
@@ -816,7 +910,7 @@ func minimalRefutation(m *model.Model, res *Result, vals map[string]string, x []
 				eqUses = true
 			}
 		}
-		if !eqUses && !at(res.V, rest).UsesVar(i) && !at(res.Vdot, rest).UsesVar(i) {
+		if !eqUses && !at(res.V, rest).UsesVar(i) && !at(res.Vdot, rest).UsesVar(i) && (!badV || !lowest(res.V, rest).UsesVar(i)) && (!badD || !lowest(res.Vdot, rest).UsesVar(i)) {
 			keep = rest
 		}
 	}

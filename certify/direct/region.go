@@ -87,8 +87,67 @@ func OneParamRegion(r *poly.Ring, param int, conds []poly.Univariate, dom poly.I
 	// condition, so it fails).
 	for i := range pieces {
 		pieces[i].Holds = holdsOn(conds, pieces[i].Interval)
+		pieces[i].Status = checker.PieceUndecided
+		if pieces[i].Holds {
+			pieces[i].Status = checker.PieceHolds
+		}
 	}
 	return pieces
+}
+
+// refuteOn marks as failing the pieces that do not hold and on which the
+// quadratic part of V or −V̇ has a negative direction throughout, as the
+// kernel's sturm-region rule decides it: the first leading minor that is
+// not > 0 is < 0 (Jacobi). Between breakpoints a minor keeps its sign (its
+// roots in the range are roots of the conditions), so an interior sample
+// decides an open piece; a closed rational end is checked too; a piece with
+// a closed irrational end, or an irrational point, stays undecided.
+func refuteOn(pieces []checker.Piece, forms []Form, param int) {
+	var minors [][]poly.Univariate
+	for _, f := range forms {
+		if f.Basis != nil {
+			continue
+		}
+		var us []poly.Univariate // the leading minors that involve the parameter only
+		for _, mi := range f.Minors {
+			u, ok := new(poly.Poly).Mul(mi.Num, mi.DenPoly()).Univariate(param)
+			if !ok {
+				break
+			}
+			us = append(us, u)
+		}
+		minors = append(minors, us)
+	}
+	negativeAt := func(x *big.Rat) bool {
+		return slices.ContainsFunc(minors, func(us []poly.Univariate) bool {
+			k := slices.IndexFunc(us, func(u poly.Univariate) bool { return u.IsZero() || u.Sign(x) <= 0 })
+			return k >= 0 && !us[k].IsZero() && us[k].Sign(x) < 0
+		})
+	}
+	for i, pc := range pieces {
+		if pc.Holds {
+			continue
+		}
+		var at []*big.Rat
+		point := pc.Lo == pc.Hi && pc.LoPoly == pc.HiPoly && pc.LoClosed && pc.HiClosed
+		if !point {
+			at = append(at, samplePoint(pc.Interval))
+		}
+		ok := true
+		for _, e := range []struct {
+			v, poly string
+			closed  bool
+		}{{pc.Lo, pc.LoPoly, pc.LoClosed}, {pc.Hi, pc.HiPoly, pc.HiClosed}} {
+			if e.closed {
+				x, isRat := new(big.Rat).SetString(e.v)
+				ok = ok && e.poly == "" && isRat
+				at = append(at, x)
+			}
+		}
+		if ok && !slices.ContainsFunc(at, func(x *big.Rat) bool { return !negativeAt(x) }) {
+			pieces[i].Status = checker.PieceFails
+		}
+	}
 }
 
 type pend struct {

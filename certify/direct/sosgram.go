@@ -184,7 +184,7 @@ func (res *Result) refutePoints() bool {
 			}
 			v, err1 := res.V.Eval(x)
 			d, err2 := res.Vdot.Eval(x)
-			if err1 == nil && err2 == nil && (v.Sign() < 0 || d.Sign() > 0) {
+			if err1 == nil && err2 == nil && (v.Sign() < 0 || d.Sign() > 0) && failsNear(m, res, x, v.Sign() < 0, d.Sign() > 0) {
 				found = d
 				return true
 			}

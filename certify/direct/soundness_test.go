@@ -156,6 +156,58 @@ func inverse(a ratMat) (ratMat, bool) {
 	return inv, true
 }
 
+// observable reports that rank [Q; QA; …; QAⁿ⁻¹] = n, by exact elimination.
+func observable(q, a ratMat) bool {
+	n := len(q)
+	var rows [][]*big.Rat
+	blk := q
+	for range n {
+		for _, r := range blk {
+			rows = append(rows, r)
+		}
+		next := newMat(n)
+		for i := range n {
+			for j := range n {
+				for l := range n {
+					next[i][j].Add(next[i][j], new(big.Rat).Mul(blk[i][l], a[l][j]))
+				}
+			}
+		}
+		blk = next
+	}
+	rank := 0
+	w := make([][]*big.Rat, len(rows))
+	for i, r := range rows {
+		w[i] = make([]*big.Rat, n)
+		for j := range n {
+			w[i][j] = new(big.Rat).Set(r[j])
+		}
+	}
+	for c := 0; c < n && rank < len(w); c++ {
+		p := -1
+		for i := rank; i < len(w); i++ {
+			if w[i][c].Sign() != 0 {
+				p = i
+				break
+			}
+		}
+		if p < 0 {
+			continue
+		}
+		w[rank], w[p] = w[p], w[rank]
+		for i := range w {
+			if i != rank && w[i][c].Sign() != 0 {
+				f := new(big.Rat).Quo(w[i][c], w[rank][c])
+				for j := range n {
+					w[i][j].Sub(w[i][j], new(big.Rat).Mul(f, w[rank][j]))
+				}
+			}
+		}
+		rank++
+	}
+	return rank == n
+}
+
 // linearCase plants x' = Ax, V = xᵀPx with PA = −(Q + S).
 func linearCase(r *rand.Rand, k int) plantedCase {
 	n := 1 + r.IntN(3)
@@ -226,6 +278,13 @@ func linearCase(r *rand.Rand, k int) plantedCase {
 				a[i][j].Sub(a[i][j], t.Mul(t, pinv[i][l]))
 			}
 		}
+	}
+	// With V̇ = −2xᵀQx only semidefinite, the invariance principle gives
+	// asymptotic stability exactly when no solution but 0 stays in ker Q:
+	// when the pair (Q, A) is observable, rank [Q; QA; …; QAⁿ⁻¹] = n
+	// (Kalman's rank condition, common practice).
+	if tr == provesStable && observable(q, a) {
+		tr = provesAsymptotic
 	}
 	var b strings.Builder
 	b.WriteString("# planted linear case\nstate ")

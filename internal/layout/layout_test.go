@@ -100,9 +100,16 @@ func TestImportsFlowOneWay(t *testing.T) {
 	}
 }
 
+// kernelBudget is the kernel's size in lines of non-test Go: 2,000 for the
+// direct method, regions, pavings, refutations and linearization, and 150
+// more for the invariance principle and refuted region pieces. A new rule
+// pays for itself by moving general algebra to poly, or raises the budget
+// by its own size, never more.
+const kernelBudget = 2150
+
 // TestKernelIsSmallAndExact: the kernel imports only poly, model and the
 // standard library (no third-party code), names no floating-point type or
-// function, and stays under 2,000 lines.
+// function, and stays within kernelBudget.
 func TestKernelIsSmallAndExact(t *testing.T) {
 	dir := filepath.Join(root(t), "checker")
 	pkg, err := build.ImportDir(dir, 0)
@@ -144,7 +151,7 @@ func TestKernelIsSmallAndExact(t *testing.T) {
 			return true
 		})
 	}
-	if lines > 2000 {
-		t.Errorf("the kernel has %d lines of non-test Go; it must stay under 2,000", lines)
+	if lines > kernelBudget {
+		t.Errorf("the kernel has %d lines of non-test Go; its budget is %d", lines, kernelBudget)
 	}
 }

@@ -1,0 +1,69 @@
+package direct
+
+import (
+	"testing"
+
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/model"
+)
+
+// The invariance principle turns "stable" into asymptotic stability where
+// no solution but the equilibrium stays in {V̇ = 0}.
+func TestInvariancePrinciple(t *testing.T) {
+	for _, c := range []struct {
+		name, src string
+		set       []string
+		claim     string
+	}{
+		// Lorenz equations at r = 1 with V = x²/σ + y² + z²: V̇ =
+		// −2(x − y)² − 2b·z², and the origin is globally asymptotically
+		// stable (Strogatz, Nonlinear Dynamics and Chaos, §9.2), with σ and
+		// b left symbolic.
+		{"lorenz r=1", "", []string{"r=1"}, checker.KindGlobal},
+		// Damped linear oscillator with its energy: V̇ = −c·y², and the
+		// invariance principle gives asymptotic stability (Khalil, Nonlinear
+		// Systems, ch. 4).
+		{"oscillator", "oscillator.lya", nil, checker.KindGlobal},
+		// An invented damped hardening spring: V̇ = −c·y²; on y ≡ 0,
+		// x + x³ = 0, whose only real root is 0 (common practice). V has a
+		// quartic term, so the quadratic-part argument is local.
+		{"hardening spring", "state x, y\nparameter c > 0\nx' = y\ny' = -x - x^3 - c*y\nV = x^2/2 + x^4/4 + y^2/2\n", nil, checker.KindLocal},
+	} {
+		var res *Result
+		switch {
+		case c.name == "lorenz r=1":
+			res = check(t, "lorenz.lya", c.set...)
+		case c.src == "oscillator.lya":
+			res = check(t, c.src)
+		default:
+			m, err := model.Parse(c.name+".lya", []byte(c.src))
+			if err != nil {
+				t.Fatal(err)
+			}
+			if res, err = Check(m, c.name); err != nil {
+				t.Fatal(err)
+			}
+		}
+		if res.Invariance == nil || res.Claim != c.claim || res.Check.Kind != c.claim || res.Verdict != checker.VerdictHolds {
+			t.Errorf("%s: invariance %v, claim %s (kernel %s), verdict %s; want %s", c.name, res.Invariance != nil, res.Claim, res.Check.Kind, res.Verdict, c.claim)
+		}
+	}
+}
+
+// Where a solution other than the equilibrium stays in {V̇ = 0}, no
+// identity exists and the claim stays "stable": x' = −x, y' = 0 with
+// V = x² + y² has V̇ = −2x², and every point of the y axis is an
+// equilibrium (common practice).
+func TestInvarianceNotClaimedOnALineOfEquilibria(t *testing.T) {
+	m, err := model.Parse("line.lya", []byte("state x, y\nx' = -x\ny' = 0\nV = x^2 + y^2\n"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	res, err := Check(m, "line.lya")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if res.Invariance != nil || res.Claim != checker.KindStable {
+		t.Errorf("claim %s with invariance %v, want stable without", res.Claim, res.Invariance != nil)
+	}
+}

@@ -1,0 +1,92 @@
+package checker
+
+import (
+	"fmt"
+	"slices"
+
+	"github.com/lyacert/lyacert/poly"
+)
+
+// Invariance shows that the largest invariant set in {V̇ = 0} is the
+// equilibrium. Lie lists generators: the square bases qₖ of −V̇'s
+// semidefinite form (−V̇ = Σ dₖ·qₖ², Square k counted from 1) and their
+// derivatives along the flow of order Order. States gives, for every state
+// s, a polynomial g in s alone whose only real root is the equilibrium's
+// coordinate, with cofactors: g = Σ Cofactors[j]·Lie[j].
+type Invariance struct {
+	Lie    []LieTerm `json:"lie"`
+	States []Vanish  `json:"states"`
+}
+
+// LieTerm is the derivative of order Order along the flow of square base Square.
+type LieTerm struct {
+	Square int `json:"square"`
+	Order  int `json:"order"`
+}
+
+// Vanish is g(s) = Σ cofactorⱼ·generatorⱼ for one state s.
+type Vanish struct {
+	State     string   `json:"state"`
+	Poly      string   `json:"poly"`
+	Cofactors []string `json:"cofactors"`
+}
+
+func (*Invariance) Rule() string { return "invariance" }
+
+// invariance: the invariance principle (LaSalle 1960; Barbashin and
+// Krasovskii 1952). Where −V̇ = Σ dₖ·qₖ² with every dₖ > 0 (the conditions),
+// V̇ = 0 forces every qₖ = 0; on a solution that stays in {V̇ = 0} each qₖ
+// vanishes identically, and so does every time derivative of it, L_fʲqₖ.
+// Each g = Σ cⱼ·L_f^{oⱼ}q_{kⱼ} then vanishes along it, so every state sits
+// at the only real root of its g, the equilibrium: the largest invariant
+// set in {V̇ = 0} is the equilibrium, and bounded solutions tend to it.
+func (c *run) invariance(cl Claim) bool {
+	iv := cl.(*Invariance)
+	f := c.forms["-Vdot"]
+	if !c.once("invariance") || !c.add("invariance", !c.m.Discrete && f != nil && f.semidef && !f.basis && !c.higherD && c.hasKernel,
+		"follows the kernel of a semidefinite −V̇ that is exactly quadratic, in continuous time") {
+		return false
+	}
+	n := len(c.m.States)
+	z := make([]poly.RatFunc, n) // the states measured from the equilibrium
+	for i := range n {
+		z[i] = poly.FromPoly(poly.Var(c.r, i)).Sub(c.m.At[i])
+	}
+	var gens []poly.RatFunc
+	for j, t := range iv.Lie {
+		if !c.add("invariance", t.Square >= 1 && t.Square <= n && !f.zero[t.Square-1] && t.Order >= 0 && t.Order <= n,
+			"generator %d: square %d of −V̇ with a non-zero pivot, derivative of order %d ≤ %d", j+1, t.Square, t.Order, n) {
+			return false
+		}
+		h := poly.SquareBase(f.l, z, t.Square-1)
+		for range t.Order {
+			h = c.m.Derivative(h)
+		}
+		gens = append(gens, h)
+	}
+	if !c.add("invariance", len(iv.States) == n, "one identity per state") {
+		return false
+	}
+	for i, v := range iv.States {
+		what := fmt.Sprintf("invariance %s", v.State)
+		g, ok := c.parse(what, v.Poly)
+		cs, ok2 := c.list(what, v.Cofactors, len(gens), "cofactors")
+		if !ok || !ok2 || !c.add(what, v.State == c.m.States[i], "the states in order") {
+			return false
+		}
+		u, uni := g.Num.Univariate(i)
+		at, err := c.m.At[i].EvalVars(nil)
+		sum := poly.FromPoly(poly.Zero(c.r))
+		for j, cj := range cs {
+			sum = sum.Add(cj.Mul(gens[j]))
+		}
+		if !c.add(what, g.IsPoly() && uni && err == nil && at.IsPoly() && at.Num.IsConst() && u.OnlyRealRoot(at.Num.ConstTerm()),
+			"%s is a polynomial in %s alone whose only real root is the equilibrium's coordinate (Sturm)", v.Poly, v.State) ||
+			!c.add(what, !slices.ContainsFunc(cs, func(q poly.RatFunc) bool { return !q.DenNonzeroOn(c.box) }) && sum.Equal(g),
+				"%s = Σ cofactor·generator exactly, the cofactors defined on the parameter box", v.Poly) {
+			return false
+		}
+	}
+	c.invariant = true
+	return true
+}

@@ -338,7 +338,7 @@ func (f fitter) blocks(m matrix, w float64) []node {
 	}
 	n := len(m[0])
 	label := blockLabelEm(n)
-	room := w - label - 2*emBigParen
+	room := w - label - 2*matrixParenEm
 	m = rewrite(m, func(c node) node {
 		if _, ok := c.(matrix); ok {
 			return nil

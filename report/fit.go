@@ -222,7 +222,7 @@ func (m matrix) em(st style) float64 { return matrixEm(m, textStyle) }
 // columns, 2·\arraycolsep (10 pt) between them, and the parentheses.
 func matrixEm(m matrix, cell style) float64 {
 	ws := columnEms(m, cell)
-	w := 2 * emBigParen
+	w := 2 * matrixParenEm
 	for j, c := range ws {
 		if j > 0 {
 			w += colSepEm
@@ -232,8 +232,12 @@ func matrixEm(m matrix, cell style) float64 {
 	return w
 }
 
-// colSepEm is the space between two columns of a matrix.
-const colSepEm = 0.95
+// colSepEm is the space between two columns of a matrix, matrixParenEm
+// the width of one of its extensible parentheses.
+const (
+	colSepEm      = 0.95
+	matrixParenEm = 1.0
+)
 
 func columnEms(m matrix, cell style) []float64 {
 	var ws []float64
@@ -506,8 +510,14 @@ func (n stackedNumber) html() string {
 
 func (n stackedNumber) em(st style) float64 {
 	part := func(s string, st style) float64 {
+		ls := stackLines(s, n.perLine)
+		if len(ls) > 1 {
+			// An array sets its cells in text style whatever the
+			// style around it.
+			st = textStyle
+		}
 		w := 0.0
-		for _, l := range stackLines(s, n.perLine) {
+		for _, l := range ls {
 			w = max(w, digitsEm(strings.ReplaceAll(l, " ", ""), st))
 		}
 		return w
@@ -531,6 +541,10 @@ func stackNumbers(n node, w float64, st style) node {
 			ps = st.frac()
 		}
 		group := (3*emDigit + emThin) * ps.scale()
+		if ps > textStyle {
+			// Stacked lines are an array, in text style (stackedNumber.em).
+			group = 3*emDigit + emThin
+		}
 		return stackedNumber{x.r, max(1, int(w/group))}
 	})
 }

@@ -20,6 +20,15 @@
 // the polynomial is quadratic. Plots (the region strip, a paving) are drawn
 // with gonum/plot; their float64 coordinates only place the picture.
 //
+// Formulas are fitted to the page (fit.go, align.go, inline.go): a display
+// whose right side is wider than the line, by an estimate of its width in
+// TeX's rules, is broken between terms, a parenthesized sum inside a term
+// across rows; a matrix too wide is shown in labelled blocks of columns;
+// numbers of five digits or more are set in groups of three (ISO 80000-1),
+// and in running text a rational with a long numerator or denominator is
+// set n/d with permitted breaks between digit groups. HTML uses the same
+// breaking with the width of its column.
+//
 // Every string that comes from a model file or a certificate is escaped for
 // the format (texText, mdText, html/template), and the HTML page carries no
 // script and a content security policy that forbids one. Every report ends

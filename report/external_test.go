@@ -131,8 +131,16 @@ const probe = `<script>
         injected: document.body.hasAttribute("data-injected"),
         description: q("header blockquote"),
         source: q("header .meta code"),
-        title: document.title
+        title: document.title,
+        overflow: []
       };
+      // What runs past the page's column, or scrolls inside it.
+      var right = document.body.getBoundingClientRect().right;
+      document.querySelectorAll("math, p, li").forEach(function (e) {
+        var r = e.getBoundingClientRect();
+        if (r.right > right + 1) { out.overflow.push(e.tagName + " by " + Math.round(r.right - right) + "px: " + e.textContent.slice(0, 40)); }
+        if (e.tagName.toLowerCase() === "math" && e.scrollWidth > e.clientWidth + 1) { out.overflow.push("math scrolls by " + (e.scrollWidth - e.clientWidth) + "px: " + e.textContent.slice(0, 40)); }
+      });
       var pre = document.createElement("pre");
       pre.id = "probe";
       pre.textContent = JSON.stringify(out);
@@ -152,13 +160,14 @@ type probeResult struct {
 	Description string   `json:"description"`
 	Source      string   `json:"source"`
 	Title       string   `json:"title"`
+	Overflow    []string `json:"overflow"`
 }
 
 // chromiumArgs are the flags that let headless Chromium run offline and
 // without a sandbox as root, with a profile of its own.
 func chromiumArgs(profile string) []string {
 	return []string{
-		"--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
+		"--headless", "--window-size=1280,900", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
 		"--disable-background-networking", "--disable-component-update", "--disable-sync",
 		"--disable-dev-shm-usage", "--user-data-dir=" + profile,
 	}
@@ -168,8 +177,8 @@ var probeOut = regexp.MustCompile(`(?s)<pre id="probe">(.*?)</pre>`)
 
 // TestHTMLInChromium renders HTML reports in headless Chromium and checks
 // that the page shows its verdict and its plots, runs no script of its own
-// or of the user's (the escaping certificate tries three ways), and prints
-// to PDF.
+// or of the user's (the escaping certificate tries three ways), keeps its
+// mathematics within the column (the wide certificate), and prints to PDF.
 func TestHTMLInChromium(t *testing.T) {
 	chromium := tool(t, "chromium", "chromium-browser")
 	dir := t.TempDir()
@@ -181,7 +190,7 @@ func TestHTMLInChromium(t *testing.T) {
 	}
 	for _, c := range certs(t) {
 		switch c.name {
-		case "coolant", "escape", "unstable", "twogains":
+		case "coolant", "escape", "unstable", "twogains", "wide":
 		default:
 			continue
 		}
@@ -223,6 +232,9 @@ func TestHTMLInChromium(t *testing.T) {
 			}
 			if got.SVGs != wantSVGs {
 				t.Errorf("%d plots, want %d", got.SVGs, wantSVGs)
+			}
+			if len(got.Overflow) > 0 {
+				t.Errorf("wider than the page's column (a 1280 px window):\n%s", strings.Join(got.Overflow, "\n"))
 			}
 			if got.Scripts != 1 || got.Injected {
 				t.Errorf("%d scripts in the page (only the probe expected), injected %v", got.Scripts, got.Injected)

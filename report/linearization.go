@@ -127,15 +127,15 @@ func (b *builder) linearization(p *page) error {
 		return err
 	}
 	pSym := symbol{"P", "<mi>P</mi>"}
-	v.P = []display{{pSym, []node{pm}, nil}}
+	v.P = []display{{pSym, pm, nil}}
 	dx := symbol{`(x - x^{*})`, mrow("<mo>(</mo><mi>x</mi><mo>−</mo>" + xStar + "<mo>)</mo>")}
-	v.V = []display{{vSym, []node{symbol{dx.t + `^{\mathsf{T}} P\, ` + dx.t, mrow("<msup>" + dx.m + transpose + "</msup><mi>P</mi>" + thinSpace + dx.m)}}, nil}}
+	v.V = []display{{vSym, symbol{dx.t + `^{\mathsf{T}} P\, ` + dx.t, mrow("<msup>" + dx.m + transpose + "</msup><mi>P</mi>" + thinSpace + dx.m)}, nil}}
 	mSym := symbol{"M(x)", mrow("<mi>M</mi><mo>(</mo><mi>x</mi><mo>)</mo>")}
 	jT := "<msup>" + jac.m + transpose + "</msup>"
 	if m.Discrete {
-		v.MRule = []display{{mSym, []node{symbol{`P - J(x)^{\mathsf{T}} P\, J(x)`, mrow("<mi>P</mi><mo>−</mo>" + jT + "<mi>P</mi>" + thinSpace + jac.m)}}, nil}}
+		v.MRule = []display{{mSym, symbol{`P - J(x)^{\mathsf{T}} P\, J(x)`, mrow("<mi>P</mi><mo>−</mo>" + jT + "<mi>P</mi>" + thinSpace + jac.m)}, nil}}
 	} else {
-		v.MRule = []display{{mSym, []node{symbol{`-\left(J(x)^{\mathsf{T}} P + P\, J(x)\right)`, mrow("<mo>−</mo><mrow><mo>(</mo>" + jT + "<mi>P</mi><mo>+</mo><mi>P</mi>" + thinSpace + jac.m + "<mo>)</mo></mrow>")}}, nil}}
+		v.MRule = []display{{mSym, symbol{`-\left(J(x)^{\mathsf{T}} P + P\, J(x)\right)`, mrow("<mo>−</mo><mrow><mo>(</mo>" + jT + "<mi>P</mi><mo>+</mo><mi>P</mi>" + thinSpace + jac.m + "<mo>)</mo></mrow>")}, nil}}
 	}
 	var dm matrix
 	for i, row := range lz.Decay {
@@ -148,9 +148,9 @@ func (b *builder) linearization(p *page) error {
 	if kz != nil {
 		// M over the whole box, entry by entry: it holds M(x*) wherever in
 		// the box x* is.
-		v.Decay = []display{{LHS: mSym, RHS: []node{dm}, Op: symIn}}
+		v.Decay = []display{{LHS: mSym, RHS: dm, Op: symIn}}
 	} else {
-		v.Decay = []display{{LHS: lhs, RHS: []node{dm}}}
+		v.Decay = []display{{LHS: lhs, RHS: dm}}
 	}
 	v.Rounded = rounded
 	switch b.doc.Claim {

@@ -22,6 +22,9 @@ import (
 type node interface {
 	tex() string
 	html() string
+	// em is the width of the node set in LaTeX in the given style, in em
+	// of the text font, estimated on the wide side (fit.go).
+	em(st style) float64
 }
 
 // number is a non-negative rational, set as an integer or a fraction.
@@ -94,18 +97,20 @@ func decimalSym(s string) symbol {
 	return symbol{s, mn(s)}
 }
 
+// A number's digits are grouped in threes when it has five or more
+// (digitGroups).
 func (n number) tex() string {
 	if n.r.IsInt() {
-		return n.r.Num().String()
+		return texDigits(n.r.Num().String(), false)
 	}
-	return fmt.Sprintf(`\frac{%s}{%s}`, n.r.Num(), n.r.Denom())
+	return `\frac{` + texDigits(n.r.Num().String(), false) + "}{" + texDigits(n.r.Denom().String(), false) + "}"
 }
 
 func (n number) html() string {
 	if n.r.IsInt() {
-		return mn(n.r.Num().String())
+		return mn(htmlDigits(n.r.Num().String()))
 	}
-	return "<mfrac>" + mn(n.r.Num().String()) + mn(n.r.Denom().String()) + "</mfrac>"
+	return "<mfrac>" + mn(htmlDigits(n.r.Num().String())) + mn(htmlDigits(n.r.Denom().String())) + "</mfrac>"
 }
 
 func (n name) tex() string  { return texName(n.s) }
@@ -456,22 +461,6 @@ func ratFuncNode(f poly.RatFunc) node {
 		return s[0].n
 	}
 	return s
-}
-
-// lines splits a long signed sum into lines of at most per terms each, for
-// an aligned display; other nodes are one line.
-func lines(n node, per int) []node {
-	s, ok := n.(sum)
-	if !ok || len(s) <= per+1 {
-		return []node{n}
-	}
-	var out []node
-	for len(s) > 0 {
-		k := min(per, len(s))
-		out = append(out, s[:k])
-		s = s[k:]
-	}
-	return out
 }
 
 // continued sets the rest of a broken sum: a leading "+" or "−" for the first term.

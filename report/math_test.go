@@ -2,7 +2,6 @@ package report
 
 import (
 	"math/big"
-	"strings"
 	"testing"
 
 	"github.com/lyacert/lyacert/poly"
@@ -174,21 +173,6 @@ func TestSquareFactor(t *testing.T) {
 	n := new(big.Int).Mul(p, p)
 	if k, w := squareFactor(n); k.Cmp(p) != 0 || w.Int64() != 1 {
 		t.Errorf("squareFactor(p²) = %v²·%v", k, w)
-	}
-}
-
-func TestLinesBreaksLongSums(t *testing.T) {
-	r := poly.NewRing([]string{"a", "b", "c", "d", "e", "f"}, nil)
-	n := ratFuncNode(poly.MustParse(r, "a + b + c + d + e - f"))
-	ls := lines(n, 4)
-	if len(ls) != 2 {
-		t.Fatalf("%d lines, want 2", len(ls))
-	}
-	if got := continued(ls[1], true); got != "+ e - f" {
-		t.Errorf("continuation %q", got)
-	}
-	if got := strings.Count(texAlign([]display{{vSym, ls, nil}}), `\\`); got != 1 {
-		t.Errorf("aligned rows: %d line breaks, want 1", got)
 	}
 }
 

@@ -101,8 +101,10 @@ func checkMathML(frag string) error {
 	return nil
 }
 
-// mnText is an unsigned decimal numeral (the sign is an operator).
-var mnText = regexp.MustCompile(`^[0-9]+(\.[0-9]+)?$`)
+// mnText is an unsigned decimal numeral (the sign is an operator), its
+// digits possibly in groups of three separated by thin spaces (ISO
+// 80000-1, from memory).
+var mnText = regexp.MustCompile(`^([0-9]+|[0-9]{1,3}(\x{2009}[0-9]{3})+)(\.[0-9]+)?$`)
 
 func itoa(i int) string { return strconv.Itoa(i) }
 

@@ -12,34 +12,45 @@ import (
 var templateFiles embed.FS
 
 // texAlign sets displays as the rows of an aligned environment body: one
-// "lhs &= …" row per display, a long right side continued on further rows.
+// "lhs &= …" row per display, a right side too wide for the page continued
+// on further rows (texFitter).
 func texAlign(ds []display) string {
 	var rows []string
-	for _, d := range ds {
-		for i, l := range d.RHS {
-			if i == 0 {
-				rows = append(rows, d.LHS.tex()+" &"+d.op().tex()+" "+l.tex())
-			} else {
-				rows = append(rows, `&\quad `+continued(l, true))
+	for _, r := range texFitter.rows(ds) {
+		switch r.kind {
+		case firstRow:
+			rows = append(rows, r.lhs.tex()+" &"+r.op.tex()+" "+r.body.tex())
+		case contRow:
+			indent := `\quad `
+			if continuesParens(r.body) {
+				indent = `\qquad `
 			}
+			rows = append(rows, `&`+indent+continued(r.body, true))
+		case blockRow:
+			rows = append(rows, `&\phantom{{}`+r.op.tex()+`{}} `+r.body.tex())
 		}
 	}
 	return strings.Join(rows, " \\\\\n")
 }
 
 // htmlAlign sets displays as one block math element: a three-column
-// table (left side, relation, right side) aligned like align*, a long right
-// side continued on further rows.
+// table (left side, relation, right side) aligned like align*, a right side
+// too wide for the page continued on further rows (htmlFitter).
 func htmlAlign(ds []display) string {
 	var b strings.Builder
 	b.WriteString(`<math display="block"><mtable class="align">`)
-	for _, d := range ds {
-		for i, l := range d.RHS {
-			if i == 0 {
-				b.WriteString(`<mtr><mtd class="lhs">` + d.LHS.html() + `</mtd><mtd>` + d.op().html() + `</mtd><mtd class="rhs">` + l.html() + `</mtd></mtr>`)
-			} else {
-				b.WriteString(`<mtr><mtd></mtd><mtd></mtd><mtd class="rhs cont">` + continued(l, false) + `</mtd></mtr>`)
+	for _, r := range htmlFitter.rows(ds) {
+		switch r.kind {
+		case firstRow:
+			b.WriteString(`<mtr><mtd class="lhs">` + r.lhs.html() + `</mtd><mtd>` + r.op.html() + `</mtd><mtd class="rhs">` + r.body.html() + `</mtd></mtr>`)
+		case contRow:
+			class := "rhs cont"
+			if continuesParens(r.body) {
+				class = "rhs cont inner"
 			}
+			b.WriteString(`<mtr><mtd></mtd><mtd></mtd><mtd class="` + class + `">` + continued(r.body, false) + `</mtd></mtr>`)
+		case blockRow:
+			b.WriteString(`<mtr><mtd></mtd><mtd></mtd><mtd class="rhs">` + r.body.html() + `</mtd></mtr>`)
 		}
 	}
 	b.WriteString(`</mtable></math>`)
@@ -97,7 +108,7 @@ var mdTemplate = texttemplate.Must(texttemplate.New("report.md.tmpl").Funcs(text
 	"t":    mdText,
 	"r":    mdRich,
 	"code": mdCode,
-	"m":    func(n node) string { return "$" + n.tex() + "$" },
+	"m":    texInline,
 	"disp": func(ds []display) string {
 		return "$$\n\\begin{aligned}\n" + texAlign(ds) + "\n\\end{aligned}\n$$"
 	},
@@ -112,7 +123,7 @@ var texTemplate = texttemplate.Must(texttemplate.New("report.tex.tmpl").Funcs(te
 	"reason":    texReason,
 	"t":         texText,
 	"r":         texRich,
-	"m":         func(n node) string { return "$" + n.tex() + "$" },
+	"m":         texInline,
 	"disp": func(ds []display) string {
 		return "\\begin{align*}\n" + texAlign(ds) + "\n\\end{align*}"
 	},
@@ -135,7 +146,7 @@ var htmlTemplate = htmltemplate.Must(htmltemplate.New("report.html.tmpl").Funcs(
 	"jac":  func() node { return jac },
 	"inc":  inc,
 	"r":    func(x rich) htmltemplate.HTML { return htmltemplate.HTML(htmlRich(x)) },
-	"m":    func(n node) htmltemplate.HTML { return htmltemplate.HTML(inlineMath(n)) },
+	"m":    func(n node) htmltemplate.HTML { return htmltemplate.HTML(htmlInline(n)) },
 	"disp": func(ds []display) htmltemplate.HTML { return htmltemplate.HTML(htmlAlign(ds)) },
 	"one":  one,
 	"svg":  func(s string) htmltemplate.HTML { return htmltemplate.HTML(s) },

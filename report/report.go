@@ -132,11 +132,11 @@ type page struct {
 	Cautions      []string
 }
 
-// display is an equation lhs = rhs (or another relation Op), the right
-// side broken into lines.
+// display is an equation lhs = rhs (or another relation Op); the
+// renderer breaks a wide right side into rows (fitter.rows).
 type display struct {
 	LHS node
-	RHS []node
+	RHS node
 	Op  node // nil for "="
 }
 
@@ -282,7 +282,7 @@ func (b *builder) model(p *page) {
 		p.Params = append(p.Params, paramRich(pr))
 	}
 	for i, s := range m.States {
-		p.Equations = append(p.Equations, display{dotted{name{s}, m.Discrete}, lines(ratFuncNode(m.F[i]), 4), nil})
+		p.Equations = append(p.Equations, display{dotted{name{s}, m.Discrete}, ratFuncNode(m.F[i]), nil})
 	}
 	var at list
 	for i, s := range m.States {
@@ -336,8 +336,8 @@ func (b *builder) derivation(p *page) error {
 	if err != nil {
 		return err
 	}
-	p.V = display{vSym, lines(ratFuncNode(v), 4), nil}
-	p.Vdot = display{dn, lines(ratFuncNode(vdot), 4), nil}
+	p.V = display{vSym, ratFuncNode(v), nil}
+	p.Vdot = display{dn, ratFuncNode(vdot), nil}
 	if m.Discrete {
 		p.DerivRule = rich{"The difference along the map, ", relation{dn, symEq, symbol{`V(f(x)) - V(x)`, mrow("<mi>V</mi><mo>(</mo><mi>f</mi><mo>(</mo><mi>x</mi><mo>)</mo><mo>)</mo><mo>−</mo><mi>V</mi><mo>(</mo><mi>x</mi><mo>)</mo>")}}, ", computed exactly:"}
 	} else {
@@ -347,8 +347,8 @@ func (b *builder) derivation(p *page) error {
 	vs, ds := m.Shift(v), m.Shift(vdot)
 	if m.AtGiven {
 		p.Shifted = []display{
-			{vSym, lines(ratFuncNode(vs), 4), nil},
-			{dn, lines(ratFuncNode(ds), 4), nil},
+			{vSym, ratFuncNode(vs), nil},
+			{dn, ratFuncNode(ds), nil},
 		}
 	}
 	if len(d.Forms) == 2 {
@@ -386,7 +386,7 @@ func (b *builder) derivation(p *page) error {
 		if f.Name != "V" {
 			gname = symbol{`G_{-` + dn.tex() + `}`, "<msub><mi>G</mi>" + mrow(mo("−")+dn.html()) + "</msub>"}
 		}
-		p.Grams = append(p.Grams, display{gname, []node{g}, nil})
+		p.Grams = append(p.Grams, display{gname, g, nil})
 		var ms list
 		for i, s := range f.Minors {
 			mi, err := b.parse(s)
@@ -451,7 +451,7 @@ func (b *builder) derivation(p *page) error {
 
 // squares sets Σ dₖ·(xₖ + Σᵢ>ₖ Lᵢₖ·xᵢ)² from a form's factors, skipping
 // zero pivots (Lagrange's completing of squares read off G = L·D·Lᵀ).
-func (b *builder) squares(f certificates.FormView) ([]node, error) {
+func (b *builder) squares(f certificates.FormView) (node, error) {
 	n := len(f.D)
 	var s sum
 	for k := 0; k < n; k++ {
@@ -496,12 +496,12 @@ func (b *builder) squares(f certificates.FormView) ([]node, error) {
 		s = append(s, term{negd, t})
 	}
 	if len(s) == 0 {
-		return []node{zeroNode}, nil
+		return zeroNode, nil
 	}
 	if len(s) == 1 && !s[0].neg {
-		return []node{s[0].n}, nil
+		return s[0].n, nil
 	}
-	return lines(s, 2), nil
+	return s, nil
 }
 
 func (b *builder) matrix(rows [][]string) (matrix, error) {

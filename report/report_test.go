@@ -39,7 +39,8 @@ func signingKey() ed25519.PrivateKey {
 }
 
 // generated are the certificates this package's tests make for themselves
-// (with -update): the escaping model, and the demo certificate signed.
+// (with -update): the escaping model, the wide model, and the demo
+// certificate signed.
 func generate(t *testing.T) {
 	t.Helper()
 	issue := func(file, source string) *checker.Document {
@@ -64,6 +65,12 @@ func generate(t *testing.T) {
 	}
 	esc := issue("testdata/models/escape.lya", escapeSource)
 	if err := certificates.WriteFile(esc, "testdata/certificates/escape.json"); err != nil {
+		t.Fatal(err)
+	}
+	// A certificate too wide for a page unless the reports break its
+	// sums, matrices and numbers (TestGoldenLaTeXFits).
+	wide := issue("testdata/models/wide.lya", "wide.lya")
+	if err := certificates.WriteFile(wide, "testdata/certificates/wide.json"); err != nil {
 		t.Fatal(err)
 	}
 	signed, err := certificates.ReadFile("../testdata/certificates/coolant.json")

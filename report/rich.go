@@ -98,7 +98,13 @@ func (m matrix) tex() string {
 		}
 		rows[i] = strings.Join(cells, " & ")
 	}
-	return `\begin{pmatrix} ` + strings.Join(rows, ` \\ `) + ` \end{pmatrix}`
+	// Rows of fractions in text style need more than the baseline
+	// distance between them, or they touch.
+	sep := ` \\ `
+	if hasFraction(m) {
+		sep = ` \\[1ex] `
+	}
+	return `\begin{pmatrix} ` + strings.Join(rows, sep) + ` \end{pmatrix}`
 }
 
 // A matrix is an mtable between stretched parentheses, as pmatrix.
@@ -180,10 +186,10 @@ func texRich(r rich) string {
 				if i > 0 {
 					b.WriteString(", ")
 				}
-				b.WriteString("$" + n.tex() + "$")
+				b.WriteString(texInline(n))
 			}
 		case node:
-			b.WriteString("$" + v.tex() + "$")
+			b.WriteString(texInline(v))
 		}
 	}
 	return b.String()
@@ -198,7 +204,7 @@ func mdRich(r rich) string {
 		case string:
 			b.WriteString(mdText(v))
 		case node:
-			b.WriteString("$" + v.tex() + "$")
+			b.WriteString(texInline(v))
 		}
 	}
 	return b.String()
@@ -212,7 +218,7 @@ func htmlRich(r rich) string {
 		case string:
 			b.WriteString(html.EscapeString(v))
 		case node:
-			b.WriteString(inlineMath(v))
+			b.WriteString(htmlInline(v))
 		}
 	}
 	return b.String()

@@ -11,6 +11,7 @@ import (
 
 	"github.com/lyacert/lyacert/certificates"
 	"github.com/lyacert/lyacert/certify"
+	"github.com/lyacert/lyacert/certify/branches"
 	"github.com/lyacert/lyacert/certify/equilibria"
 	"github.com/lyacert/lyacert/checker"
 	"github.com/lyacert/lyacert/model"
@@ -20,10 +21,12 @@ import (
 type findCmd struct {
 	common
 	File string   `arg:"" help:"Model file (.lya), or - for standard input."`
-	Set  []string `name:"set" placeholder:"NAME=VALUE" help:"Fix a parameter to an exact value (repeatable); find needs every parameter fixed."`
+	Set  []string `name:"set" placeholder:"NAME=VALUE" help:"Fix a parameter to an exact value (repeatable). With every parameter fixed find certifies an equilibrium; with some left free it analyses the equilibrium branches as exact functions of them (no certificate)."`
 	Q    string   `name:"q" placeholder:"DIAG" default:"identity" help:"Q of AᵀP + PA = −Q (AᵀPA − P = −Q in discrete time): identity, one positive number (a multiple of I), or one per state, comma-separated (a diagonal)."`
 	All  bool     `help:"Certify every equilibrium found, not only the model's own (its at point, or the origin)."`
 	Out  string   `short:"o" name:"out" placeholder:"CERT" help:"Write the certificate to this file (atomically); with --all one file per certified equilibrium, CERT with -1, -2, … before its extension."`
+	Plot      string `name:"plot" placeholder:"FILE.svg|FILE.png|FILE.pdf" help:"With one free parameter: draw the bifurcation diagram (each branch against the parameter, solid where stable, dashed where not, bifurcations marked) to this file."`
+	PlotState string `name:"plot-state" placeholder:"STATE" help:"Draw only this state's coordinate in --plot (default: one panel per state)."`
 	sosFlags
 	limitFlags
 	timeoutFlag
@@ -85,6 +88,14 @@ func (c *findCmd) run(e *env) int {
 }
 
 func (c *findCmd) find(ctx context.Context, e *env) int {
+	format := ""
+	if c.Plot != "" {
+		f, err := plotFormat(c.Plot)
+		if err != nil {
+			return e.fail(exitInput, err)
+		}
+		format = f
+	}
 	name, src, err := readInput(c.File, e.stdin)
 	if err != nil {
 		return e.fail(exitInput, err)
@@ -96,6 +107,12 @@ func (c *findCmd) find(ctx context.Context, e *env) int {
 	m, err := model.Parse(name, src, settings...)
 	if err != nil {
 		return e.fail(exitInput, err)
+	}
+	if free := m.FreeParams(); len(free) > 0 && c.Degree == 0 {
+		return c.symbolic(ctx, e, m, format)
+	}
+	if c.Plot != "" || c.PlotState != "" {
+		return e.failf(exitInput, "--plot draws a bifurcation diagram along one free parameter; %s has none (leave one parameter without --set)", name)
 	}
 	if c.Degree != 0 {
 		return c.findDegree(m, name, e)
@@ -142,4 +159,64 @@ func (c *findCmd) find(ctx context.Context, e *env) int {
 		return exitHolds
 	}
 	return exitFails
+}
+
+// symbolic analyses the equilibrium branches of a model with free
+// parameters (certify/branches) and prints them; it writes no certificate.
+// It exits 0 when the branches have a closed form, 1 when they have none.
+func (c *findCmd) symbolic(ctx context.Context, e *env, m *model.Model, format string) int {
+	free := m.FreeParams()
+	switch {
+	case c.Out != "":
+		return e.failf(exitInput, "-o %s: the analysis with free parameters (%s) writes no certificate; fix them with --set to certify an equilibrium", c.Out, paramNames(free))
+	case c.All:
+		return e.failf(exitInput, "--all certifies equilibria at one parameter point; fix the free parameters (%s) with --set", paramNames(free))
+	case c.Q != "identity":
+		return e.failf(exitInput, "--q sets the Lyapunov equation of a certificate; fix the free parameters (%s) with --set", paramNames(free))
+	case c.Plot != "" && len(free) != 1:
+		return e.failf(exitInput, "--plot %s draws a bifurcation diagram along one free parameter, and %s are free; fix all but one with --set", c.Plot, paramNames(free))
+	case c.PlotState != "" && c.Plot == "":
+		return e.failf(exitInput, "--plot-state chooses what --plot draws; give --plot FILE too")
+	}
+	var states []int
+	if c.Plot != "" {
+		s, err := report.DiagramStates(m, c.PlotState)
+		if err != nil {
+			return e.failf(exitInput, "--plot-state: %w", err)
+		}
+		states = s
+	}
+	an, err := branches.Analyze(ctx, m, branches.Options{})
+	if err != nil {
+		return e.fail(exitInput, err)
+	}
+	if c.JSON {
+		writeJSON(e.stdout, report.BranchesJSON(m, an))
+	} else if err := report.BranchesText(e.stdout, m, an); err != nil {
+		return e.fail(exitInput, err)
+	}
+	if !an.ClosedForm {
+		if c.Plot != "" {
+			fmt.Fprintf(e.stderr, "lyacert: --plot %s: no closed form for the branches, nothing drawn\n", c.Plot)
+		}
+		return exitFails
+	}
+	if c.Plot != "" {
+		data, err := report.BifurcationDiagram(m, an, states, format)
+		if err != nil {
+			return e.failf(exitFails, "--plot %s: %w", c.Plot, err)
+		}
+		if err := certificates.WriteFileAtomic(c.Plot, data, 0o644); err != nil {
+			return e.failf(exitInput, "writing the plot: %w", err)
+		}
+	}
+	return exitHolds
+}
+
+func paramNames(ps []model.Param) string {
+	names := make([]string, len(ps))
+	for i, p := range ps {
+		names[i] = p.Name
+	}
+	return strings.Join(names, ", ")
 }

@@ -319,6 +319,16 @@ type BranchPiece struct {
 	Label branches.Label
 }
 
+// hasNonzero reports a branch with a condition c(p) != 0.
+func hasNonzero(an *branches.Analysis) bool {
+	for _, b := range an.Branches {
+		if len(b.Nonzero) > 0 {
+			return true
+		}
+	}
+	return false
+}
+
 // existsText lists the conditions for branch b to be defined.
 func existsText(b *branches.Branch) []string {
 	out := []string{}
@@ -349,7 +359,7 @@ func bifurcationOutput(an *branches.Analysis, bf branches.Bifurcation, pi int) B
 		out.Branches = append(out.Branches, i+1)
 	}
 	v := bf.Value
-	out.Decimal = v.Decimal(branchDigits)
+	out.Decimal = trimZeros(v.Decimal(branchDigits))
 	if v.Exact != nil {
 		out.Value = v.Exact.RatString()
 		return out
@@ -359,6 +369,16 @@ func bifurcationOutput(an *branches.Analysis, bf branches.Bifurcation, pi int) B
 	out.Poly = &p
 	out.Isolating = &[2]string{v.Lo.RatString(), v.Hi.RatString()}
 	return out
+}
+
+// trimZeros drops the trailing zeros of a decimal's fraction ("1.500" is
+// "1.5", "1.000" is "1"); an exponent form is left alone.
+func trimZeros(s string) string {
+	if !strings.Contains(s, ".") || strings.ContainsAny(s, "eE") {
+		return s
+	}
+	s = strings.TrimRight(s, "0")
+	return strings.TrimSuffix(s, ".")
 }
 
 // BranchesJSON is the JSON of the symbolic analysis an of m.
@@ -453,7 +473,7 @@ func branchesText(w io.Writer, m *model.Model, an *branches.Analysis) {
 	equationsText(w, m)
 	fmt.Fprintln(w)
 	if !an.ClosedForm {
-		fmt.Fprintf(w, "Equilibrium branches: no closed form (%s).\n", an.Reason)
+		fmt.Fprintf(w, "Equilibrium branches: no closed form (%s).\n", strings.TrimPrefix(an.Reason, "no closed form: "))
 		fmt.Fprintln(w, "  Fix the parameters with --set to find and certify the equilibria at one parameter point, or sweep the range with lyacert sweep.")
 		fmt.Fprintf(w, "\n%s\n", AnalysisNote)
 		return
@@ -462,7 +482,13 @@ func branchesText(w io.Writer, m *model.Model, an *branches.Analysis) {
 	if len(an.Branches) == 1 {
 		word = "branch"
 	}
-	fmt.Fprintf(w, "Equilibrium %s: %d, in closed form (exact elimination; the list is complete)\n", word, len(an.Branches))
+	fmt.Fprintf(w, "Equilibrium %s: %d, in closed form (exact elimination)\n", word, len(an.Branches))
+	if hasNonzero(an) {
+		fmt.Fprintln(w, "  the list is complete at every parameter value where no \"!= 0\" condition below fails; at a value where one")
+		fmt.Fprintln(w, "  fails the elimination divided by zero there: fix the parameters with --set to see that point")
+	} else {
+		fmt.Fprintln(w, "  the list is complete for every parameter value")
+	}
 	for _, n := range an.Notes {
 		fmt.Fprintf(w, "  note: %s\n", n)
 	}

@@ -20,13 +20,13 @@ import (
 
 type findCmd struct {
 	common
-	File string   `arg:"" help:"Model file (.lya), or - for standard input."`
-	Set  []string `name:"set" placeholder:"NAME=VALUE" help:"Fix a parameter to an exact value (repeatable). With every parameter fixed find certifies an equilibrium; with some left free it analyses the equilibrium branches as exact functions of them (no certificate)."`
-	Q    string   `name:"q" placeholder:"DIAG" default:"identity" help:"Q of AᵀP + PA = −Q (AᵀPA − P = −Q in discrete time): identity, one positive number (a multiple of I), or one per state, comma-separated (a diagonal)."`
-	All  bool     `help:"Certify every equilibrium found, not only the model's own (its at point, or the origin)."`
-	Out  string   `short:"o" name:"out" placeholder:"CERT" help:"Write the certificate to this file (atomically); with --all one file per certified equilibrium, CERT with -1, -2, … before its extension."`
-	Plot      string `name:"plot" placeholder:"FILE.svg|FILE.png|FILE.pdf" help:"With one free parameter: draw the bifurcation diagram (each branch against the parameter, solid where stable, dashed where not, bifurcations marked) to this file."`
-	PlotState string `name:"plot-state" placeholder:"STATE" help:"Draw only this state's coordinate in --plot (default: one panel per state)."`
+	File      string   `arg:"" help:"Model file (.lya), or - for standard input."`
+	Set       []string `name:"set" placeholder:"NAME=VALUE" help:"Fix a parameter to an exact value (repeatable). With every parameter fixed find certifies an equilibrium; with some left free it analyses the equilibrium branches as exact functions of them (no certificate)."`
+	Q         string   `name:"q" placeholder:"DIAG" default:"identity" help:"Q of AᵀP + PA = −Q (AᵀPA − P = −Q in discrete time): identity, one positive number (a multiple of I), or one per state, comma-separated (a diagonal)."`
+	All       bool     `help:"Certify every equilibrium found, not only the model's own (its at point, or the origin)."`
+	Out       string   `short:"o" name:"out" placeholder:"CERT" help:"Write the certificate to this file (atomically); with --all one file per certified equilibrium, CERT with -1, -2, … before its extension."`
+	Plot      string   `name:"plot" placeholder:"FILE.svg|FILE.png|FILE.pdf" help:"With one free parameter: draw the bifurcation diagram (each branch against the parameter, solid where stable, dashed where not, bifurcations marked) to this file."`
+	PlotState string   `name:"plot-state" placeholder:"STATE" help:"Draw only this state's coordinate in --plot (default: one panel per state)."`
 	sosFlags
 	limitFlags
 	timeoutFlag

@@ -35,6 +35,9 @@ type BranchesOutput struct {
 	Notes        []string            `json:"notes"`
 	Branches     []BranchOutput      `json:"branches"`
 	Bifurcations []BifurcationOutput `json:"bifurcations"`
+	// LinearCertificates: with --certify-linear, the kernel's check of
+	// each branch's linearisation; [] without it.
+	LinearCertificates []LinearCertOutput `json:"linear_certificates"`
 }
 
 // FreeParamOutput is a free parameter and its assumed range.
@@ -381,12 +384,14 @@ func trimZeros(s string) string {
 	return strings.TrimSuffix(s, ".")
 }
 
-// BranchesJSON is the JSON of the symbolic analysis an of m.
-func BranchesJSON(m *model.Model, an *branches.Analysis) BranchesOutput {
+// BranchesJSON is the JSON of the symbolic analysis an of m, with the
+// kernel's checks of the linearisations when certs is not empty.
+func BranchesJSON(m *model.Model, an *branches.Analysis, certs []LinearCert) BranchesOutput {
 	out := BranchesOutput{
 		Analysis: "symbolic", TimeKind: timeWord(m.Discrete), Params: map[string]string{},
 		Free: []FreeParamOutput{}, ClosedForm: an.ClosedForm, Reason: an.Reason,
 		Notes: append([]string{}, an.Notes...), Branches: []BranchOutput{}, Bifurcations: []BifurcationOutput{},
+		LinearCertificates: LinearCertsJSON(certs),
 	}
 	for _, p := range m.Params {
 		if p.Fixed != nil {
@@ -441,17 +446,23 @@ func BranchesJSON(m *model.Model, an *branches.Analysis) BranchesOutput {
 // AnalysisNote says what the symbolic analysis is and is not.
 const AnalysisNote = "This is an analysis, not a certificate: every decision above is exact (rational arithmetic, Sturm sequences), but no certificate is written for it and the checker has not re-checked it. Fix every parameter with --set to certify one equilibrium."
 
+// certifiedNote replaces AnalysisNote when the linearisations were
+// certified.
+const certifiedNote = "The analysis above is not a certificate: its decisions are exact, but only the certificates of the linearisation listed were re-checked by the exact checker."
+
 // BranchesText writes the symbolic analysis an of m for a terminal: the
 // branches in closed form with their existence conditions and
 // linearisation, the classification of the free parameter's range per
-// branch, and the bifurcation values. It returns the first write error.
-func BranchesText(w io.Writer, m *model.Model, an *branches.Analysis) error {
+// branch, the bifurcation values, and the kernel's checks of the
+// linearisations when certs is not empty. It returns the first write
+// error.
+func BranchesText(w io.Writer, m *model.Model, an *branches.Analysis, certs []LinearCert) error {
 	ew := &errWriter{w: w}
-	branchesText(ew, m, an)
+	branchesText(ew, m, an, certs)
 	return ew.err
 }
 
-func branchesText(w io.Writer, m *model.Model, an *branches.Analysis) {
+func branchesText(w io.Writer, m *model.Model, an *branches.Analysis, certs []LinearCert) {
 	modelHeader(w, m)
 	kind := "continuous time"
 	if m.Discrete {
@@ -559,6 +570,9 @@ func branchesText(w io.Writer, m *model.Model, an *branches.Analysis) {
 		if len(m.FreeParams()) > 1 {
 			fmt.Fprintln(w, "\nNo classification: it runs along one free parameter; fix the others with --set.")
 		}
+		if len(certs) > 0 {
+			LinearCertsText(w, "", certs)
+		}
 		fmt.Fprintf(w, "\n%s\n", AnalysisNote)
 		return
 	}
@@ -609,6 +623,11 @@ func branchesText(w io.Writer, m *model.Model, an *branches.Analysis) {
 			val += " ≈ " + shortDecimal(o.Decimal)
 		}
 		fmt.Fprintf(w, "  %s = %s  %s (%s)\n", an.Param, val, o.Kind, bifurcationBranches(o))
+	}
+	if len(certs) > 0 {
+		LinearCertsText(w, an.Param, certs)
+		fmt.Fprintf(w, "\n%s\n\n%s\n", certifiedNote, Caution)
+		return
 	}
 	fmt.Fprintf(w, "\n%s\n", AnalysisNote)
 }

@@ -329,7 +329,7 @@ func TestBranchesJSONKeys(t *testing.T) {
 	}{{"one free", []string{"sigma=10", "b=8/3"}}, {"two free", []string{"sigma=10"}}} {
 		t.Run(tc.name, func(t *testing.T) {
 			m, an := readModelFile(t, "lorenz.lya", tc.set...)
-			b, err := json.Marshal(BranchesJSON(m, an))
+			b, err := json.Marshal(BranchesJSON(m, an, nil))
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -337,7 +337,7 @@ func TestBranchesJSONKeys(t *testing.T) {
 			if err := json.Unmarshal(b, &top); err != nil {
 				t.Fatal(err)
 			}
-			for _, k := range []string{"analysis", "certificate", "time_kind", "params", "free", "closed_form", "reason", "param", "notes", "branches", "bifurcations"} {
+			for _, k := range []string{"analysis", "certificate", "time_kind", "params", "free", "closed_form", "reason", "param", "notes", "branches", "bifurcations", "linear_certificates"} {
 				if _, ok := top[k]; !ok {
 					t.Errorf("top-level key %q missing", k)
 				}
@@ -384,10 +384,10 @@ func benchAnalysis(b *testing.B, src string, set ...string) {
 			b.Fatal(err, an.Reason)
 		}
 		var buf bytes.Buffer
-		if err := BranchesText(&buf, m, an); err != nil {
+		if err := BranchesText(&buf, m, an, nil); err != nil {
 			b.Fatal(err)
 		}
-		if _, err := json.Marshal(BranchesJSON(m, an)); err != nil {
+		if _, err := json.Marshal(BranchesJSON(m, an, nil)); err != nil {
 			b.Fatal(err)
 		}
 	}

@@ -332,6 +332,12 @@ func hasNonzero(an *branches.Analysis) bool {
 	return false
 }
 
+// neverReal reports a branch u ± v·√w with w a negative constant: a pair
+// of complex equilibria, real for no parameter value.
+func neverReal(b *branches.Branch) bool {
+	return b.W != nil && b.W.IsPoly() && b.W.Num.IsConst() && b.W.Num.ConstTerm().Sign() < 0
+}
+
 // existsText lists the conditions for branch b to be defined.
 func existsText(b *branches.Branch) []string {
 	out := []string{}
@@ -517,6 +523,10 @@ func branchesText(w io.Writer, m *model.Model, an *branches.Analysis, certs []Li
 			parts[k] = s + " = " + surdText(b.Coords[k])
 		}
 		fmt.Fprintf(w, "\n  %d  %s\n", i+1, strings.Join(parts, ", "))
+		if neverReal(b) {
+			fmt.Fprintf(w, "     no real equilibrium: %s < 0 for every parameter value (complex branch; no linear analysis)\n", b.W)
+			continue
+		}
 		conds := existsText(b)
 		switch {
 		case len(conds) == 0:
@@ -558,7 +568,7 @@ func branchesText(w io.Writer, m *model.Model, an *branches.Analysis, certs []Li
 			fmt.Fprintf(w, "     Hurwitz determinants of q: %s\n", strings.Join(hs, ", "))
 			jury := ""
 			if nn == 2 {
-				jury = "; these are Jury's conditions 1 − τ + Δ > 0, 1 − Δ > 0, 1 + τ + Δ > 0"
+				jury = "; equivalent to Jury's conditions 1 − τ + Δ > 0, 1 − Δ > 0, 1 + τ + Δ > 0"
 			}
 			fmt.Fprintf(w, "     %s iff the leading coefficient and every Hk are positive (bilinear map%s)\n", eig, jury)
 		} else {

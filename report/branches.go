@@ -54,10 +54,13 @@ type BranchOutput struct {
 	Coordinates map[string]string `json:"coordinates"`
 	Isolated    bool              `json:"isolated"`
 	FreeStates  []string          `json:"free_states"`
-	// Exists lists the conditions on the parameters for the branch to be
-	// defined ("w >= 0", "c != 0"); Region is that set along the
-	// classified parameter (null with two or more free parameters).
+	// Exists is the condition for the branch to be real ("w >= 0", [] for
+	// a rational branch); Assumes lists the conditions "c != 0" the
+	// elimination divided by (where one fails the formula says nothing);
+	// Region is where both hold along the classified parameter (null with
+	// two or more free parameters).
 	Exists   []string         `json:"exists"`
+	Assumes  []string         `json:"assumes"`
 	Region   []IntervalOutput `json:"region"`
 	Jacobian [][]string       `json:"jacobian"`
 	// Charpoly is c₀ … cₙ of det(λI − J) = λⁿ + cₙ₋₁λⁿ⁻¹ + … + c₀.
@@ -338,14 +341,25 @@ func neverReal(b *branches.Branch) bool {
 	return b.W != nil && b.W.IsPoly() && b.W.Num.IsConst() && b.W.Num.ConstTerm().Sign() < 0
 }
 
-// existsText lists the conditions for branch b to be defined.
+// existsText is the condition for branch b to be real: w >= 0 under its
+// square root.
 func existsText(b *branches.Branch) []string {
 	out := []string{}
 	if b.W != nil {
 		out = append(out, b.W.String()+" >= 0")
 	}
+	return out
+}
+
+// assumesText lists the conditions c(p) != 0 that the elimination divided
+// by to reach branch b: the formula is derived where they hold, and says
+// nothing where one fails (the branch may or may not exist there).
+func assumesText(b *branches.Branch) []string {
+	out := []string{}
 	for _, c := range b.Nonzero {
-		out = append(out, c.String()+" != 0")
+		if s := c.String() + " != 0"; !slices.Contains(out, s) {
+			out = append(out, s)
+		}
 	}
 	return out
 }
@@ -414,7 +428,7 @@ func BranchesJSON(m *model.Model, an *branches.Analysis, certs []LinearCert) Bra
 	for i, b := range an.Branches {
 		bo := BranchOutput{
 			ID: i + 1, Coordinates: map[string]string{}, Isolated: b.Isolated(), FreeStates: []string{},
-			Exists: existsText(b), Jacobian: matrixText(b.Jacobian), Charpoly: surdsText(b.CharPoly),
+			Exists: existsText(b), Assumes: assumesText(b), Jacobian: matrixText(b.Jacobian), Charpoly: surdsText(b.CharPoly),
 			Trace: optSurd(b.Trace), Det: optSurd(b.Det), Discriminant: optSurd(b.Disc),
 			Hurwitz: surdsText(b.Hurwitz), BilinearLead: optSurd(b.Lead), Stable: surdsText(b.Stable),
 			Classification: []ClassPiece{},
@@ -501,8 +515,8 @@ func branchesText(w io.Writer, m *model.Model, an *branches.Analysis, certs []Li
 	}
 	fmt.Fprintf(w, "Equilibrium %s: %d, in closed form (exact elimination)\n", word, len(an.Branches))
 	if hasNonzero(an) {
-		fmt.Fprintln(w, "  the list is complete at every parameter value where no \"!= 0\" condition below fails; at a value where one")
-		fmt.Fprintln(w, "  fails the elimination divided by zero there: fix the parameters with --set to see that point")
+		fmt.Fprintln(w, "  the list is complete at every parameter value where no condition \"derived assuming … != 0\" below fails;")
+		fmt.Fprintln(w, "  where one fails the elimination divided by zero: fix the parameters there with --set to see that point")
 	} else {
 		fmt.Fprintln(w, "  the list is complete for every parameter value")
 	}
@@ -527,12 +541,17 @@ func branchesText(w io.Writer, m *model.Model, an *branches.Analysis, certs []Li
 			fmt.Fprintf(w, "     no real equilibrium: %s < 0 for every parameter value (complex branch; no linear analysis)\n", b.W)
 			continue
 		}
-		conds := existsText(b)
+		conds, assumes := existsText(b), assumesText(b)
 		switch {
-		case len(conds) == 0:
+		case len(conds) == 0 && len(assumes) == 0:
 			fmt.Fprintln(w, "     exists for every parameter value")
 		default:
-			fmt.Fprintf(w, "     exists where %s", strings.Join(conds, " and "))
+			if len(conds) > 0 {
+				fmt.Fprintf(w, "     exists where %s\n", strings.Join(conds, " and "))
+			}
+			if len(assumes) > 0 {
+				fmt.Fprintf(w, "     derived assuming %s (the elimination divided by it)\n", strings.Join(assumes, " and "))
+			}
 			if pi >= 0 {
 				var ivs []string
 				for _, iv := range spansOutput(an.Where(i, func(l branches.Label) bool { return l.Exists }), an.Ring, pi) {
@@ -541,9 +560,8 @@ func branchesText(w io.Writer, m *model.Model, an *branches.Analysis, certs []Li
 				if len(ivs) == 0 {
 					ivs = []string{"∅"}
 				}
-				fmt.Fprintf(w, ": %s ∈ %s", an.Param, strings.Join(ivs, " ∪ "))
+				fmt.Fprintf(w, "     so along %s: %s ∈ %s\n", an.Param, an.Param, strings.Join(ivs, " ∪ "))
 			}
-			fmt.Fprintln(w)
 		}
 		if !b.Isolated() {
 			var fs []string
@@ -565,14 +583,14 @@ func branchesText(w io.Writer, m *model.Model, an *branches.Analysis, certs []Li
 		if m.Discrete {
 			nn := len(m.States)
 			fmt.Fprintf(w, "     bilinear transform q(s) = (1 − s)^%d·p((1 + s)/(1 − s)), p(λ) = det(λI − J): leading coefficient %s\n", nn, surdText(*b.Lead))
-			fmt.Fprintf(w, "     Hurwitz determinants of q: %s\n", strings.Join(hs, ", "))
+			fmt.Fprintf(w, "     Hurwitz determinants of q:%s\n", hurwitzList(hs))
 			jury := ""
 			if nn == 2 {
 				jury = "; equivalent to Jury's conditions 1 − τ + Δ > 0, 1 − Δ > 0, 1 + τ + Δ > 0"
 			}
 			fmt.Fprintf(w, "     %s iff the leading coefficient and every Hk are positive (bilinear map%s)\n", eig, jury)
 		} else {
-			fmt.Fprintf(w, "     Hurwitz determinants: %s\n", strings.Join(hs, ", "))
+			fmt.Fprintf(w, "     Hurwitz determinants:%s\n", hurwitzList(hs))
 			fmt.Fprintf(w, "     %s iff every Hk > 0 (Routh–Hurwitz)\n", eig)
 		}
 	}
@@ -640,6 +658,15 @@ func branchesText(w io.Writer, m *model.Model, an *branches.Analysis, certs []Li
 		return
 	}
 	fmt.Fprintf(w, "\n%s\n", AnalysisNote)
+}
+
+// hurwitzList writes H1 = …, H2 = … on the line, or one a line when they
+// are long.
+func hurwitzList(hs []string) string {
+	if len(strings.Join(hs, ", ")) <= 90 {
+		return " " + strings.Join(hs, ", ")
+	}
+	return "\n       " + strings.Join(hs, "\n       ")
 }
 
 // bifurcationBranches says which branches meet at a bifurcation.

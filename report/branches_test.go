@@ -350,7 +350,7 @@ func TestBranchesJSONKeys(t *testing.T) {
 				t.Fatalf("branches %s: %v", top["branches"], err)
 			}
 			for _, br := range bs {
-				for _, k := range []string{"id", "coordinates", "isolated", "free_states", "exists", "region", "jacobian", "charpoly", "trace", "det", "discriminant", "hurwitz", "bilinear_lead", "stable_iff_positive", "classification", "lyapunov"} {
+				for _, k := range []string{"id", "coordinates", "isolated", "free_states", "exists", "assumes", "region", "jacobian", "charpoly", "trace", "det", "discriminant", "hurwitz", "bilinear_lead", "stable_iff_positive", "classification", "lyapunov"} {
 					if _, ok := br[k]; !ok {
 						t.Errorf("branch key %q missing", k)
 					}

@@ -162,6 +162,9 @@ func surdText(x branches.Surd) string {
 // wrapTerm puts an expression of several terms in parentheses, so that it
 // can stand as a factor.
 func wrapTerm(s string) string {
+	if s == "" {
+		return s
+	}
 	if strings.Contains(strings.TrimPrefix(s, "-"), " ") || strings.Contains(s[1:], "-") {
 		if !(strings.HasPrefix(s, "(") && strings.HasSuffix(s, ")") && !strings.Contains(s, ")/(") && strings.Count(s, "(") == 1) {
 			return "(" + s + ")"

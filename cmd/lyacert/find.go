@@ -11,6 +11,8 @@ import (
 
 	"github.com/lyacert/lyacert/certificates"
 	"github.com/lyacert/lyacert/certify"
+	"github.com/lyacert/lyacert/certify/branches"
+	"github.com/lyacert/lyacert/certify/direct"
 	"github.com/lyacert/lyacert/certify/equilibria"
 	"github.com/lyacert/lyacert/checker"
 	"github.com/lyacert/lyacert/model"
@@ -19,11 +21,14 @@ import (
 
 type findCmd struct {
 	common
-	File string   `arg:"" help:"Model file (.lya), or - for standard input."`
-	Set  []string `name:"set" placeholder:"NAME=VALUE" help:"Fix a parameter to an exact value (repeatable); find needs every parameter fixed."`
-	Q    string   `name:"q" placeholder:"DIAG" default:"identity" help:"Q of AᵀP + PA = −Q (AᵀPA − P = −Q in discrete time): identity, one positive number (a multiple of I), or one per state, comma-separated (a diagonal)."`
-	All  bool     `help:"Certify every equilibrium found, not only the model's own (its at point, or the origin)."`
-	Out  string   `short:"o" name:"out" placeholder:"CERT" help:"Write the certificate to this file (atomically); with --all one file per certified equilibrium, CERT with -1, -2, … before its extension."`
+	File          string   `arg:"" help:"Model file (.lya), or - for standard input."`
+	Set           []string `name:"set" placeholder:"NAME=VALUE" help:"Fix a parameter to an exact value (repeatable). With every parameter fixed find certifies an equilibrium; with some left free it analyses the equilibrium branches as exact functions of them (no certificate)."`
+	Q             string   `name:"q" placeholder:"DIAG" default:"identity" help:"Q of AᵀP + PA = −Q (AᵀPA − P = −Q in discrete time): identity, one positive number (a multiple of I), or one per state, comma-separated (a diagonal)."`
+	All           bool     `help:"Certify every equilibrium found, not only the model's own (its at point, or the origin)."`
+	Out           string   `short:"o" name:"out" placeholder:"CERT" help:"Write the certificate to this file (atomically); with --all one file per certified equilibrium, CERT with -1, -2, … before its extension."`
+	Plot          string   `name:"plot" placeholder:"FILE.svg|FILE.png|FILE.pdf" help:"With one free parameter: draw the bifurcation diagram (each branch against the parameter, solid where stable, dashed where not, bifurcations marked) to this file."`
+	CertifyLinear bool     `name:"certify-linear" help:"With one free parameter: for each rational branch, certify its linearisation with V = D(p)²·ξᵀP(p)ξ from the exact solution P(p) of the Lyapunov equation, re-checked by the checker, over the exact region where it holds (-o writes the certificates, CERT-k for branch k)."`
+	PlotState     string   `name:"plot-state" placeholder:"STATE" help:"Draw only this state's coordinate in --plot (default: one panel per state)."`
 	sosFlags
 	limitFlags
 	timeoutFlag
@@ -85,6 +90,14 @@ func (c *findCmd) run(e *env) int {
 }
 
 func (c *findCmd) find(ctx context.Context, e *env) int {
+	format := ""
+	if c.Plot != "" {
+		f, err := plotFormat(c.Plot)
+		if err != nil {
+			return e.fail(exitInput, err)
+		}
+		format = f
+	}
 	name, src, err := readInput(c.File, e.stdin)
 	if err != nil {
 		return e.fail(exitInput, err)
@@ -96,6 +109,12 @@ func (c *findCmd) find(ctx context.Context, e *env) int {
 	m, err := model.Parse(name, src, settings...)
 	if err != nil {
 		return e.fail(exitInput, err)
+	}
+	if free := m.FreeParams(); len(free) > 0 && c.Degree == 0 {
+		return c.symbolic(ctx, e, m, format)
+	}
+	if c.Plot != "" || c.PlotState != "" {
+		return e.failf(exitInput, "--plot draws a bifurcation diagram along one free parameter; %s has none (leave one parameter without --set)", name)
 	}
 	if c.Degree != 0 {
 		return c.findDegree(m, name, e)
@@ -142,4 +161,117 @@ func (c *findCmd) find(ctx context.Context, e *env) int {
 		return exitHolds
 	}
 	return exitFails
+}
+
+// symbolic analyses the equilibrium branches of a model with free
+// parameters (certify/branches) and prints them; it writes no certificate.
+// It exits 0 when the branches have a closed form, 1 when they have none.
+func (c *findCmd) symbolic(ctx context.Context, e *env, m *model.Model, format string) int {
+	free := m.FreeParams()
+	switch {
+	case c.Out != "" && !c.CertifyLinear:
+		return e.failf(exitInput, "-o %s: the analysis with free parameters (%s) writes no certificate; add --certify-linear, or fix them with --set to certify an equilibrium", c.Out, paramNames(free))
+	case c.CertifyLinear && len(free) != 1:
+		return e.failf(exitInput, "--certify-linear works along one free parameter, and %s are free; fix all but one with --set", paramNames(free))
+	case c.All:
+		return e.failf(exitInput, "--all certifies equilibria at one parameter point; fix the free parameters (%s) with --set", paramNames(free))
+	case c.Q != "identity":
+		return e.failf(exitInput, "--q sets the Lyapunov equation of a certificate; fix the free parameters (%s) with --set", paramNames(free))
+	case c.Plot != "" && len(free) != 1:
+		return e.failf(exitInput, "--plot %s draws a bifurcation diagram along one free parameter, and %s are free; fix all but one with --set", c.Plot, paramNames(free))
+	case c.PlotState != "" && c.Plot == "":
+		return e.failf(exitInput, "--plot-state chooses what --plot draws; give --plot FILE too")
+	}
+	var states []int
+	if c.Plot != "" {
+		s, err := report.DiagramStates(m, c.PlotState)
+		if err != nil {
+			return e.failf(exitInput, "--plot-state: %w", err)
+		}
+		states = s
+	}
+	an, err := branches.Analyze(ctx, m, branches.Options{})
+	if err != nil {
+		return e.fail(exitInput, err)
+	}
+	var certs []report.LinearCert
+	if c.CertifyLinear && an.ClosedForm {
+		if certs, err = c.linearCerts(ctx, m, an); err != nil {
+			return e.fail(exitInput, err)
+		}
+	}
+	if c.JSON {
+		writeJSON(e.stdout, report.BranchesJSON(m, an, certs))
+	} else if err := report.BranchesText(e.stdout, m, an, certs); err != nil {
+		return e.fail(exitInput, err)
+	}
+	if !an.ClosedForm {
+		if c.Plot != "" {
+			fmt.Fprintf(e.stderr, "lyacert: --plot %s: no closed form for the branches, nothing drawn\n", c.Plot)
+		}
+		return exitFails
+	}
+	if c.Plot != "" {
+		data, err := report.BifurcationDiagram(m, an, states, format)
+		if err != nil {
+			return e.failf(exitFails, "--plot %s: %w", c.Plot, err)
+		}
+		if err := certificates.WriteFileAtomic(c.Plot, data, 0o644); err != nil {
+			return e.failf(exitInput, "writing the plot: %w", err)
+		}
+	}
+	return exitHolds
+}
+
+// linearCerts checks each branch's linear model (branches.LinearModel)
+// with the direct method and writes the certificates with -o, one per
+// certified branch: CERT with -1, -2, … (the branch's number) before its
+// extension.
+func (c *findCmd) linearCerts(ctx context.Context, m *model.Model, an *branches.Analysis) ([]report.LinearCert, error) {
+	var out []report.LinearCert
+	for i := range an.Branches {
+		if err := ctx.Err(); err != nil {
+			return nil, err
+		}
+		text, err := branches.LinearModel(m, an, i)
+		if errors.Is(err, branches.ErrNoLinearModel) {
+			out = append(out, report.LinearCert{Branch: i, Skipped: err.Error()})
+			continue
+		}
+		if err != nil {
+			return nil, err
+		}
+		name := fmt.Sprintf("%s (branch %d, linearised)", m.File, i+1)
+		lm, err := model.Parse(name, []byte(text))
+		if err != nil {
+			return nil, fmt.Errorf("the linear model of branch %d: %w", i+1, err)
+		}
+		res, err := direct.CheckPaving(ctx, lm, name, direct.PaveOptions{})
+		if err != nil {
+			if ctx.Err() != nil {
+				return nil, ctx.Err()
+			}
+			out = append(out, report.LinearCert{Branch: i, Skipped: err.Error()})
+			continue
+		}
+		lc := report.LinearCert{Branch: i, Model: text, Result: res}
+		if c.Out != "" && res.Doc != nil {
+			ext := filepath.Ext(c.Out)
+			path := strings.TrimSuffix(c.Out, ext) + "-" + strconv.Itoa(i+1) + ext
+			if err := certificates.WriteFile(res.Doc, path); err != nil {
+				return nil, fmt.Errorf("writing the certificate: %w", err)
+			}
+			lc.Written = path
+		}
+		out = append(out, lc)
+	}
+	return out, nil
+}
+
+func paramNames(ps []model.Param) string {
+	names := make([]string, len(ps))
+	for i, p := range ps {
+		names[i] = p.Name
+	}
+	return strings.Join(names, ", ")
 }

@@ -113,10 +113,18 @@ func (c *findCmd) Help() string {
 certifies the model's own (its at point or the origin), or every one with
 --all, from the linearization.
 
+With parameters left free it analyses the equilibrium branches instead, as
+exact functions of them: existence, Jacobian, characteristic polynomial,
+Hurwitz determinants, and along one free parameter the exact pieces of its
+range by type and stability and the bifurcation values (--plot draws the
+diagram). That analysis writes no certificate; it exits 0 when the branches
+have a closed form, 1 when they do not.
+
 Examples:
   lyacert find model.lya --set r=20
   lyacert find model.lya --set r=20 --all -o c.json
   lyacert find model.lya --set r=20 --q 1,2,3 --json
+  lyacert find lorenz.lya --set sigma=10 --set b=8/3 --plot branches.svg
 
 ` + exitCodesText
 }

@@ -1,0 +1,105 @@
+package report
+
+import (
+	"fmt"
+	"io"
+	"strings"
+
+	"github.com/lyacert/lyacert/certificates"
+	"github.com/lyacert/lyacert/certify/direct"
+	"github.com/lyacert/lyacert/checker"
+)
+
+// LinearCert is the kernel's check of one branch's linearisation with the
+// symbolic quadratic V (branches.LinearModel and direct.Check): Result is
+// nil when the branch has none, and Skipped says why.
+type LinearCert struct {
+	Branch  int // index into Analysis.Branches
+	Model   string
+	Result  *direct.Result
+	Skipped string
+	Written string // the file the certificate was written to, "" for none
+}
+
+// LinearCertOutput is the JSON of a LinearCert.
+type LinearCertOutput struct {
+	Branch      int           `json:"branch"` // the branch's id
+	Model       *string       `json:"model"`  // the linear model's text; null when skipped
+	Skipped     *string       `json:"skipped"`
+	Verdict     *string       `json:"verdict"`
+	Claim       *string       `json:"claim"`
+	Region      *RegionOutput `json:"region"` // where the kernel accepts V; null when skipped
+	Digest      *string       `json:"digest"`
+	Checks      int           `json:"checks_passed"`
+	Certificate *string       `json:"certificate"`
+}
+
+func strPtr(s string) *string { return &s }
+
+// LinearCertsJSON is the JSON of the linear certificates.
+func LinearCertsJSON(cs []LinearCert) []LinearCertOutput {
+	out := []LinearCertOutput{}
+	for _, c := range cs {
+		o := LinearCertOutput{Branch: c.Branch + 1}
+		if c.Result == nil {
+			o.Skipped = strPtr(c.Skipped)
+			out = append(out, o)
+			continue
+		}
+		res := c.Result
+		o.Model = strPtr(c.Model)
+		o.Verdict, o.Claim = strPtr(res.Verdict), strPtr(res.Claim)
+		o.Digest = strPtr(res.Doc.Digest)
+		o.Checks = len(res.Check.Records)
+		o.Region = regionJSON(certificates.ContentsOf(res.Doc).Region)
+		if c.Written != "" {
+			o.Certificate = strPtr(c.Written)
+		}
+		out = append(out, o)
+	}
+	return out
+}
+
+// LinearCertsText writes the kernel's checks of the branches'
+// linearisations: where V = D²ξᵀPξ is accepted, and the certificates.
+func LinearCertsText(w io.Writer, param string, cs []LinearCert) error {
+	ew := &errWriter{w: w}
+	fmt.Fprintln(ew, "\nCertificates of the linearisation (V = D(p)²·ξᵀP(p)ξ, ξ the deviation from the branch, re-checked by the exact checker)")
+	for _, c := range cs {
+		if c.Result == nil {
+			fmt.Fprintf(ew, "  branch %d: none (%s)\n", c.Branch+1, c.Skipped)
+			continue
+		}
+		res := c.Result
+		where := "for every parameter value"
+		var roots []string
+		if rg := res.Region; rg != nil && rg.Paving == nil {
+			var hold []string
+			for _, p := range rg.Pieces {
+				if p.Holds {
+					hold = append(hold, intervalText(p.Interval))
+					roots = rootLines(roots, "    ", p.Interval)
+				}
+			}
+			where = param + " ∈ " + strings.Join(hold, " ∪ ")
+			if len(hold) == 0 {
+				where = "nowhere in the range"
+			}
+		}
+		if res.Verdict != checker.VerdictHolds && res.Region == nil {
+			where = "nowhere (" + res.Reason + ")"
+		}
+		fmt.Fprintf(ew, "  branch %d: the linearisation is asymptotically stable for %s\n", c.Branch+1, where)
+		for _, s := range roots {
+			fmt.Fprintln(ew, s)
+		}
+		fmt.Fprintf(ew, "    so there the branch is locally exponentially stable (Lyapunov's indirect method; that J(p) is the\n")
+		fmt.Fprintf(ew, "    Jacobian along the branch is exact algebra of the analysis, not part of the certificate)\n")
+		fmt.Fprintf(ew, "    %d checks passed", len(res.Check.Records))
+		if c.Written != "" {
+			fmt.Fprintf(ew, "; written to %s", c.Written)
+		}
+		fmt.Fprintf(ew, "\n    digest %s\n", res.Doc.Digest)
+	}
+	return ew.err
+}

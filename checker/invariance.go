@@ -64,6 +64,7 @@ func (c *run) invariance(cl Claim) bool {
 		}
 		gens = append(gens, h)
 	}
+	used := make([]bool, len(gens))
 	if !c.add("invariance", len(iv.States) == n, "one identity per state") {
 		return false
 	}
@@ -79,6 +80,7 @@ func (c *run) invariance(cl Claim) bool {
 		sum := poly.FromPoly(poly.Zero(c.r))
 		for j, cj := range cs {
 			sum = sum.Add(cj.Mul(gens[j]))
+			used[j] = used[j] || !cj.IsZero()
 		}
 		if !c.add(what, g.IsPoly() && uni && err == nil && at.IsPoly() && at.Num.IsConst() && u.OnlyRealRoot(at.Num.ConstTerm()),
 			"%s is a polynomial in %s alone whose only real root is the equilibrium's coordinate (Sturm)", v.Poly, v.State) ||
@@ -87,6 +89,6 @@ func (c *run) invariance(cl Claim) bool {
 			return false
 		}
 	}
-	c.invariant = true
-	return true
+	c.invariant = c.add("invariance", !slices.Contains(used, false), "every generator has a non-zero cofactor")
+	return c.invariant
 }

@@ -71,6 +71,23 @@ func (res *Result) invariance() *checker.Invariance {
 		v.State = m.States[s]
 		claim.States = append(claim.States, v)
 	}
+	// Only the generators some identity uses (the kernel refuses others).
+	var lie []checker.LieTerm
+	for j, t := range claim.Lie {
+		if slices.ContainsFunc(claim.States, func(v checker.Vanish) bool { return v.Cofactors[j] != "0" }) {
+			lie = append(lie, t)
+		}
+	}
+	for i := range claim.States {
+		cs := claim.States[i].Cofactors
+		claim.States[i].Cofactors = nil
+		for j, t := range claim.Lie {
+			if slices.Contains(lie, t) {
+				claim.States[i].Cofactors = append(claim.States[i].Cofactors, cs[j])
+			}
+		}
+	}
+	claim.Lie = lie
 	return claim
 }
 

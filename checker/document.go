@@ -64,12 +64,6 @@ type Claim interface {
 // claimTypes makes an empty claim of each rule, for decoding.
 var claimTypes = map[string]func() Claim{}
 
-func init() {
-	for _, r := range rules {
-		claimTypes[r.name] = r.new
-	}
-}
-
 // marshalClaim writes a claim with its rule name.
 func marshalClaim(c Claim) (json.RawMessage, error) {
 	body, err := marshalNoEscape(c)
@@ -94,15 +88,24 @@ type docWire struct {
 
 // MarshalJSON writes the document with every claim's rule name.
 func (d Document) MarshalJSON() ([]byte, error) {
-	w := docWire{(*docJSON)(&d), []json.RawMessage{}}
-	for _, c := range d.Claims {
+	w := docWire{(*docJSON)(&d), nil}
+	var err error
+	if w.Claims, err = marshalClaims(d.Claims); err != nil {
+		return nil, err
+	}
+	return marshalNoEscape(w)
+}
+
+func marshalClaims(cs []Claim) ([]json.RawMessage, error) {
+	out := []json.RawMessage{}
+	for _, c := range cs {
 		raw, err := marshalClaim(c)
 		if err != nil {
 			return nil, err
 		}
-		w.Claims = append(w.Claims, raw)
+		out = append(out, raw)
 	}
-	return marshalNoEscape(w)
+	return out, nil
 }
 
 // UnmarshalJSON reads the document strictly: every claim must name a known
@@ -113,28 +116,35 @@ func (d *Document) UnmarshalJSON(b []byte) error {
 	if err := strictDecode(b, &w); err != nil {
 		return err
 	}
-	for i, raw := range w.Claims {
+	var err error
+	d.Claims, err = unmarshalClaims(w.Claims)
+	return err
+}
+
+func unmarshalClaims(raws []json.RawMessage) ([]Claim, error) {
+	var out []Claim
+	for i, raw := range raws {
 		var fields map[string]json.RawMessage
 		if err := json.Unmarshal(raw, &fields); err != nil {
-			return fmt.Errorf("claim %d: %w", i+1, err)
+			return nil, fmt.Errorf("claim %d: %w", i+1, err)
 		}
 		var name string
 		if err := json.Unmarshal(fields["rule"], &name); err != nil {
-			return fmt.Errorf("claim %d names no rule", i+1)
+			return nil, fmt.Errorf("claim %d names no rule", i+1)
 		}
 		make, ok := claimTypes[name]
 		if !ok {
-			return fmt.Errorf("claim %d: unknown rule %q", i+1, name)
+			return nil, fmt.Errorf("claim %d: unknown rule %q", i+1, name)
 		}
 		delete(fields, "rule")
 		body, _ := json.Marshal(fields)
 		c := make()
 		if err := strictDecode(body, c); err != nil {
-			return fmt.Errorf("claim %d (%s): %w", i+1, name, err)
+			return nil, fmt.Errorf("claim %d (%s): %w", i+1, name, err)
 		}
-		d.Claims = append(d.Claims, c)
+		out = append(out, c)
 	}
-	return nil
+	return out, nil
 }
 
 func strictDecode(b []byte, v any) error {

@@ -7,6 +7,7 @@ import (
 	"flag"
 	"os"
 	"path/filepath"
+	"slices"
 	"sort"
 	"strings"
 	"testing"
@@ -195,7 +196,25 @@ func hostileFiles(t *testing.T) map[string][]byte {
 			rg.Pieces[2].Holds = true
 			rg.Intervals = append(rg.Intervals, rg.Pieces[2].Interval)
 		}),
-		"forged-region-piece-refuted.json": edit(t, "lorenz.json", func(d *checker.Document) {
+		"forged-point-value.json": edit(t, "lorenz.json", func(d *checker.Document) {
+			// The certificate at r = 1 stated for r = 2.
+			pc := claimOf[*checker.PointCheck](t, d, 0)
+			pc.Params = map[string]string{"r": "2"}
+		}),
+		"forged-point-dropped.json": edit(t, "lorenz.json", func(d *checker.Document) {
+			// The point piece r = 1 left holding without its certificate.
+			d.Claims = slices.DeleteFunc(d.Claims, func(c checker.Claim) bool { return c.Rule() == "point-check" })
+		}),
+		"forged-point-claims.json": edit(t, "lorenz.json", func(d *checker.Document) {
+			// A cofactor of the nested certificate's invariance claim
+			// changed, and the nested certificate re-sealed.
+			sub := claimOf[*checker.PointCheck](t, d, 0).Certificate
+			claimOf[*checker.Invariance](t, sub, 0).States[0].Cofactors[0] = "1"
+			if err := certificates.Seal(sub); err != nil {
+				t.Fatal(err)
+			}
+		}),
+		"forged-region-piece-refuted.json": edit(t, "coolant.json", func(d *checker.Document) {
 			rg := claimOf[*checker.SturmRegion](t, d, 0)
 			for i := range rg.Pieces {
 				if rg.Pieces[i].Status == checker.PieceUndecided {

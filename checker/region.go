@@ -201,7 +201,13 @@ func (c *run) regionPieces(rg *SturmRegion, pi int, conds []poly.Univariate, dom
 		if p.Holds {
 			anyHolds = true
 			holdsText = append(holdsText, p.Interval)
-			if !c.add("region", pos < 0, "piece %d: every condition is > 0 throughout", i+1) {
+			// A rational point piece may hold by a point-check instead.
+			at := c.points[rg.Param+"="+p.Lo]
+			if at != nil && pieces[i].Point() && pieces[i].Lo.Rational() {
+				if c.atPoint == "" || kindRank(at[1]) < kindRank(c.atPoint) {
+					c.atPoint = at[1]
+				}
+			} else if c.byConds = true; !c.add("region", pos < 0, "piece %d: every condition is > 0 throughout", i+1) {
 				return false, false, false, false
 			}
 		} else if anyFails = true; !c.add("region", slices.ContainsFunc(signs, func(s poly.Signs) bool { return s.NonPositive[i] }), "piece %d: some condition is ≤ 0 throughout", i+1) {

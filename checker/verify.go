@@ -54,20 +54,33 @@ type rule struct {
 	check func(c *run, cl Claim) bool
 }
 
-// rules is the kernel's rule table, in the order claims must appear.
-var rules = []rule{
-	{"orbital-derivative", 0, func() Claim { return new(OrbitalDerivative) }, (*run).derivative},
-	{"quadratic-part-ldl", 1, func() Claim { return new(QuadraticPart) }, (*run).quadraticPart},
-	{"monomial-gram-ldl", 1, func() Claim { return new(MonomialGram) }, (*run).monomialGram},
-	{"minor-condition", 2, func() Claim { return new(MinorCondition) }, (*run).minorCondition},
-	{"semidefinite-kernel", 3, func() Claim { return new(NullSpace) }, (*run).nullSpace},
-	{"invariance", 3, func() Claim { return new(Invariance) }, (*run).invariance},
-	{"sturm-region", 4, func() Claim { return new(SturmRegion) }, (*run).sturmRegion},
-	{"paving", 4, func() Claim { return new(Paving) }, (*run).paving},
-	{"witness-points", 4, func() Claim { return new(WitnessPoints) }, (*run).witnessPoints},
-	{"refutation", 5, func() Claim { return new(Refutation) }, (*run).refutation},
-	{"krawczyk-enclosure", 6, func() Claim { return new(KrawczykEnclosure) }, (*run).krawczyk},
-	{"linearization", 7, func() Claim { return new(Linearization) }, (*run).linearization},
+// rules is the kernel's rule table, in the order claims must appear (set in
+// init: point-check verifies nested claims by the same table).
+var rules []rule
+
+func init() {
+	rules = ruleTable()
+	for _, r := range rules {
+		claimTypes[r.name] = r.new
+	}
+}
+
+func ruleTable() []rule {
+	return []rule{
+		{"orbital-derivative", 0, func() Claim { return new(OrbitalDerivative) }, (*run).derivative},
+		{"quadratic-part-ldl", 1, func() Claim { return new(QuadraticPart) }, (*run).quadraticPart},
+		{"monomial-gram-ldl", 1, func() Claim { return new(MonomialGram) }, (*run).monomialGram},
+		{"minor-condition", 2, func() Claim { return new(MinorCondition) }, (*run).minorCondition},
+		{"semidefinite-kernel", 3, func() Claim { return new(NullSpace) }, (*run).nullSpace},
+		{"invariance", 3, func() Claim { return new(Invariance) }, (*run).invariance},
+		{"point-check", 3, func() Claim { return new(PointCheck) }, (*run).pointCheck},
+		{"sturm-region", 4, func() Claim { return new(SturmRegion) }, (*run).sturmRegion},
+		{"paving", 4, func() Claim { return new(Paving) }, (*run).paving},
+		{"witness-points", 4, func() Claim { return new(WitnessPoints) }, (*run).witnessPoints},
+		{"refutation", 5, func() Claim { return new(Refutation) }, (*run).refutation},
+		{"krawczyk-enclosure", 6, func() Claim { return new(KrawczykEnclosure) }, (*run).krawczyk},
+		{"linearization", 7, func() Claim { return new(Linearization) }, (*run).linearization},
+	}
 }
 
 // Verify re-checks d: the model text and its parameters, every claim by the
@@ -78,7 +91,7 @@ func Verify(d *Document) Outcome { return VerifyContext(context.Background(), d)
 // VerifyContext is Verify within ctx's deadline: a run that ctx stops is
 // invalid (its record says so), never a verdict.
 func VerifyContext(ctx context.Context, d *Document) Outcome {
-	c := &run{ctx: ctx, doc: d, records: make([]Record, 0, 64), forms: map[string]*checkedForm{}, seen: map[string]bool{}, sturm: map[string]*poly.Sturm{}}
+	c := &run{ctx: ctx, doc: d, records: make([]Record, 0, 64), forms: map[string]*checkedForm{}, seen: map[string]bool{}, sturm: map[string]*poly.Sturm{}, points: map[string]*[2]string{}}
 	verdict, kind := c.verify()
 	if d.Signature != nil {
 		c.signature()
@@ -109,6 +122,10 @@ type run struct {
 	box     []poly.Interval
 	seen    map[string]bool
 	sturm   map[string]*poly.Sturm // the algebraic ends' polynomials, read once
+	nested  bool                   // the certificate of a point-check: no deeper nesting
+	points  map[string]*[2]string  // verdict and kind proven at parameter points
+	atPoint string                 // the weakest kind a holding point piece uses
+	byConds bool                   // some piece holds by its conditions
 
 	// The direct method.
 	derived     bool         // the orbital derivative was checked
@@ -298,6 +315,9 @@ func (c *run) conclude() (verdict, kind string) {
 		kind = KindGlobal
 	default: // small sublevel sets of V are compact and positively invariant
 		kind = KindLocal
+	}
+	if c.atPoint != "" && (kindRank(c.atPoint) < kindRank(kind) || !c.byConds) {
+		kind = c.atPoint // a region claims what its weakest holding piece proves
 	}
 	return verdict, kind
 }

@@ -90,15 +90,24 @@ func (b *builder) region(rg checker.SturmRegion) (*regionView, error) {
 		point := pc.Lo == pc.Hi && pc.LoPoly == pc.HiPoly && pc.LoClosed && pc.HiClosed
 		iv := interval{lo: lo, hi: hi, loClosed: pc.LoClosed, hiClosed: pc.HiClosed, point: point}
 		word := pieceWord(pc)
-		if pc.Holds {
-			holds = append(holds, iv)
-		}
 		rv.Pieces = append(rv.Pieces, pieceView{pc.Holds, rich{word + " for ", relation{rv.Param, symIn, iv}}})
 		rv.strip = append(rv.strip, stripPiece{
 			lo: endFloat(pc.Lo), hi: endFloat(pc.Hi), loText: endLabel(pc.Lo), hiText: endLabel(pc.Hi),
 			loName: b.alphaOf(lo), hiName: b.alphaOf(hi),
 			holds: pc.Holds, point: point, loClosed: pc.LoClosed, hiOpen: !pc.HiClosed,
 		})
+	}
+	for _, pc := range mergeAdjacent(rg.Intervals) {
+		lo, err := b.end(pc.Lo, pc.LoPoly, pc.LoIsolating)
+		if err != nil {
+			return nil, err
+		}
+		hi, err := b.end(pc.Hi, pc.HiPoly, pc.HiIsolating)
+		if err != nil {
+			return nil, err
+		}
+		point := pc.Lo == pc.Hi && pc.LoPoly == pc.HiPoly && pc.LoClosed && pc.HiClosed
+		holds = append(holds, interval{lo: lo, hi: hi, loClosed: pc.LoClosed, hiClosed: pc.HiClosed, point: point})
 	}
 	if len(rv.strip) == 0 {
 		return nil, fmt.Errorf("the region of %s has no pieces", rg.Param)

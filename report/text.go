@@ -322,6 +322,21 @@ func rootLines(lines []string, indent string, iv checker.Interval) []string {
 	return lines
 }
 
+// mergeAdjacent joins holding intervals that meet ([0, 1) and {1} make
+// [0, 1]), for statements of where a claim holds; the certificate keeps the
+// pieces apart, since each rests on its own argument.
+func mergeAdjacent(ivs []checker.Interval) []checker.Interval {
+	var out []checker.Interval
+	for _, iv := range ivs {
+		if k := len(out) - 1; k >= 0 && out[k].Hi == iv.Lo && out[k].HiPoly == iv.LoPoly && out[k].HiClosed != iv.LoClosed {
+			out[k].Hi, out[k].HiPoly, out[k].HiIsolating, out[k].HiClosed = iv.Hi, iv.HiPoly, iv.HiIsolating, iv.HiClosed
+			continue
+		}
+		out = append(out, iv)
+	}
+	return out
+}
+
 // elsewhere says what the pieces of a one-parameter region that do not hold
 // are: refuted (the candidate fails there), undecided, or some of each.
 func elsewhere(pieces []checker.Piece) string {
@@ -385,7 +400,7 @@ func verdictText(w io.Writer, res *direct.Result) {
 			where = pavingWhere(res)
 		} else if res.Region != nil {
 			var ivs []string
-			for _, iv := range res.Region.Intervals {
+			for _, iv := range mergeAdjacent(res.Region.Intervals) {
 				ivs = append(ivs, intervalText(iv))
 			}
 			where = fmt.Sprintf("for %s in %s", res.Region.Param, strings.Join(ivs, " ∪ "))

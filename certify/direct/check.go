@@ -91,7 +91,8 @@ type Result struct {
 	Witnesses  []checker.Witness
 	Refutation *checker.Refutation
 	Kernel     [][]poly.RatFunc
-	Invariance *checker.Invariance // the invariance principle's identities, when found
+	Invariance *checker.Invariance   // the invariance principle's identities, when found
+	Points     []*checker.PointCheck // rational point pieces proven by the model with the parameter fixed there
 	Doc        *checker.Document
 	Check      checker.Outcome
 	// Paving is the engine's paving of a region in several parameters
@@ -235,6 +236,64 @@ func runCheck(ctx context.Context, m *model.Model, source string, opts PaveOptio
 	return finish(ctx, res, source)
 }
 
+// checkPoints settles the undecided rational point pieces of a region (a
+// form only semidefinite there) by checking the model with the parameter
+// fixed at that value: the whole functions' Gram matrices, the invariance
+// principle. A piece holds when that check proves at least the claim of
+// the rest of the region; its certificate's claims go into this one.
+func (res *Result) checkPoints(name string, pieces []checker.Piece) {
+	if res.Claim != checker.KindGlobal && res.Claim != checker.KindLocal && res.Claim != checker.KindStable {
+		return
+	}
+	rank := func(k string) int {
+		return slices.Index([]string{checker.KindStable, checker.KindLocal, checker.KindGlobal}, k)
+	}
+	weakest, byConds := "", slices.ContainsFunc(pieces, func(pc checker.Piece) bool { return pc.Holds })
+	defer func() {
+		if weakest != "" && (!byConds || rank(weakest) < rank(res.Claim)) {
+			res.Claim = weakest
+		}
+	}()
+	for i, pc := range pieces {
+		v, isRat := new(big.Rat).SetString(pc.Lo)
+		if pc.Status != checker.PieceUndecided || !isRat || pc.LoPoly != "" || pc.Lo != pc.Hi || !pc.LoClosed || !pc.HiClosed {
+			continue
+		}
+		fixed, err := model.FixParams(res.Model, []model.Setting{{Name: name, Value: v}})
+		if err != nil {
+			continue
+		}
+		sub, err := Check(fixed, name+"="+pc.Lo)
+		if err != nil || sub.Verdict != checker.VerdictHolds || rank(sub.Claim) < rank(res.Claim) {
+			continue
+		}
+		if weakest == "" || rank(sub.Claim) < rank(weakest) {
+			weakest = sub.Claim
+		}
+		pieces[i].Holds, pieces[i].Status = true, checker.PieceHolds
+		// The enclosing certificate says when it was issued.
+		doc := sub.Doc
+		doc.Issued = ""
+		if certificates.Seal(doc) != nil {
+			continue
+		}
+		res.Points = append(res.Points, &checker.PointCheck{Params: map[string]string{name: pc.Lo}, Certificate: doc})
+		res.Notes = append(res.Notes, fmt.Sprintf("at %s = %s, where the quadratic test is inconclusive, the model with %s fixed proves the claim (%s); its certificate is part of this one", name, pc.Lo, name, pointHow(sub)))
+	}
+}
+
+// pointHow says in words how a point's check proved its claim.
+func pointHow(sub *Result) string {
+	how := sub.Claim
+	switch {
+	case sub.Invariance != nil:
+		how += ", by the invariance principle"
+	case slices.ContainsFunc(sub.Forms, func(f Form) bool { return f.Basis != nil }):
+		how += ", by Gram matrices of the whole functions"
+	}
+	return how
+}
+
 // refuted reports a one-parameter region every piece of which is refuted.
 func (rg *Region) refuted() bool {
 	if rg == nil || rg.Paving != nil || len(rg.Pieces) == 0 {
@@ -370,6 +429,7 @@ func (res *Result) regionFor(name string) {
 	}
 	pieces := OneParamRegion(m.Ring, i, conds, p.Range)
 	refuteOn(pieces, res.Forms, i)
+	res.checkPoints(name, pieces)
 	res.Region = &Region{Param: name, Intervals: Intervals(pieces), Pieces: pieces}
 	holds, fails, refuted := false, false, true
 	for _, pc := range pieces {
@@ -841,6 +901,9 @@ func (res *Result) document(source string) *checker.Document {
 	}
 	if res.Invariance != nil {
 		add(res.Invariance)
+	}
+	for _, pc := range res.Points {
+		add(pc)
 	}
 	switch rg := res.Region; {
 	case rg != nil && rg.Paving != nil:

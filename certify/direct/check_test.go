@@ -49,9 +49,12 @@ func TestLorenzRegion(t *testing.T) {
 	if res.Region == nil || res.Region.Param != "r" {
 		t.Fatalf("region %+v: σ and b must drop out, leaving r", res.Region)
 	}
+	// [0, 1) by the quadratic test, and {1}, where V̇ is only semidefinite,
+	// by the invariance principle at r = 1: the region is [0, 1] (§9.2).
 	iv := res.Region.Intervals
-	if len(iv) != 1 || iv[0].Lo != "0" || !iv[0].LoClosed || iv[0].Hi != "1" || iv[0].HiClosed {
-		t.Errorf("region %+v, want [0, 1)", iv)
+	if len(iv) != 2 || iv[0].Lo != "0" || !iv[0].LoClosed || iv[0].Hi != "1" || iv[0].HiClosed ||
+		iv[1].Lo != "1" || iv[1].Hi != "1" || !iv[1].LoClosed || !iv[1].HiClosed || len(res.Points) != 1 {
+		t.Errorf("region %+v, want [0, 1) and {1}", iv)
 	}
 	var named []string
 	for _, c := range res.Conds {

@@ -182,9 +182,13 @@ func (c *run) regionPieces(rg *SturmRegion, pi int, conds []poly.Univariate, dom
 		return false, false, false, false
 	}
 	refuted := make([]bool, len(pieces))
+	claimed := make([]bool, len(pieces))
+	for i, p := range rg.Pieces {
+		claimed[i] = p.Status == PieceFails
+	}
 	for _, of := range []string{"V", "-Vdot"} {
-		if f := c.forms[of]; f != nil && !f.basis {
-			for i, neg := range poly.Tiling(pieces).Indefinite(f.minors, pi) {
+		if f := c.forms[of]; f != nil && !f.basis && slices.Contains(claimed, true) {
+			for i, neg := range poly.Tiling(pieces).Indefinite(f.minors, pi, claimed) {
 				refuted[i] = refuted[i] || neg
 			}
 		}

@@ -267,30 +267,35 @@ func CoprimeBasis(ps []Univariate) []Univariate {
 	return basis
 }
 
-// Indefinite tells, for each span, that a symmetric matrix with the leading
-// principal minors ms (rational functions; those that involve variable v
-// only are read, up to the first that does not) has a negative direction
-// at every point of the span: its first leading minor that is not > 0
-// throughout is < 0 throughout. Jacobi: with Δ₁ … Δₖ₋₁ > 0 and Δₖ < 0 the
-// leading k×k block has exactly one negative eigenvalue. A span is false
+// Indefinite tells, for each span i with want[i], that a symmetric matrix
+// with the leading principal minors ms (rational functions; those that
+// involve variable v only are read, up to the first that does not) has a
+// negative direction at every point of the span: its first leading minor
+// that is not > 0 throughout is < 0 throughout. Jacobi: with Δ₁ … Δₖ₋₁ > 0
+// and Δₖ < 0 the leading k×k block has exactly one negative eigenvalue. The
+// minors' signs are computed in order, each once, and only until every
+// wanted span has met its first minor that is not > 0. A span is false
 // when the signs cannot be told.
-func (t Tiling) Indefinite(ms []RatFunc, v int) []bool {
-	var us []Univariate
+func (t Tiling) Indefinite(ms []RatFunc, v int, want []bool) []bool {
+	out := make([]bool, len(t))
+	open := slices.Clone(want) // wanted spans whose first non-positive minor is still ahead
 	for _, mi := range ms {
+		if !slices.Contains(open, true) {
+			break
+		}
 		u, ok := new(Poly).Mul(mi.Num, mi.DenPoly()).Univariate(v) // the sign of mi
 		if !ok {
 			break
 		}
-		us = append(us, u)
-	}
-	out := make([]bool, len(t))
-	signs, known := t.Signs(us)
-	if slices.Contains(known, false) {
-		return out
-	}
-	for i := range t {
-		k := slices.IndexFunc(signs, func(s Signs) bool { return !s.Positive[i] })
-		out[i] = k >= 0 && signs[k].Negative[i]
+		signs, known := t.Signs([]Univariate{u})
+		if !known[0] {
+			break
+		}
+		for i := range t {
+			if open[i] && !signs[0].Positive[i] {
+				out[i], open[i] = signs[0].Negative[i], false
+			}
+		}
 	}
 	return out
 }

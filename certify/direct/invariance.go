@@ -17,6 +17,7 @@ const (
 	lieOrders      = 3
 	cofactorDegree = 2
 	vanishDegree   = 4
+	maxColumns     = 240
 )
 
 // invariance looks for the identities the kernel's invariance rule checks:
@@ -62,7 +63,18 @@ func (res *Result) invariance() *checker.Invariance {
 			h = m.Derivative(h)
 		}
 	}
-	monos := stateMonomials(r, n, cofactorDegree)
+	// The cofactors' degree: the highest that keeps the linear system
+	// within maxColumns unknowns (the elimination is over rational
+	// functions, so its size is what costs).
+	var monos []poly.RatFunc
+	for d := cofactorDegree; d >= 0 && monos == nil; d-- {
+		if ms := stateMonomials(r, n, d); len(gens)*len(ms)+vanishDegree <= maxColumns {
+			monos = ms
+		}
+	}
+	if monos == nil {
+		return nil
+	}
 	for s := range n {
 		v, ok := vanishing(r, s, z[s], at[s], gens, monos)
 		if !ok {
@@ -175,9 +187,6 @@ func nullVector(r *poly.Ring, cols []poly.RatFunc, deg int) ([]poly.RatFunc, boo
 			}
 			a[i][j] = a[i][j].Add(t.coef)
 		}
-	}
-	if len(a)*len(cols) > 40000 {
-		return nil, false
 	}
 	// Gauss–Jordan with the top coefficient's column last in the pivot order,
 	// so that it stays free whenever it can.

@@ -176,6 +176,9 @@ func (c *run) quadraticPart(cl Claim) bool {
 	}
 	g := poly.GramMatrix(whole.Homogeneous(2, c.r.StateMask()), len(c.m.States))
 	cf, ok := c.form(f, g)
+	for _, x := range poly.StateBasis(c.r, len(c.m.States)) {
+		cf.z = append(cf.z, c.m.Unshift(x))
+	}
 	c.forms[f.Of] = cf
 	return ok
 }
@@ -185,7 +188,10 @@ func (c *run) quadraticPart(cl Claim) bool {
 // power of every state is among them, and zᵀGz equals the whole function
 // exactly. Then G ≻ 0 gives zᵀGz > 0 unless z = 0, and z = 0 only at the
 // origin (the pure powers vanish only there): the function is positive
-// definite, and at least λ_min(G)·Σ xᵢ^(2kᵢ), so radially unbounded.
+// definite, and at least λ_min(G)·Σ xᵢ^(2kᵢ), so radially unbounded. For
+// −V̇ a semidefinite G (zero pivots with zero columns of L), or a basis
+// without a pure power of some state, still gives −V̇ = Σ dₖ·qₖ² ≥ 0
+// everywhere: V̇ ≤ 0, a semidefinite form.
 func (c *run) monomialGram(cl Claim) bool {
 	mg := cl.(*MonomialGram)
 	whole, ok := c.shifted(mg.Of)
@@ -220,15 +226,20 @@ func (c *run) monomialGram(cl Claim) bool {
 			free = free && g[i][j].DegreeIn(c.r.StateMask()) <= 0
 		}
 	}
-	if !ok || !c.add(name, !slices.Contains(pure, false), "the basis has a pure power of every state") ||
+	allPure := !slices.Contains(pure, false)
+	if !ok || !c.add(name, allPure || mg.Of == "-Vdot", "the basis has a pure power of every state, or is −V̇'s (then −V̇ ≥ 0 only)") ||
 		!c.add(name, free, "the Gram entries are free of states") ||
 		!c.add(name, poly.QuadraticFormIn(g, z).Equal(whole), "zᵀGz equals the whole function exactly (all degrees)") {
 		return false
 	}
 	cf, ok := c.form(&mg.LDLForm, g)
-	cf.basis = true
+	cf.basis, cf.semidef = true, cf.semidef || !allPure
+	cf.z = make([]poly.RatFunc, n)
+	for i, b := range z {
+		cf.z[i] = c.m.Unshift(poly.FromPoly(b))
+	}
 	c.forms[mg.Of] = cf
-	return ok && c.add(name, !cf.semidef, "a Gram matrix in a monomial basis is definite, not semidefinite")
+	return ok && c.add(name, !cf.semidef || mg.Of == "-Vdot", "a Gram matrix of V in a monomial basis is definite, not semidefinite")
 }
 
 // matrix reads an n×n matrix of rational functions.

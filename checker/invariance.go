@@ -9,7 +9,8 @@ import (
 
 // Invariance shows that the largest invariant set in {V̇ = 0} is the
 // equilibrium. Lie lists generators: the square bases qₖ of −V̇'s
-// semidefinite form (−V̇ = Σ dₖ·qₖ², Square k counted from 1) and their
+// semidefinite form, its quadratic part or a Gram form of the whole in a
+// monomial basis (−V̇ = Σ dₖ·qₖ², Square k counted from 1) and their
 // derivatives along the flow of order Order. States gives, for every state
 // s, a polynomial g in s alone whose only real root is the equilibrium's
 // coordinate, with cofactors: g = Σ Cofactors[j]·Lie[j].
@@ -43,22 +44,18 @@ func (*Invariance) Rule() string { return "invariance" }
 func (c *run) invariance(cl Claim) bool {
 	iv := cl.(*Invariance)
 	f := c.forms["-Vdot"]
-	if !c.once("invariance") || !c.add("invariance", !c.m.Discrete && f != nil && f.semidef && !f.basis && !c.higherD && c.hasKernel,
-		"follows the kernel of a semidefinite −V̇ that is exactly quadratic, in continuous time") {
+	if !c.once("invariance") || !c.add("invariance", !c.m.Discrete && f != nil && f.semidef && (f.basis || !c.higherD && c.hasKernel),
+		"follows a semidefinite −V̇, exactly quadratic with its kernel or a Gram form of the whole, in continuous time") {
 		return false
 	}
 	n := len(c.m.States)
-	z := make([]poly.RatFunc, n) // the states measured from the equilibrium
-	for i := range n {
-		z[i] = poly.FromPoly(poly.Var(c.r, i)).Sub(c.m.At[i])
-	}
 	var gens []poly.RatFunc
 	for j, t := range iv.Lie {
-		if !c.add("invariance", t.Square >= 1 && t.Square <= n && !f.zero[t.Square-1] && t.Order >= 0 && t.Order <= n,
+		if !c.add("invariance", t.Square >= 1 && t.Square <= len(f.z) && !f.zero[t.Square-1] && t.Order >= 0 && t.Order <= n,
 			"generator %d: square %d of −V̇ with a non-zero pivot, derivative of order %d ≤ %d", j+1, t.Square, t.Order, n) {
 			return false
 		}
-		h := poly.SquareBase(f.l, z, t.Square-1)
+		h := poly.SquareBase(f.l, f.z, t.Square-1)
 		for range t.Order {
 			h = c.m.Derivative(h)
 		}

@@ -153,6 +153,7 @@ type slot struct {
 
 type checkedForm struct {
 	g, l    poly.Matrix
+	z       []poly.RatFunc // the basis, in the model's coordinates
 	d       []poly.RatFunc
 	zero    []bool // identically zero pivots
 	minors  []poly.RatFunc
@@ -266,7 +267,7 @@ func (c *run) conclude() (verdict, kind string) {
 	}
 	// The kind of claim the forms support (Lyapunov's direct method).
 	switch {
-	case fv.semidef, fd.semidef && (c.higherD || fd.basis):
+	case fv.semidef, fd.semidef && c.higherD && !fd.basis:
 		kind = KindNone
 	case fd.semidef:
 		kind = KindStable
@@ -306,11 +307,11 @@ func (c *run) conclude() (verdict, kind string) {
 	if verdict == VerdictFails || verdict == VerdictUndecided {
 		kind = KindNone
 	}
-	needKernel := kind == KindStable
+	needKernel := kind == KindStable && !fd.basis
 	c.add("claims", c.hasKernel == needKernel, "a kernel of −V̇ exactly when stability rests on a semidefinite V̇ (%v)", needKernel)
 	switch {
 	case !c.invariant:
-	case !c.add("claims", needKernel, "the invariance principle only where V̇ is semidefinite"):
+	case !c.add("claims", kind == KindStable, "the invariance principle only where V̇ is semidefinite"):
 	case !c.higherV || fv.basis: // V radially unbounded: every solution bounded
 		kind = KindGlobal
 	default: // small sublevel sets of V are compact and positively invariant

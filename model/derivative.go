@@ -40,3 +40,19 @@ func (m *Model) Shift(p poly.RatFunc) poly.RatFunc {
 	}
 	return p.ComposeStates(sub, has)
 }
+
+// Unshift is the inverse of Shift: p(x − at), a function of the states
+// measured from the equilibrium written in the model's own coordinates.
+func (m *Model) Unshift(p poly.RatFunc) poly.RatFunc {
+	if !m.AtGiven {
+		return p
+	}
+	r := m.Ring
+	has := make([]bool, r.NumVars())
+	sub := make([]poly.RatFunc, r.NumVars())
+	for i := range m.States {
+		has[i] = true
+		sub[i] = poly.FromPoly(poly.Var(r, i)).Sub(m.At[i])
+	}
+	return p.ComposeStates(sub, has)
+}

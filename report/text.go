@@ -420,7 +420,7 @@ func verdictText(w io.Writer, res *direct.Result) {
 	case checker.VerdictUndecided:
 		fmt.Fprintf(w, "Verdict: undecided. %s.\n", upper(res.Reason))
 	}
-	if len(res.Kernel) > 0 {
+	if len(res.Kernel) > 0 || res.Invariance != nil {
 		var eqs []string
 		f := res.Forms[1]
 		for k := range f.LDL.D {

@@ -17,8 +17,9 @@ import (
 // matrix among many (finding the best is a semidefinite program); it is
 // exact, and when it is positive definite and z holds a pure power of every
 // state, p > 0 away from the origin. ok is false when some monomial of p is
-// no product of two basis elements or a state has no pure power in z.
-func monomialGram(p poly.RatFunc, nstates int) (basis []*poly.Poly, g poly.Matrix, ok bool) {
+// no product of two basis elements, or, with needPure, a state has no pure
+// power in z.
+func monomialGram(p poly.RatFunc, nstates int, needPure bool) (basis []*poly.Poly, g poly.Matrix, ok bool) {
 	r := p.Ring()
 	mask := r.StateMask()
 	type term struct {
@@ -54,7 +55,7 @@ func monomialGram(p poly.RatFunc, nstates int) (basis []*poly.Poly, g poly.Matri
 	}
 	// The graded order, lower degrees first.
 	slices.SortFunc(half, poly.GradedCompare)
-	for i := 0; i < nstates; i++ {
+	for i := 0; i < nstates && needPure; i++ {
 		if !slices.ContainsFunc(half, func(h []int) bool {
 			for j, x := range h {
 				if (j == i) != (x > 0) {
@@ -127,6 +128,7 @@ func (res *Result) tryBasis(ctx context.Context, opts PaveOptions) *Result {
 	m := res.Model
 	n := len(m.States)
 	nr := &Result{Model: m, V: res.V, Vdot: res.Vdot, Shifted: res.Shifted, HigherV: res.HigherV, HigherD: res.HigherD}
+	semi := false // −V̇'s form is only semidefinite: stability, then the invariance principle
 	wholes := []poly.RatFunc{res.Shifted.V, res.Shifted.Vdot.Neg()}
 	higher := []bool{!res.HigherV.IsZero(), !res.HigherD.IsZero()}
 	for i, f := range res.Forms {
@@ -138,11 +140,14 @@ func (res *Result) tryBasis(ctx context.Context, opts PaveOptions) *Result {
 			nr.Methods = append(nr.Methods, Method{Form: f.Name, Name: MethodQuadratic, Basis: len(f.Gram)})
 			continue
 		}
-		basis, g, ok := monomialGram(wholes[i], n)
+		basis, g, ok := monomialGram(wholes[i], n, i == 0)
 		var l LDL
 		if ok {
 			fac, _ := l.Factorize(g)
-			ok = fac && !l.Semidefinite() && !nonPositivePivot(l)
+			ok = fac && !l.Semidefinite() && !nonPositivePivot(l) && allPure(basis, n)
+			// −V̇ ≥ 0 suffices for stability: a semidefinite Gram form.
+			semi = i == 1 && fac && !negativePivot(l) && (l.Semidefinite() || !allPure(basis, n))
+			ok = ok || semi
 		}
 		if ok {
 			nr.Forms = append(nr.Forms, Form{Name: f.Name, Basis: basis, Gram: g, LDL: l, Minors: l.Minors()})
@@ -164,12 +169,47 @@ func (res *Result) tryBasis(ctx context.Context, opts PaveOptions) *Result {
 		nr.Methods = append(nr.Methods, method)
 	}
 	nr.Claim = checker.KindGlobal
+	if semi {
+		nr.Claim = checker.KindStable
+	}
 	nr.conditions()
 	if err := nr.decide(ctx, opts); err != nil || nr.Verdict != checker.VerdictHolds {
 		return nil
 	}
 	nr.Reason = "V and −V̇ are positive definite as wholes: each is zᵀGz with G ≻ 0 in a monomial basis z holding a pure power of every state"
+	if semi {
+		nr.Reason = "V is positive definite and −V̇ = zᵀGz ≥ 0 with G ⪰ 0 in a monomial basis: V̇ ≤ 0 everywhere"
+		if nr.Invariance = nr.invariance(); nr.Invariance != nil {
+			nr.Claim = checker.KindLocal
+			if !res.HigherV.IsZero() && nr.Forms[0].Basis == nil {
+				return nr
+			}
+			nr.Claim = checker.KindGlobal
+		}
+	}
 	return nr
+}
+
+// allPure reports that a monomial basis holds a pure power of each of the
+// n states.
+func allPure(basis []*poly.Poly, n int) bool {
+	pure := make([]bool, n)
+	for _, b := range basis {
+		if vs := b.VarsUsed(); len(vs) == 1 && vs[0] < n {
+			pure[vs[0]] = true
+		}
+	}
+	return !slices.Contains(pure, false)
+}
+
+// negativePivot reports a pivot that is a negative constant.
+func negativePivot(l LDL) bool {
+	for _, d := range l.D {
+		if d.IsPoly() && d.Num.IsConst() && d.Num.ConstTerm().Sign() < 0 {
+			return true
+		}
+	}
+	return false
 }
 
 // nonPositivePivot reports a pivot that is a constant ≤ 0: that Gram

@@ -230,7 +230,14 @@ func runCheck(ctx context.Context, m *model.Model, source string, opts PaveOptio
 		if res.Verdict != checker.VerdictHolds {
 			quad = "nothing"
 		}
-		up.Notes = append(up.Notes, "the quadratic parts alone give "+quad+"; the Gram matrices of the whole functions in monomial bases give the global claim")
+		how := "the Gram matrices of the whole functions in monomial bases give the global claim"
+		switch {
+		case up.Invariance != nil:
+			how = "the Gram matrix of −V̇ as a whole shows V̇ ≤ 0 everywhere, and the invariance principle gives the asymptotic claim"
+		case up.Claim == checker.KindStable:
+			how = "the Gram matrix of −V̇ as a whole shows V̇ ≤ 0 everywhere: stability"
+		}
+		up.Notes = append(up.Notes, "the quadratic parts alone give "+quad+"; "+how)
 		res = up
 	}
 	return finish(ctx, res, source)

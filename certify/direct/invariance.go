@@ -32,21 +32,30 @@ const (
 // found within the limits.
 func (res *Result) invariance() *checker.Invariance {
 	m := res.Model
-	if m.Discrete || len(res.Forms) != 2 || !res.HigherD.IsZero() {
+	if m.Discrete || len(res.Forms) != 2 || (!res.HigherD.IsZero() && res.Forms[1].Basis == nil) {
 		return nil
 	}
 	fd := res.Forms[1]
 	r := m.Ring
 	n := len(m.States)
-	z := make([]poly.RatFunc, n)
+	y := make([]poly.RatFunc, n) // the states measured from the equilibrium
 	at := make([]*big.Rat, n)
+	has := make([]bool, r.NumVars())
 	for i := range n {
 		a, err := m.At[i].EvalVars(nil)
 		if err != nil || !a.IsPoly() || !a.Num.IsConst() {
 			return nil
 		}
 		at[i] = a.Num.ConstTerm()
-		z[i] = poly.FromPoly(poly.Var(r, i)).Sub(a)
+		y[i], has[i] = poly.FromPoly(poly.Var(r, i)).Sub(a), true
+	}
+	z := y // the basis of −V̇'s form, in the model's coordinates
+	if fd.Basis != nil {
+		z = nil
+		sub := append(slices.Clone(y), make([]poly.RatFunc, r.NumVars()-n)...)
+		for _, b := range fd.Basis {
+			z = append(z, poly.FromPoly(b).ComposeStates(sub, has))
+		}
 	}
 	claim := &checker.Invariance{}
 	var gens []poly.RatFunc
@@ -76,7 +85,7 @@ func (res *Result) invariance() *checker.Invariance {
 		return nil
 	}
 	for s := range n {
-		v, ok := vanishing(r, s, z[s], at[s], gens, monos)
+		v, ok := vanishing(r, s, y[s], at[s], gens, monos)
 		if !ok {
 			return nil
 		}

@@ -3,6 +3,7 @@ package direct
 import (
 	"errors"
 	"math/big"
+	"slices"
 
 	"github.com/lyacert/lyacert/poly"
 )
@@ -173,20 +174,31 @@ func ratLDL(g [][]*big.Rat) (int, []*big.Rat, *big.Rat) {
 	for k := 0; k < n; k++ {
 		d := a[k][k]
 		if d.Sign() <= 0 {
-			// Solve Lₖᵀ y = eₖ on the leading block by back substitution.
+			// Solve Lᵀ y = w by back substitution, w = eₖ; or, for a zero
+			// pivot coupled to a later row j, w = s·eₖ + eⱼ with
+			// wᵀAw = a_jj + 2s·a_kj = −1 in the remaining block A: a
+			// strictly negative direction.
 			y := make([]*big.Rat, n)
 			for i := range y {
 				y[i] = new(big.Rat)
 			}
 			y[k].SetInt64(1)
+			val := new(big.Rat).Set(d)
+			if j := slices.IndexFunc(a[k][k+1:], func(x *big.Rat) bool { return x.Sign() != 0 }); d.Sign() == 0 && j >= 0 {
+				j += k + 1
+				sk := new(big.Rat).Add(a[j][j], big.NewRat(1, 1))
+				sk.Quo(sk, new(big.Rat).Mul(big.NewRat(-2, 1), a[k][j]))
+				y[k], y[j] = sk, big.NewRat(1, 1)
+				val.SetInt64(-1)
+			}
 			for j := k - 1; j >= 0; j-- {
 				s := new(big.Rat)
-				for i := j + 1; i <= k; i++ {
+				for i := j + 1; i < n; i++ {
 					s.Add(s, new(big.Rat).Mul(l[i][j], y[i]))
 				}
 				y[j].Neg(s)
 			}
-			return k, y, new(big.Rat).Set(d)
+			return k, y, val
 		}
 		for i := k + 1; i < n; i++ {
 			l[i][k].Quo(a[i][k], d)

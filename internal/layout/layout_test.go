@@ -15,13 +15,13 @@ import (
 // only packages of lower layers (common practice: a layered architecture
 // with one-way imports).
 var layers = [][]string{
-	{"poly", "internal/workpool", "internal/bounded", "examples", "certify/interval", "certify/lyapunov", "certify/sdp"},
+	{"poly", "internal/workpool", "internal/bounded", "examples", "certify/interval", "certify/lyapunov", "certify/sdp", "certify/ode"},
 	{"model"},
 	{"checker"},
 	{"certificates"},
 	{"certify", "certify/pave", "certify/sos"},
 	{"certify/direct", "certify/branches"},
-	{"certify/equilibria", "certify/sossearch"},
+	{"certify/equilibria", "certify/sossearch", "certify/basin"},
 	{"sweep"},
 	{"report"},
 	{"cmd/lyacert", "examples/slurm"},

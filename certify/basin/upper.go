@@ -106,7 +106,7 @@ func (r *rays) lowestRise(n int) (x []float64, v float64, ok bool) {
 }
 
 // exactRise returns a rational point near x, other than the equilibrium,
-// with V̇ ≥ 0 exactly: x rounded to the fewest decimals that keep V̇ ≥ 0 and
+// with V̇ ≥ 0 exactly: x rounded (outward from x*, or to nearest) to the fewest decimals that keep V̇ ≥ 0 and
 // V within a relative 1e-7 of V at x, or failing that x itself pushed
 // outward along its ray.
 func exactRise(v, vdot *poly.Poly, at []*big.Rat, x []float64, vx float64) ([]*big.Rat, bool) {
@@ -122,18 +122,24 @@ func exactRise(v, vdot *poly.Poly, at []*big.Rat, x []float64, vx float64) ([]*b
 		w, _ := v.Eval(p).Float64()
 		return w <= vx+1e-7*math.Abs(vx)+1e-300
 	}
-	for digits := 1; digits <= 17; digits++ {
-		p := make([]*big.Rat, n)
-		for i := range x {
-			p[i] = decimal(x[i], digits)
-		}
-		if good(p) {
-			return p, true
-		}
-	}
 	atf := make([]float64, n)
 	for i := range at {
 		atf[i], _ = at[i].Float64()
+	}
+	for digits := 1; digits <= 17; digits++ {
+		for _, away := range []bool{true, false} {
+			p := make([]*big.Rat, n)
+			for i := range x {
+				if away { // |x − x*| rounded up: outward, where V̇ ≥ 0 is likelier
+					p[i] = new(big.Rat).Add(at[i], decimalAway(x[i]-atf[i], digits))
+				} else {
+					p[i] = decimal(x[i], digits)
+				}
+			}
+			if good(p) {
+				return p, true
+			}
+		}
 	}
 	for eps := 1e-12; eps < 1e-2; eps *= 4 {
 		p := make([]*big.Rat, n)
@@ -145,6 +151,22 @@ func exactRise(v, vdot *poly.Poly, at []*big.Rat, x []float64, vx float64) ([]*b
 		}
 	}
 	return nil, false
+}
+
+// decimalAway returns x rounded away from zero to the given number of
+// significant digits.
+func decimalAway(x float64, digits int) *big.Rat {
+	if x == 0 {
+		return new(big.Rat)
+	}
+	e := int(math.Floor(math.Log10(math.Abs(x)))) - digits + 1
+	m := math.Ceil(math.Abs(x) / math.Pow(10, float64(e)))
+	r := new(big.Rat).SetFloat64(math.Copysign(m, x))
+	p := new(big.Rat).SetInt(new(big.Int).Exp(big.NewInt(10), big.NewInt(int64(abs(e))), nil))
+	if e >= 0 {
+		return r.Mul(r, p)
+	}
+	return r.Quo(r, p)
 }
 
 // decimal returns x rounded to the given number of significant digits.

@@ -47,4 +47,3 @@ func TestTestdataBasinCertificates(t *testing.T) {
 		})
 	}
 }
-

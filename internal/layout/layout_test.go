@@ -101,11 +101,13 @@ func TestImportsFlowOneWay(t *testing.T) {
 }
 
 // kernelBudget is the kernel's size in lines of non-test Go: 2,000 for the
-// direct method, regions, pavings, refutations and linearization, and 150
-// more for the invariance principle and refuted region pieces. A new rule
-// pays for itself by moving general algebra to poly, or raises the budget
-// by its own size, never more.
-const kernelBudget = 2150
+// direct method, regions, pavings, refutations and linearization, 150 more
+// for the invariance principle and refuted region pieces, and 112 for the
+// sublevel-basin rule (its 152 lines, less the 31 that the paving's walk
+// moved to poly.FormWalk and the 9 left over). A new rule pays for itself
+// by moving general algebra to poly, or raises the budget by its own size,
+// never more.
+const kernelBudget = 2262
 
 // TestKernelIsSmallAndExact: the kernel imports only poly, model and the
 // standard library (no third-party code), names no floating-point type or

@@ -36,6 +36,12 @@
 //	krawczyk-enclosure   Krawczyk's theorem: K(X) inside X ⇒ exactly one equilibrium
 //	linearization        Lyapunov's indirect method: M(x*) ≻ 0 with P ≻ 0 (stable)
 //	                     or a negative pivot of P (unstable)
+//	sublevel-basin       region of attraction (Lyapunov, LaSalle): a box of the
+//	                     states bisected, V > c on the boxes along its boundary
+//	                     and wherever V̇ < 0 is not proven (centred forms, or
+//	                     −V̇ = yᵀ(G + M(y))y definite on a box at the equilibrium),
+//	                     so {V ≤ c} around the equilibrium is compact, invariant
+//	                     and attracted; the level joins the outcome, not the verdict
 //
 // Lyapunov's direct method combines them: V and −V̇ definite as wholes give
 // global asymptotic stability, their quadratic parts local asymptotic

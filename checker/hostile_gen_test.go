@@ -191,6 +191,53 @@ func hostileFiles(t *testing.T) map[string][]byte {
 				&checker.Refutation{Params: map[string]string{}, Point: map[string]string{"x": "0", "y": "2"}, V: "4", Vdot: "96"},
 			}
 		}),
+		// Sublevel basins: the ring example's best level is exactly 2
+		// (V̇ = 2V(V − 2)); its certificate states a level near 1.9.
+		"forged-basin-level-beyond-chi.json": edit(t, "basin-ring.json", func(d *checker.Document) {
+			claimOf[*checker.SublevelBasin](t, d, 0).Level = "201/100"
+		}),
+		"forged-basin-level-huge.json": edit(t, "basin-ring.json", func(d *checker.Document) {
+			claimOf[*checker.SublevelBasin](t, d, 0).Level = "10"
+		}),
+		"forged-basin-level-zero.json": edit(t, "basin-ring.json", func(d *checker.Document) {
+			claimOf[*checker.SublevelBasin](t, d, 0).Level = "0"
+		}),
+		"forged-basin-edge-box-inside.json": edit(t, "basin-ring.json", func(d *checker.Document) {
+			b := claimOf[*checker.SublevelBasin](t, d, 0)
+			b.Tree = strings.Replace(b.Tree, "O", "I", 1) // the first leaf is a corner
+		}),
+		"forged-basin-box-reclassified.json": edit(t, "basin-ring.json", func(d *checker.Document) {
+			b := claimOf[*checker.SublevelBasin](t, d, 0)
+			b.Tree = strings.Replace(b.Tree, "I", "O", 1)
+		}),
+		"forged-basin-box-removed.json": edit(t, "basin-vanderpol.json", func(d *checker.Document) {
+			b := claimOf[*checker.SublevelBasin](t, d, 0)
+			b.Tree = b.Tree[:len(b.Tree)-1]
+		}),
+		"forged-basin-undecided-box.json": edit(t, "basin-vanderpol.json", func(d *checker.Document) {
+			b := claimOf[*checker.SublevelBasin](t, d, 0)
+			b.Tree = strings.Replace(b.Tree, "I", "U", 1)
+		}),
+		"forged-basin-equilibrium-outside.json": edit(t, "basin-ring.json", func(d *checker.Document) {
+			b := claimOf[*checker.SublevelBasin](t, d, 0)
+			b.Lo = []string{"0", "0"}
+		}),
+		"forged-basin-box-shrunk.json": edit(t, "basin-ring.json", func(d *checker.Document) {
+			b := claimOf[*checker.SublevelBasin](t, d, 0)
+			b.Lo, b.Hi = []string{"-1", "-1"}, []string{"1", "1"}
+		}),
+		"forged-basin-alone.json": edit(t, "basin-ring.json", func(d *checker.Document) {
+			d.Claims = []checker.Claim{claimOf[*checker.SublevelBasin](t, d, 0)}
+		}),
+		// The same claim for a system whose best level is 1 (V̇ = 2V(V − 1)),
+		// with its derivative stated correctly: V̇ > 0 on part of the set.
+		"forged-basin-other-model.json": edit(t, "basin-ring.json", func(d *checker.Document) {
+			d.Model = "state x1, x2\nx1' = x1^3 - 3*x1*x2^2 - x1\nx2' = 5*x1^2*x2 + x2^3 - x2\nV = x1^2 + x2^2\n"
+			d.Claims = []checker.Claim{
+				&checker.OrbitalDerivative{V: "x1^2 + x2^2", Vdot: "2*x1^4 + 4*x1^2*x2^2 + 2*x2^4 - 2*x1^2 - 2*x2^2"},
+				claimOf[*checker.SublevelBasin](t, d, 0),
+			}
+		}),
 		"forged-region-piece-holds.json": edit(t, "lorenz.json", func(d *checker.Document) {
 			rg := claimOf[*checker.SturmRegion](t, d, 0)
 			rg.Pieces[2].Holds = true

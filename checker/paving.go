@@ -232,51 +232,26 @@ func (c *run) paving(cl Claim) bool {
 }
 
 // pavingTree checks the class of every box of the tree exactly, walking the
-// tree with the centred forms of the conditions: a child's form follows from
-// its parent's by CenteredForm.Half.
+// tree with the centred forms of the conditions (poly.FormWalk).
 func (c *run) pavingTree(tree string, vars []int, sides []poly.Interval, open poly.OpenFaces, level int) (map[byte]int, bool) {
 	count := map[byte]int{}
-	root := make([]*poly.CenteredForm, len(c.conds))
+	ps := make([]*poly.Poly, len(c.conds))
 	for j, q := range c.conds {
-		f, err := poly.NewCenteredForm(q.Num, vars, sides)
-		if !c.add("paving", err == nil, "condition %d has a centred form on the box%s", j+1, errSuffix(err)) {
-			return nil, false
-		}
-		root[j] = f
+		ps[j] = q.Num
 	}
-	// forms[d] holds the forms of the box at depth d of the current path.
-	forms := [][]*poly.CenteredForm{root}
+	walk, err := poly.NewFormWalk(ps, vars, sides)
+	if !c.add("paving", err == nil, "the conditions have centred forms on the box%s", errSuffix(err)) {
+		return nil, false
+	}
 	var bad error
-	err := walkPaving(tree, len(vars), level, func(code byte, g poly.DyadicBox) error {
-		// The walk is depth-first: the depth of a box is the number of its
-		// halvings, and its parent's forms are at depth − 1.
-		d := 0
-		for _, k := range g.K {
-			d += k
-		}
-		if d > 0 {
-			for len(forms) <= d {
-				fs := make([]*poly.CenteredForm, len(root))
-				for j := range fs {
-					fs[j] = new(poly.CenteredForm)
-				}
-				forms = append(forms, fs)
-			}
-			// g is the lower or upper half of its parent along the
-			// parent's split coordinate; in depth-first order the parent's
-			// forms are the last ones written at depth d − 1.
-			dim := poly.ParentSplit(g.K)
-			for j := range root {
-				forms[d][j].Half(forms[d-1][j], dim, g.A[dim]%2 == 1)
-			}
-		}
+	err = walkPaving(tree, len(vars), level, func(code byte, g poly.DyadicBox) error {
+		fs := walk.At(g)
 		if code == PaveSplit {
 			return nil // a split box claims nothing; walkPaving checked its width
 		}
 		if count[code]++; count[code]%4096 == 0 && c.ctx.Err() != nil {
 			return c.ctx.Err()
 		}
-		fs := forms[d]
 		faces := g.OpenFacesOn(open)
 		positive, nonPositive := true, false
 		for _, f := range fs {
@@ -285,11 +260,11 @@ func (c *run) pavingTree(tree string, vars []int, sides []poly.Interval, open po
 		}
 		switch {
 		case code == PaveInside && !positive:
-			bad = fmt.Errorf("an inside box at depth %d is not proven inside", d)
+			bad = fmt.Errorf("an inside box at depth %d is not proven inside", g.Depth())
 		case code == PaveOutside && !nonPositive:
-			bad = fmt.Errorf("an outside box at depth %d is not proven outside", d)
+			bad = fmt.Errorf("an outside box at depth %d is not proven outside", g.Depth())
 		case code == PaveUndecided && (positive || nonPositive):
-			bad = fmt.Errorf("an undecided box at depth %d is decided by the exact test", d)
+			bad = fmt.Errorf("an undecided box at depth %d is decided by the exact test", g.Depth())
 		}
 		return bad
 	})

@@ -36,13 +36,16 @@ type Record struct {
 // checks, and the verdict and kind of claim derived from the verified claims.
 // Refuted says that an exact point refutes the candidate itself (not only
 // the argument); Region names the rules the region of parameters rests on
-// ("" when the conditions are settled without one).
+// ("" when the conditions are settled without one). Basin is the level c of
+// a verified sublevel-basin claim: the component of {V ≤ c} around the
+// equilibrium lies in its region of attraction ("" without one).
 type Outcome struct {
 	Valid   bool     `json:"valid"`
 	Verdict string   `json:"verdict"`
 	Kind    string   `json:"kind"`
 	Refuted bool     `json:"refuted"`
 	Region  string   `json:"region"`
+	Basin   string   `json:"basin,omitempty"`
 	Records []Record `json:"checks"`
 }
 
@@ -80,6 +83,7 @@ func ruleTable() []rule {
 		{"refutation", 5, func() Claim { return new(Refutation) }, (*run).refutation},
 		{"krawczyk-enclosure", 6, func() Claim { return new(KrawczykEnclosure) }, (*run).krawczyk},
 		{"linearization", 7, func() Claim { return new(Linearization) }, (*run).linearization},
+		{"sublevel-basin", 8, func() Claim { return new(SublevelBasin) }, (*run).sublevelBasin},
 	}
 }
 
@@ -96,7 +100,7 @@ func VerifyContext(ctx context.Context, d *Document) Outcome {
 	if d.Signature != nil {
 		c.signature()
 	}
-	out := Outcome{Valid: c.ok() && len(c.records) > 0, Records: c.records, Verdict: verdict, Kind: kind, Refuted: c.refuted}
+	out := Outcome{Valid: c.ok() && len(c.records) > 0, Records: c.records, Verdict: verdict, Kind: kind, Refuted: c.refuted, Basin: c.basin}
 	if out.Valid {
 		var rs []string
 		for _, r := range []string{"sturm-region", "paving", "witness-points"} {
@@ -106,7 +110,7 @@ func VerifyContext(ctx context.Context, d *Document) Outcome {
 		}
 		out.Region = strings.Join(rs, " + ")
 	} else {
-		out.Verdict, out.Kind, out.Refuted = "", "", false
+		out.Verdict, out.Kind, out.Refuted, out.Basin = "", "", false, ""
 	}
 	return out
 }
@@ -142,6 +146,7 @@ type run struct {
 	refuted     bool
 	equilibrium []poly.Interval // a box (or point) established by krawczyk-enclosure
 	linear      string          // the kind a linearization gave
+	basin       string          // the level of a verified sublevel set in the region of attraction
 }
 
 // slot is the index-th leading minor of a form.

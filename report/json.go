@@ -126,6 +126,9 @@ type VerifyOutput struct {
 	TrustRequired    bool             `json:"trust_required"`
 	Trusted          bool             `json:"trusted"`
 	UntrustedBecause *string          `json:"untrusted_because"`
+	// Basin is the level c of a verified sublevel-basin claim (absent
+	// without one).
+	Basin string `json:"basin,omitempty"`
 }
 
 // VerifyJSON is the JSON of checker.Verify's outcome for doc and of the
@@ -134,7 +137,7 @@ func VerifyJSON(doc *checker.Document, out checker.Outcome, trust Trust) VerifyO
 	altered, recomputed := Altered(doc)
 	v := VerifyOutput{Valid: out.Valid && (!trust.Required || trust.Trusted), MathematicsValid: out.Valid,
 		Claim: out.Kind, Verdict: out.Verdict, Digest: doc.Digest, Altered: altered, RecomputedDigest: recomputed,
-		Disagreements: []checker.Record{}, Checks: out.Records, TrustRequired: trust.Required, Trusted: trust.Trusted}
+		Disagreements: []checker.Record{}, Checks: out.Records, TrustRequired: trust.Required, Trusted: trust.Trusted, Basin: out.Basin}
 	if v.Checks == nil {
 		v.Checks = []checker.Record{}
 	}

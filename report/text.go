@@ -625,6 +625,9 @@ func VerifyText(w io.Writer, file string, doc *checker.Document, out checker.Out
 	}
 	fmt.Fprintf(ew, "%s: valid. %d checks passed (exact arithmetic).\n", file, len(out.Records))
 	fmt.Fprintf(ew, "  claim %s, verdict %s\n  digest %s\n", out.Kind, out.Verdict, doc.Digest)
+	if out.Basin != "" {
+		fmt.Fprintf(ew, "  region of attraction: the component of {V ≤ %s} around the equilibrium\n", out.Basin)
+	}
 	switch {
 	case trust.Required:
 		fmt.Fprintf(ew, "  signed by the trusted key %s\n", trust.Signer)

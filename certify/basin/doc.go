@@ -1,0 +1,31 @@
+// Package basin estimates the region of attraction of an equilibrium by
+// sublevel sets of a candidate V in continuous time, with every parameter
+// fixed: a level c_lo certified by the kernel's sublevel-basin rule, and a
+// level c_hi above which no sublevel set of V around the equilibrium can be
+// certified, witnessed by an exact rational point x ≠ x* with V̇(x) ≥ 0 and
+// V(x) = c_hi.
+//
+// The lower level comes from interval branch and bound on a box of the
+// states around the equilibrium. Every box of a bisection tree carries the
+// centred forms (poly.CenteredForm) of V and −V̇. A box is settled when −V̇
+// is proven positive on it, or, near the equilibrium, when −V̇ =
+// yᵀ(G + M(y))y (y = x − x*, G the Gram matrix of the quadratic part, M the
+// higher terms) is proven definite on it (poly.PositiveNearZero). Every other
+// box, and every box along the boundary, bounds the level from above by the
+// lower end ℓ of V's enclosure on it: a level c < ℓ makes it a box with
+// V > c. The box with the smallest ℓ is halved next, so the certified level
+// min ℓ rises until it is within the asked gap of c_hi, the resolution is
+// reached or the budget is spent. The level written is a short decimal just
+// below min ℓ; the tree is then classified against it (I: V̇ < 0, O: V > c)
+// and the kernel re-checks every box exactly. Float64 proposes nothing
+// here: the engine decides with the same exact forms as the kernel.
+//
+// The upper level is found in float64: along rays from the equilibrium in
+// many directions the first points where V̇ ≥ 0 are located by bisection, the
+// direction of least V is refined by a pattern search, and the point is
+// rounded to the shortest decimals at which V̇ ≥ 0 holds exactly; V there,
+// computed exactly, is c_hi. A sublevel set {V ≤ c} whose component around
+// the equilibrium holds that point, as it does for c ≥ c_hi when the set is
+// star-shaped about x*, has a point with V̇ ≥ 0 other than x* and cannot be
+// shown to lie in the region of attraction by V.
+package basin

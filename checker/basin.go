@@ -1,0 +1,137 @@
+package checker
+
+import (
+	"errors"
+	"fmt"
+	"math/big"
+
+	"github.com/lyacert/lyacert/poly"
+)
+
+// SublevelBasin claims that every state of the connected component of
+// {V ≤ Level} around the equilibrium tends to the equilibrium. The box of
+// the states (sides [Lo[i], Hi[i]], canonical rationals) is bisected like a
+// Paving's (Resolution, Tree; codes S, I, O, no U): on an O box V > Level
+// throughout, on an I box V̇ < 0 except at the equilibrium; every box that
+// touches the box's boundary is an O box.
+type SublevelBasin struct {
+	Level      string   `json:"level"`
+	Lo         []string `json:"lo"`
+	Hi         []string `json:"hi"`
+	Resolution string   `json:"resolution"`
+	Tree       string   `json:"tree"`
+}
+
+func (*SublevelBasin) Rule() string { return "sublevel-basin" }
+
+// sublevelBasin: a compact positively invariant set on which V̇ < 0 except at
+// the equilibrium lies in the equilibrium's region of attraction (Lyapunov's
+// direct method with LaSalle's invariance principle; Khalil, Nonlinear
+// Systems, §8.2). Let K be the component of {V ≤ c} that holds x*. The
+// equilibrium lies inside the box and V(x*) < c, while V > c on every
+// box along the boundary, so the connected K never meets the boundary: K is
+// closed and inside the box, hence compact. Every point of K lies in a box
+// that is not an O box, so V̇ < 0 on K but at x*. A solution that starts in K
+// cannot leave it: V does not grow on it, and a continuous path that stays in
+// {V ≤ c} stays in one component. Solutions in K therefore exist for all
+// time and tend to the largest invariant set in {V̇ = 0} ∩ K, which is {x*}.
+// An I box is proven by the centred form of −V̇ > 0 on it, or by
+// −V̇ = yᵀ(G + M(y))y (y = x − x*) with every matrix of G + Enclose(M) on the
+// box positive definite (poly.PositiveNearZero).
+func (c *run) sublevelBasin(cl Claim) bool {
+	b := cl.(*SublevelBasin)
+	n := len(c.m.States)
+	const what = "sublevel-basin"
+	if !c.once(what) || !c.add(what, c.derived && !c.m.Discrete && c.r.NumVars() == n && c.v.IsPoly() && c.vdot.IsPoly(),
+		"follows V̇ in continuous time, V and V̇ polynomials with every parameter fixed") {
+		return false
+	}
+	level, ok := parseRat(b.Level)
+	if !c.add(what, ok && level.RatString() == b.Level && level.Sign() > 0, "the level %q is a canonical rational > 0", b.Level) {
+		return false
+	}
+	res, ok := ResolutionLevel(b.Resolution)
+	if !c.add(what, ok, "the resolution %q is 2^-L with 0 ≤ L ≤ %d", b.Resolution, MaxPavingLevel) {
+		return false
+	}
+	sides, at, err := c.basinBox(b)
+	if !c.add(what, err == nil, "the box is well formed and holds the equilibrium inside%s", errSuffix(err)) {
+		return false
+	}
+	vars := make([]int, n)
+	for i := range vars {
+		vars[i] = i
+	}
+	vc := new(poly.Poly).Sub(c.v.Num, poly.Const(c.r, level))
+	walk, err := poly.NewFormWalk([]*poly.Poly{vc, new(poly.Poly).Neg(c.vdot.Num)}, vars, sides)
+	if !c.add(what, err == nil, "V − level and −V̇ have centred forms on the box%s", errSuffix(err)) {
+		return false
+	}
+	near := c.m.Shift(c.vdot).Neg().Num // −V̇ at x* + y, in y
+	count := 0
+	err = walkPaving(b.Tree, n, res, func(code byte, g poly.DyadicBox) error {
+		fs := walk.At(g)
+		if count++; count%4096 == 0 && c.ctx.Err() != nil {
+			return c.ctx.Err()
+		}
+		switch code {
+		case PaveSplit:
+			return nil
+		case PaveOutside:
+			if !fs[0].PositiveOn(poly.OpenFaces{}) {
+				return fmt.Errorf("an O box at depth %d is not proven to have V > level", g.Depth())
+			}
+			return nil
+		case PaveInside:
+		default:
+			return fmt.Errorf("box %d has the code %q, not S, I or O", count, code)
+		}
+		if g.OnEdge() {
+			return fmt.Errorf("an I box at depth %d touches the boundary", g.Depth())
+		}
+		if fs[1].PositiveOn(poly.OpenFaces{}) {
+			return nil
+		}
+		y := g.Sides(sides)
+		for i := range y {
+			y[i] = y[i].Sub(poly.Point(at[i]))
+		}
+		if !near.PositiveNearZero(y) {
+			return fmt.Errorf("an I box at depth %d is not proven to have V̇ < 0 but at the equilibrium", g.Depth())
+		}
+		return nil
+	})
+	if !c.add(what, err == nil, "every box of the tree has its class by the exact test%s", errSuffix(err)) {
+		return false
+	}
+	c.basin = b.Level
+	return true
+}
+
+// basinBox reads the box of a basin claim and the equilibrium, which must
+// be a rational point inside it where V is below the level.
+func (c *run) basinBox(b *SublevelBasin) ([]poly.Interval, []*big.Rat, error) {
+	n := len(c.m.States)
+	if len(b.Lo) != n || len(b.Hi) != n {
+		return nil, nil, fmt.Errorf("%d and %d sides for %d states", len(b.Lo), len(b.Hi), n)
+	}
+	sides := make([]poly.Interval, n)
+	at := make([]*big.Rat, n)
+	for i := range n {
+		lo, ok1 := parseRat(b.Lo[i])
+		hi, ok2 := parseRat(b.Hi[i])
+		a, err := c.m.At[i].EvalVars(nil)
+		if !ok1 || !ok2 || lo.RatString() != b.Lo[i] || hi.RatString() != b.Hi[i] || err != nil || !a.IsPoly() || !a.Num.IsConst() {
+			return nil, nil, fmt.Errorf("side %d is not two canonical rationals", i+1)
+		}
+		at[i] = a.Num.ConstTerm()
+		if lo.Cmp(at[i]) >= 0 || at[i].Cmp(hi) >= 0 {
+			return nil, nil, fmt.Errorf("the equilibrium is not inside side %d", i+1)
+		}
+		sides[i] = poly.Closed(lo, hi)
+	}
+	if level, _ := parseRat(b.Level); c.v.Num.Eval(at).Cmp(level) >= 0 {
+		return nil, nil, errors.New("V at the equilibrium is not below the level")
+	}
+	return sides, at, nil
+}

@@ -1,0 +1,313 @@
+package report
+
+import (
+	"fmt"
+	"image/color"
+	"io"
+	"math"
+	"math/big"
+	"strings"
+
+	"github.com/lyacert/lyacert/certify/basin"
+	"github.com/lyacert/lyacert/certify/ode"
+	"github.com/lyacert/lyacert/poly"
+
+	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/plotter"
+	"gonum.org/v1/plot/vg"
+	"gonum.org/v1/plot/vg/draw"
+)
+
+// BasinOutput is the JSON of a region-of-attraction estimate: the certified
+// level c_lo, the level c_hi of an exact point with V̇ ≥ 0, both exact and
+// in decimals, their relative gap, the point, how it was found, and the
+// certificate's digest and re-check.
+type BasinOutput struct {
+	V              string            `json:"V"`
+	Vdot           string            `json:"vdot"`
+	Equilibrium    []string          `json:"equilibrium"`
+	CLo            string            `json:"c_lo"`
+	CLoDecimal     string            `json:"c_lo_decimal"`
+	CHi            *string           `json:"c_hi"` // null when no point with V̇ ≥ 0 was found
+	CHiDecimal     *string           `json:"c_hi_decimal"`
+	Gap            *string           `json:"gap"` // (c_hi − c_lo)/c_hi, decimal
+	Counterexample *CounterexampleJS `json:"counterexample"`
+	Method         string            `json:"method"`
+	Note           string            `json:"note"`
+	Boxes          int               `json:"boxes"`
+	Verdict        string            `json:"verdict"` // the direct method's, as the kernel derives it
+	Claim          string            `json:"claim"`
+	Digest         string            `json:"digest"`
+	Checks         int               `json:"checks_passed"`
+	Certificate    string            `json:"certificate"`
+}
+
+// CounterexampleJS is the exact point behind c_hi: the states, V and V̇ there.
+type CounterexampleJS struct {
+	Point map[string]string `json:"point"`
+	V     string            `json:"V"`
+	Vdot  string            `json:"vdot"`
+}
+
+// dec writes q with six significant digits.
+func dec(q *big.Rat) string {
+	f, _ := q.Float64()
+	return fmt.Sprintf("%.6g", f)
+}
+
+// BasinJSON is the JSON of res; written is the certificate file, "" when none.
+func BasinJSON(res *basin.Result, written string) BasinOutput {
+	d := res.Direct
+	out := BasinOutput{V: d.V.String(), Vdot: d.Vdot.String(), CLo: res.Level.RatString(), CLoDecimal: dec(res.Level),
+		Method: res.Method, Note: res.Note, Boxes: res.Inside + res.Outside, Verdict: res.Check.Verdict, Claim: res.Check.Kind,
+		Digest: res.Doc.Digest, Checks: len(res.Check.Records), Certificate: written}
+	for _, a := range res.Equilibrium {
+		out.Equilibrium = append(out.Equilibrium, a.RatString())
+	}
+	if res.Upper != nil {
+		hi, hd, gap := res.Upper.RatString(), dec(res.Upper), fmt.Sprintf("%.4g", res.Gap())
+		out.CHi, out.CHiDecimal, out.Gap = &hi, &hd, &gap
+		ce := &CounterexampleJS{Point: map[string]string{}, V: res.Upper.RatString(), Vdot: res.CounterVdot.RatString()}
+		for i, s := range d.Model.States {
+			ce.Point[s] = res.Counterexample[i].RatString()
+		}
+		out.Counterexample = ce
+	}
+	return out
+}
+
+// BasinText writes res for a terminal; written is the certificate file, ""
+// when none. It returns the first write error.
+func BasinText(w io.Writer, res *basin.Result, written string) error {
+	ew := &errWriter{w: w}
+	d := res.Direct
+	m := d.Model
+	modelHeader(ew, m)
+	fmt.Fprintf(ew, "V  = %s\nV̇  = %s\n", d.V, d.Vdot)
+	var at []string
+	for _, a := range res.Equilibrium {
+		at = append(at, a.RatString())
+	}
+	fmt.Fprintf(ew, "equilibrium (%s) = (%s)\n\n", strings.Join(m.States, ", "), strings.Join(at, ", "))
+	fmt.Fprintf(ew, "Region of attraction by sublevel sets of V:\n")
+	fmt.Fprintf(ew, "  c_lo = %s ≈ %s  certified: every state in the component of {V ≤ c_lo} around the\n", res.Level.RatString(), dec(res.Level))
+	fmt.Fprintf(ew, "         equilibrium tends to it (sublevel-basin, re-checked exactly)\n")
+	if res.Upper != nil {
+		var pt []string
+		for i, s := range m.States {
+			pt = append(pt, s+" = "+res.Counterexample[i].RatString())
+		}
+		fmt.Fprintf(ew, "  c_hi = %s\n       ≈ %s  V̇ ≥ 0 at the exact point %s (V̇ = %s)\n", res.Upper.RatString(), dec(res.Upper), strings.Join(pt, ", "), dec(res.CounterVdot))
+		fmt.Fprintf(ew, "  gap (c_hi − c_lo)/c_hi = %.2f %%\n", 100*res.Gap())
+	} else {
+		fmt.Fprintf(ew, "  c_hi: none found\n")
+	}
+	if res.Note != "" {
+		fmt.Fprintf(ew, "  note: %s\n", res.Note)
+	}
+	fmt.Fprintf(ew, "  method: %s\n", res.Method)
+	fmt.Fprintf(ew, "\nThe direct method: %s (%s); checker: %d checks passed.\n", res.Check.Verdict, res.Check.Kind, len(res.Check.Records))
+	if written != "" {
+		fmt.Fprintf(ew, "Certificate written to %s (lyacert verify %s re-checks it).\n", written, written)
+	}
+	return ew.err
+}
+
+// fpoly evaluates a polynomial in the states in float64, for pictures.
+type fpoly struct {
+	coef []float64
+	exp  [][]int
+}
+
+func newFpoly(p *poly.Poly, n int) fpoly {
+	var f fpoly
+	for _, t := range p.Terms() {
+		c, _ := t.Coef.Float64()
+		f.coef = append(f.coef, c)
+		f.exp = append(f.exp, t.Exp[:n])
+	}
+	return f
+}
+
+func (f fpoly) eval(x []float64) float64 {
+	s := 0.0
+	for k, c := range f.coef {
+		v := c
+		for i, e := range f.exp[k] {
+			v *= math.Pow(x[i], float64(e))
+		}
+		s += v
+	}
+	return s
+}
+
+// contour returns the segments of {f = 0} on a grid over the view (marching
+// squares, common practice), for pictures only.
+func contour(f func(x, y float64) float64, x0, x1, y0, y1 float64, cells int) [][4]float64 {
+	var segs [][4]float64
+	dx, dy := (x1-x0)/float64(cells), (y1-y0)/float64(cells)
+	val := make([][]float64, cells+1)
+	for i := range val {
+		val[i] = make([]float64, cells+1)
+		for j := range val[i] {
+			val[i][j] = f(x0+float64(i)*dx, y0+float64(j)*dy)
+		}
+	}
+	for i := range cells {
+		for j := range cells {
+			// Corners counter-clockwise, and the crossings on the four edges.
+			cx := [4]float64{x0 + float64(i)*dx, x0 + float64(i+1)*dx, x0 + float64(i+1)*dx, x0 + float64(i)*dx}
+			cy := [4]float64{y0 + float64(j)*dy, y0 + float64(j)*dy, y0 + float64(j+1)*dy, y0 + float64(j+1)*dy}
+			cv := [4]float64{val[i][j], val[i+1][j], val[i+1][j+1], val[i][j+1]}
+			var pts []float64
+			for e := range 4 {
+				a, b := cv[e], cv[(e+1)%4]
+				if (a < 0) != (b < 0) {
+					s := a / (a - b)
+					pts = append(pts, cx[e]+s*(cx[(e+1)%4]-cx[e]), cy[e]+s*(cy[(e+1)%4]-cy[e]))
+				}
+			}
+			for k := 0; k+3 < len(pts); k += 4 {
+				segs = append(segs, [4]float64{pts[k], pts[k+1], pts[k+2], pts[k+3]})
+			}
+		}
+	}
+	return segs
+}
+
+// segLayer draws line segments (x0, y0, x1, y1).
+type segLayer struct {
+	segs  [][4]float64
+	style draw.LineStyle
+}
+
+func (s *segLayer) Plot(c draw.Canvas, p *plot.Plot) {
+	trX, trY := p.Transforms(&c)
+	for _, g := range s.segs {
+		c.StrokeLines(s.style, c.ClipLinesXY([]vg.Point{{X: trX(g[0]), Y: trY(g[1])}, {X: trX(g[2]), Y: trY(g[3])}})...)
+	}
+}
+
+func (s *segLayer) Thumbnail(c *draw.Canvas) {
+	y := c.Center().Y
+	c.StrokeLine2(s.style, c.Min.X, y, c.Max.X, y)
+}
+
+// BasinPlot draws a two-state estimate: the boundary of the certified
+// sublevel set {V = c_lo}, the curve V̇ = 0, the counterexample, and
+// trajectories of the Dormand–Prince integrator from points just inside
+// the set (solid) and just outside {V ≤ c_hi} (dashed). The picture is
+// float64 and proves nothing.
+func BasinPlot(res *basin.Result, format string) ([]byte, error) {
+	m := res.Direct.Model
+	if len(m.States) != 2 {
+		return nil, fmt.Errorf("the plot needs two states, the model has %d", len(m.States))
+	}
+	v, vd := newFpoly(res.Direct.V.Num, 2), newFpoly(res.Direct.Vdot.Num, 2)
+	var fs [2]fpoly
+	for i, f := range m.F {
+		fs[i] = newFpoly(f.Num, 2)
+	}
+	var box [4]float64
+	for i := range 2 {
+		lo, _ := new(big.Rat).SetString(res.Claim.Lo[i])
+		hi, _ := new(big.Rat).SetString(res.Claim.Hi[i])
+		box[2*i], _ = lo.Float64()
+		box[2*i+1], _ = hi.Float64()
+	}
+	// A margin of a quarter around the paved box.
+	wx, wy := box[1]-box[0], box[3]-box[2]
+	x0, x1, y0, y1 := box[0]-wx/4, box[1]+wx/4, box[2]-wy/4, box[3]+wy/4
+	clo, _ := res.Level.Float64()
+	p := plot.New()
+	p.Title.Text = fmt.Sprintf("Region of attraction: {V ≤ %s} certified", dec(res.Level))
+	if res.Upper != nil {
+		p.Title.Text += fmt.Sprintf(", c_hi = %s", dec(res.Upper))
+	}
+	p.X.Label.Text, p.Y.Label.Text = m.States[0], m.States[1]
+	p.X.Min, p.X.Max, p.Y.Min, p.Y.Max = x0, x1, y0, y1
+	level := &segLayer{contour(func(x, y float64) float64 { return v.eval([]float64{x, y}) - clo }, x0, x1, y0, y1, 300),
+		draw.LineStyle{Color: holdsColor, Width: vg.Points(2)}}
+	zero := &segLayer{contour(func(x, y float64) float64 { return vd.eval([]float64{x, y}) }, x0, x1, y0, y1, 300),
+		draw.LineStyle{Color: color.RGBA{0xd9, 0x5f, 0x02, 0xff}, Width: vg.Points(1)}}
+	p.Add(level, zero)
+	p.Legend.Add("V = c_lo (certified)", level)
+	p.Legend.Add("V̇ = 0", zero)
+	rhs := func(x, dx []float64) { dx[0], dx[1] = fs[0].eval(x), fs[1].eval(x) }
+	far := 10 * math.Max(x1-x0, y1-y0)
+	traj := func(start []float64, dashed bool) *plotter.Line {
+		r, _ := ode.Integrate(rhs, 0, 30, start, ode.Options{RelTol: 1e-7, AbsTol: 1e-9, MaxSteps: 20000,
+			Stop: func(_ float64, x []float64) bool { return math.Abs(x[0]) > far || math.Abs(x[1]) > far }})
+		if r == nil {
+			return nil
+		}
+		var pts plotter.XYs
+		for _, x := range r.X {
+			pts = append(pts, plotter.XY{X: x[0], Y: x[1]})
+		}
+		l, err := plotter.NewLine(pts)
+		if err != nil {
+			return nil
+		}
+		l.Color = color.RGBA{0x44, 0x44, 0x44, 0xff}
+		l.Width = vg.Points(0.7)
+		if dashed {
+			l.Dashes = []vg.Length{vg.Points(3), vg.Points(2)}
+		}
+		return l
+	}
+	// Starts on rays from the equilibrium: where V reaches 0.95·c_lo
+	// (inside) and 1.1·c_hi (outside).
+	atx, _ := res.Equilibrium[0].Float64()
+	aty, _ := res.Equilibrium[1].Float64()
+	ray := func(th, c float64) []float64 {
+		lo, hi := 0.0, 1e-3
+		pt := func(t float64) []float64 { return []float64{atx + t*math.Cos(th), aty + t*math.Sin(th)} }
+		for hi < 1e3 && v.eval(pt(hi)) < c {
+			lo, hi = hi, hi*1.5
+		}
+		for range 50 {
+			if mid := (lo + hi) / 2; v.eval(pt(mid)) < c {
+				lo = mid
+			} else {
+				hi = mid
+			}
+		}
+		return pt(hi)
+	}
+	var inL, outL *plotter.Line
+	for k := range 6 {
+		th := 2*math.Pi*float64(k)/6 + 0.3
+		if l := traj(ray(th, 0.95*clo), false); l != nil {
+			p.Add(l)
+			inL = l
+		}
+		if res.Upper != nil && k%2 == 0 {
+			chi, _ := res.Upper.Float64()
+			if l := traj(ray(th, 1.1*chi), true); l != nil {
+				p.Add(l)
+				outL = l
+			}
+		}
+	}
+	if inL != nil {
+		p.Legend.Add("trajectories from inside", inL)
+	}
+	if outL != nil {
+		p.Legend.Add("from V = 1.1·c_hi", outL)
+	}
+	if res.Upper != nil {
+		cx, _ := res.Counterexample[0].Float64()
+		cy, _ := res.Counterexample[1].Float64()
+		sc, err := plotter.NewScatter(plotter.XYs{{X: cx, Y: cy}})
+		if err == nil {
+			sc.GlyphStyle.Shape = draw.CrossGlyph{}
+			sc.GlyphStyle.Radius = vg.Points(7)
+			sc.GlyphStyle.Color = color.RGBA{0xb2, 0x18, 0x2b, 0xff}
+			p.Add(sc)
+			p.Legend.Add("counterexample (V̇ ≥ 0)", sc)
+		}
+	}
+	p.Legend.Top = true
+	return renderPlot(6*vg.Inch, 6*vg.Inch, format, func(c draw.Canvas) { p.Draw(c) })
+}

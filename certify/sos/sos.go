@@ -54,6 +54,8 @@ type Sizes struct {
 	Blocks      []int // block orders of the solved SDP
 	Iterations  int
 	Margin      float64 // the solver's margin t: λmin(G) ≈ t
+	// MarginIterations are those of the SDP of the margin form, when solved.
+	MarginIterations int
 }
 
 // Result is the outcome of Find: a Certificate, a NotSOS proof, or neither
@@ -63,7 +65,10 @@ type Result struct {
 	Basis       [][]int // exponents of the monomials z, over Vars
 	Certificate *Certificate
 	NotSOS      *NotSOS
-	Sizes       Sizes
+	// Margin is a certificate of p − ε·Σ z_a² ⪰ 0 (z_a the pure powers of
+	// the basis), tried when there is neither a Certificate nor a NotSOS.
+	Margin *MarginCertificate
+	Sizes  Sizes
 	// SolverStatus is the status of the margin SDP.
 	SolverStatus sdp.Status
 	// Problem is the SDP that was solved (sdp.MarginProblem of the Gram
@@ -397,6 +402,14 @@ func Find(ctx context.Context, p *poly.Poly, opts *Options) (*Result, error) {
 	}
 	if mr.T < 0 {
 		res.NotSOS = g.refute(mr.Y)
+	}
+	if res.NotSOS == nil && !o.Margin {
+		// No positive definite Gram matrix came out: perhaps every Gram
+		// matrix of p is singular, yet p exceeds a sum of pure even powers.
+		res.Margin, res.Sizes.MarginIterations, err = g.findMargin(ctx, p, o.SDP)
+		if err != nil {
+			return nil, err
+		}
 	}
 	return res, nil
 }

@@ -44,6 +44,10 @@ type Outcome struct {
 	Refuted bool     `json:"refuted"`
 	Region  string   `json:"region"`
 	Records []Record `json:"checks"`
+
+	// NotSOS names the functions ("V", "-Vdot") proven no sum of squares
+	// in a stated basis (moment-separation); no verdict rests on it.
+	NotSOS []string `json:"not_sos,omitempty"`
 }
 
 // rule is one entry of the rule table: a claim type and its check.
@@ -59,6 +63,7 @@ var rules = []rule{
 	{"orbital-derivative", 0, func() Claim { return new(OrbitalDerivative) }, (*run).derivative},
 	{"quadratic-part-ldl", 1, func() Claim { return new(QuadraticPart) }, (*run).quadraticPart},
 	{"monomial-gram-ldl", 1, func() Claim { return new(MonomialGram) }, (*run).monomialGram},
+	{"margin-gram-ldl", 1, func() Claim { return new(MarginGram) }, (*run).marginGram},
 	{"minor-condition", 2, func() Claim { return new(MinorCondition) }, (*run).minorCondition},
 	{"semidefinite-kernel", 3, func() Claim { return new(NullSpace) }, (*run).nullSpace},
 	{"invariance", 3, func() Claim { return new(Invariance) }, (*run).invariance},
@@ -66,6 +71,7 @@ var rules = []rule{
 	{"paving", 4, func() Claim { return new(Paving) }, (*run).paving},
 	{"witness-points", 4, func() Claim { return new(WitnessPoints) }, (*run).witnessPoints},
 	{"refutation", 5, func() Claim { return new(Refutation) }, (*run).refutation},
+	{"moment-separation", 5, func() Claim { return new(NotSOS) }, (*run).momentSeparation},
 	{"krawczyk-enclosure", 6, func() Claim { return new(KrawczykEnclosure) }, (*run).krawczyk},
 	{"linearization", 7, func() Claim { return new(Linearization) }, (*run).linearization},
 }
@@ -83,7 +89,7 @@ func VerifyContext(ctx context.Context, d *Document) Outcome {
 	if d.Signature != nil {
 		c.signature()
 	}
-	out := Outcome{Valid: c.ok() && len(c.records) > 0, Records: c.records, Verdict: verdict, Kind: kind, Refuted: c.refuted}
+	out := Outcome{Valid: c.ok() && len(c.records) > 0, Records: c.records, Verdict: verdict, Kind: kind, Refuted: c.refuted, NotSOS: c.notSOS}
 	if out.Valid {
 		var rs []string
 		for _, r := range []string{"sturm-region", "paving", "witness-points"} {
@@ -93,7 +99,7 @@ func VerifyContext(ctx context.Context, d *Document) Outcome {
 		}
 		out.Region = strings.Join(rs, " + ")
 	} else {
-		out.Verdict, out.Kind, out.Refuted = "", "", false
+		out.Verdict, out.Kind, out.Refuted, out.NotSOS = "", "", false, nil
 	}
 	return out
 }
@@ -125,6 +131,7 @@ type run struct {
 	refuted     bool
 	equilibrium []poly.Interval // a box (or point) established by krawczyk-enclosure
 	linear      string          // the kind a linearization gave
+	notSOS      []string        // the functions a moment separation showed no sum of squares
 }
 
 // slot is the index-th leading minor of a form.

@@ -39,3 +39,34 @@ func MomentMatrix(y *Poly, z []*Poly) Matrix {
 	}
 	return m
 }
+
+// EvenPowers reports that p = Σₖ cₖ·x_{iₖ}^(2mₖ) with every cₖ > 0 and
+// mₖ ≥ 1, each term a power of one of the first n variables, and each of
+// them present. Such a p is positive away from the origin and tends to
+// infinity with |x| (each term is ≥ 0, and the largest |xᵢ| makes its own
+// terms grow): a margin that makes a function it bounds from below
+// positive definite and radially unbounded.
+func (p *Poly) EvenPowers(n int) bool {
+	seen := make([]bool, n)
+	for k, c := range p.terms {
+		e, at := unkey(k), -1
+		for i, x := range e {
+			if x != 0 && at >= 0 || x != 0 && (i >= n || x%2 != 0) {
+				return false
+			}
+			if x != 0 {
+				at = i
+			}
+		}
+		if at < 0 || c.Sign() <= 0 {
+			return false
+		}
+		seen[at] = true
+	}
+	for _, s := range seen {
+		if !s {
+			return false
+		}
+	}
+	return n > 0
+}

@@ -55,3 +55,31 @@ func TestMomentMatrix(t *testing.T) {
 		}
 	}
 }
+
+// TestEvenPowers: sums of positive multiples of even powers of every
+// variable, and what is not one (common practice).
+func TestEvenPowers(t *testing.T) {
+	r := NewRing([]string{"x", "y"}, []string{"k"})
+	cases := []struct {
+		p    string
+		n    int
+		want bool
+	}{
+		{"x^2 + y^4", 2, true},
+		{"1/3*x^4 + 2*x^2 + 1/8*y^2", 2, true},
+		{"x^2", 2, false},           // y missing
+		{"x^2 + y^4", 1, false},     // y is not among the first variable
+		{"x^2 - y^2", 2, false},     // a negative coefficient
+		{"x^2 + y^3", 2, false},     // an odd power
+		{"x^2 + y^2 + 1", 2, false}, // a constant
+		{"x^2 + x*y + y^2", 2, false},
+		{"x^2 + y^2 + k^2", 2, false}, // a parameter
+		{"x^2", 1, true},
+		{"0", 0, false},
+	}
+	for _, c := range cases {
+		if got := MustParse(r, c.p).Num.EvenPowers(c.n); got != c.want {
+			t.Errorf("EvenPowers(%s, %d) = %v, want %v", c.p, c.n, got, c.want)
+		}
+	}
+}

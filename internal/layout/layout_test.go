@@ -101,11 +101,12 @@ func TestImportsFlowOneWay(t *testing.T) {
 }
 
 // kernelBudget is the kernel's size in lines of non-test Go: 2,000 for the
-// direct method, regions, pavings, refutations and linearization, and 150
-// more for the invariance principle and refuted region pieces. A new rule
-// pays for itself by moving general algebra to poly, or raises the budget
-// by its own size, never more.
-const kernelBudget = 2150
+// direct method, regions, pavings, refutations and linearization, 150
+// more for the invariance principle and refuted region pieces, and 149 for
+// the margin form of Gram certificates and moment separations (checker/sums.go
+// and their lines in the rule table). A new rule pays for itself by moving
+// general algebra to poly, or raises the budget by its own size, never more.
+const kernelBudget = 2299
 
 // TestKernelIsSmallAndExact: the kernel imports only poly, model and the
 // standard library (no third-party code), names no floating-point type or

@@ -150,9 +150,13 @@ func (res *Result) tryBasis(ctx context.Context, opts PaveOptions) *Result {
 			continue
 		}
 		// The canonical Gram matrix fails: search the whole family.
-		sf, method, prob, why := sosGram(wholes[i], n)
+		sf, method, prob, ns, why := sosGram(wholes[i], n)
 		if prob != nil {
 			res.SDP, nr.SDP = prob, prob
+		}
+		if ns != nil {
+			ns.Of = f.Name
+			res.NotSOS = append(res.NotSOS, *ns)
 		}
 		if why != "" {
 			res.Notes = append(res.Notes, fmt.Sprintf("no Gram certificate of %s as a whole: %s", formWord(f.Name), why))
@@ -169,6 +173,11 @@ func (res *Result) tryBasis(ctx context.Context, opts PaveOptions) *Result {
 		return nil
 	}
 	nr.Reason = "V and −V̇ are positive definite as wholes: each is zᵀGz with G ≻ 0 in a monomial basis z holding a pure power of every state"
+	for _, f := range nr.Forms {
+		if f.Margin != nil {
+			nr.Reason = "V and −V̇ are positive definite as wholes: each is zᵀGz in a monomial basis z, with G ≻ 0 and a pure power of every state in z, or with G ⪰ 0 after subtracting a margin Σ εᵢ·xᵢ^(2kᵢ), εᵢ > 0"
+		}
+	}
 	return nr
 }
 

@@ -21,22 +21,25 @@ import (
 // minors, the conditions in the text's words, the region, witnesses,
 // refutation or kernel, and the certificate's digest and re-check.
 type CheckOutput struct {
-	Verdict     string              `json:"verdict"`
-	Claim       string              `json:"claim"`
-	Reason      string              `json:"reason"`
-	TimeKind    string              `json:"time_kind"` // "continuous" or "discrete"
-	V           string              `json:"V"`
-	Vdot        string              `json:"vdot"`
-	Minors      []string            `json:"minors"`
-	Forms       []FormOutput        `json:"forms"`
-	Conditions  []string            `json:"conditions"`
-	Region      *RegionOutput       `json:"region"`
-	Witnesses   []checker.Witness   `json:"witnesses"`
-	Refutation  *checker.Refutation `json:"refutation"`
-	Kernel      [][]string          `json:"kernel"`
-	Digest      string              `json:"digest"`
-	Checks      int                 `json:"checks_passed"`
-	Certificate string              `json:"certificate"`
+	Verdict    string              `json:"verdict"`
+	Claim      string              `json:"claim"`
+	Reason     string              `json:"reason"`
+	TimeKind   string              `json:"time_kind"` // "continuous" or "discrete"
+	V          string              `json:"V"`
+	Vdot       string              `json:"vdot"`
+	Minors     []string            `json:"minors"`
+	Forms      []FormOutput        `json:"forms"`
+	Conditions []string            `json:"conditions"`
+	Region     *RegionOutput       `json:"region"`
+	Witnesses  []checker.Witness   `json:"witnesses"`
+	Refutation *checker.Refutation `json:"refutation"`
+	Kernel     [][]string          `json:"kernel"`
+	// NotSOS: exact proofs that V or −V̇ is no sum of squares in a
+	// monomial basis (absent when there are none).
+	NotSOS      []checker.NotSOS `json:"not_sos,omitempty"`
+	Digest      string           `json:"digest"`
+	Checks      int              `json:"checks_passed"`
+	Certificate string           `json:"certificate"`
 }
 
 // FormOutput is one quadratic (or Gram) form of a CheckOutput.
@@ -47,6 +50,9 @@ type FormOutput struct {
 	L      [][]string `json:"l"`
 	D      []string   `json:"d"`
 	Minors []string   `json:"minors"`
+	// Margin: the Gram matrix is of the function less this (absent when
+	// it is of the function itself).
+	Margin string `json:"margin,omitempty"`
 }
 
 // RegionOutput is a region: one parameter's pieces, or a paving with its
@@ -92,11 +98,11 @@ func CheckJSON(res *direct.Result, written string) CheckOutput {
 		Verdict: res.Verdict, Claim: res.Claim, Reason: res.Reason,
 		TimeKind: timeWord(res.Model.Discrete), V: c.V, Vdot: c.Vdot,
 		Minors: []string{}, Conditions: []string{}, Forms: []FormOutput{},
-		Region: regionJSON(c.Region), Witnesses: c.Witnesses, Refutation: c.Refutation, Kernel: c.Kernel,
+		Region: regionJSON(c.Region), Witnesses: c.Witnesses, Refutation: c.Refutation, Kernel: c.Kernel, NotSOS: c.NotSOS,
 		Digest: doc.Digest, Checks: len(res.Check.Records), Certificate: written,
 	}
 	for _, f := range c.Forms {
-		out.Forms = append(out.Forms, FormOutput{Name: f.Name, Basis: f.Basis, Gram: f.Gram, L: f.L, D: f.D, Minors: f.Minors})
+		out.Forms = append(out.Forms, FormOutput{Name: f.Name, Basis: f.Basis, Gram: f.Gram, L: f.L, D: f.D, Minors: f.Minors, Margin: f.Margin})
 		out.Minors = append(out.Minors, f.Minors...)
 	}
 	for _, c := range res.Conds {

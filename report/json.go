@@ -132,6 +132,9 @@ type VerifyOutput struct {
 	TrustRequired    bool             `json:"trust_required"`
 	Trusted          bool             `json:"trusted"`
 	UntrustedBecause *string          `json:"untrusted_because"`
+	// NotSOS names the functions ("V", "-Vdot") the checker proved no sum
+	// of squares in a stated basis (absent when none).
+	NotSOS []string `json:"not_sos,omitempty"`
 }
 
 // VerifyJSON is the JSON of checker.Verify's outcome for doc and of the
@@ -140,7 +143,7 @@ func VerifyJSON(doc *checker.Document, out checker.Outcome, trust Trust) VerifyO
 	altered, recomputed := Altered(doc)
 	v := VerifyOutput{Valid: out.Valid && (!trust.Required || trust.Trusted), MathematicsValid: out.Valid,
 		Claim: out.Kind, Verdict: out.Verdict, Digest: doc.Digest, Altered: altered, RecomputedDigest: recomputed,
-		Disagreements: []checker.Record{}, Checks: out.Records, TrustRequired: trust.Required, Trusted: trust.Trusted}
+		Disagreements: []checker.Record{}, Checks: out.Records, TrustRequired: trust.Required, Trusted: trust.Trusted, NotSOS: out.NotSOS}
 	if v.Checks == nil {
 		v.Checks = []checker.Record{}
 	}

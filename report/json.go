@@ -21,25 +21,26 @@ import (
 // minors, the conditions in the text's words, the region, witnesses,
 // refutation or kernel, and the certificate's digest and re-check.
 type CheckOutput struct {
-	Verdict    string              `json:"verdict"`
-	Claim      string              `json:"claim"`
-	Reason     string              `json:"reason"`
-	TimeKind   string              `json:"time_kind"` // "continuous" or "discrete"
-	V          string              `json:"V"`
-	Vdot       string              `json:"vdot"`
-	Minors     []string            `json:"minors"`
-	Forms      []FormOutput        `json:"forms"`
-	Conditions []string            `json:"conditions"`
-	Region     *RegionOutput       `json:"region"`
-	Witnesses  []checker.Witness   `json:"witnesses"`
-	Refutation *checker.Refutation `json:"refutation"`
-	Kernel     [][]string          `json:"kernel"`
+	Verdict     string              `json:"verdict"`
+	Claim       string              `json:"claim"`
+	Reason      string              `json:"reason"`
+	TimeKind    string              `json:"time_kind"` // "continuous" or "discrete"
+	V           string              `json:"V"`
+	Vdot        string              `json:"vdot"`
+	Minors      []string            `json:"minors"`
+	Forms       []FormOutput        `json:"forms"`
+	Conditions  []string            `json:"conditions"`
+	Region      *RegionOutput       `json:"region"`
+	Witnesses   []checker.Witness   `json:"witnesses"`
+	Refutation  *checker.Refutation `json:"refutation"`
+	Kernel      [][]string          `json:"kernel"`
+	Digest      string              `json:"digest"`
+	Checks      int                 `json:"checks_passed"`
+	Certificate string              `json:"certificate"`
+
 	// NotSOS: exact proofs that V or −V̇ is no sum of squares in a
 	// monomial basis (absent when there are none).
-	NotSOS      []checker.NotSOS `json:"not_sos,omitempty"`
-	Digest      string           `json:"digest"`
-	Checks      int              `json:"checks_passed"`
-	Certificate string           `json:"certificate"`
+	NotSOS []checker.NotSOS `json:"not_sos,omitempty"`
 }
 
 // FormOutput is one quadratic (or Gram) form of a CheckOutput.

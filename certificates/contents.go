@@ -15,13 +15,16 @@ type Contents struct {
 	Refutation    *checker.Refutation
 	Krawczyk      *checker.KrawczykEnclosure
 	Linearization *checker.Linearization
+	// NotSOS are the proofs that V or −V̇ is no sum of squares in a basis.
+	NotSOS []checker.NotSOS
 }
 
 // FormView is a Gram matrix with its LDLᵀ: of the quadratic part (Basis nil)
-// or of the whole function in a monomial basis.
+// or of the whole function in a monomial basis, less Margin when not "".
 type FormView struct {
-	Name  string
-	Basis []string
+	Name   string
+	Basis  []string
+	Margin string
 	checker.LDLForm
 }
 
@@ -45,6 +48,10 @@ func ContentsOf(d *checker.Document) Contents {
 			c.Forms = append(c.Forms, FormView{Name: x.Of, LDLForm: x.LDLForm})
 		case *checker.MonomialGram:
 			c.Forms = append(c.Forms, FormView{Name: x.Of, Basis: x.Basis, LDLForm: x.LDLForm})
+		case *checker.MarginGram:
+			c.Forms = append(c.Forms, FormView{Name: x.Of, Basis: x.Basis, Margin: x.Margin, LDLForm: x.LDLForm})
+		case *checker.NotSOS:
+			c.NotSOS = append(c.NotSOS, *x)
 		case *checker.MinorCondition:
 			c.Conditions = append(c.Conditions, *x)
 		case *checker.NullSpace:

@@ -19,6 +19,9 @@
 //	monomial-gram-ldl    zᵀGz equals the whole function, z monomials with a pure
 //	                     power of every state: G ≻ 0 ⇒ positive definite and
 //	                     radially unbounded
+//	margin-gram-ldl      zᵀGz equals the whole function less Σ εᵢxᵢ^(2kᵢ), εᵢ > 0, every
+//	                     state: G ⪰ 0 (zero pivots allowed) ⇒ positive definite and
+//	                     radially unbounded (the margin, not G, makes it definite)
 //	minor-condition      a minor's factorization as an identity; factor signs by
 //	                     exact interval enclosure over the parameter box (Moore 1966)
 //	semidefinite-kernel  the kernel of a semidefinite −V̇: independent vectors with
@@ -33,6 +36,9 @@
 //	witness-points       the conditions evaluated exactly at parameter points
 //	refutation           V ≤ 0 or V̇ ≥ 0 at an exact point, for every value of the
 //	                     parameters left free (interval enclosure)
+//	moment-separation    semidefinite duality: a functional L with L(p) < 0 and moment
+//	                     matrix L(z_a·z_b) ⪰ 0 ⇒ p is no sum of squares in the span of
+//	                     z; reported, it changes no verdict
 //	krawczyk-enclosure   Krawczyk's theorem: K(X) inside X ⇒ exactly one equilibrium
 //	linearization        Lyapunov's indirect method: M(x*) ≻ 0 with P ≻ 0 (stable)
 //	                     or a negative pivot of P (unstable)

@@ -327,6 +327,43 @@ func hostileFiles(t *testing.T) map[string][]byte {
 		"forged-kernel.json": edit(t, "cubic.json", func(d *checker.Document) {
 			d.Claims = append(d.Claims[:3], append([]checker.Claim{&checker.NullSpace{Of: "-Vdot", Vectors: [][]string{{"1"}}}}, d.Claims[3:]...)...)
 		}),
+		// Margin forms: a changed ε, a changed Gram entry, a margin
+		// without y (consistent otherwise: ε·y⁴ moved back onto G).
+		"forged-margin-epsilon.json": edit(t, "margin.json", func(d *checker.Document) {
+			claimOf[*checker.MarginGram](t, d, 0).Margin = "x^4 + y^4"
+		}),
+		"forged-margin-gram.json": edit(t, "margin.json", func(d *checker.Document) {
+			claimOf[*checker.MarginGram](t, d, 0).Gram[2][4] = "-3/2"
+		}),
+		"forged-margin-state-missing.json": edit(t, "margin.json", func(d *checker.Document) {
+			mg := claimOf[*checker.MarginGram](t, d, 0)
+			mg.Margin, mg.Gram[0][0], mg.D[0], mg.Minors = "1/2*x^4", "2", "2", []string{"2", "4", "6"}
+			for k, m := range []string{"2", "4", "6"} {
+				mc := claimOf[*checker.MinorCondition](t, d, 2+k)
+				mc.Minor, mc.Constant = m, m
+			}
+		}),
+		// Moment separations: the moment matrix not ⪰ 0 (the z⁶ moment
+		// made negative, everything else consistent), a value L(p) that
+		// is not the pairing, a moment matrix other than L(z_a·z_b).
+		"forged-moments-not-psd.json": edit(t, "motzkin.json", func(d *checker.Document) {
+			ns := claimOf[*checker.NotSOS](t, d, 0)
+			ns.Moments = strings.Replace(ns.Moments, "+ 1/7168*z^6", "- 1/7168*z^6", 1)
+			ns.Moment[0][0], ns.D[0], ns.Value = "-1/7168", "-1/7168", "-483859/161280"
+		}),
+		"forged-moments-value.json": edit(t, "motzkin.json", func(d *checker.Document) {
+			claimOf[*checker.NotSOS](t, d, 0).Value = "-1"
+		}),
+		"forged-moments-matrix.json": edit(t, "motzkin.json", func(d *checker.Document) {
+			ns := claimOf[*checker.NotSOS](t, d, 0)
+			ns.Moment[1][1], ns.D[1] = "1", "1"
+		}),
+		"forged-moments-sos.json": edit(t, "margin.json", func(d *checker.Document) {
+			// −V̇ of margin.json is a sum of squares: no functional can
+			// separate it; this one is positive on it.
+			d.Claims = append(d.Claims, &checker.NotSOS{Of: "-Vdot", Basis: []string{"x^2", "y^2"}, Moments: "x^4 + y^4",
+				Moment: [][]string{{"1", "0"}, {"0", "1"}}, L: [][]string{{"1", "0"}, {"0", "1"}}, D: []string{"1", "1"}, Value: "-4"})
+		}),
 		"forged-minor-constant-zero.json": edit(t, "cubic.json", func(d *checker.Document) {
 			claimOf[*checker.MinorCondition](t, d, 0).Constant = "0"
 		}),

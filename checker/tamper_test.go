@@ -232,7 +232,7 @@ func TestClaimEditsRejected(t *testing.T) {
 				if !r.Valid {
 					return
 				}
-				if deletion && (r.Verdict != orig.Verdict || r.Kind != orig.Kind || r.Refuted != orig.Refuted || r.Region != orig.Region || r.Basin != orig.Basin) {
+				if deletion && (r.Verdict != orig.Verdict || r.Kind != orig.Kind || r.Refuted != orig.Refuted || r.Region != orig.Region || r.Basin != orig.Basin || !slices.Equal(r.NotSOS, orig.NotSOS)) {
 					return
 				}
 				t.Errorf("%s is accepted (verdict %s, kind %s)", what, r.Verdict, r.Kind)
@@ -257,7 +257,8 @@ func TestClaimEditsRejected(t *testing.T) {
 }
 
 var ruleNames = []string{"orbital-derivative", "quadratic-part-ldl", "monomial-gram-ldl", "minor-condition",
-	"semidefinite-kernel", "sturm-region", "paving", "witness-points", "refutation", "krawczyk-enclosure", "linearization", "sublevel-basin"}
+	"semidefinite-kernel", "sturm-region", "paving", "witness-points", "refutation", "krawczyk-enclosure", "linearization", "sublevel-basin",
+	"margin-gram-ldl", "moment-separation"}
 
 func mustRead(t *testing.T, raw []byte) *checker.Document {
 	t.Helper()

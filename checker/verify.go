@@ -47,6 +47,10 @@ type Outcome struct {
 	Region  string   `json:"region"`
 	Basin   string   `json:"basin,omitempty"`
 	Records []Record `json:"checks"`
+
+	// NotSOS names the functions ("V", "-Vdot") proven no sum of squares
+	// in a stated basis (moment-separation); no verdict rests on it.
+	NotSOS []string `json:"not_sos,omitempty"`
 }
 
 // rule is one entry of the rule table: a claim type and its check.
@@ -73,6 +77,7 @@ func ruleTable() []rule {
 		{"orbital-derivative", 0, func() Claim { return new(OrbitalDerivative) }, (*run).derivative},
 		{"quadratic-part-ldl", 1, func() Claim { return new(QuadraticPart) }, (*run).quadraticPart},
 		{"monomial-gram-ldl", 1, func() Claim { return new(MonomialGram) }, (*run).monomialGram},
+		{"margin-gram-ldl", 1, func() Claim { return new(MarginGram) }, (*run).marginGram},
 		{"minor-condition", 2, func() Claim { return new(MinorCondition) }, (*run).minorCondition},
 		{"semidefinite-kernel", 3, func() Claim { return new(NullSpace) }, (*run).nullSpace},
 		{"invariance", 3, func() Claim { return new(Invariance) }, (*run).invariance},
@@ -81,6 +86,7 @@ func ruleTable() []rule {
 		{"paving", 4, func() Claim { return new(Paving) }, (*run).paving},
 		{"witness-points", 4, func() Claim { return new(WitnessPoints) }, (*run).witnessPoints},
 		{"refutation", 5, func() Claim { return new(Refutation) }, (*run).refutation},
+		{"moment-separation", 5, func() Claim { return new(NotSOS) }, (*run).momentSeparation},
 		{"krawczyk-enclosure", 6, func() Claim { return new(KrawczykEnclosure) }, (*run).krawczyk},
 		{"linearization", 7, func() Claim { return new(Linearization) }, (*run).linearization},
 		{"sublevel-basin", 8, func() Claim { return new(SublevelBasin) }, (*run).sublevelBasin},
@@ -100,7 +106,7 @@ func VerifyContext(ctx context.Context, d *Document) Outcome {
 	if d.Signature != nil {
 		c.signature()
 	}
-	out := Outcome{Valid: c.ok() && len(c.records) > 0, Records: c.records, Verdict: verdict, Kind: kind, Refuted: c.refuted, Basin: c.basin}
+	out := Outcome{Valid: c.ok() && len(c.records) > 0, Records: c.records, Verdict: verdict, Kind: kind, Refuted: c.refuted, Basin: c.basin, NotSOS: c.notSOS}
 	if out.Valid {
 		var rs []string
 		for _, r := range []string{"sturm-region", "paving", "witness-points"} {
@@ -110,7 +116,7 @@ func VerifyContext(ctx context.Context, d *Document) Outcome {
 		}
 		out.Region = strings.Join(rs, " + ")
 	} else {
-		out.Verdict, out.Kind, out.Refuted, out.Basin = "", "", false, ""
+		out.Verdict, out.Kind, out.Refuted, out.Basin, out.NotSOS = "", "", false, "", nil
 	}
 	return out
 }
@@ -147,6 +153,7 @@ type run struct {
 	equilibrium []poly.Interval // a box (or point) established by krawczyk-enclosure
 	linear      string          // the kind a linearization gave
 	basin       string          // the level of a verified sublevel set in the region of attraction
+	notSOS      []string        // the functions a moment separation showed no sum of squares
 }
 
 // slot is the index-th leading minor of a form.

@@ -37,6 +37,10 @@ type CheckOutput struct {
 	Digest      string              `json:"digest"`
 	Checks      int                 `json:"checks_passed"`
 	Certificate string              `json:"certificate"`
+
+	// NotSOS: exact proofs that V or −V̇ is no sum of squares in a
+	// monomial basis (absent when there are none).
+	NotSOS []checker.NotSOS `json:"not_sos,omitempty"`
 }
 
 // FormOutput is one quadratic (or Gram) form of a CheckOutput.
@@ -47,6 +51,9 @@ type FormOutput struct {
 	L      [][]string `json:"l"`
 	D      []string   `json:"d"`
 	Minors []string   `json:"minors"`
+	// Margin: the Gram matrix is of the function less this (absent when
+	// it is of the function itself).
+	Margin string `json:"margin,omitempty"`
 }
 
 // RegionOutput is a region: one parameter's pieces, or a paving with its
@@ -92,11 +99,11 @@ func CheckJSON(res *direct.Result, written string) CheckOutput {
 		Verdict: res.Verdict, Claim: res.Claim, Reason: res.Reason,
 		TimeKind: timeWord(res.Model.Discrete), V: c.V, Vdot: c.Vdot,
 		Minors: []string{}, Conditions: []string{}, Forms: []FormOutput{},
-		Region: regionJSON(c.Region), Witnesses: c.Witnesses, Refutation: c.Refutation, Kernel: c.Kernel,
+		Region: regionJSON(c.Region), Witnesses: c.Witnesses, Refutation: c.Refutation, Kernel: c.Kernel, NotSOS: c.NotSOS,
 		Digest: doc.Digest, Checks: len(res.Check.Records), Certificate: written,
 	}
 	for _, f := range c.Forms {
-		out.Forms = append(out.Forms, FormOutput{Name: f.Name, Basis: f.Basis, Gram: f.Gram, L: f.L, D: f.D, Minors: f.Minors})
+		out.Forms = append(out.Forms, FormOutput{Name: f.Name, Basis: f.Basis, Gram: f.Gram, L: f.L, D: f.D, Minors: f.Minors, Margin: f.Margin})
 		out.Minors = append(out.Minors, f.Minors...)
 	}
 	for _, c := range res.Conds {
@@ -129,6 +136,9 @@ type VerifyOutput struct {
 	// Basin is the level c of a verified sublevel-basin claim (absent
 	// without one).
 	Basin string `json:"basin,omitempty"`
+	// NotSOS names the functions ("V", "-Vdot") the checker proved no sum
+	// of squares in a stated basis (absent when none).
+	NotSOS []string `json:"not_sos,omitempty"`
 }
 
 // VerifyJSON is the JSON of checker.Verify's outcome for doc and of the
@@ -137,7 +147,7 @@ func VerifyJSON(doc *checker.Document, out checker.Outcome, trust Trust) VerifyO
 	altered, recomputed := Altered(doc)
 	v := VerifyOutput{Valid: out.Valid && (!trust.Required || trust.Trusted), MathematicsValid: out.Valid,
 		Claim: out.Kind, Verdict: out.Verdict, Digest: doc.Digest, Altered: altered, RecomputedDigest: recomputed,
-		Disagreements: []checker.Record{}, Checks: out.Records, TrustRequired: trust.Required, Trusted: trust.Trusted, Basin: out.Basin}
+		Disagreements: []checker.Record{}, Checks: out.Records, TrustRequired: trust.Required, Trusted: trust.Trusted, Basin: out.Basin, NotSOS: out.NotSOS}
 	if v.Checks == nil {
 		v.Checks = []checker.Record{}
 	}

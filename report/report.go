@@ -355,7 +355,10 @@ func (b *builder) derivation(p *page) error {
 		higher := ds.Sub(ds.Homogeneous(2, states)).Sub(ds.Homogeneous(1, states))
 		if higher.IsZero() {
 			p.Quadratic = rich{dn, " is a quadratic form in the states: every higher-order term cancels."}
-		} else if z := d.Forms[1].Basis; len(z) > 0 {
+		} else if z := d.Forms[1].Basis; len(z) > 0 && d.Forms[1].Margin != "" {
+			p.Quadratic = rich{"The terms of ", dn, " of degree above two, ", ratFuncNode(higher), ", are taken into account: ", neg(dn),
+				" as a whole, less a margin that is a sum of positive multiples of even powers of every state, is a Gram form in the monomial basis (" + strings.Join(z, ", ") + "), and its matrix being positive semidefinite makes it at least the margin, so positive away from the equilibrium."}
+		} else if len(z) > 0 {
 			p.Quadratic = rich{"The terms of ", dn, " of degree above two, ", ratFuncNode(higher), ", are taken into account: ", neg(dn),
 				" as a whole is a Gram form in the monomial basis (" + strings.Join(z, ", ") + "), and its matrix being positive definite with a pure power of every state in the basis makes it positive away from the equilibrium."}
 		} else {
@@ -372,6 +375,13 @@ func (b *builder) derivation(p *page) error {
 			if f.Name != "V" {
 				lhs = neg(dn)
 			}
+		}
+		if f.Margin != "" { // less the margin
+			m, err := b.parse(f.Margin)
+			if err != nil {
+				return err
+			}
+			lhs = sum{{false, lhs}, {true, parens{ratFuncNode(m)}}}
 		}
 		sq, err := b.squares(f)
 		if err != nil {

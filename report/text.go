@@ -119,7 +119,12 @@ func checkText(w io.Writer, res *direct.Result, written string) {
 				if f.Name != "V" {
 					who = "−" + dv
 				}
-				fmt.Fprintf(w, "  %s as a whole is zᵀGz in the monomial basis z = (%s)\n", who, strings.Join(zs, ", "))
+				if f.Margin != nil {
+					who += " as a whole, less the margin " + f.Margin.String() + ","
+				} else {
+					who += " as a whole"
+				}
+				fmt.Fprintf(w, "  %s is zᵀGz in the monomial basis z = (%s)\n", who, strings.Join(zs, ", "))
 			}
 		}
 		for _, f := range res.Forms {
@@ -130,6 +135,9 @@ func checkText(w io.Writer, res *direct.Result, written string) {
 			if f.Basis != nil {
 				// the whole function, in a monomial basis
 				lhs = strings.TrimSuffix(lhs, "₂")
+			}
+			if f.Margin != nil {
+				lhs += " − (" + f.Margin.String() + ")"
 			}
 			fmt.Fprintf(w, "  %s = %s\n", lhs, squaresText(f))
 		}
@@ -627,6 +635,14 @@ func VerifyText(w io.Writer, file string, doc *checker.Document, out checker.Out
 	fmt.Fprintf(ew, "  claim %s, verdict %s\n  digest %s\n", out.Kind, out.Verdict, doc.Digest)
 	if out.Basin != "" {
 		fmt.Fprintf(ew, "  region of attraction: the component of {V ≤ %s} around the equilibrium\n", out.Basin)
+	}
+	for _, ns := range certificates.ContentsOf(doc).NotSOS { // each verified: out.Valid
+		who := "V"
+		if ns.Of != "V" {
+			who = "−V̇"
+		}
+		fmt.Fprintf(ew, "  also proven: %s is no sum of squares in the basis (%s): a moment functional with L(%s) = %s < 0 (this changes no verdict)\n",
+			who, strings.Join(ns.Basis, ", "), who, ns.Value)
 	}
 	switch {
 	case trust.Required:

@@ -142,12 +142,13 @@ func (res *Result) tryBasis(ctx context.Context, opts PaveOptions) *Result {
 		}
 		basis, g, ok := monomialGram(wholes[i], n, i == 0)
 		var l LDL
+		var semiForm *Form // −V̇ ≥ 0 by a semidefinite Gram form: stability, kept in case nothing definite is found
 		if ok {
 			fac, _ := l.Factorize(g)
 			ok = fac && !l.Semidefinite() && !nonPositivePivot(l) && allPure(basis, n)
-			// −V̇ ≥ 0 suffices for stability: a semidefinite Gram form.
-			semi = i == 1 && fac && !negativePivot(l) && (l.Semidefinite() || !allPure(basis, n))
-			ok = ok || semi
+			if i == 1 && fac && !ok && !negativePivot(l) && (l.Semidefinite() || !allPure(basis, n)) {
+				semiForm = &Form{Name: f.Name, Basis: basis, Gram: g, LDL: l, Minors: l.Minors()}
+			}
 		}
 		if ok {
 			nr.Forms = append(nr.Forms, Form{Name: f.Name, Basis: basis, Gram: g, LDL: l, Minors: l.Minors()})
@@ -155,9 +156,19 @@ func (res *Result) tryBasis(ctx context.Context, opts PaveOptions) *Result {
 			continue
 		}
 		// The canonical Gram matrix fails: search the whole family.
-		sf, method, prob, why := sosGram(wholes[i], n)
+		sf, method, prob, ns, why := sosGram(wholes[i], n)
 		if prob != nil {
 			res.SDP, nr.SDP = prob, prob
+		}
+		if ns != nil {
+			ns.Of = f.Name
+			res.NotSOS = append(res.NotSOS, *ns)
+		}
+		if why != "" && semiForm != nil {
+			semi = true
+			nr.Forms = append(nr.Forms, *semiForm)
+			nr.Methods = append(nr.Methods, Method{Form: f.Name, Name: MethodCanonical, Basis: len(semiForm.Basis)})
+			continue
 		}
 		if why != "" {
 			res.Notes = append(res.Notes, fmt.Sprintf("no Gram certificate of %s as a whole: %s", formWord(f.Name), why))
@@ -177,6 +188,11 @@ func (res *Result) tryBasis(ctx context.Context, opts PaveOptions) *Result {
 		return nil
 	}
 	nr.Reason = "V and −V̇ are positive definite as wholes: each is zᵀGz with G ≻ 0 in a monomial basis z holding a pure power of every state"
+	for _, f := range nr.Forms {
+		if f.Margin != nil {
+			nr.Reason = "V and −V̇ are positive definite as wholes: each is zᵀGz in a monomial basis z, with G ≻ 0 and a pure power of every state in z, or with G ⪰ 0 after subtracting a margin Σ εᵢ·xᵢ^(2kᵢ), εᵢ > 0"
+		}
+	}
 	if semi {
 		nr.Reason = "V is positive definite and −V̇ = zᵀGz ≥ 0 with G ⪰ 0 in a monomial basis: V̇ ≤ 0 everywhere"
 		if nr.Invariance = nr.invariance(); nr.Invariance != nil {

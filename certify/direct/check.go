@@ -28,6 +28,9 @@ type Form struct {
 	Gram   poly.Matrix
 	LDL    LDL
 	Minors []poly.RatFunc
+	// Margin, when not nil, is Σ εᵢ·xᵢ^(2kᵢ): the Gram matrix is that of
+	// the whole function less the margin, and only ⪰ 0 (margin-gram-ldl).
+	Margin *poly.Poly
 }
 
 // SquareBase returns the k-th base of the completed squares of the form
@@ -106,6 +109,10 @@ type Result struct {
 	// SDP is the last semidefinite program solved in a sum-of-squares
 	// search, nil when none was.
 	SDP *sdp.Problem
+	// NotSOS are exact proofs that V or −V̇ is no sum of squares in the
+	// monomial basis of the search (moment-separation claims): reported,
+	// they change no verdict.
+	NotSOS []checker.NotSOS
 }
 
 // Check analyses the model's candidate V: it computes V̇ exactly, completes
@@ -882,6 +889,14 @@ func (res *Result) document(source string) *checker.Document {
 			add(&checker.QuadraticPart{LDLForm: lf})
 			continue
 		}
+		if f.Margin != nil {
+			mg := &checker.MarginGram{LDLForm: lf, Margin: f.Margin.String()}
+			for _, z := range f.Basis {
+				mg.Basis = append(mg.Basis, z.String())
+			}
+			add(mg)
+			continue
+		}
 		mg := &checker.MonomialGram{LDLForm: lf}
 		for _, z := range f.Basis {
 			mg.Basis = append(mg.Basis, z.String())
@@ -923,6 +938,9 @@ func (res *Result) document(source string) *checker.Document {
 	}
 	if res.Refutation != nil {
 		add(res.Refutation)
+	}
+	for i := range res.NotSOS {
+		add(&res.NotSOS[i])
 	}
 	return d
 }

@@ -31,6 +31,8 @@ type Method struct {
 	Margin      float64
 	Bits        int
 	MinPivot    string
+	// For MethodMargin: the margin's ε.
+	Epsilon string
 }
 
 // The methods a form can be proven by.
@@ -38,6 +40,7 @@ const (
 	MethodQuadratic = "quadratic part, exact LDLᵀ"
 	MethodCanonical = "canonical Gram matrix in a monomial basis, exact LDLᵀ"
 	MethodSOS       = "sum of squares: Gram matrix found by SDP, rounded and projected exactly, exact LDLᵀ"
+	MethodMargin    = "sum of squares less a margin ε·Σ (pure powers)²: Gram matrix found by SDP, rounded and projected exactly, exact LDLᵀ with D ≥ 0"
 )
 
 // String is a one-line summary: the form, the method and the sizes.
@@ -47,6 +50,9 @@ func (m Method) String() string {
 		who = "−V̇"
 	}
 	s := fmt.Sprintf("%s: %s, basis %d", who, m.Name, m.Basis)
+	if m.Name == MethodMargin {
+		return s + fmt.Sprintf(" (of %d candidates), %d equations, %d iterations, ε = %s, rounded to 2^-%d", m.Candidates, m.Constraints, m.Iterations, m.Epsilon, m.Bits)
+	}
 	if m.Name == MethodSOS {
 		blocks := make([]string, len(m.Blocks))
 		for i, b := range m.Blocks {
@@ -80,32 +86,43 @@ func (res *Result) methods() {
 // applies when the basis holds a pure power of every state: zᵀGz > 0 for
 // z ≠ 0, and z = 0 only at the origin. The basis always does when p is
 // positive on every axis: the lowest pure power xᵢ^{2a} of p has a
-// non-zero coefficient, so xᵢ^a survives the pruning. It returns the SDP it
-// solved (nil when none) and, when it fails, why.
-func sosGram(p poly.RatFunc, nstates int) (f Form, m Method, prob *sdp.Problem, why string) {
+// non-zero coefficient, so xᵢ^a survives the pruning. When no positive
+// definite Gram matrix comes out, a Gram matrix G ⪰ 0 of p less a margin
+// ε·Σ (pure powers)² will do (margin-gram-ldl). It returns the SDP it
+// solved (nil when none), an exact proof that p is no sum of squares in
+// the basis when the search found one, and, when it fails, why.
+func sosGram(p poly.RatFunc, nstates int) (f Form, m Method, prob *sdp.Problem, ns *checker.NotSOS, why string) {
 	r := p.Ring()
 	if !p.IsPoly() || p.Num.DegreeIn(r.ParamMask()) > 0 {
-		return f, m, nil, "it involves parameters (fix them with --set for a sum-of-squares search)"
+		return f, m, nil, nil, "it involves parameters (fix them with --set for a sum-of-squares search)"
 	}
 	if d := p.Num.Degree(); d%2 != 0 {
-		return f, m, nil, fmt.Sprintf("its degree %d is odd", d)
+		return f, m, nil, nil, fmt.Sprintf("its degree %d is odd", d)
 	}
 	res, err := sos.Find(context.Background(), p.Num, nil)
 	if err != nil {
-		return f, m, nil, err.Error()
+		return f, m, nil, nil, err.Error()
 	}
 	m = Method{Name: MethodSOS, Basis: res.Sizes.Basis, Candidates: res.Sizes.Candidates, Constraints: res.Sizes.Constraints,
 		Blocks: res.Sizes.Blocks, Iterations: res.Sizes.Iterations, Margin: res.Sizes.Margin}
 	prob = res.Problem
-	c := res.Certificate
-	if c == nil {
-		switch {
-		case res.NotSOS != nil:
-			why = fmt.Sprintf("it is not a sum of squares in the %d-monomial Newton basis (an exact moment matrix separates it; the engine checked this, the kernel has no rule for it)", res.Sizes.Basis)
-		default:
-			why = fmt.Sprintf("the SDP found no positive definite Gram matrix in the %d-monomial Newton basis (solver: %v, margin %.3g)", res.Sizes.Basis, res.SolverStatus, res.Sizes.Margin)
+	n := len(res.Basis)
+	basis := make([]*poly.Poly, n)
+	for i, e := range res.Basis {
+		full := make([]int, r.NumVars())
+		for j, k := range e {
+			full[res.Vars[j]] = k
 		}
-		return f, m, prob, why
+		basis[i] = poly.Monomial(r, full, big.NewRat(1, 1))
+	}
+	if res.NotSOS != nil {
+		ns = notSOSClaim(basis, res.NotSOS)
+		why = fmt.Sprintf("it is not a sum of squares in the %d-monomial Newton basis (an exact moment matrix separates it: a moment-separation claim)", res.Sizes.Basis)
+		return f, m, prob, ns, why
+	}
+	if res.Certificate == nil && res.Margin == nil {
+		why = fmt.Sprintf("the SDP found no positive definite Gram matrix in the %d-monomial Newton basis (solver: %v, margin %.3g), nor one of p less a margin", res.Sizes.Basis, res.SolverStatus, res.Sizes.Margin)
+		return f, m, prob, nil, why
 	}
 	pure := make([]bool, nstates)
 	for _, e := range res.Basis {
@@ -121,30 +138,61 @@ func sosGram(p poly.RatFunc, nstates int) (f Form, m Method, prob *sdp.Problem, 
 	}
 	for i, ok := range pure {
 		if !ok {
-			return f, m, prob, fmt.Sprintf("the basis has no pure power of %s, so a Gram certificate cannot show it positive definite", r.Name(i))
+			return f, m, prob, nil, fmt.Sprintf("the basis has no pure power of %s, so a Gram certificate cannot show it positive definite", r.Name(i))
 		}
 	}
-	n := len(res.Basis)
-	f.Basis = make([]*poly.Poly, n)
-	for i, e := range res.Basis {
-		full := make([]int, r.NumVars())
-		for j, k := range e {
-			full[res.Vars[j]] = k
-		}
-		f.Basis[i] = poly.Monomial(r, full, big.NewRat(1, 1))
-	}
+	f.Basis = basis
 	f.Gram = poly.NewMatrix(r, n)
 	f.LDL = LDL{L: poly.NewMatrix(r, n), D: make([]poly.RatFunc, n), Zero: make([]bool, n)}
+	gram, l, d := [][]*big.Rat(nil), [][]*big.Rat(nil), []*big.Rat(nil)
+	if c := res.Certificate; c != nil {
+		gram, l, d = c.Gram, c.Factor.L, c.Factor.D
+		m.Bits, m.MinPivot = c.Bits, c.Min.RatString()
+	} else {
+		c := res.Margin
+		gram, l, d = c.Gram, c.L, c.D
+		m.Name, m.Bits, m.Epsilon, m.Iterations = MethodMargin, c.Bits, c.Epsilon.RatString(), res.Sizes.MarginIterations
+		f.Margin = poly.Zero(r)
+		for _, a := range c.Pure {
+			f.Margin.Add(f.Margin, new(poly.Poly).Scale(new(poly.Poly).Mul(basis[a], basis[a]), c.Epsilon))
+		}
+	}
 	for i := range n {
 		for j := range n {
-			f.Gram[i][j] = poly.RatConst(r, c.Gram[i][j])
-			f.LDL.L[i][j] = poly.RatConst(r, c.Factor.L[i][j])
+			f.Gram[i][j] = poly.RatConst(r, gram[i][j])
+			f.LDL.L[i][j] = poly.RatConst(r, l[i][j])
 		}
-		f.LDL.D[i] = poly.RatConst(r, c.Factor.D[i])
+		f.LDL.D[i], f.LDL.Zero[i] = poly.RatConst(r, d[i]), d[i].Sign() == 0
 	}
 	f.Minors = f.LDL.Minors()
-	m.Bits, m.MinPivot = c.Bits, c.Min.RatString()
-	return f, m, prob, ""
+	return f, m, prob, nil, ""
+}
+
+// notSOSClaim states an exact moment separation in the basis z.
+func notSOSClaim(z []*poly.Poly, ns *sos.NotSOS) *checker.NotSOS {
+	r := z[0].Ring()
+	n := len(z)
+	mom, l, d := poly.NewMatrix(r, n), poly.NewMatrix(r, n), make([]string, n)
+	for i := range n {
+		l[i][i] = poly.RatConst(r, big.NewRat(1, 1))
+		d[i] = "0"
+		for j := range n {
+			mom[i][j] = poly.RatConst(r, ns.Moment[i][j])
+		}
+	}
+	if len(ns.Factor.D) == n { // else M = 0: L = I, D = 0
+		for i := range n {
+			d[i] = ns.Factor.D[i].RatString()
+			for j := range n {
+				l[i][j] = poly.RatConst(r, ns.Factor.L[i][j])
+			}
+		}
+	}
+	c := &checker.NotSOS{Moments: ns.Functional.String(), Moment: mom.Strings(), L: l.Strings(), D: d, Value: ns.Value.RatString()}
+	for _, b := range z {
+		c.Basis = append(c.Basis, b.String())
+	}
+	return c
 }
 
 // refutePoints looks for a state point, on a small grid of rationals

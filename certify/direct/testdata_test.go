@@ -37,6 +37,8 @@ var certificateCases = []struct {
 	{"strogatz72-a4", "strogatz72.lya", []string{"a=4"}},
 	{"cubic", "cubic.lya", nil},
 	{"quartic", "quartic.lya", nil},
+	{"margin", "margin.lya", nil},
+	{"motzkin", "motzkin.lya", nil},
 }
 
 func loadCase(t testing.TB, file string, set []string) *model.Model {

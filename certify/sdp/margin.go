@@ -31,13 +31,28 @@ type MarginResult struct {
 // T > 0 leaves room for rounding X to rationals: any perturbation of norm
 // below T keeps it positive definite. tmax (> 0) keeps the problem bounded.
 func SolveMargin(ctx context.Context, p *Problem, tmax float64, opts *Options) (*MarginResult, error) {
+	return solveMargin(ctx, p, tmax, opts, true)
+}
+
+// SolvePositiveMargin is SolveMargin with t ≥ 0: for a caller that has use
+// only for a positive margin (a certificate to round), not for the
+// multipliers of a negative one (a refutation). t is then an ordinary
+// non-negative variable, not the difference t⁺ − t⁻ of a split free one,
+// whose two halves grow together and stall the interior-point method (the
+// primal infeasibility stops decreasing while t⁺ and t⁻ drift). When no
+// solution has t ≥ 0 the status says infeasible (numerically).
+func SolvePositiveMargin(ctx context.Context, p *Problem, tmax float64, opts *Options) (*MarginResult, error) {
+	return solveMargin(ctx, p, tmax, opts, false)
+}
+
+func solveMargin(ctx context.Context, p *Problem, tmax float64, opts *Options, free bool) (*MarginResult, error) {
 	if err := p.Validate(); err != nil {
 		return nil, err
 	}
 	if !(tmax > 0) {
 		return nil, errors.New("sdp: margin bound must be positive")
 	}
-	q := MarginProblem(p, tmax)
+	q := marginProblem(p, tmax, free)
 	nb := len(p.Blocks)
 	extra := nb
 	r, err := Solve(ctx, q, opts)
@@ -45,7 +60,10 @@ func SolveMargin(ctx context.Context, p *Problem, tmax float64, opts *Options) (
 		return nil, fmt.Errorf("margin problem: %w", err)
 	}
 	ex := r.X[extra]
-	t := ex.Data[0] - ex.Data[1]
+	t := ex.Data[0]
+	if free {
+		t -= ex.Data[1]
+	}
 	xs := make([]Block, nb)
 	for k := 0; k < nb; k++ {
 		b := r.X[k]
@@ -65,10 +83,19 @@ func SolveMargin(ctx context.Context, p *Problem, tmax float64, opts *Options) (
 // MarginProblem returns the extended problem that SolveMargin solves: the
 // blocks of p and a diagonal block (t⁺, t⁻, w) appended, constraints
 // ⟨Aᵢ, X′⟩ + (t⁺ − t⁻)·tr(Aᵢ) = bᵢ and t⁺ − t⁻ + w = tmax, objective t⁺ − t⁻.
-func MarginProblem(p *Problem, tmax float64) *Problem {
+func MarginProblem(p *Problem, tmax float64) *Problem { return marginProblem(p, tmax, true) }
+
+// PositiveMarginProblem is the problem SolvePositiveMargin solves: the
+// diagonal block (t, w), t ≥ 0, in place of (t⁺, t⁻, w).
+func PositiveMarginProblem(p *Problem, tmax float64) *Problem { return marginProblem(p, tmax, false) }
+
+func marginProblem(p *Problem, tmax float64, free bool) *Problem {
 	nb := len(p.Blocks)
-	q := &Problem{Blocks: append(append([]int(nil), p.Blocks...), -3)}
-	extra := nb
+	extra, w := nb, 1
+	if free {
+		w = 2
+	}
+	q := &Problem{Blocks: append(append([]int(nil), p.Blocks...), -(w + 1))}
 	for i, a := range p.A {
 		var tr float64
 		row := append(Matrix(nil), a...)
@@ -78,13 +105,21 @@ func MarginProblem(p *Problem, tmax float64) *Problem {
 			}
 		}
 		if tr != 0 {
-			row = append(row, Entry{extra, 0, 0, tr}, Entry{extra, 1, 1, -tr})
+			row = append(row, Entry{extra, 0, 0, tr})
+			if free {
+				row = append(row, Entry{extra, 1, 1, -tr})
+			}
 		}
 		q.A = append(q.A, row)
 		q.B = append(q.B, p.B[i])
 	}
-	q.A = append(q.A, Matrix{{extra, 0, 0, 1}, {extra, 1, 1, -1}, {extra, 2, 2, 1}})
+	last, obj := Matrix{{extra, 0, 0, 1}, {extra, w, w, 1}}, Matrix{{extra, 0, 0, 1}}
+	if free {
+		last = Matrix{{extra, 0, 0, 1}, {extra, 1, 1, -1}, {extra, 2, 2, 1}}
+		obj = Matrix{{extra, 0, 0, 1}, {extra, 1, 1, -1}}
+	}
+	q.A = append(q.A, last)
 	q.B = append(q.B, tmax)
-	q.C = Matrix{{extra, 0, 0, 1}, {extra, 1, 1, -1}}
+	q.C = obj
 	return q
 }

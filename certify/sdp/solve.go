@@ -11,6 +11,12 @@ import (
 	"gonum.org/v1/gonum/mat"
 )
 
+// stagnation is the number of iterations without halving the worst
+// relative residual after which Solve stops as Stalled, once that residual
+// is below the square root of the tolerance (common practice: a solution
+// that close serves as a proposal to be rounded and checked exactly).
+const stagnation = 25
+
 // Status says how Solve ended.
 type Status int
 
@@ -27,8 +33,9 @@ const (
 	// ⟨C, X⟩ > 0. Numerical evidence, not a proof.
 	DualInfeasible
 	// Stalled: no progress could be made (a step length or the Schur
-	// complement broke down) before the tolerances were met. The last
-	// iterate and its residuals are returned.
+	// complement broke down, or the residuals stopped decreasing below the
+	// square root of the tolerance) before the tolerances were met. The
+	// last iterate and its residuals are returned.
 	Stalled
 	// IterationLimit: Options.MaxIter iterations were done.
 	IterationLimit
@@ -574,6 +581,11 @@ func (s *solver) run(ctx context.Context) (*Result, error) {
 		return res
 	}
 	stall := 0
+	// Stagnation: the worst of the three relative residuals, best so far
+	// and when it last halved. Degenerate problems (an optimal face
+	// without a strictly feasible neighbourhood) can creep for many
+	// iterations at a small residual without reaching the tolerance.
+	worst, halved := math.Inf(1), 0
 	for it := 0; ; it++ {
 		if err := ctx.Err(); err != nil {
 			return nil, fmt.Errorf("%w: %w", errCancelled, err)
@@ -608,6 +620,12 @@ func (s *solver) run(ctx context.Context) (*Result, error) {
 		}
 		if it >= s.o.MaxIter {
 			r.Status = IterationLimit
+			return r, nil
+		}
+		if e := math.Max(r.PrimalInf, math.Max(r.DualInf, r.Gap)); e < worst/2 {
+			worst, halved = e, it
+		} else if it-halved >= stagnation && worst < math.Sqrt(s.o.Tol) {
+			r.Status = Stalled
 			return r, nil
 		}
 		mu := inner(x, z) / float64(s.ntot)

@@ -41,6 +41,17 @@
 // failure. With Options.Margin the target is p − ε·Σᵢ xᵢ^{2d} with ε the
 // largest power of two at most t/2: G − ε·Σ E_{xᵢ^d} ⪰ G − εI ≻ 0.
 //
+// # Singular Gram matrices
+//
+// Every Gram matrix of a positive definite p may be singular (a block
+// forced by classes of one pair, as for x⁴ + y⁴ + (x²y − xy²)²). Then
+// Find tries the margin form: max ε subject to p − ε·Σ_{a pure} z_a² =
+// zᵀGz, G ⪰ 0, over the pure powers z_a of the basis; it takes ε a power
+// of two at most ε*/2, moves the rest back onto G's pure diagonal, rounds
+// (coarse precisions first, so that the entries of G's kernel round to
+// exact zeros), projects onto the family of p − ε·Σ z_a², and proves G ⪰ 0
+// by exact LDLᵀ with zero pivots on zero columns (MarginCertificate).
+//
 // # Refutations
 //
 // When t < 0 the dual multipliers y of the margin problem are a linear

@@ -44,6 +44,9 @@ type NotSOS struct {
 	Moment  [][]*big.Rat        // M in the basis
 	Factor  LDL                 // M = L·D·Lᵀ, every D[k] > 0 (or M = 0, Factor empty)
 	Value   *big.Rat            // L(p) < 0
+	// Functional is Σ_γ L(x^γ)·x^γ, the same values as a polynomial of
+	// p's ring (see poly.Pairing: L(p) = Pairing(p, Functional)).
+	Functional *poly.Poly
 }
 
 // Sizes describes the work done.
@@ -54,6 +57,8 @@ type Sizes struct {
 	Blocks      []int // block orders of the solved SDP
 	Iterations  int
 	Margin      float64 // the solver's margin t: λmin(G) ≈ t
+	// MarginIterations are those of the SDP of the margin form, when solved.
+	MarginIterations int
 }
 
 // Result is the outcome of Find: a Certificate, a NotSOS proof, or neither
@@ -63,7 +68,10 @@ type Result struct {
 	Basis       [][]int // exponents of the monomials z, over Vars
 	Certificate *Certificate
 	NotSOS      *NotSOS
-	Sizes       Sizes
+	// Margin is a certificate of p − ε·Σ z_a² ⪰ 0 (z_a the pure powers of
+	// the basis), tried when there is neither a Certificate nor a NotSOS.
+	Margin *MarginCertificate
+	Sizes  Sizes
 	// SolverStatus is the status of the margin SDP.
 	SolverStatus sdp.Status
 	// Problem is the SDP that was solved (sdp.MarginProblem of the Gram
@@ -343,6 +351,7 @@ func Find(ctx context.Context, p *poly.Poly, opts *Options) (*Result, error) {
 		v := new(big.Rat).Neg(new(big.Rat).Abs(c))
 		m := big.NewRat(-int64(c.Sign()), 1)
 		res.NotSOS = &NotSOS{Moments: map[string]*big.Rat{Key(e): m}, Moment: zeroMatrix(len(g.Basis)), Value: v}
+		res.NotSOS.Functional = g.functional(p.Ring(), res.NotSOS.Moments)
 		return res, nil
 	}
 	if len(g.Basis) == 0 {
@@ -396,7 +405,17 @@ func Find(ctx context.Context, p *poly.Poly, opts *Options) (*Result, error) {
 		}
 	}
 	if mr.T < 0 {
-		res.NotSOS = g.refute(mr.Y)
+		if res.NotSOS = g.refute(mr.Y); res.NotSOS != nil {
+			res.NotSOS.Functional = g.functional(p.Ring(), res.NotSOS.Moments)
+		}
+	}
+	if res.NotSOS == nil && !o.Margin {
+		// No positive definite Gram matrix came out: perhaps every Gram
+		// matrix of p is singular, yet p exceeds a sum of pure even powers.
+		res.Margin, res.Sizes.MarginIterations, err = g.findMargin(ctx, p, o.SDP)
+		if err != nil {
+			return nil, err
+		}
 	}
 	return res, nil
 }
@@ -536,4 +555,26 @@ func (g *Gram) refute(y []float64) *NotSOS {
 		}
 	}
 	return nil
+}
+
+// functional returns Σ_γ m[γ]·x^γ over the exponents of the classes and
+// of the terms outside them (distinct exponents), in the ring r.
+func (g *Gram) functional(r *poly.Ring, m map[string]*big.Rat) *poly.Poly {
+	y := poly.Zero(r)
+	exps := append([][]int(nil), g.Outside...)
+	for _, c := range g.Classes {
+		exps = append(exps, c.Exp)
+	}
+	for _, e := range exps {
+		v, ok := m[Key(e)]
+		if !ok {
+			continue
+		}
+		full := make([]int, r.NumVars())
+		for i, k := range e {
+			full[g.Vars[i]] = k
+		}
+		y.Add(y, poly.Monomial(r, full, v))
+	}
+	return y
 }

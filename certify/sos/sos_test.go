@@ -167,8 +167,12 @@ func TestMotzkin(t *testing.T) {
 	if res.Certificate != nil {
 		t.Fatal("a certificate for Motzkin's polynomial")
 	}
-	if len(res.Basis) != 4 {
-		t.Errorf("basis %v, want 1, xy, x²y, xy²", res.Basis)
+	// Of the degree-3 candidates 1, x, y, x², xy, y², x²y, xy², the pruning
+	// must drop x, y, x², y²: ½N(p) = conv{(0,0), (2,1), (1,2)} is the set
+	// a ≤ 2b, b ≤ 2a, a + b ≤ 3 (hand computation), which (1,0), (0,1),
+	// (2,0) and (0,2) violate.
+	if got := fmt.Sprint(res.Basis); got != "[[0 0] [1 1] [1 2] [2 1]]" {
+		t.Errorf("basis %v, want 1, xy, xy², x²y", got)
 	}
 	if res.NotSOS == nil {
 		t.Fatal("no refutation")

@@ -148,10 +148,18 @@ func Search(ctx context.Context, m *model.Model, opts Options) (*Result, error) 
 			continue
 		}
 		prob := program(z1, z2, deriv, support, pairExp)
-		res.Problem = sdp.MarginProblem(prob, 1)
+		res.Problem = sdp.PositiveMarginProblem(prob, 1)
 		res.Sizes.BasisVdot, res.Sizes.Low, res.Sizes.Constraints = len(z2), low, len(prob.A)
 		start := time.Now()
-		mr, err := sdp.SolveMargin(ctx, prob, 1, opts.SDP)
+		// A positive margin is all a certificate can use: t ≥ 0 converges
+		// where the free margin's split variable stalls; the free margin
+		// (whose solution reveals the forced zeros of the next attempt)
+		// only when that finds none.
+		mr, err := sdp.SolvePositiveMargin(ctx, prob, 1, opts.SDP)
+		if st := mr.Inner.Status; err == nil && !((st == sdp.Optimal || st == sdp.Stalled || st == sdp.IterationLimit) && mr.T > 1e-7) {
+			res.Problem = sdp.MarginProblem(prob, 1)
+			mr, err = sdp.SolveMargin(ctx, prob, 1, opts.SDP)
+		}
 		res.Sizes.Solve += time.Since(start)
 		if err != nil {
 			return nil, err

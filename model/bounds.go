@@ -63,6 +63,7 @@ func powTerms(s est, e, nvars int) int64 {
 func compose(p poly.RatFunc, sub []est, has []bool, nvars int) est {
 	var out est
 	out.denDeg = shapeOf(p).denDeg
+	base := out.denDeg // p's own, computed once (not once per term)
 	nt := int64(p.Num.NumTerms())
 	var sum int64
 	for _, t := range p.Num.Terms() {
@@ -85,7 +86,7 @@ func compose(p poly.RatFunc, sub []est, has []bool, nvars int) est {
 		}
 		tt = min(tt, monomials(nvars, d))
 		out.deg = max(out.deg, d)
-		out.denDeg = max(out.denDeg, shapeOf(p).denDeg+dd)
+		out.denDeg = max(out.denDeg, base+dd)
 		sum = poly.SatAdd(sum, tt)
 		out.work = poly.SatAdd(out.work, poly.SatAdd(w, tt))
 	}

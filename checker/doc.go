@@ -31,8 +31,9 @@
 //	refutation           V ≤ 0 or V̇ ≥ 0 at an exact point, for every value of the
 //	                     parameters left free (interval enclosure)
 //	krawczyk-enclosure   Krawczyk's theorem: K(X) inside X ⇒ exactly one equilibrium
-//	linearization        Lyapunov's indirect method: M(x*) ≻ 0 with P ≻ 0 (stable)
-//	                     or a negative pivot of P (unstable)
+//	linearization        Lyapunov's indirect method: M(x*) ≻ 0 with P ≻ 0 (stable;
+//	                     global for affine f) or a negative pivot of P (unstable);
+//	                     M recomputed, signs by Bareiss pivots over the integers
 //
 // Lyapunov's direct method combines them: V and −V̇ definite as wholes give
 // global asymptotic stability, their quadratic parts local asymptotic

@@ -261,3 +261,69 @@ func SolveRat(a [][]*big.Rat, b []*big.Rat) (x []*big.Rat, ok bool) {
 	}
 	return x, true
 }
+
+// mersenne61 is the prime 2⁶¹ − 1.
+const mersenne61 = 1<<61 - 1
+
+// mulMod61 returns a·b mod 2⁶¹ − 1 for a, b < 2⁶¹ − 1.
+func mulMod61(a, b uint64) uint64 {
+	hi, lo := bits.Mul64(a, b)
+	// a·b = hi·2⁶⁴ + lo = (hi·2³ + lo>>61)·2⁶¹ + (lo mod 2⁶¹), and 2⁶¹ ≡ 1.
+	s := (hi<<3 | lo>>61) + lo&mersenne61
+	for s >= mersenne61 {
+		s -= mersenne61
+	}
+	return s
+}
+
+// NonsingularModPrime reports that the square rational matrix a is
+// nonsingular by computing its determinant modulo the prime p = 2⁶¹ − 1
+// (Gaussian elimination over the field of p elements): every entry's
+// denominator invertible mod p and det a ≢ 0 (mod p) imply det a ≠ 0,
+// since det a = N/D with D a product of those denominators and N ≡ 0
+// whenever N = 0. False proves nothing (the determinant may be a multiple
+// of p); the caller then decides by exact elimination. It costs n³ word
+// operations, where exact elimination handles numbers with thousands of
+// digits.
+func NonsingularModPrime(a [][]*big.Rat) bool {
+	n := len(a)
+	p := big.NewInt(mersenne61)
+	w := make([][]uint64, n)
+	t := new(big.Int)
+	for i := range a {
+		w[i] = make([]uint64, n)
+		for j, x := range a[i] {
+			if t.Mod(x.Denom(), p).Sign() == 0 {
+				return false
+			}
+			inv := new(big.Int).ModInverse(t, p)
+			t.Mod(x.Num(), p)
+			w[i][j] = t.Mul(t, inv).Mod(t, p).Uint64()
+		}
+	}
+	for k := range n {
+		piv := k
+		for piv < n && w[piv][k] == 0 {
+			piv++
+		}
+		if piv == n {
+			return false
+		}
+		w[k], w[piv] = w[piv], w[k]
+		inv := new(big.Int).ModInverse(new(big.Int).SetUint64(w[k][k]), p).Uint64()
+		for i := k + 1; i < n; i++ {
+			if w[i][k] == 0 {
+				continue
+			}
+			f := mulMod61(w[i][k], inv)
+			for j := k; j < n; j++ {
+				// w[i][j] −= f·w[k][j]
+				w[i][j] += mersenne61 - mulMod61(f, w[k][j])
+				if w[i][j] >= mersenne61 {
+					w[i][j] -= mersenne61
+				}
+			}
+		}
+	}
+	return true
+}

@@ -342,3 +342,71 @@ func TestTermsOrderAndDerivative(t *testing.T) {
 		t.Errorf("∂/∂y = %v, want %v", d, want)
 	}
 }
+
+// TestNonsingularModPrime: a true answer agrees with gonum's determinant
+// being far from zero, a singular matrix (dependent rows, hand
+// computation) is never called nonsingular, and the modular product is the
+// exact one (checked with math/big).
+func TestNonsingularModPrime(t *testing.T) {
+	rng := rand.New(rand.NewPCG(6, 6))
+	for trial := range 40 {
+		n := 1 + trial%9
+		a := make([][]*big.Rat, n)
+		af := mat.NewDense(n, n, nil)
+		for i := range a {
+			for j := range n {
+				v := big.NewRat(int64(rng.IntN(19)-9), int64(1+rng.IntN(7)))
+				a[i] = append(a[i], v)
+				f, _ := v.Float64()
+				af.Set(i, j, f)
+			}
+		}
+		if det := mat.Det(af); math.Abs(det) > 1e-6 && !NonsingularModPrime(a) {
+			t.Errorf("trial %d: det ≈ %v, not shown nonsingular", trial, det)
+		}
+		if n > 1 {
+			// Row 1 := row 0 · 3/2: singular.
+			for j := range n {
+				a[1][j] = new(big.Rat).Mul(a[0][j], big.NewRat(3, 2))
+			}
+			if NonsingularModPrime(a) {
+				t.Errorf("trial %d: a singular matrix shown nonsingular", trial)
+			}
+		}
+	}
+	p := big.NewInt(mersenne61)
+	for range 1000 {
+		x, y := rng.Uint64N(mersenne61), rng.Uint64N(mersenne61)
+		want := new(big.Int).Mul(new(big.Int).SetUint64(x), new(big.Int).SetUint64(y))
+		if got := mulMod61(x, y); want.Mod(want, p).Uint64() != got {
+			t.Fatalf("%d·%d mod p = %d, want %v", x, y, got, want)
+		}
+	}
+}
+
+// TestFormatWithoutParameters: for polynomials free of parameters the
+// short path of Format prints what the grouped printing prints, and the
+// text reads back to the same polynomial (the printer's contract).
+func TestFormatWithoutParameters(t *testing.T) {
+	r := NewRing([]string{"x", "y"}, []string{"k"})
+	rng := rand.New(rand.NewPCG(4, 2))
+	srcs := []string{"3/2*x^2 + x*y + y^2", "-x + 1", "x - y^3/7 - 2", "-1", "x^2*y - x*y^2 + 5*x", "x"}
+	for range 50 {
+		p := Zero(r)
+		for range 1 + rng.IntN(6) {
+			e := []int{rng.IntN(4), rng.IntN(4), 0}
+			p.Add(p, Monomial(r, e, big.NewRat(int64(rng.IntN(21)-10), int64(1+rng.IntN(5)))))
+		}
+		srcs = append(srcs, p.String())
+	}
+	for _, src := range srcs {
+		f := MustParse(r, src)
+		got := f.Format(r.Names())
+		if want := f.formatGrouped(r.Names(), r.StateMask()); got != want && f.Num.DegreeIn(r.StateMask()) > 0 {
+			t.Errorf("%q: %q, grouped %q", src, got, want)
+		}
+		if back := MustParse(r, got); !back.Equal(f) {
+			t.Errorf("%q printed as %q, which reads back as %v", src, got, back)
+		}
+	}
+}

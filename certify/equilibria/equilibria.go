@@ -214,6 +214,15 @@ func solveAffine(g []*poly.Poly) ([]*big.Rat, bool) {
 			}
 		}
 	}
+	if !slices.ContainsFunc(c, func(x *big.Rat) bool { return x.Sign() != 0 }) && poly.NonsingularModPrime(a) {
+		// A·x = 0 with A proven nonsingular: the origin, without the long
+		// minors of exact elimination.
+		pt := make([]*big.Rat, n)
+		for i := range pt {
+			pt[i] = new(big.Rat)
+		}
+		return pt, true
+	}
 	return poly.SolveRat(a, c)
 }
 

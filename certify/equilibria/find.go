@@ -162,30 +162,34 @@ func CertifyEquilibrium(ctx context.Context, m *model.Model, e *Equilibrium, opt
 	for _, tol := range rationalizeTolerances {
 		p := roundCommon(pf, tol*pmax)
 		var decay [][]poly.Interval
+		proven := false
 		if e.ExactJacobian != nil {
 			mm := poly.DecayAt(e.ExactJacobian, m.Discrete, p)
-			if !floatDefinite(mm) {
+			if !floatDefinite(mm, 1e-8) {
 				continue // too coarse: not worth the exact elimination
 			}
 			decay = pointIntervals(mm)
+			// Both definite with a margin that floating point cannot
+			// blur: the kernel's exact elimination will agree, and runs
+			// once, in the kernel, instead of twice.
+			proven = floatDefinite(mm, -1e-9*float64(n)) && floatDefinite(p, -1e-9*float64(n))
 		} else {
 			decay = poly.DecayEnclosure(f, m.Discrete, p, box)
 		}
-		// The two eliminations are independent: P's runs beside M's.
-		var k int
-		var pivot *big.Rat
-		done := make(chan struct{})
-		go func() {
-			defer close(done)
-			k, pivot = poly.FirstNonPositivePivot(p)
-		}()
-		definite := poly.PositiveDefiniteOn(decay)
-		<-done
-		if !definite {
-			continue
-		}
-		if k >= 0 && pivot.Sign() == 0 {
-			continue
+		k := -1
+		if !proven {
+			// The two eliminations are independent: P's runs beside M's.
+			var pivot *big.Rat
+			done := make(chan struct{})
+			go func() {
+				defer close(done)
+				k, pivot = poly.FirstNonPositivePivot(p)
+			}()
+			definite := poly.PositiveDefiniteOn(decay)
+			<-done
+			if !definite || (k >= 0 && pivot.Sign() == 0) {
+				continue
+			}
 		}
 		c := &Certification{Method: MethodLinearization, P: p, Tolerance: tol, Decay: decay}
 		switch {
@@ -296,24 +300,36 @@ func roundCommon(pf *mat.SymDense, tol float64) [][]*big.Rat {
 	return p
 }
 
-// floatDefinite screens a rounding before the exact test: a floating-point
-// Cholesky factorization of M (gonum) that fails by a clear margin — M with
-// 10⁻⁸·max|Mᵢᵢ| added to its diagonal is still not definite — means that the
-// exact elimination would fail too, or pass only by a hair that a finer
-// rounding gives with room to spare. It only proposes; it never proves.
-func floatDefinite(a [][]*big.Rat) bool {
+// floatDefinite reports that gonum's Cholesky factorization of the
+// symmetric matrix a + shift·μ·I succeeds in floating point, μ = maxᵢⱼ|aᵢⱼ|.
+//
+// With a positive shift (10⁻⁸) it screens a rounding before the exact test:
+// a failure means that the exact elimination would fail too, or pass only by
+// a hair that a finer rounding gives with room to spare.
+//
+// With a negative shift −c of at least 10⁻⁹·n it shows a ≻ 0: the computed
+// factor C satisfies CᵀC = fl(a) − cμI + E with ‖E‖₂ ≤ (n+1)·u·n·μ (the
+// backward error of Cholesky's method, Demmel 1989; u = 2⁻⁵³), and
+// ‖fl(a) − a‖₂ ≤ n·u·μ, both far below cμ, so
+// a = CᵀC + cμI − E − (fl(a) − a) ≻ 0 (the argument of Rump's floating-point
+// tests of definiteness). The engine uses it only to skip its own exact
+// elimination; the kernel decides.
+func floatDefinite(a [][]*big.Rat, shift float64) bool {
 	n := len(a)
 	s := mat.NewSymDense(n, nil)
-	big := 0.0
+	mu := 0.0
 	for i := range n {
 		for j := i; j < n; j++ {
 			v, _ := a[i][j].Float64()
+			if math.IsInf(v, 0) || math.IsNaN(v) {
+				return false
+			}
 			s.SetSym(i, j, v)
+			mu = math.Max(mu, math.Abs(v))
 		}
-		big = math.Max(big, math.Abs(s.At(i, i)))
 	}
 	for i := range n {
-		s.SetSym(i, i, s.At(i, i)+1e-8*big)
+		s.SetSym(i, i, s.At(i, i)+shift*mu)
 	}
 	var c mat.Cholesky
 	return c.Factorize(s)

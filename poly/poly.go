@@ -488,6 +488,16 @@ func (p *Poly) Degree() int {
 // (all variables when in is nil); -1 for the zero polynomial.
 func (p *Poly) DegreeIn(in []bool) int {
 	d := -1
+	if in == nil {
+		for k := range p.terms {
+			s := 0
+			for i := 1; i < len(k); i += 2 {
+				s += int(k[i-1])<<8 | int(k[i])
+			}
+			d = max(d, s)
+		}
+		return d
+	}
 	for k := range p.terms {
 		s := 0
 		for i := 0; i < len(k)/2; i++ {

@@ -40,8 +40,9 @@
 //	                     matrix L(z_a·z_b) ⪰ 0 ⇒ p is no sum of squares in the span of
 //	                     z; reported, it changes no verdict
 //	krawczyk-enclosure   Krawczyk's theorem: K(X) inside X ⇒ exactly one equilibrium
-//	linearization        Lyapunov's indirect method: M(x*) ≻ 0 with P ≻ 0 (stable)
-//	                     or a negative pivot of P (unstable)
+//	linearization        Lyapunov's indirect method: M(x*) ≻ 0 with P ≻ 0 (stable;
+//	                     global for affine f) or a negative pivot of P (unstable);
+//	                     M recomputed, signs by Bareiss pivots over the integers
 //	sublevel-basin       region of attraction (Lyapunov, LaSalle): a box of the
 //	                     states bisected, V > c on the boxes along its boundary
 //	                     and wherever V̇ < 0 is not proven (centred forms, or

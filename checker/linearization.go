@@ -2,6 +2,7 @@ package checker
 
 import (
 	"math/big"
+	"slices"
 
 	"github.com/lyacert/lyacert/model"
 	"github.com/lyacert/lyacert/poly"
@@ -32,7 +33,10 @@ type KrawczykEnclosure struct {
 // The rule requires M(x*) ≻ 0; then P ≻ 0 gives local asymptotic stability
 // (V = (x − x*)ᵀP(x − x*) decreases near x*) and a negative LDLᵀ pivot of P
 // gives instability (W = −V increases near x* and is positive arbitrarily
-// close to it: Lyapunov's instability theorem).
+// close to it: Lyapunov's instability theorem). When every fᵢ has degree ≤ 1
+// the linearization is exact, f(x) = J·(x − x*), so V̇ (ΔV) equals
+// −(x − x*)ᵀM(x − x*) everywhere and P ≻ 0 gives global asymptotic stability
+// (Lyapunov's direct method, V radially unbounded).
 type Linearization struct {
 	P     [][]string    `json:"p"`     // symmetric
 	Decay [][][2]string `json:"decay"` // M entrywise over the box, recomputed
@@ -140,23 +144,16 @@ func (c *run) linearization(cl Claim) bool {
 	if box == nil {
 		// The equilibrium is the model's point, rational and exact.
 		err := m.CheckEquilibrium()
-		what := "f(x*) = 0"
-		if m.Discrete {
-			what = "f(x*) = x*"
-		}
+		what := map[bool]string{false: "f(x*) = 0", true: "f(x*) = x*"}[m.Discrete]
 		if !c.add("equilibrium", err == nil, "%s exactly at the stated point%s", what, errSuffix(err)) {
 			return false
 		}
-		zero := make([]*big.Rat, m.Ring.NumVars())
-		for i := range zero {
-			zero[i] = new(big.Rat)
+		pt, err := m.AtPoint()
+		if !c.add("equilibrium", err == nil, "the point is defined") {
+			return false
 		}
 		box = make([]poly.Interval, n)
-		for i := range box {
-			v, err := m.At[i].Eval(zero)
-			if !c.add("equilibrium", err == nil, "the point is defined") {
-				return false
-			}
+		for i, v := range pt {
 			box[i] = poly.Point(v)
 		}
 	}
@@ -173,10 +170,7 @@ func (c *run) linearization(cl Claim) bool {
 			same = same && sameText(lz.Decay[i][j], e[i][j])
 		}
 	}
-	mname := "−(JᵀP + PJ)"
-	if m.Discrete {
-		mname = "P − JᵀPJ"
-	}
+	mname := map[bool]string{false: "−(JᵀP + PJ)", true: "P − JᵀPJ"}[m.Discrete]
 	if !c.add("linearization", symmetric, "P is symmetric") ||
 		!c.add("decay", same, "the enclosure of M = %s equals the recomputed one", mname) ||
 		!c.add("decay", poly.PositiveDefiniteOn(e), "M = %s is positive definite at the equilibrium (midpoint minus row-sum radius, exact LDLᵀ)", mname) {
@@ -184,8 +178,10 @@ func (c *run) linearization(cl Claim) bool {
 	}
 	k, pivot := poly.FirstNonPositivePivot(p)
 	switch {
-	case k < 0:
+	case k < 0 && slices.ContainsFunc(f, func(fi *poly.Poly) bool { return fi.Degree() > 1 }):
 		c.linear = KindLocal
+	case k < 0:
+		c.linear = KindGlobal // f affine: V̇ = −(x − x*)ᵀM(x − x*) everywhere
 	case pivot.Sign() < 0:
 		c.linear = KindUnstable
 	default:

@@ -254,7 +254,7 @@ func (c *run) conclude() (verdict, kind string) {
 		if c.linear == KindUnstable {
 			return VerdictFails, KindUnstable
 		}
-		return VerdictHolds, KindLocal
+		return VerdictHolds, c.linear
 	}
 	if !c.add("claims", c.derived, "the certificate states V's derivative along the flow or a linearization") {
 		return

@@ -35,9 +35,14 @@ func shapeOf(f poly.RatFunc) est {
 // monomials returns the number of monomials of degree at most d in n
 // variables, binomial(n+d, n), saturated.
 func monomials(n, d int) int64 {
+	// binomial(n+d, n) = binomial(n+d, d): the loop runs over the smaller
+	// of the two (the degree, for models with many states); every partial
+	// product binomial(m+i, i) is an integer and they increase, so the
+	// saturation is the same either way.
+	m, k := max(n, d), min(n, d)
 	r := int64(1)
-	for i := 1; i <= n; i++ {
-		r = poly.SatMul(r, int64(d+i)) / int64(i)
+	for i := 1; i <= k; i++ {
+		r = poly.SatMul(r, int64(m+i)) / int64(i)
 		if r >= math.MaxInt64/int64(n+d+1) {
 			return math.MaxInt64
 		}
@@ -63,6 +68,7 @@ func powTerms(s est, e, nvars int) int64 {
 func compose(p poly.RatFunc, sub []est, has []bool, nvars int) est {
 	var out est
 	out.denDeg = shapeOf(p).denDeg
+	base := out.denDeg // p's own, computed once (not once per term)
 	nt := int64(p.Num.NumTerms())
 	var sum int64
 	for _, t := range p.Num.Terms() {
@@ -85,7 +91,7 @@ func compose(p poly.RatFunc, sub []est, has []bool, nvars int) est {
 		}
 		tt = min(tt, monomials(nvars, d))
 		out.deg = max(out.deg, d)
-		out.denDeg = max(out.denDeg, shapeOf(p).denDeg+dd)
+		out.denDeg = max(out.denDeg, base+dd)
 		sum = poly.SatAdd(sum, tt)
 		out.work = poly.SatAdd(out.work, poly.SatAdd(w, tt))
 	}

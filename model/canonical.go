@@ -2,6 +2,7 @@ package model
 
 import (
 	"fmt"
+	"math/big"
 	"strings"
 
 	"github.com/lyacert/lyacert/poly"
@@ -82,6 +83,25 @@ func (m *Model) Residual() []poly.RatFunc {
 		}
 	}
 	return out
+}
+
+// AtPoint returns the equilibrium (the "at" point, or the origin) as
+// rationals, for a model whose parameters are all fixed: its coordinates are
+// then constants, evaluated exactly.
+func (m *Model) AtPoint() ([]*big.Rat, error) {
+	zero := make([]*big.Rat, m.Ring.NumVars())
+	for i := range zero {
+		zero[i] = new(big.Rat)
+	}
+	pt := make([]*big.Rat, len(m.States))
+	for i := range pt {
+		v, err := m.At[i].Eval(zero)
+		if err != nil {
+			return nil, fmt.Errorf("coordinate %s of the equilibrium: %w", m.States[i], err)
+		}
+		pt[i] = v
+	}
+	return pt, nil
 }
 
 // CheckEquilibrium returns an error unless the equilibrium makes every

@@ -1,6 +1,8 @@
 package model
 
 import (
+	"math"
+	"math/big"
 	"strings"
 	"testing"
 
@@ -24,6 +26,25 @@ func TestPlainStartAgreesWithScanner(t *testing.T) {
 		}
 		if strings.HasPrefix(strings.TrimSpace(line), "x") && !plainStart(line) {
 			t.Errorf("%q: not skipped", line)
+		}
+	}
+}
+
+// TestMonomials: the number of monomials of degree at most d in n
+// variables is binomial(n+d, n) (common practice), against math/big's
+// Binomial, saturated to MaxInt64 from MaxInt64/(n+d+1) on.
+func TestMonomials(t *testing.T) {
+	for _, c := range [][2]int{{0, 0}, {1, 5}, {3, 2}, {200, 1}, {200, 2}, {2, 200}, {10000, 3}, {40, 40}, {100, 100}, {5000, 5000}} {
+		n, d := c[0], c[1]
+		want := new(big.Int).Binomial(int64(n+d), int64(n))
+		limit := big.NewInt(math.MaxInt64 / int64(n+d+1))
+		got := monomials(n, d)
+		if want.Cmp(limit) >= 0 {
+			if got != math.MaxInt64 {
+				t.Errorf("monomials(%d, %d) = %d, want saturation", n, d, got)
+			}
+		} else if got != want.Int64() {
+			t.Errorf("monomials(%d, %d) = %d, want %v", n, d, got, want)
 		}
 	}
 }

@@ -211,3 +211,30 @@ func FuzzParse(f *testing.F) {
 		}
 	})
 }
+
+// TestAtPoint: the stated point with its parameters fixed, and the origin
+// when no point is stated (the model file's definition).
+func TestAtPoint(t *testing.T) {
+	cases := []struct {
+		src  string
+		want []string
+	}{
+		{"state x, y\nparameter a = 3\nx' = y - a\ny' = x - 1/2\nat x = 1/2, y = a\n", []string{"1/2", "3"}},
+		{"state x, y\nx' = -x\ny' = -y\n", []string{"0", "0"}},
+	}
+	for _, c := range cases {
+		m, err := Parse("at.lya", []byte(c.src))
+		if err != nil {
+			t.Fatal(err)
+		}
+		pt, err := m.AtPoint()
+		if err != nil {
+			t.Fatal(err)
+		}
+		for i, v := range pt {
+			if v.RatString() != c.want[i] {
+				t.Errorf("%q: coordinate %d = %s, want %s", c.src, i, v.RatString(), c.want[i])
+			}
+		}
+	}
+}

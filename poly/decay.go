@@ -17,8 +17,49 @@ func boxPoint(box []Interval) ([]*big.Rat, bool) {
 }
 
 // DecayAt returns M = −(JᵀP + PJ) (continuous time) or P − JᵀPJ (discrete
-// time) for rational matrices J and P, exactly.
+// time) for rational matrices J and P, exactly. When J = Jₙ/d and P = Pₙ/e
+// have short common denominators the products are integer products
+// (IntProduct): M = −(JₙᵀPₙ + PₙJₙ)/(d·e), or (d²·Pₙ − JₙᵀPₙJₙ)/(d²·e), and
+// only the n² results are reduced to lowest terms.
 func DecayAt(j [][]*big.Rat, discrete bool, p [][]*big.Rat) [][]*big.Rat {
+	if jn, d, ok := CommonDenominator(j, 256); ok {
+		if pn, e, ok := CommonDenominator(p, 256); ok {
+			return decayInt(jn, d, discrete, pn, e)
+		}
+	}
+	return decayRat(j, discrete, p)
+}
+
+func decayInt(jn [][]*big.Int, d *big.Int, discrete bool, pn [][]*big.Int, e *big.Int) [][]*big.Rat {
+	n := len(jn)
+	pj := IntProduct(pn, jn)
+	den := new(big.Int).Mul(d, e)
+	var jpj [][]*big.Int
+	if discrete {
+		jpj = IntProduct(IntTranspose(jn), pj)
+		den.Mul(den, d)
+	}
+	d2 := new(big.Int).Mul(d, d)
+	m := make([][]*big.Rat, n)
+	for i := range m {
+		m[i] = make([]*big.Rat, n)
+	}
+	for i := range n {
+		for k := i; k < n; k++ {
+			v := new(big.Int)
+			if discrete {
+				v.Sub(v.Mul(d2, pn[i][k]), jpj[i][k])
+			} else {
+				v.Neg(v.Add(pj[k][i], pj[i][k]))
+			}
+			m[i][k] = new(big.Rat).SetFrac(v, den)
+			m[k][i] = m[i][k]
+		}
+	}
+	return m
+}
+
+func decayRat(j [][]*big.Rat, discrete bool, p [][]*big.Rat) [][]*big.Rat {
 	n := len(j)
 	pj := make([][]*big.Rat, n) // P·J
 	for i := 0; i < n; i++ {

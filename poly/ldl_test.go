@@ -34,6 +34,15 @@ func TestFirstNonPositivePivot(t *testing.T) {
 		{ratMatrix([]string{"0", "1"}, []string{"1", "0"}), 0, "0"},                                    // hand computation: a zero first pivot
 		{ratMatrix([]string{"3/2", "1/2"}, []string{"1/2", "1"}), -1, ""},                              // Ogata's P: pivots 3/2, 5/6
 		{ratMatrix([]string{"1", "1", "1"}, []string{"1", "1", "1"}, []string{"1", "1", "2"}), 1, "0"}, // hand computation: rank 2 leading block
+		// Strictly diagonally dominant with a positive diagonal: definite
+		// without elimination (Levy–Desplanques; common practice).
+		{ratMatrix([]string{"3", "1", "-1"}, []string{"1", "3", "1"}, []string{"-1", "1", "3"}), -1, ""},
+		// Definite but not dominant (eigenvalues 14/5, 1/10, 1/10; hand
+		// computation): decided by elimination.
+		{ratMatrix([]string{"1", "9/10", "9/10"}, []string{"9/10", "1", "9/10"}, []string{"9/10", "9/10", "1"}), -1, ""},
+		// Dominant rows but a negative diagonal entry: leading minors 4, 15
+		// and −63/2 (Laplace expansion), so the third pivot is −21/10.
+		{ratMatrix([]string{"4", "1", "1/2"}, []string{"1", "4", "1/2"}, []string{"1/2", "1/2", "-2"}), 2, "-21/10"},
 	}
 	for i, c := range cases {
 		k, p := FirstNonPositivePivot(c.a)

@@ -1,5 +1,7 @@
 package poly
 
+import "math/big"
+
 // Matrix is a dense matrix of rational functions of the parameters.
 type Matrix [][]RatFunc
 
@@ -152,4 +154,45 @@ func StateBasis(r *Ring, n int) []RatFunc {
 		z[i] = FromPoly(Var(r, i))
 	}
 	return z
+}
+
+// QuadraticAbout returns (x − a)ᵀP(x − a) in the first len(P) variables
+// (the states) for a symmetric rational P and a point a, expanded as
+// xᵀPx − 2(Pa)ᵀx + aᵀPa and built in one term map: O(n²) coefficients, where
+// summing n² products of polynomials would copy the growing sum each time.
+func QuadraticAbout(r *Ring, p [][]*big.Rat, a []*big.Rat) *Poly {
+	n := len(p)
+	out := Zero(r)
+	e := make([]int, r.NumVars())
+	set := func(c *big.Rat) {
+		if c.Sign() != 0 {
+			out.terms[key(e)] = c
+		}
+	}
+	pa := make([]*big.Rat, n) // P·a
+	t := new(big.Rat)
+	for i := range n {
+		pa[i] = new(big.Rat)
+		for j := range n {
+			if p[i][j].Sign() != 0 && a[j].Sign() != 0 {
+				AddRat(pa[i], pa[i], MulRat(t, p[i][j], a[j]))
+			}
+		}
+	}
+	apa := new(big.Rat)
+	for i := range n {
+		e[i] = 2
+		set(new(big.Rat).Set(p[i][i]))
+		e[i] = 1
+		for j := i + 1; j < n; j++ {
+			e[j] = 1
+			set(new(big.Rat).Add(p[i][j], p[j][i]))
+			e[j] = 0
+		}
+		set(new(big.Rat).Mul(pa[i], big.NewRat(-2, 1)))
+		e[i] = 0
+		AddRat(apa, apa, MulRat(t, a[i], pa[i]))
+	}
+	set(apa)
+	return out
 }

@@ -279,16 +279,19 @@ func (z *Poly) Pow(x *Poly, n int) *Poly {
 
 // Derivative sets z = ∂x/∂v_i and returns z.
 func (z *Poly) Derivative(x *Poly, i int) *Poly {
-	t := make(map[string]*big.Rat, len(x.terms))
+	t := make(map[string]*big.Rat)
 	for k, c := range x.terms {
-		e := unkey(k)
-		if e[i] == 0 {
+		// The exponent of v_i is read from the key itself (see key), so a
+		// term without v_i costs nothing however many variables the ring has.
+		ei := int(k[2*i])<<8 | int(k[2*i+1])
+		if ei == 0 {
 			continue
 		}
-		d := new(big.Rat).SetInt64(int64(e[i]))
+		d := new(big.Rat).SetInt64(int64(ei))
 		MulRat(d, d, c)
-		e[i]--
-		t[key(e)] = d
+		b := []byte(k)
+		b[2*i], b[2*i+1] = byte((ei-1)>>8), byte(ei-1)
+		t[string(b)] = d
 	}
 	z.ring, z.terms = x.ring, t
 	return z
@@ -485,6 +488,16 @@ func (p *Poly) Degree() int {
 // (all variables when in is nil); -1 for the zero polynomial.
 func (p *Poly) DegreeIn(in []bool) int {
 	d := -1
+	if in == nil {
+		for k := range p.terms {
+			s := 0
+			for i := 1; i < len(k); i += 2 {
+				s += int(k[i-1])<<8 | int(k[i])
+			}
+			d = max(d, s)
+		}
+		return d
+	}
 	for k := range p.terms {
 		s := 0
 		for i := 0; i < len(k)/2; i++ {
@@ -608,19 +621,33 @@ func (p *Poly) Terms() []Term {
 // sortedTerms is Terms with the coefficients shared with p (see Poly): they
 // must not be modified.
 func (p *Poly) sortedTerms() []Term {
-	ts := make([]Term, 0, len(p.terms))
-	for k, c := range p.terms {
-		ts = append(ts, Term{Exp: unkey(k), Coef: c})
+	// Sorted by total degree, then by the keys themselves: a key holds the
+	// exponents big-endian in variable order, so comparing keys as strings
+	// is comparing exponent vectors lexicographically (GradedCompare), with
+	// each degree computed once rather than at every comparison.
+	type entry struct {
+		deg int
+		k   string
+		c   *big.Rat
 	}
-	slices.SortFunc(ts, func(a, b Term) int {
-		switch {
-		case gradedLess(b.Exp, a.Exp):
-			return -1
-		case gradedLess(a.Exp, b.Exp):
-			return 1
+	es := make([]entry, 0, len(p.terms))
+	for k, c := range p.terms {
+		d := 0
+		for i := 1; i < len(k); i += 2 {
+			d += int(k[i-1])<<8 | int(k[i])
 		}
-		return 0
+		es = append(es, entry{d, k, c})
+	}
+	slices.SortFunc(es, func(a, b entry) int {
+		if a.deg != b.deg {
+			return cmp.Compare(b.deg, a.deg)
+		}
+		return strings.Compare(b.k, a.k)
 	})
+	ts := make([]Term, len(es))
+	for i, e := range es {
+		ts[i] = Term{Exp: unkey(e.k), Coef: e.c}
+	}
 	return ts
 }
 

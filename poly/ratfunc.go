@@ -373,6 +373,19 @@ func (f RatFunc) Format(names []string) string {
 	if f.Num.DegreeIn(states) <= 0 {
 		return formatQuotient(f.Num.formatTerms(names), f.Num.NumTerms() > 1, f.Den, names)
 	}
+	if len(f.Den) == 0 && f.Num.DegreeIn(r.ParamMask()) <= 0 {
+		// No parameter: every group of formatGrouped is one term with a
+		// constant coefficient, printed exactly as formatTerms prints it
+		// (TestFormatWithoutParameters), without a polynomial per group.
+		return f.Num.formatTerms(names)
+	}
+	return f.formatGrouped(names, states)
+}
+
+// formatGrouped prints f's terms grouped by their state monomial, each
+// with its coefficient in the parameters.
+func (f RatFunc) formatGrouped(names []string, states []bool) string {
+	r := f.Num.ring
 	// Group the terms by their state monomial.
 	type group struct {
 		exp  []int

@@ -117,12 +117,29 @@ func RatLDL(a [][]*big.Rat) (l [][]*big.Rat, d []*big.Rat, ok bool, col int) {
 }
 
 // bareissPivot is FirstNonPositivePivot by fraction-free elimination
-// (Bareiss 1968). Row and column i are scaled by sᵢ, the lcm of the
-// denominators in row i, so B = S·a·S is an integer matrix with leading
-// minors Δₖ(B) = Δₖ(a)·Π sᵢ² (the same signs); Bareiss' step
-// bᵢⱼ ← (bₖₖ·bᵢⱼ − bᵢₖ·bₖⱼ)/b_prev divides exactly and leaves Δₖ₊₁(B) at
-// bₖₖ, so the k-th pivot of a is Δₖ(B)/(Δₖ₋₁(B)·sₖ²), with no gcd in the loop.
+// (Bareiss 1968, FirstNonPositiveMinor). With a short common denominator L of
+// the entries, B = L·a is an integer matrix with Δₖ(B) = Lᵏ·Δₖ(a), so the
+// k-th pivot of a is Δₖ(B)/(Δₖ₋₁(B)·L). Otherwise row and column i are scaled
+// by sᵢ, the lcm of the denominators in row i: B = S·a·S has
+// Δₖ(B) = Δₖ(a)·Π sᵢ² and the k-th pivot is Δₖ(B)/(Δₖ₋₁(B)·sₖ²). Either way
+// the signs of the leading minors are a's, and no gcd is taken in the loop.
 func bareissPivot(a [][]*big.Rat) (int, *big.Rat) {
+	if dominant(a) {
+		return -1, nil
+	}
+	maxDen := 0
+	for _, row := range a {
+		for _, x := range row {
+			maxDen = max(maxDen, x.Denom().BitLen())
+		}
+	}
+	if b, l, ok := CommonDenominator(a, 2*maxDen+64); ok {
+		k, minor, prev := FirstNonPositiveMinor(b)
+		if k < 0 {
+			return -1, nil
+		}
+		return k, new(big.Rat).SetFrac(minor, prev.Mul(prev, l))
+	}
 	n := len(a)
 	s := make([]*big.Int, n)
 	b := make([][]*big.Int, n)
@@ -144,22 +161,35 @@ func bareissPivot(a [][]*big.Rat) (int, *big.Rat) {
 			b[i][j] = v.Quo(v, x.Denom())
 		}
 	}
-	prev := big.NewInt(1)
-	t := new(big.Int)
-	for k := range n {
-		if b[k][k].Sign() <= 0 {
-			p := new(big.Rat).SetFrac(b[k][k], prev)
-			s2 := new(big.Int).Mul(s[k], s[k])
-			return k, p.Quo(p, new(big.Rat).SetInt(s2))
+	k, minor, prev := FirstNonPositiveMinor(b)
+	if k < 0 {
+		return -1, nil
+	}
+	return k, new(big.Rat).SetFrac(minor, prev.Mul(prev, new(big.Int).Mul(s[k], s[k])))
+}
+
+// dominant reports that the square matrix a is strictly diagonally dominant
+// with a positive diagonal: aᵢᵢ > Σⱼ≠ᵢ |aᵢⱼ| for every row. Every principal
+// submatrix is then so too, and its eigenvalues have positive real parts
+// (Gershgorin's circle theorem), so its determinant is positive: every
+// leading minor, and so every pivot, is positive (Levy–Desplanques). An exact
+// O(n²) test that settles the common well-conditioned case before any
+// elimination.
+func dominant(a [][]*big.Rat) bool {
+	r, t := new(big.Rat), new(big.Rat)
+	for i, row := range a {
+		if row[i].Sign() <= 0 {
+			return false
 		}
-		for i := k + 1; i < n; i++ {
-			for j := k + 1; j < n; j++ {
-				b[i][j].Mul(b[i][j], b[k][k])
-				b[i][j].Sub(b[i][j], t.Mul(b[i][k], b[k][j]))
-				b[i][j].Quo(b[i][j], prev)
+		r.SetInt64(0)
+		for j, x := range row {
+			if j != i && x.Sign() != 0 {
+				AddRat(r, r, t.Abs(x))
+				if r.Cmp(row[i]) >= 0 {
+					return false
+				}
 			}
 		}
-		prev = b[k][k]
 	}
-	return -1, nil
+	return true
 }

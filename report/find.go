@@ -237,7 +237,7 @@ func findText(w io.Writer, res *equilibria.FindResult, q []*big.Rat, written []s
 		if ct.Tolerance > 0 {
 			tol = fmt.Sprintf("relative tolerance %g", ct.Tolerance)
 		}
-		fmt.Fprintf(w, "  Lyapunov equation %s with Q = %s, solved in floating point and rounded to rationals (continued fractions, %s):\n", eq, qText(q), tol)
+		fmt.Fprintf(w, "  Lyapunov equation %s with Q = %s, solved in floating point and rounded to rationals (one decimal denominator, %s):\n", eq, qText(q), tol)
 		fmt.Fprintf(w, "    P = %s\n", ratRows(ct.P))
 		decrease := "−(AᵀP + PA)"
 		if m.Discrete {
@@ -250,7 +250,7 @@ func findText(w io.Writer, res *equilibria.FindResult, q []*big.Rat, written []s
 		if ct.Verdict == checker.VerdictFails {
 			pd = "P has a negative pivot"
 		}
-		fmt.Fprintf(w, "  exact LDLᵀ: %s ≻ 0 and %s\n", decrease, pd)
+		fmt.Fprintf(w, "  exact fraction-free elimination: %s ≻ 0 and %s\n", decrease, pd)
 		if ct.V != nil && ct.Verdict == checker.VerdictHolds {
 			fmt.Fprintf(w, "  V = %s\n", ct.V)
 		}

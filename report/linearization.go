@@ -156,6 +156,8 @@ func (b *builder) linearization(p *page) error {
 	switch b.doc.Claim {
 	case checker.KindUnstable:
 		v.Conclusion = rich{"The matrix ", lhs, " is positive definite (for every matrix in the enclosure), and ", pSym, " has a negative pivot in its exact ", ldlT, " factorization: ", symbol{"W = -V", mrow("<mi>W</mi><mo>=</mo><mo>−</mo><mi>V</mi>")}, " increases near the equilibrium and is positive arbitrarily close to it, so the equilibrium is unstable (Lyapunov's instability theorem)."}
+	case checker.KindGlobal:
+		v.Conclusion = rich{"The matrices ", pSym, " and ", lhs, " are positive definite (exact ", ldlT, " with positive pivots). The right-hand side is affine: its Jacobian is constant and the linearization is the model itself, so ", vSym, " decreases everywhere, not only near the equilibrium, and grows without bound; the equilibrium is globally asymptotically stable (Lyapunov's direct method)."}
 	default:
 		v.Conclusion = rich{"The matrices ", pSym, " and ", lhs, " are positive definite (exact ", ldlT, " with positive pivots; for ", lhs, " every matrix in the enclosure), so ", vSym, " decreases near the equilibrium: it is locally asymptotically stable (Lyapunov's indirect method)."}
 	}

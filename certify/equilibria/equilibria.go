@@ -70,7 +70,12 @@ type EquilibriumSearch struct {
 const (
 	maxEliminationTerms = 5000
 	maxEliminationSteps = 400
-	newtonStartsPerBox  = 12
+	// maxRootDegree bounds the degree of a univariate polynomial whose real
+	// roots are isolated exactly: elimination in a chain of cubic equations
+	// gives degree 3ⁿ, whose Sturm sequence costs far more than Newton's
+	// method from many starts.
+	maxRootDegree      = 60
+	newtonStartsPerBox = 12
 )
 
 // FindEquilibria finds the equilibria of a model whose parameters are all
@@ -81,7 +86,10 @@ const (
 //     equation in one state alone is solved by exact real-root isolation
 //     (Sturm), branching on every rational root (poly.RationalRoots) and,
 //     when it is the last equation, on every irrational root. When every
-//     branch ends this way the search is complete.
+//     branch ends this way the search is complete. Equations that are all
+//     affine are solved at once (poly.SolveRat); a substitution or a
+//     univariate polynomial of degree above maxRootDegree leaves the search
+//     incomplete instead.
 //  2. otherwise Newton's method from deterministic starting points at
 //     several scales.
 //
@@ -100,7 +108,11 @@ func FindEquilibria(m *model.Model) (*EquilibriumSearch, error) {
 	n := len(g)
 	jac := poly.Jacobian(g)
 	el := &eliminator{n: n, r: m.Ring}
-	el.solve(g, make([]*poly.Poly, n))
+	if pt, ok := solveAffine(g); ok {
+		el.exact = append(el.exact, pt)
+	} else {
+		el.solve(g, make([]*poly.Poly, n))
+	}
 	search := &EquilibriumSearch{Complete: !el.incomplete, NonIsolated: el.nonIsolated}
 	cands := el.approx
 	fg, fj := floatSystem(g, jac)
@@ -170,6 +182,48 @@ func FindEquilibria(m *model.Model) (*EquilibriumSearch, error) {
 	}
 	search.Equilibria = found
 	return search, nil
+}
+
+// solveAffine returns the one equilibrium of equations that all have degree
+// ≤ 1 in the states, g = A·x + c, by SolveRat (A·x = −c, fraction-free); ok
+// is false for other equations or a singular A, which the elimination then
+// handles (no equilibrium, or a line or plane of them). Substituting one
+// state at a time would make every coefficient a long rational.
+func solveAffine(g []*poly.Poly) ([]*big.Rat, bool) {
+	n := len(g)
+	a := make([][]*big.Rat, n)
+	c := make([]*big.Rat, n)
+	for i, gi := range g {
+		if gi.Degree() > 1 {
+			return nil, false
+		}
+		a[i] = make([]*big.Rat, n)
+		for j := range a[i] {
+			a[i][j] = new(big.Rat)
+		}
+		c[i] = new(big.Rat)
+		for _, t := range gi.Terms() {
+			j := slices.Index(t.Exp, 1)
+			switch {
+			case j < 0:
+				c[i].Neg(t.Coef)
+			case j < n:
+				a[i][j] = t.Coef
+			default:
+				return nil, false // a parameter: not a model with all of them fixed
+			}
+		}
+	}
+	if !slices.ContainsFunc(c, func(x *big.Rat) bool { return x.Sign() != 0 }) && poly.NonsingularModPrime(a) {
+		// A·x = 0 with A proven nonsingular: the origin, without the long
+		// minors of exact elimination.
+		pt := make([]*big.Rat, n)
+		for i := range pt {
+			pt[i] = new(big.Rat)
+		}
+		return pt, true
+	}
+	return poly.SolveRat(a, c)
 }
 
 // requireFixed returns an input error naming the free parameters, if any.
@@ -306,6 +360,14 @@ func (s *eliminator) solve(eqs, vals []*poly.Poly) {
 			expr := e.Homogeneous(0, mask)
 			expr.Scale(expr, new(big.Rat).Neg(new(big.Rat).Inv(c.ConstTerm())))
 			rest := slices.Delete(slices.Clone(live), ei, ei+1)
+			for _, r := range rest {
+				if r.DegreeIn(mask)*expr.Degree()+r.Degree() > maxRootDegree {
+					// The substitution would raise the degree past what
+					// root isolation takes (a chain of cubics: 3ⁿ).
+					s.incomplete = true
+					return
+				}
+			}
 			s.solve(substitute(rest, k, expr), substituteVals(vals, k, expr))
 			return
 		}
@@ -330,6 +392,10 @@ func (s *eliminator) solve(eqs, vals []*poly.Poly) {
 		}
 		if gcd.Degree() <= 0 {
 			return // no common root
+		}
+		if gcd.Degree() > maxRootDegree {
+			s.incomplete = true // Newton's method and the Krawczyk test take over
+			return
 		}
 		for _, root := range gcd.IsolateRoots() {
 			if root.Exact != nil {

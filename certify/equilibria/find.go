@@ -28,7 +28,9 @@ const (
 	// nonlinear argument of the model's derivative (local or global claim).
 	MethodFull = "full"
 	// MethodLinearization: Lyapunov's indirect method at the equilibrium, in
-	// a checker.Linearization document (local stability or instability).
+	// a checker.Linearization document (local stability or instability;
+	// global stability when the model is affine, where the linearization is
+	// the model itself).
 	MethodLinearization = "linearization"
 )
 
@@ -38,8 +40,9 @@ type CertifyOptions struct {
 	// the identity. Every entry must be positive.
 	Q []*big.Rat
 	// Full runs the full nonlinear check at exact equilibria that the
-	// linearization shows stable (MethodFull); otherwise every certificate
-	// is a linearization certificate.
+	// linearization shows stable (MethodFull), unless the model is affine
+	// (the linearization certificate is then global already); otherwise
+	// every certificate is a linearization certificate.
 	Full bool
 	// Source names the model in the certificate (carries no claim).
 	Source string
@@ -58,7 +61,8 @@ type Certification struct {
 	// Reason explains the verdict in one sentence for people.
 	Reason string
 	// P is the rational Lyapunov matrix (nil when none was found) and
-	// Tolerance the relative rounding tolerance that produced it.
+	// Tolerance the relative rounding tolerance that produced it (0: the
+	// float solution itself).
 	P         [][]*big.Rat
 	Tolerance float64
 	// V is (x − x*)ᵀP(x − x*) at an exact equilibrium (nil otherwise).
@@ -75,21 +79,25 @@ type Certification struct {
 }
 
 // rationalizeTolerances are the relative tolerances tried, in order, when P
-// is rounded to rationals: the first P that passes the exact tests is kept,
-// so P has the shortest entries that work (0 means the float itself).
-var rationalizeTolerances = []float64{1e-3, 1e-6, 1e-9, 1e-12, 0}
+// is rounded to rationals over a common decimal denominator (roundCommon):
+// the first P that passes the exact tests is kept, so P has the shortest
+// entries that work (0 means the float itself).
+var rationalizeTolerances = []float64{1e-2, 1e-3, 1e-6, 1e-9, 1e-12, 0}
 
 // CertifyEquilibrium certifies one equilibrium of a model without free
 // parameters through its linearization J: it solves AᵀP + PA = −Q
 // (AᵀPA − P = −Q in discrete time) for A = J in floating point
-// (Bartels–Stewart; Kitagawa/Barraud), rounds P to rationals with
-// continued fractions of growing length until exact LDLᵀ shows that
-// M = −(JᵀP + PJ) (P − JᵀPJ) is positive definite — over the whole Krawczyk
-// box for an enclosed equilibrium — and P is either positive definite
-// (stable) or has a negative pivot (unstable), and writes a certificate that
-// checker.Verify accepts. With opts.Full an exact stable equilibrium is
-// then certified by Check on V = (x − x*)ᵀP(x − x*), which can give a global
-// claim.
+// (Bartels–Stewart; Kitagawa/Barraud), rounds P to rationals over one
+// decimal denominator of growing length until fraction-free elimination
+// shows that M = −(JᵀP + PJ) (P − JᵀPJ) is positive definite — over the
+// whole Krawczyk box for an enclosed equilibrium — and P is either positive
+// definite (stable) or has a negative pivot (unstable), and writes a
+// certificate that checker.Verify accepts. With one short denominator for P
+// and one for J, M and every leading minor are computed with short integers.
+// A stable affine model gets the global claim from the same certificate (the
+// linearization is the model); with opts.Full an exact stable equilibrium of
+// a nonlinear model is then certified by Check on V = (x − x*)ᵀP(x − x*),
+// which can give a global claim.
 //
 // Nothing is claimed when the equilibrium is only approximate, when the
 // Lyapunov equation is singular (eigenvalues on the imaginary axis or the
@@ -150,43 +158,56 @@ func CertifyEquilibrium(ctx context.Context, m *model.Model, e *Equilibrium, opt
 			pmax = math.Max(pmax, math.Abs(pf.At(i, j)))
 		}
 	}
+	affine := !slices.ContainsFunc(f, func(fi *poly.Poly) bool { return fi.Degree() > 1 })
 	for _, tol := range rationalizeTolerances {
-		p := make([][]*big.Rat, n)
-		for i := range p {
-			p[i] = make([]*big.Rat, n)
-		}
-		for i := 0; i < n; i++ {
-			for j := i; j < n; j++ {
-				v := rationalize(pf.At(i, j), tol*pmax)
-				p[i][j], p[j][i] = v, v
-			}
-		}
+		p := roundCommon(pf, tol*pmax)
 		var decay [][]poly.Interval
+		proven := false
 		if e.ExactJacobian != nil {
-			decay = pointIntervals(poly.DecayAt(e.ExactJacobian, m.Discrete, p))
+			mm := poly.DecayAt(e.ExactJacobian, m.Discrete, p)
+			if !floatDefinite(mm, 1e-8) {
+				continue // too coarse: not worth the exact elimination
+			}
+			decay = pointIntervals(mm)
+			// Both definite with a margin that floating point cannot
+			// blur: the kernel's exact elimination will agree, and runs
+			// once, in the kernel, instead of twice.
+			proven = floatDefinite(mm, -1e-9*float64(n)) && floatDefinite(p, -1e-9*float64(n))
 		} else {
 			decay = poly.DecayEnclosure(f, m.Discrete, p, box)
 		}
-		if !poly.PositiveDefiniteOn(decay) {
-			continue
-		}
-		k, pivot := poly.FirstNonPositivePivot(p)
-		if k >= 0 && pivot.Sign() == 0 {
-			continue
+		k := -1
+		if !proven {
+			// The two eliminations are independent: P's runs beside M's.
+			var pivot *big.Rat
+			done := make(chan struct{})
+			go func() {
+				defer close(done)
+				k, pivot = poly.FirstNonPositivePivot(p)
+			}()
+			definite := poly.PositiveDefiniteOn(decay)
+			<-done
+			if !definite || (k >= 0 && pivot.Sign() == 0) {
+				continue
+			}
 		}
 		c := &Certification{Method: MethodLinearization, P: p, Tolerance: tol, Decay: decay}
-		if k < 0 {
+		switch {
+		case k < 0 && affine:
+			c.Verdict, c.Claim = checker.VerdictHolds, checker.KindGlobal
+			c.Reason = "the model is affine, so " + dotWord(m) + " = −(x − x*)ᵀM(x − x*) everywhere, with M = " + decayName(m) + " ≻ 0 and P ≻ 0 exactly (Lyapunov's direct method, global)"
+		case k < 0:
 			c.Verdict, c.Claim = checker.VerdictHolds, checker.KindLocal
 			c.Reason = "the linearization is stable: P ≻ 0 and " + decayName(m) + " ≻ 0 exactly (Lyapunov's indirect method)"
-		} else {
+		default:
 			c.Verdict, c.Claim = checker.VerdictFails, checker.KindUnstable
 			c.Reason = fmt.Sprintf("the equilibrium is unstable: %s ≻ 0 exactly and P has a negative pivot (%d), so −V grows near the equilibrium (Lyapunov's instability theorem)", decayName(m), k+1)
 		}
-		if e.Status == EquilibriumExact && opts.Full {
-			v := quadraticAbout(m.Ring, p, e.Point)
+		if e.Status == EquilibriumExact && (opts.Full || affine) {
+			v := poly.FromPoly(poly.QuadraticAbout(m.Ring, p, e.Point))
 			c.V = &v
 		}
-		if k < 0 && opts.Full && e.Status == EquilibriumExact {
+		if k < 0 && opts.Full && e.Status == EquilibriumExact && !affine {
 			if err := c.full(ctx, m, e, opts); err != nil {
 				return nil, err
 			}
@@ -242,6 +263,76 @@ func solveLyapunov(a, q *mat.Dense, discrete bool) (*mat.SymDense, error) {
 		}
 	}
 	return nil, err
+}
+
+// roundCommon rounds the float solution P to rationals over one decimal
+// denominator 10ᵏ, k ≥ 0 the least with 10⁻ᵏ ≤ 2·tol (every entry within tol):
+// P is then an integer matrix over 10ᵏ, so the decay matrix and the leading
+// minors that prove P and M definite are computed with short integers
+// (where rounding each entry on its own gives unrelated denominators whose
+// lcm is as long as all of them together). tol ≤ 0, or a denominator beyond
+// 10³⁰⁰, keeps the floats themselves (dyadic rationals). Only proposes:
+// exact arithmetic then checks.
+func roundCommon(pf *mat.SymDense, tol float64) [][]*big.Rat {
+	n, _ := pf.Dims()
+	k := 0
+	if tol > 0 {
+		k = max(0, int(math.Ceil(-math.Log10(2*tol))))
+	}
+	p := make([][]*big.Rat, n)
+	for i := range p {
+		p[i] = make([]*big.Rat, n)
+	}
+	den := new(big.Int).Exp(big.NewInt(10), big.NewInt(int64(k)), nil)
+	scale := math.Pow10(k)
+	for i := 0; i < n; i++ {
+		for j := i; j < n; j++ {
+			x := pf.At(i, j)
+			var v *big.Rat
+			if r := math.Round(x * scale); tol > 0 && k <= 300 && math.Abs(r) < 1<<62 {
+				v = new(big.Rat).SetFrac(big.NewInt(int64(r)), den)
+			} else {
+				v = new(big.Rat).SetFloat64(x)
+			}
+			p[i][j], p[j][i] = v, v
+		}
+	}
+	return p
+}
+
+// floatDefinite reports that gonum's Cholesky factorization of the
+// symmetric matrix a + shift·μ·I succeeds in floating point, μ = maxᵢⱼ|aᵢⱼ|.
+//
+// With a positive shift (10⁻⁸) it screens a rounding before the exact test:
+// a failure means that the exact elimination would fail too, or pass only by
+// a hair that a finer rounding gives with room to spare.
+//
+// With a negative shift −c of at least 10⁻⁹·n it shows a ≻ 0: the computed
+// factor C satisfies CᵀC = fl(a) − cμI + E with ‖E‖₂ ≤ (n+1)·u·n·μ (the
+// backward error of Cholesky's method, Demmel 1989; u = 2⁻⁵³), and
+// ‖fl(a) − a‖₂ ≤ n·u·μ, both far below cμ, so
+// a = CᵀC + cμI − E − (fl(a) − a) ≻ 0 (the argument of Rump's floating-point
+// tests of definiteness). The engine uses it only to skip its own exact
+// elimination; the kernel decides.
+func floatDefinite(a [][]*big.Rat, shift float64) bool {
+	n := len(a)
+	s := mat.NewSymDense(n, nil)
+	mu := 0.0
+	for i := range n {
+		for j := i; j < n; j++ {
+			v, _ := a[i][j].Float64()
+			if math.IsInf(v, 0) || math.IsNaN(v) {
+				return false
+			}
+			s.SetSym(i, j, v)
+			mu = math.Max(mu, math.Abs(v))
+		}
+	}
+	for i := range n {
+		s.SetSym(i, i, s.At(i, i)+shift*mu)
+	}
+	var c mat.Cholesky
+	return c.Factorize(s)
 }
 
 func pointIntervals(a [][]*big.Rat) [][]poly.Interval {
@@ -304,26 +395,6 @@ func dotWord(m *model.Model) string {
 		return "ΔV"
 	}
 	return "V̇"
-}
-
-// quadraticAbout returns (x − x*)ᵀP(x − x*) in the model's ring.
-func quadraticAbout(r *poly.Ring, p [][]*big.Rat, at []*big.Rat) poly.RatFunc {
-	n := len(p)
-	d := make([]*poly.Poly, n)
-	for i := range d {
-		d[i] = new(poly.Poly).Sub(poly.Var(r, i), poly.Const(r, at[i]))
-	}
-	v := poly.Zero(r)
-	for i := 0; i < n; i++ {
-		for j := 0; j < n; j++ {
-			if p[i][j].Sign() == 0 {
-				continue
-			}
-			t := new(poly.Poly).Mul(d[i], d[j])
-			v.Add(v, t.Scale(t, p[i][j]))
-		}
-	}
-	return poly.FromPoly(v)
 }
 
 // linearizationDoc builds the checker.Linearization document: the

@@ -16,7 +16,7 @@ import (
 // linearizationCases are the linearization certificates kept in
 // testdata/certificates (rewritten with -update, like certificateCases):
 // exact and enclosed equilibria, stable and unstable, in continuous and
-// discrete time.
+// discrete time, nonlinear and affine.
 var linearizationCases = []struct {
 	name, model string
 	set         []string
@@ -28,6 +28,12 @@ var linearizationCases = []struct {
 	{"lin-lorenz-r28-cplus", "lorenz-classic.lya", []string{"r=28"}, 2, checker.KindUnstable},
 	{"lin-quadmap", "quadmap.lya", nil, 0, checker.KindLocal},
 	{"lin-logistic", "logistic.lya", []string{"r=5/2"}, 1, checker.KindLocal},
+	// Affine models: the linearization is the model, so the claim is global.
+	{"lin-ogata", "ogata.lya", nil, 0, checker.KindGlobal},
+	{"lin-discrete", "discrete.lya", nil, 0, checker.KindGlobal},
+	// s³ + s² + s + 2: a2·a1 = 1 < a0 = 2, two roots in the right half-plane
+	// (Routh–Hurwitz criterion, as stated in companion3.lya).
+	{"lin-companion3-unstable", "companion3.lya", []string{"a0=2", "a1=1", "a2=1"}, 0, checker.KindUnstable},
 }
 
 func TestTestdataLinearizationCertificates(t *testing.T) {

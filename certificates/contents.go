@@ -17,6 +17,10 @@ type Contents struct {
 	Linearization *checker.Linearization
 	// NotSOS are the proofs that V or −V̇ is no sum of squares in a basis.
 	NotSOS []checker.NotSOS
+	// Invariance is the invariance principle's identities; Points the
+	// nested certificates of point pieces.
+	Invariance *checker.Invariance
+	Points     []*checker.PointCheck
 }
 
 // FormView is a Gram matrix with its LDLᵀ: of the quadratic part (Basis nil)
@@ -54,6 +58,10 @@ func ContentsOf(d *checker.Document) Contents {
 			c.NotSOS = append(c.NotSOS, *x)
 		case *checker.MinorCondition:
 			c.Conditions = append(c.Conditions, *x)
+		case *checker.Invariance:
+			c.Invariance = x
+		case *checker.PointCheck:
+			c.Points = append(c.Points, x)
 		case *checker.NullSpace:
 			c.Kernel = x.Vectors
 		case *checker.SturmRegion:

@@ -41,6 +41,20 @@ type CheckOutput struct {
 	// NotSOS: exact proofs that V or −V̇ is no sum of squares in a
 	// monomial basis (absent when there are none).
 	NotSOS []checker.NotSOS `json:"not_sos,omitempty"`
+
+	// Invariance: the invariance principle's identities (null when the
+	// claim does not rest on it).
+	Invariance *checker.Invariance `json:"invariance"`
+	// Points: rational point pieces of the region settled by a nested
+	// certificate of the model with the parameter fixed there ([] when none).
+	Points []PointOutput `json:"points"`
+}
+
+// PointOutput is one point piece settled by a nested certificate.
+type PointOutput struct {
+	Params map[string]string `json:"params"`
+	Claim  string            `json:"claim"`
+	Digest string            `json:"digest"`
 }
 
 // FormOutput is one quadratic (or Gram) form of a CheckOutput.
@@ -101,6 +115,11 @@ func CheckJSON(res *direct.Result, written string) CheckOutput {
 		Minors: []string{}, Conditions: []string{}, Forms: []FormOutput{},
 		Region: regionJSON(c.Region), Witnesses: c.Witnesses, Refutation: c.Refutation, Kernel: c.Kernel, NotSOS: c.NotSOS,
 		Digest: doc.Digest, Checks: len(res.Check.Records), Certificate: written,
+	}
+	out.Invariance, out.Points = res.Invariance, []PointOutput{}
+	for _, pc := range res.Points {
+		kind := checker.Verify(pc.Certificate).Kind
+		out.Points = append(out.Points, PointOutput{Params: pc.Params, Claim: kind, Digest: pc.Certificate.Digest})
 	}
 	for _, f := range c.Forms {
 		out.Forms = append(out.Forms, FormOutput{Name: f.Name, Basis: f.Basis, Gram: f.Gram, L: f.L, D: f.D, Minors: f.Minors, Margin: f.Margin})

@@ -123,6 +123,7 @@ type page struct {
 	Witnesses   []rich
 	Refutation  rich
 	Kernel      rich
+	Points      []rich // point pieces settled by nested certificates
 	// Candidate is false for a certificate without V (a linearization).
 	Candidate     bool
 	Linearization *linearizationView
@@ -455,6 +456,26 @@ func (b *builder) derivation(p *page) error {
 			return err
 		}
 		p.Kernel = rich{dn, " vanishes exactly where ", eqs, " (states measured from the equilibrium). Stability holds; asymptotic stability would need more, for example the invariance principle (LaSalle)."}
+		if d.Invariance != nil {
+			p.Kernel = rich{dn, " vanishes exactly where ", eqs, " (states measured from the equilibrium)."}
+		}
+	}
+	if iv := d.Invariance; iv != nil {
+		var gs list
+		for _, v := range iv.States {
+			g, err := b.parse(v.Poly)
+			if err != nil {
+				return err
+			}
+			gs = append(gs, ratFuncNode(g))
+		}
+		p.Kernel = append(p.Kernel, " By the invariance principle (LaSalle), no solution other than the equilibrium stays where ", dn,
+			" vanishes: on such a solution the square bases of ", neg(b.derivName()), " and their derivatives along the flow vanish, and the certificate writes ",
+			gs, " as exact combinations of them, each with the equilibrium's coordinate as its only real root (Sturm). Bounded solutions therefore tend to the equilibrium.")
+	}
+	for _, pc := range d.Points {
+		out := checker.Verify(pc.Certificate)
+		p.Points = append(p.Points, rich{"at ", b.paramPoint(pc.Params), ", where the quadratic test is inconclusive, a certificate of the model with these values, nested in this one and re-checked with it, proves: " + claimWords[out.Kind] + " (digest " + pc.Certificate.Digest + ")"})
 	}
 	return nil
 }

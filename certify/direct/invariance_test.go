@@ -1,6 +1,7 @@
 package direct
 
 import (
+	"slices"
 	"testing"
 
 	"github.com/lyacert/lyacert/checker"
@@ -92,5 +93,29 @@ func TestSemidefiniteWholeDerivative(t *testing.T) {
 		if res.Verdict != c.verdict || res.Claim != c.claim || res.Check.Kind != c.claim {
 			t.Errorf("%s: %s %s (kernel %s), want %s %s", c.src, res.Verdict, res.Claim, res.Check.Kind, c.verdict, c.claim)
 		}
+	}
+}
+
+// Strogatz, Nonlinear Dynamics and Chaos, §7.2: x' = −x + 4y, y' = −x − y³
+// with V = x² + a·y². V̇ = −2x² + (8 − 2a)·xy − 2a·y⁴: for a ≠ 4 the
+// quadratic part of −V̇ has a negative direction (refuted near the
+// origin), and at a = 4 alone V̇ = −2x² − 8y⁴ < 0: the region is the
+// isolated point {4}, settled by the model with a fixed there.
+func TestIsolatedPointOfTheRegion(t *testing.T) {
+	m, err := model.Parse("s72.lya", []byte("state x, y\nparameter a in (0, 10)\nx' = -x + 4*y\ny' = -x - y^3\nV = x^2 + a*y^2\n"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	res, err := Check(m, "s72.lya")
+	if err != nil {
+		t.Fatal(err)
+	}
+	var status []string
+	for _, pc := range res.Region.Pieces {
+		status = append(status, pc.Status+" "+pc.Lo+".."+pc.Hi)
+	}
+	want := []string{"fails 0..4", "holds 4..4", "fails 4..10"}
+	if !slices.Equal(status, want) || res.Verdict != checker.VerdictOnRegion || res.Claim != checker.KindGlobal || len(res.Points) != 1 {
+		t.Errorf("pieces %v, verdict %s %s, %d points; want %v, holds-on-region global, 1 point", status, res.Verdict, res.Claim, len(res.Points), want)
 	}
 }

@@ -21,9 +21,15 @@ import (
 // has 2^MaxParams vertices, as many as the kernel enumerates.
 const MaxParams = 12
 
-// ErrInput reports a model the vertex test does not apply to; the wrapped
-// error says where (file:line:col) and why.
+// ErrInput reports a model the vertex test does not apply to; the error
+// says where (file:line:col) and why.
 var ErrInput = errors.New("the vertex test does not apply")
+
+// inputError is an ErrInput with its position and reason.
+type inputError struct{ msg string }
+
+func (e *inputError) Error() string        { return e.msg }
+func (e *inputError) Is(target error) bool { return target == ErrInput }
 
 // Options tune Find.
 type Options struct {
@@ -118,12 +124,12 @@ func Find(ctx context.Context, m *model.Model, opts Options) (*Result, error) {
 // polynomials in the parameters.
 func prepare(m *model.Model) (*Result, [][]*poly.Poly, error) {
 	bad := func(pos poly.Pos, format string, args ...any) error {
-		return fmt.Errorf("%w: %s: %s", ErrInput, pos, fmt.Sprintf(format, args...))
+		return &inputError{pos.String() + ": " + fmt.Sprintf(format, args...)}
 	}
 	file := poly.Pos{File: m.File, Line: 1, Col: 1}
 	switch {
 	case m.Discrete:
-		return nil, nil, bad(file, "the model is a map; the vertex test is for continuous time only (P − AᵀPA is not affine in A, so the vertices prove nothing of the box)")
+		return nil, nil, bad(m.FPos[0], "the model is a map; the vertex test is for continuous time only (P − AᵀPA is not affine in A, so the vertices prove nothing of the box)")
 	case m.V != nil:
 		return nil, nil, bad(m.VPos, "the vertex test finds its own quadratic V; remove the candidate")
 	}
@@ -145,11 +151,11 @@ func prepare(m *model.Model) (*Result, [][]*poly.Poly, error) {
 		}
 	}
 	if err := m.CheckEquilibrium(); err != nil {
-		return nil, nil, fmt.Errorf("%w: %w", ErrInput, err)
+		return nil, nil, &inputError{err.Error()}
 	}
 	at, err := m.AtPoint()
 	if err != nil {
-		return nil, nil, fmt.Errorf("%w: %w", ErrInput, err)
+		return nil, nil, &inputError{fmt.Sprintf("%s: %v", m.AtPos, err)}
 	}
 	res.At = at
 	n := len(m.States)
@@ -279,7 +285,8 @@ func (r *Result) solve(ctx context.Context) ([][]float64, error) {
 		return nil, fmt.Errorf("the semidefinite program: %w", err)
 	}
 	r.T, r.Status = mr.T, mr.Inner.Status.String()
-	if mr.Inner.Status != sdp.Optimal && mr.Inner.Status != sdp.Stalled || !(mr.T > 1e-9) {
+	// A margin below 10⁻⁷ (trace P = 1) is the solver's zero: no P to round.
+	if mr.Inner.Status != sdp.Optimal && mr.Inner.Status != sdp.Stalled || !(mr.T > 1e-7) {
 		r.Reason = fmt.Sprintf("the semidefinite program found no common P (status %s, margin %.3g): numerical evidence that none exists, not a proof", r.Status, mr.T)
 		return nil, nil
 	}

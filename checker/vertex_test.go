@@ -1,11 +1,65 @@
 package checker
 
 import (
+	"math/big"
 	"strings"
 	"testing"
 
 	"github.com/lyacert/lyacert/model"
+	"github.com/lyacert/lyacert/poly"
 )
+
+// vertexDecay computes the decay matrices the claim restates, by the same
+// formulas (nil where they do not apply: the kernel refuses those models
+// before it compares).
+func vertexDecay(m *model.Model, p [][]string) [][][]string {
+	n := len(m.States)
+	pr := make([][]*big.Rat, n)
+	for i := range n {
+		if len(p) != n || len(p[i]) != n {
+			return nil
+		}
+		for _, s := range p[i] {
+			q, _ := new(big.Rat).SetString(s)
+			pr[i] = append(pr[i], q)
+		}
+	}
+	var out [][][]string
+	free := m.FreeParams()
+	for v := range 1 << len(free) {
+		x := make([]*big.Rat, m.Ring.NumVars())
+		for i := range x {
+			x[i] = new(big.Rat)
+		}
+		for j, fp := range free {
+			end := fp.Range.Lo.Value
+			if v>>j&1 == 1 {
+				end = fp.Range.Hi.Value
+			}
+			if end == nil {
+				return nil
+			}
+			k, _ := m.Ring.Index(fp.Name)
+			x[k] = end
+		}
+		a := make([][]*big.Rat, n)
+		for i, f := range m.F {
+			for k := range n {
+				a[i] = append(a[i], new(poly.Poly).Derivative(f.Num, k).Eval(x))
+			}
+		}
+		var mv [][]string
+		for _, row := range poly.DecayAt(a, false, pr) {
+			var cells []string
+			for _, q := range row {
+				cells = append(cells, poly.RatString(q))
+			}
+			mv = append(mv, cells)
+		}
+		out = append(out, mv)
+	}
+	return out
+}
 
 // vertexDoc is a sealed certificate of the model text with one
 // vertex-lyapunov claim (and any further claims).
@@ -15,7 +69,7 @@ func vertexDoc(t *testing.T, text string, p [][]string, more ...Claim) *Document
 	if err != nil {
 		t.Fatal(err)
 	}
-	d := &Document{Format: Format, Model: text, Parameters: []Parameter{}, Claims: append([]Claim{&VertexLyapunov{P: p}}, more...)}
+	d := &Document{Format: Format, Model: text, Parameters: []Parameter{}, Claims: append([]Claim{&VertexLyapunov{P: p, Decay: vertexDecay(m, p)}}, more...)}
 	for _, q := range m.Params {
 		d.Parameters = append(d.Parameters, Parameter{q.Name, model.RangeText(q)})
 	}
@@ -52,6 +106,7 @@ func TestVertexLyapunov(t *testing.T) {
 		{"P asymmetric", osc, [][]string{{"2", "1/2"}, {"1/3", "1"}}, "", "P is symmetric"},
 		{"P not canonical", osc, [][]string{{"2", "2/4"}, {"1/2", "1"}}, "", "canonical"},
 		{"P of the wrong size", osc, [][]string{{"2"}}, "", "2×2"},
+		{"decay matrices forged", osc, nil, "", "equals the recomputed"},
 		{"square of a parameter", strings.Replace(osc, "-k*x", "-k^2*x", 1), hand, "", "affine in the parameters"},
 		{"product of parameters", strings.Replace(osc, "-k*x", "-k*c*x", 1), hand, "", "affine in the parameters"},
 		{"unbounded range", strings.Replace(osc, "k in [1, 2]", "k >= 1", 1), hand, "", "closed bounded"},
@@ -64,7 +119,16 @@ func TestVertexLyapunov(t *testing.T) {
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
-			out := Verify(vertexDoc(t, tt.text, tt.p))
+			d := vertexDoc(t, tt.text, tt.p)
+			if tt.p == nil { // a valid P with a forged M at the last vertex
+				vl := d.Claims[0].(*VertexLyapunov)
+				vl.P = hand
+				m, _ := model.Parse("test.lya", []byte(tt.text))
+				vl.Decay = vertexDecay(m, hand)
+				vl.Decay[3][0][0] = "7"
+				d.Digest, _ = d.ComputeDigest()
+			}
+			out := Verify(d)
 			if tt.kind != "" {
 				if !out.Valid || out.Verdict != VerdictHolds || out.Kind != tt.kind {
 					t.Fatalf("valid %v, %s (%s), want holds (%s): %v", out.Valid, out.Verdict, out.Kind, tt.kind, out.Records)

@@ -377,7 +377,19 @@ func (r *Result) certificate(ctx context.Context, opts Options) error {
 			p[i] = append(p[i], poly.RatString(v))
 		}
 	}
-	d.Claims = append(d.Claims, &checker.VertexLyapunov{P: p})
+	vl := &checker.VertexLyapunov{P: p}
+	for _, v := range r.Vertices {
+		var mv [][]string
+		for _, row := range poly.DecayAt(v.A, false, r.P) {
+			var cells []string
+			for _, x := range row {
+				cells = append(cells, poly.RatString(x))
+			}
+			mv = append(mv, cells)
+		}
+		vl.Decay = append(vl.Decay, mv)
+	}
+	d.Claims = append(d.Claims, vl)
 	if err := certificates.Seal(d); err != nil {
 		return err
 	}

@@ -43,6 +43,10 @@
 //	linearization        Lyapunov's indirect method: M(x*) ≻ 0 with P ≻ 0 (stable;
 //	                     global for affine f) or a negative pivot of P (unstable);
 //	                     M recomputed, signs by Bareiss pivots over the integers
+//	vertex-lyapunov      quadratic stability on a parameter box: A(p) = ∂f/∂x(x*, p)
+//	                     affine in p, P ≻ 0 and −(AᵀP + PA) ≻ 0 at every vertex,
+//	                     so on the box (convex hull); Lyapunov's indirect method
+//	                     for every p (continuous time only)
 //	sublevel-basin       region of attraction (Lyapunov, LaSalle): a box of the
 //	                     states bisected, V > c on the boxes along its boundary
 //	                     and wherever V̇ < 0 is not proven (centred forms, or

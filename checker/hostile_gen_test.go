@@ -438,6 +438,23 @@ func hostileFiles(t *testing.T) map[string][]byte {
 			lz := claimOf[*checker.Linearization](t, d, 0)
 			lz.Decay[0][0][0] = "1000"
 		}),
+		"vertex-p-indefinite.json": edit(t, "box-gain.json", func(d *checker.Document) {
+			claimOf[*checker.VertexLyapunov](t, d, 0).P = [][]string{{"1", "2"}, {"2", "1"}}
+		}),
+		"vertex-not-affine.json": edit(t, "box-gain.json", func(d *checker.Document) {
+			d.Model = strings.Replace(d.Model, "-k*x", "-k^2*x", 1)
+		}),
+		"vertex-unbounded.json": edit(t, "box-gain.json", func(d *checker.Document) {
+			d.Model = strings.Replace(d.Model, "k in [1, 2]", "k >= 1", 1)
+			d.Parameters[0].Range = ">= 1"
+		}),
+		"vertex-box-widened.json": edit(t, "box-gain.json", func(d *checker.Document) {
+			d.Model = strings.Replace(d.Model, "k in [1, 2]", "k in [1, 4]", 1)
+			d.Parameters[0].Range = "in [1, 4]"
+		}),
+		"vertex-map.json": edit(t, "box-gain.json", func(d *checker.Document) {
+			d.Model = strings.NewReplacer("x' = y", "x+ = y", "y' =", "y+ =").Replace(d.Model)
+		}),
 		"krawczyk-box-reversed.json": edit(t, "lin-quadmap.json", func(d *checker.Document) {
 			kz := claimOf[*checker.KrawczykEnclosure](t, d, 0)
 			kz.Box[0][0], kz.Box[0][1] = kz.Box[0][1], kz.Box[0][0]

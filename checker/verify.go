@@ -89,6 +89,7 @@ func ruleTable() []rule {
 		{"moment-separation", 5, func() Claim { return new(NotSOS) }, (*run).momentSeparation},
 		{"krawczyk-enclosure", 6, func() Claim { return new(KrawczykEnclosure) }, (*run).krawczyk},
 		{"linearization", 7, func() Claim { return new(Linearization) }, (*run).linearization},
+		{"vertex-lyapunov", 7, func() Claim { return new(VertexLyapunov) }, (*run).vertexLyapunov},
 		{"sublevel-basin", 8, func() Claim { return new(SublevelBasin) }, (*run).sublevelBasin},
 	}
 }

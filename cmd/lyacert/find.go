@@ -14,6 +14,7 @@ import (
 	"github.com/lyacert/lyacert/certify/branches"
 	"github.com/lyacert/lyacert/certify/direct"
 	"github.com/lyacert/lyacert/certify/equilibria"
+	"github.com/lyacert/lyacert/certify/vertex"
 	"github.com/lyacert/lyacert/checker"
 	"github.com/lyacert/lyacert/model"
 	"github.com/lyacert/lyacert/report"
@@ -28,6 +29,7 @@ type findCmd struct {
 	Out           string   `short:"o" name:"out" placeholder:"CERT" help:"Write the certificate to this file (atomically); with --all one file per certified equilibrium, CERT with -1, -2, … before its extension."`
 	Plot          string   `name:"plot" placeholder:"FILE.svg|FILE.png|FILE.pdf" help:"With one free parameter: draw the bifurcation diagram (each branch against the parameter, solid where stable, dashed where not, bifurcations marked) to this file."`
 	CertifyLinear bool     `name:"certify-linear" help:"With one free parameter: for each rational branch, certify its linearisation with V = D(p)²·ξᵀP(p)ξ from the exact solution P(p) of the Lyapunov equation, re-checked by the checker, over the exact region where it holds (-o writes the certificates, CERT-k for branch k)."`
+	BoxLyapunov   bool     `name:"box-lyapunov" help:"With free parameters in closed bounded ranges (continuous time, linearization affine in them): look for one P ≻ 0 with AᵀP + PA ≺ 0 at every vertex of the parameter box, which makes the equilibrium locally asymptotically stable for every value in the box (globally for a model linear in the states); prints P, the vertices and their margins, -o writes the certificate."`
 	PlotState     string   `name:"plot-state" placeholder:"STATE" help:"Draw only this state's coordinate in --plot (default: one panel per state)."`
 	sosFlags
 	limitFlags
@@ -109,6 +111,9 @@ func (c *findCmd) find(ctx context.Context, e *env) int {
 	m, err := model.Parse(name, src, settings...)
 	if err != nil {
 		return e.fail(exitInput, err)
+	}
+	if c.BoxLyapunov {
+		return c.boxLyapunov(ctx, e, m)
 	}
 	if free := m.FreeParams(); len(free) > 0 && c.Degree == 0 {
 		return c.symbolic(ctx, e, m, format)
@@ -219,6 +224,44 @@ func (c *findCmd) symbolic(ctx context.Context, e *env, m *model.Model, format s
 		if err := certificates.WriteFileAtomic(c.Plot, data, 0o644); err != nil {
 			return e.failf(exitInput, "writing the plot: %w", err)
 		}
+	}
+	return exitHolds
+}
+
+// boxLyapunov runs the vertex test (certify/vertex) on the box of the free
+// parameters and writes its certificate with -o. It exits 0 with a
+// certificate, 1 without one.
+func (c *findCmd) boxLyapunov(ctx context.Context, e *env, m *model.Model) int {
+	switch {
+	case c.All || c.CertifyLinear || c.Plot != "" || c.PlotState != "" || c.Degree != 0:
+		return e.failf(exitInput, "--box-lyapunov stands alone: drop --all, --certify-linear, --plot, --plot-state and --degree")
+	case c.Q != "identity":
+		return e.failf(exitInput, "--box-lyapunov chooses P itself; drop --q")
+	}
+	res, err := vertex.Find(ctx, m, vertex.Options{Source: m.File})
+	if err != nil {
+		switch {
+		case ctx.Err() != nil:
+			return e.fail(exitInput, ctx.Err())
+		case errors.Is(err, certify.ErrUnverified):
+			return e.fail(exitRejected, err)
+		}
+		return e.fail(exitInput, err)
+	}
+	written := ""
+	if c.Out != "" && res.Doc != nil {
+		if err := certificates.WriteFile(res.Doc, c.Out); err != nil {
+			return e.failf(exitInput, "writing the certificate: %w", err)
+		}
+		written = c.Out
+	}
+	if c.JSON {
+		writeJSON(e.stdout, report.VertexJSON(res, written))
+	} else {
+		report.VertexText(e.stdout, res, written)
+	}
+	if res.P == nil {
+		return exitFails
 	}
 	return exitHolds
 }

@@ -40,6 +40,24 @@ type BasinOutput struct {
 	Digest         string            `json:"digest"`
 	Checks         int               `json:"checks_passed"`
 	Certificate    string            `json:"certificate"`
+	// Improve is set by basin --improve: the search over quadratic V.
+	Improve *ImproveJS `json:"improve,omitempty"`
+}
+
+// ImproveJS is the outcome of basin --improve: the radii of the largest
+// balls about the equilibrium inside the certified sets of the baseline
+// and of the chosen V, the chosen P (exact) and the Q it came from (null
+// when the baseline was kept).
+type ImproveJS struct {
+	Baseline     string      `json:"baseline"` // "the given V" or "Q = I"
+	BaseLevel    string      `json:"baseline_c_lo"`
+	BaseRadius   float64     `json:"baseline_radius"`
+	Radius       float64     `json:"radius"`
+	Ratio        float64     `json:"ratio"` // radius / baseline_radius
+	P            [][]string  `json:"P"`
+	Q            [][]float64 `json:"Q"`
+	Candidates   int         `json:"candidates"`
+	Unsuccessful int         `json:"unsuccessful"`
 }
 
 // CounterexampleJS is the exact point behind c_hi: the states, V and V̇ there.
@@ -74,6 +92,66 @@ func BasinJSON(res *basin.Result, written string) BasinOutput {
 		out.Counterexample = ce
 	}
 	return out
+}
+
+// ImproveJSON is the JSON of a search over quadratic V: the chosen
+// estimate's, with the comparison to the baseline.
+func ImproveJSON(imp *basin.Improvement, written string) BasinOutput {
+	out := BasinJSON(imp.Result, written)
+	js := &ImproveJS{Baseline: imp.BaseName, BaseLevel: imp.Base.Level.RatString(), BaseRadius: imp.BaseRadius, Radius: imp.Radius,
+		Q: imp.Q, Candidates: imp.Tried, Unsuccessful: imp.Failed}
+	if imp.BaseRadius > 0 {
+		js.Ratio = imp.Radius / imp.BaseRadius
+	}
+	for _, row := range imp.P {
+		var r []string
+		for _, x := range row {
+			r = append(r, x.RatString())
+		}
+		js.P = append(js.P, r)
+	}
+	out.Improve = js
+	return out
+}
+
+// ImproveText writes a search over quadratic V for a terminal: the chosen
+// estimate as BasinText does, then the comparison with the baseline.
+func ImproveText(w io.Writer, imp *basin.Improvement, written string) error {
+	if err := BasinText(w, imp.Result, written); err != nil {
+		return err
+	}
+	ew := &errWriter{w: w}
+	fmt.Fprintf(ew, "\nSearch over V = yᵀPy (y = x − x*, AᵀP + PA = −Q, A the linearization): %d candidates certified, %d without a level.\n", imp.Tried, imp.Failed)
+	fmt.Fprintf(ew, "  largest ball about the equilibrium inside the certified set, radius sqrt(c_lo/λ_max(P)):\n")
+	fmt.Fprintf(ew, "    %-12s c_lo = %s, radius %.6g\n", imp.BaseName+":", dec(imp.Base.Level), imp.BaseRadius)
+	if imp.Q == nil {
+		fmt.Fprintf(ew, "  no candidate did better; the estimate above is the baseline's.\n")
+		return ew.err
+	}
+	var rows []string
+	for _, row := range imp.P {
+		var r []string
+		for _, x := range row {
+			r = append(r, x.RatString())
+		}
+		rows = append(rows, strings.Join(r, ", "))
+	}
+	fmt.Fprintf(ew, "    %-12s c_lo = %s, radius %.6g (%+.1f %%)\n", "chosen V:", dec(imp.Result.Level), imp.Radius, 100*(imp.Radius/imp.BaseRadius-1))
+	fmt.Fprintf(ew, "  P = [%s], from Q = %s\n", strings.Join(rows, "; "), qString(imp.Q))
+	fmt.Fprintf(ew, "  (λ_max(P) in floating point; the level and the certificate are exact)\n")
+	return ew.err
+}
+
+func qString(q [][]float64) string {
+	var rows []string
+	for _, row := range q {
+		var r []string
+		for _, x := range row {
+			r = append(r, fmt.Sprintf("%.4g", x))
+		}
+		rows = append(rows, strings.Join(r, ", "))
+	}
+	return "[" + strings.Join(rows, "; ") + "]"
 }
 
 // BasinText writes res for a terminal; written is the certificate file, ""

@@ -64,7 +64,7 @@ type Improvement struct {
 // rounded to thousandths, and Find certifies a level c at o.CoarseGap; the
 // score is c/λ_max(P), the squared radius of the largest ball inside
 // {V ≤ c} (λ_max(P)·|y|² ≥ yᵀPy, Rayleigh). The best candidate is then
-// certified at o.Gap and kept if its radius is at least the baseline's.
+// certified at o.Gap and kept if its radius exceeds the baseline's.
 func Improve(ctx context.Context, m *model.Model, source string, o Options, so ImproveOptions) (*Improvement, error) {
 	if so.Candidates <= 0 {
 		so.Candidates = 32
@@ -203,7 +203,7 @@ func Improve(ctx context.Context, m *model.Model, source string, o Options, so I
 	if err != nil {
 		return nil, fmt.Errorf("basin --improve: refining the best candidate: %w", err)
 	}
-	if rad := ballRadius(r.Level, bestP); rad >= imp.BaseRadius {
+	if rad := ballRadius(r.Level, bestP); rad > imp.BaseRadius {
 		imp.Result, imp.Radius, imp.P, imp.Q = r, rad, bestP, best
 	}
 	return imp, nil

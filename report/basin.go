@@ -40,6 +40,24 @@ type BasinOutput struct {
 	Digest         string            `json:"digest"`
 	Checks         int               `json:"checks_passed"`
 	Certificate    string            `json:"certificate"`
+	// Improve is set by basin --improve: the search over quadratic V.
+	Improve *ImproveJS `json:"improve,omitempty"`
+}
+
+// ImproveJS is the outcome of basin --improve: the radii of the largest
+// balls about the equilibrium inside the certified sets of the baseline
+// and of the chosen V, the chosen P (exact) and the Q it came from (null
+// when the baseline was kept).
+type ImproveJS struct {
+	Baseline     string      `json:"baseline"` // "the given V" or "Q = I"
+	BaseLevel    string      `json:"baseline_c_lo"`
+	BaseRadius   float64     `json:"baseline_radius"`
+	Radius       float64     `json:"radius"`
+	Ratio        float64     `json:"ratio"` // radius / baseline_radius
+	P            [][]string  `json:"P"`
+	Q            [][]float64 `json:"Q"`
+	Candidates   int         `json:"candidates"`
+	Unsuccessful int         `json:"unsuccessful"`
 }
 
 // CounterexampleJS is the exact point behind c_hi: the states, V and V̇ there.
@@ -74,6 +92,66 @@ func BasinJSON(res *basin.Result, written string) BasinOutput {
 		out.Counterexample = ce
 	}
 	return out
+}
+
+// ImproveJSON is the JSON of a search over quadratic V: the chosen
+// estimate's, with the comparison to the baseline.
+func ImproveJSON(imp *basin.Improvement, written string) BasinOutput {
+	out := BasinJSON(imp.Result, written)
+	js := &ImproveJS{Baseline: imp.BaseName, BaseLevel: imp.Base.Level.RatString(), BaseRadius: imp.BaseRadius, Radius: imp.Radius,
+		Q: imp.Q, Candidates: imp.Tried, Unsuccessful: imp.Failed}
+	if imp.BaseRadius > 0 {
+		js.Ratio = imp.Radius / imp.BaseRadius
+	}
+	for _, row := range imp.P {
+		var r []string
+		for _, x := range row {
+			r = append(r, x.RatString())
+		}
+		js.P = append(js.P, r)
+	}
+	out.Improve = js
+	return out
+}
+
+// ImproveText writes a search over quadratic V for a terminal: the chosen
+// estimate as BasinText does, then the comparison with the baseline.
+func ImproveText(w io.Writer, imp *basin.Improvement, written string) error {
+	if err := BasinText(w, imp.Result, written); err != nil {
+		return err
+	}
+	ew := &errWriter{w: w}
+	fmt.Fprintf(ew, "\nSearch over V = yᵀPy (y = x − x*, AᵀP + PA = −Q, A the linearization): %d candidates certified, %d without a level.\n", imp.Tried, imp.Failed)
+	fmt.Fprintf(ew, "  largest ball about the equilibrium inside the certified set, radius sqrt(c_lo/λ_max(P)):\n")
+	fmt.Fprintf(ew, "    %-12s c_lo = %s, radius %.6g\n", imp.BaseName+":", dec(imp.Base.Level), imp.BaseRadius)
+	if imp.Q == nil {
+		fmt.Fprintf(ew, "  no candidate did better; the estimate above is the baseline's.\n")
+		return ew.err
+	}
+	var rows []string
+	for _, row := range imp.P {
+		var r []string
+		for _, x := range row {
+			r = append(r, x.RatString())
+		}
+		rows = append(rows, strings.Join(r, ", "))
+	}
+	fmt.Fprintf(ew, "    %-12s c_lo = %s, radius %.6g (%+.1f %%)\n", "chosen V:", dec(imp.Result.Level), imp.Radius, 100*(imp.Radius/imp.BaseRadius-1))
+	fmt.Fprintf(ew, "  P = [%s], from Q = %s\n", strings.Join(rows, "; "), qString(imp.Q))
+	fmt.Fprintf(ew, "  (λ_max(P) in floating point; the level and the certificate are exact)\n")
+	return ew.err
+}
+
+func qString(q [][]float64) string {
+	var rows []string
+	for _, row := range q {
+		var r []string
+		for _, x := range row {
+			r = append(r, fmt.Sprintf("%.4g", x))
+		}
+		rows = append(rows, strings.Join(r, ", "))
+	}
+	return "[" + strings.Join(rows, "; ") + "]"
 }
 
 // BasinText writes res for a terminal; written is the certificate file, ""
@@ -203,36 +281,77 @@ func BasinPlot(res *basin.Result, format string) ([]byte, error) {
 	if len(m.States) != 2 {
 		return nil, fmt.Errorf("the plot needs two states, the model has %d", len(m.States))
 	}
-	v, vd := newFpoly(res.Direct.V.Num, 2), newFpoly(res.Direct.Vdot.Num, 2)
-	var fs [2]fpoly
-	for i, f := range m.F {
-		fs[i] = newFpoly(f.Num, 2)
-	}
-	var box [4]float64
+	var fs [][]*big.Rat
 	for i := range 2 {
 		lo, _ := new(big.Rat).SetString(res.Claim.Lo[i])
 		hi, _ := new(big.Rat).SetString(res.Claim.Hi[i])
-		box[2*i], _ = lo.Float64()
-		box[2*i+1], _ = hi.Float64()
+		fs = append(fs, []*big.Rat{lo, hi})
 	}
+	s := newBasinScene(m.States, res.Direct.V.Num, res.Direct.Vdot.Num, m.F, res.Equilibrium, res.Level, fs)
+	s.title = fmt.Sprintf("Region of attraction: {V ≤ %s} certified", dec(res.Level))
+	if res.Upper != nil {
+		s.title += fmt.Sprintf(", c_hi = %s", dec(res.Upper))
+		s.upper, _ = res.Upper.Float64()
+		cx, _ := res.Counterexample[0].Float64()
+		cy, _ := res.Counterexample[1].Float64()
+		s.counter = []float64{cx, cy}
+	}
+	return renderPlot(6*vg.Inch, 6*vg.Inch, format, func(c draw.Canvas) { s.plot().Draw(c) })
+}
+
+// basinScene is what a two-state picture of a certified sublevel set
+// shows, all in float64: V, V̇ and the right-hand sides, the equilibrium,
+// the level c_lo, the paved box and, when known, c_hi with its point.
+type basinScene struct {
+	states  []string
+	v, vd   fpoly
+	f       [2]fpoly
+	at      [2]float64
+	level   float64
+	box     [4]float64 // x0, x1, y0, y1
+	upper   float64    // 0 when unknown
+	counter []float64  // nil when unknown
+	title   string
+}
+
+// newBasinScene converts the exact data of a two-state basin to float64;
+// sides are the paved box's [lo, hi] per state.
+func newBasinScene(states []string, v, vdot *poly.Poly, f []poly.RatFunc, at []*big.Rat, level *big.Rat, sides [][]*big.Rat) *basinScene {
+	s := &basinScene{states: states, v: newFpoly(v, 2), vd: newFpoly(vdot, 2)}
+	for i := range 2 {
+		s.f[i] = newFpoly(f[i].Num, 2)
+		s.at[i], _ = at[i].Float64()
+		s.box[2*i], _ = sides[i][0].Float64()
+		s.box[2*i+1], _ = sides[i][1].Float64()
+	}
+	s.level, _ = level.Float64()
+	return s
+}
+
+// plot draws the scene: the curves V = c_lo and V̇ = 0 by marching squares
+// on a 300 × 300 grid, trajectories of the Dormand–Prince integrator from
+// points just inside {V ≤ c_lo} (solid) and, with c_hi, just outside
+// {V ≤ c_hi} (dashed), the counterexample and the paved box.
+func (s *basinScene) plot() *plot.Plot {
+	v, vd, fs, clo := s.v, s.vd, s.f, s.level
+	box := s.box
 	// A margin of a quarter around the paved box.
 	wx, wy := box[1]-box[0], box[3]-box[2]
 	x0, x1, y0, y1 := box[0]-wx/4, box[1]+wx/4, box[2]-wy/4, box[3]+wy/4
-	clo, _ := res.Level.Float64()
 	p := plot.New()
-	p.Title.Text = fmt.Sprintf("Region of attraction: {V ≤ %s} certified", dec(res.Level))
-	if res.Upper != nil {
-		p.Title.Text += fmt.Sprintf(", c_hi = %s", dec(res.Upper))
-	}
-	p.X.Label.Text, p.Y.Label.Text = m.States[0], m.States[1]
+	p.Title.Text = s.title
+	p.X.Label.Text, p.Y.Label.Text = s.states[0], s.states[1]
 	p.X.Min, p.X.Max, p.Y.Min, p.Y.Max = x0, x1, y0, y1
 	level := &segLayer{contour(func(x, y float64) float64 { return v.eval([]float64{x, y}) - clo }, x0, x1, y0, y1, 300),
 		draw.LineStyle{Color: holdsColor, Width: vg.Points(2)}}
 	zero := &segLayer{contour(func(x, y float64) float64 { return vd.eval([]float64{x, y}) }, x0, x1, y0, y1, 300),
 		draw.LineStyle{Color: color.RGBA{0xd9, 0x5f, 0x02, 0xff}, Width: vg.Points(1)}}
-	p.Add(level, zero)
+	frame := &segLayer{[][4]float64{{box[0], box[2], box[1], box[2]}, {box[1], box[2], box[1], box[3]}, {box[1], box[3], box[0], box[3]}, {box[0], box[3], box[0], box[2]}},
+		draw.LineStyle{Color: color.Gray{0xa0}, Width: vg.Points(0.7), Dashes: []vg.Length{vg.Points(1), vg.Points(2)}}}
+	p.Add(frame, level, zero)
 	p.Legend.Add("V = c_lo (certified)", level)
 	p.Legend.Add("V̇ = 0", zero)
+	p.Legend.Add("paved box", frame)
 	rhs := func(x, dx []float64) { dx[0], dx[1] = fs[0].eval(x), fs[1].eval(x) }
 	far := 10 * math.Max(x1-x0, y1-y0)
 	traj := func(start []float64, dashed bool) *plotter.Line {
@@ -258,8 +377,7 @@ func BasinPlot(res *basin.Result, format string) ([]byte, error) {
 	}
 	// Starts on rays from the equilibrium: where V reaches 0.95·c_lo
 	// (inside) and 1.1·c_hi (outside).
-	atx, _ := res.Equilibrium[0].Float64()
-	aty, _ := res.Equilibrium[1].Float64()
+	atx, aty := s.at[0], s.at[1]
 	ray := func(th, c float64) []float64 {
 		lo, hi := 0.0, 1e-3
 		pt := func(t float64) []float64 { return []float64{atx + t*math.Cos(th), aty + t*math.Sin(th)} }
@@ -282,9 +400,8 @@ func BasinPlot(res *basin.Result, format string) ([]byte, error) {
 			p.Add(l)
 			inL = l
 		}
-		if res.Upper != nil && k%2 == 0 {
-			chi, _ := res.Upper.Float64()
-			if l := traj(ray(th, 1.1*chi), true); l != nil {
+		if s.upper > 0 && k%2 == 0 {
+			if l := traj(ray(th, 1.1*s.upper), true); l != nil {
 				p.Add(l)
 				outL = l
 			}
@@ -296,10 +413,8 @@ func BasinPlot(res *basin.Result, format string) ([]byte, error) {
 	if outL != nil {
 		p.Legend.Add("from V = 1.1·c_hi", outL)
 	}
-	if res.Upper != nil {
-		cx, _ := res.Counterexample[0].Float64()
-		cy, _ := res.Counterexample[1].Float64()
-		sc, err := plotter.NewScatter(plotter.XYs{{X: cx, Y: cy}})
+	if s.counter != nil {
+		sc, err := plotter.NewScatter(plotter.XYs{{X: s.counter[0], Y: s.counter[1]}})
 		if err == nil {
 			sc.GlyphStyle.Shape = draw.CrossGlyph{}
 			sc.GlyphStyle.Radius = vg.Points(7)
@@ -309,5 +424,5 @@ func BasinPlot(res *basin.Result, format string) ([]byte, error) {
 		}
 	}
 	p.Legend.Top = true
-	return renderPlot(6*vg.Inch, 6*vg.Inch, format, func(c draw.Canvas) { p.Draw(c) })
+	return p
 }

@@ -251,15 +251,3 @@ func pavingOf(d *docView) *pavingView {
 	}
 	return newPavingView(d.Region.Paving)
 }
-
-// attractionOf is the hook for a region-of-attraction section: certificates
-// carry no such data yet, so there is none.
-//
-// It is also where a bifurcation diagram or a basin plot joins the reports
-// once certificates carry one: set attractionView.Text to what it shows and
-// SVG to the drawing (drawSVG of a gonum plot, like the paving's), and each
-// format presents it with no further change — HTML inline, Markdown as a
-// file beside the report through Options.Figure ("attraction.svg", see
-// renderMarkdown), LaTeX through a picture-environment drawing in
-// attractionView.Picture (as pavingPicture draws the paving).
-func attractionOf(*checker.Document) *attractionView { return nil }

@@ -181,17 +181,47 @@ func renderMarkdown(w io.Writer, p *page, opts Options) error {
 		}
 		pv.Figure = ref
 	}
-	if a := p.Attraction; a != nil && a.SVG != "" && opts.Figure != nil {
-		ref, err := opts.Figure("attraction.svg", []byte(`<?xml version="1.0" encoding="UTF-8"?>`+"\n"+a.SVG))
-		if err != nil {
-			return err
-		}
-		a.Figure = ref
+	if err := attractionFile(p.Attraction, opts, "png"); err != nil {
+		return err
 	}
 	return mdTemplate.Execute(w, p)
 }
 
+// attractionFile writes the basin picture beside a Markdown (PNG) or
+// LaTeX (PDF, for \includegraphics) report through opts.Figure, or notes
+// where to find it.
+func attractionFile(a *attractionView, opts Options, format string) error {
+	if a == nil || a.scene == nil {
+		return nil
+	}
+	if opts.Figure == nil {
+		a.Note = "The picture of the certified set is written beside this file when the report is written with -o (lyacert report -o FILE), and is inline in the HTML report."
+		return nil
+	}
+	data, err := a.figure(format)
+	if err != nil {
+		return err
+	}
+	ref, err := opts.Figure("attraction."+format, data)
+	if err != nil {
+		return err
+	}
+	// LaTeX reads a file name as text: one with spaces or special
+	// characters is named rather than included.
+	if format == "pdf" && strings.ContainsFunc(ref, func(r rune) bool {
+		return !(r >= 'a' && r <= 'z' || r >= 'A' && r <= 'Z' || r >= '0' && r <= '9' || strings.ContainsRune("-./", r))
+	}) {
+		a.Note = "The picture of the certified set is written beside this file as " + ref + "; its name is not one LaTeX can include as it stands."
+		return nil
+	}
+	a.Figure = ref
+	return nil
+}
+
 func renderLaTeX(w io.Writer, p *page, opts Options) error {
+	if err := attractionFile(p.Attraction, opts, "pdf"); err != nil {
+		return err
+	}
 	return texTemplate.Execute(w, texData{p, opts.WholeDocument})
 }
 
@@ -202,6 +232,13 @@ func renderHTML(w io.Writer, p *page) error {
 			return err
 		}
 		rv.SVG = svg
+	}
+	if a := p.Attraction; a != nil && a.scene != nil {
+		svg, err := a.svg()
+		if err != nil {
+			return err
+		}
+		a.SVG = svg
 	}
 	return htmlTemplate.Execute(w, p)
 }

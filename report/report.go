@@ -165,15 +165,6 @@ type recordView struct {
 	Signature string
 }
 
-// attractionView is the region-of-attraction section. Certificates carry no
-// such data yet; build leaves it nil, and the templates skip it.
-type attractionView struct {
-	Text    rich
-	SVG     string // the drawing: HTML inline, Markdown as a file
-	Figure  string // Markdown: the drawing's file, when written
-	Picture string // LaTeX: the drawing in the picture environment
-}
-
 func build(doc *checker.Document, opts Options) (*page, error) {
 	res := checker.Verify(doc)
 	if !res.Valid {
@@ -213,7 +204,9 @@ func build(doc *checker.Document, opts Options) (*page, error) {
 		return nil, err
 	}
 	p.Paving = pavingOf(b.doc)
-	p.Attraction = attractionOf(doc)
+	if p.Attraction, err = b.attractionOf(res); err != nil {
+		return nil, err
+	}
 	b.verdict(p)
 	b.record(p, res, opts)
 	p.Cautions = cautions(b.doc)

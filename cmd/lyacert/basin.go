@@ -19,6 +19,7 @@ type basinCmd struct {
 	Plot     string   `name:"plot" placeholder:"FILE" help:"Draw the certified set, V̇ = 0, the counterexample and trajectories (two states) to FILE (.svg, .png or .pdf)."`
 	Gap      float64  `name:"gap" default:"0.01" help:"Stop refining when (c_hi − c_lo)/c_hi is at most this."`
 	MaxBoxes int      `name:"max-boxes" default:"300000" help:"At most this many boxes in the bisection tree."`
+	Improve  bool     `name:"improve" help:"Search quadratic V = yᵀPy with AᵀP + PA = −Q over many Q (A the linearization, Hurwitz) for the largest certified ball about the equilibrium; keep the best."`
 	limitFlags
 	timeoutFlag
 }
@@ -58,7 +59,16 @@ func (c *basinCmd) run(e *env) int {
 		if err != nil {
 			return e.fail(exitInput, err)
 		}
-		res, err := basin.Find(ctx, m, name, basin.Options{Gap: c.Gap, MaxBoxes: c.MaxBoxes})
+		var res *basin.Result
+		var imp *basin.Improvement
+		if c.Improve {
+			imp, err = basin.Improve(ctx, m, name, basin.Options{Gap: c.Gap, MaxBoxes: c.MaxBoxes}, basin.ImproveOptions{})
+			if err == nil {
+				res = imp.Result
+			}
+		} else {
+			res, err = basin.Find(ctx, m, name, basin.Options{Gap: c.Gap, MaxBoxes: c.MaxBoxes})
+		}
 		if err != nil {
 			if errors.Is(err, certify.ErrUnverified) {
 				return e.fail(exitRejected, err)
@@ -79,9 +89,14 @@ func (c *basinCmd) run(e *env) int {
 				return e.failf(exitInput, "--plot: %w", err)
 			}
 		}
-		if c.JSON {
+		switch {
+		case c.JSON && imp != nil:
+			writeJSON(e.stdout, report.ImproveJSON(imp, c.Out))
+		case c.JSON:
 			writeJSON(e.stdout, report.BasinJSON(res, c.Out))
-		} else {
+		case imp != nil:
+			report.ImproveText(e.stdout, imp, c.Out)
+		default:
 			report.BasinText(e.stdout, res, c.Out)
 		}
 		if res.Upper != nil && res.Gap() > c.Gap {

@@ -26,7 +26,7 @@ type reportCmd struct {
 	// OldWholeDocument is the flag's earlier name, kept to be answered
 	// with the new one.
 	OldWholeDocument bool   `name:"standalone" hidden:""`
-	Out              string `short:"o" name:"out" placeholder:"FILE" help:"Write the report to this file (atomically) instead of standard output; a Markdown report's plot goes beside it."`
+	Out              string `short:"o" name:"out" placeholder:"FILE" help:"Write the report to this file (atomically) instead of standard output; the pictures of a Markdown or LaTeX report go beside it."`
 	limitFlags
 }
 

@@ -28,6 +28,7 @@ type findCmd struct {
 	Out           string   `short:"o" name:"out" placeholder:"CERT" help:"Write the certificate to this file (atomically); with --all one file per certified equilibrium, CERT with -1, -2, … before its extension."`
 	Plot          string   `name:"plot" placeholder:"FILE.svg|FILE.png|FILE.pdf" help:"With one free parameter: draw the bifurcation diagram (each branch against the parameter, solid where stable, dashed where not, bifurcations marked) to this file."`
 	CertifyLinear bool     `name:"certify-linear" help:"With one free parameter: for each rational branch, certify its linearisation with V = D(p)²·ξᵀP(p)ξ from the exact solution P(p) of the Lyapunov equation, re-checked by the checker, over the exact region where it holds (-o writes the certificates, CERT-k for branch k)."`
+	Exact         bool     `name:"exact" help:"At fixed parameters: certify with the exact rational solution P of the Lyapunov equation instead of the short rounded one (rational equilibria only; elsewhere the rounded P is used, with a note)."`
 	PlotState     string   `name:"plot-state" placeholder:"STATE" help:"Draw only this state's coordinate in --plot (default: one panel per state)."`
 	sosFlags
 	limitFlags
@@ -123,7 +124,7 @@ func (c *findCmd) find(ctx context.Context, e *env) int {
 	if err != nil {
 		return e.fail(exitInput, err)
 	}
-	res, err := equilibria.Find(ctx, m, equilibria.FindOptions{Q: q, All: c.All, Source: name})
+	res, err := equilibria.Find(ctx, m, equilibria.FindOptions{Q: q, All: c.All, Source: name, Exact: c.Exact})
 	if err != nil {
 		if errors.Is(err, certify.ErrUnverified) {
 			return e.fail(exitRejected, err)
@@ -175,6 +176,8 @@ func (c *findCmd) symbolic(ctx context.Context, e *env, m *model.Model, format s
 		return e.failf(exitInput, "--certify-linear works along one free parameter, and %s are free; fix all but one with --set", paramNames(free))
 	case c.All:
 		return e.failf(exitInput, "--all certifies equilibria at one parameter point; fix the free parameters (%s) with --set", paramNames(free))
+	case c.Exact:
+		return e.failf(exitInput, "--exact chooses the P of a certificate at one parameter point; fix the free parameters (%s) with --set", paramNames(free))
 	case c.Q != "identity":
 		return e.failf(exitInput, "--q sets the Lyapunov equation of a certificate; fix the free parameters (%s) with --set", paramNames(free))
 	case c.Plot != "" && len(free) != 1:

@@ -29,6 +29,7 @@ type findCmd struct {
 	Plot          string   `name:"plot" placeholder:"FILE.svg|FILE.png|FILE.pdf" help:"With one free parameter: draw the bifurcation diagram (each branch against the parameter, solid where stable, dashed where not, bifurcations marked) to this file."`
 	CertifyLinear bool     `name:"certify-linear" help:"With one free parameter: for each rational branch, certify its linearisation with V = D(p)²·ξᵀP(p)ξ from the exact solution P(p) of the Lyapunov equation, re-checked by the checker, over the exact region where it holds (-o writes the certificates, CERT-k for branch k)."`
 	Exact         bool     `name:"exact" help:"At fixed parameters: certify with the exact rational solution P of the Lyapunov equation instead of the short rounded one (rational equilibria only; elsewhere the rounded P is used, with a note)."`
+	Points        int      `name:"points" placeholder:"N" default:"41" help:"With one free parameter and no closed form for the branches: sample the parameter's range at N evenly spaced values (at least 2) and find the equilibria at each (sampled, not exact between them)."`
 	PlotState     string   `name:"plot-state" placeholder:"STATE" help:"Draw only this state's coordinate in --plot (default: one panel per state)."`
 	sosFlags
 	limitFlags
@@ -182,6 +183,8 @@ func (c *findCmd) symbolic(ctx context.Context, e *env, m *model.Model, format s
 		return e.failf(exitInput, "--q sets the Lyapunov equation of a certificate; fix the free parameters (%s) with --set", paramNames(free))
 	case c.Plot != "" && len(free) != 1:
 		return e.failf(exitInput, "--plot %s draws a bifurcation diagram along one free parameter, and %s are free; fix all but one with --set", c.Plot, paramNames(free))
+	case c.Points < 2 || c.Points > 10001:
+		return e.failf(exitInput, "--points %d: give between 2 and 10001 grid values", c.Points)
 	case c.PlotState != "" && c.Plot == "":
 		return e.failf(exitInput, "--plot-state chooses what --plot draws; give --plot FILE too")
 	}
@@ -203,9 +206,22 @@ func (c *findCmd) symbolic(ctx context.Context, e *env, m *model.Model, format s
 			return e.fail(exitInput, err)
 		}
 	}
+	var sampled *equilibria.Sampling
+	if !an.ClosedForm && len(free) == 1 {
+		// No closed form: fall back to the equilibria on a grid of the
+		// parameter, each grid value as find --set would do it.
+		sampled, err = equilibria.Sample(ctx, m, equilibria.SampleOptions{Points: c.Points})
+		if err != nil {
+			return e.fail(exitInput, err)
+		}
+	}
 	if c.JSON {
-		writeJSON(e.stdout, report.BranchesJSON(m, an, certs))
-	} else if err := report.BranchesText(e.stdout, m, an, certs); err != nil {
+		out := report.BranchesJSON(m, an, certs)
+		if sampled != nil {
+			out.Samples = report.SamplesJSON(m, sampled)
+		}
+		writeJSON(e.stdout, out)
+	} else if err := report.BranchesSampledText(e.stdout, m, an, certs, sampled); err != nil {
 		return e.fail(exitInput, err)
 	}
 	if !an.ClosedForm {

@@ -1,6 +1,7 @@
 package main
 
 import (
+	"bytes"
 	"context"
 	"errors"
 	"fmt"
@@ -30,6 +31,7 @@ type findCmd struct {
 	CertifyLinear bool     `name:"certify-linear" help:"With one free parameter: for each rational branch, certify its linearisation with V = D(p)²·ξᵀP(p)ξ from the exact solution P(p) of the Lyapunov equation, re-checked by the checker, over the exact region where it holds (-o writes the certificates, CERT-k for branch k)."`
 	Exact         bool     `name:"exact" help:"At fixed parameters: certify with the exact rational solution P of the Lyapunov equation instead of the short rounded one (rational equilibria only; elsewhere the rounded P is used, with a note)."`
 	Points        int      `name:"points" placeholder:"N" default:"41" help:"With one free parameter and no closed form for the branches: sample the parameter's range at N evenly spaced values (at least 2) and find the equilibria at each (sampled, not exact between them)."`
+	Report        string   `name:"report" placeholder:"FILE.md|FILE.tex|FILE.html" help:"With free parameters: write a report of the analysis (branches, classification, bifurcations and the bifurcation diagram): Markdown or a LaTeX document with the diagram as a PNG beside it (FILE-diagram.png), or one HTML page with it inline."`
 	PlotState     string   `name:"plot-state" placeholder:"STATE" help:"Draw only this state's coordinate in --plot (default: one panel per state)."`
 	sosFlags
 	limitFlags
@@ -115,6 +117,9 @@ func (c *findCmd) find(ctx context.Context, e *env) int {
 	if free := m.FreeParams(); len(free) > 0 && c.Degree == 0 {
 		return c.symbolic(ctx, e, m, format)
 	}
+	if c.Report != "" {
+		return e.failf(exitInput, "--report %s writes the report of an analysis with free parameters, and %s has none; write the certificate with -o and its report with lyacert report CERT", c.Report, name)
+	}
 	if c.Plot != "" || c.PlotState != "" {
 		return e.failf(exitInput, "--plot draws a bifurcation diagram along one free parameter; %s has none (leave one parameter without --set)", name)
 	}
@@ -185,11 +190,19 @@ func (c *findCmd) symbolic(ctx context.Context, e *env, m *model.Model, format s
 		return e.failf(exitInput, "--plot %s draws a bifurcation diagram along one free parameter, and %s are free; fix all but one with --set", c.Plot, paramNames(free))
 	case c.Points < 2 || c.Points > 10001:
 		return e.failf(exitInput, "--points %d: give between 2 and 10001 grid values", c.Points)
-	case c.PlotState != "" && c.Plot == "":
+	case c.PlotState != "" && c.Plot == "" && c.Report == "":
 		return e.failf(exitInput, "--plot-state chooses what --plot draws; give --plot FILE too")
 	}
+	var reportFormat report.Format
+	if c.Report != "" {
+		f, err := report.ParseFormat(strings.TrimPrefix(filepath.Ext(c.Report), "."))
+		if err != nil {
+			return e.failf(exitInput, "--report %s: %w", c.Report, err)
+		}
+		reportFormat = f
+	}
 	var states []int
-	if c.Plot != "" {
+	if c.Plot != "" || c.PlotState != "" {
 		s, err := report.DiagramStates(m, c.PlotState)
 		if err != nil {
 			return e.failf(exitInput, "--plot-state: %w", err)
@@ -223,6 +236,16 @@ func (c *findCmd) symbolic(ctx context.Context, e *env, m *model.Model, format s
 		writeJSON(e.stdout, out)
 	} else if err := report.BranchesSampledText(e.stdout, m, an, certs, sampled); err != nil {
 		return e.fail(exitInput, err)
+	}
+	if c.Report != "" {
+		var buf bytes.Buffer
+		opts := report.AnalysisOptions{Format: reportFormat, WholeDocument: true, Tool: checkerName(), Figure: figureBeside(c.Report), States: states}
+		if err := report.RenderAnalysis(&buf, m, an, sampled, opts); err != nil {
+			return e.failf(exitFails, "--report %s: %w", c.Report, err)
+		}
+		if err := certificates.WriteFileAtomic(c.Report, buf.Bytes(), 0o644); err != nil {
+			return e.failf(exitInput, "writing the report: %w", err)
+		}
 	}
 	if !an.ClosedForm {
 		if c.Plot != "" {

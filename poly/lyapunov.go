@@ -14,8 +14,9 @@ const MaxLyapunovStates = 16
 // is Σₖ aₖᵢPₖⱼ + Σₖ Pᵢₖaₖⱼ (respectively Σₖₗ aₖᵢPₖₗaₗⱼ − Pᵢⱼ), and the
 // system is solved by SolveRat (fraction-free elimination). It is
 // nonsingular exactly when no two eigenvalues of A satisfy λᵢ + λⱼ = 0
-// (λᵢλⱼ = 1 for maps), the condition of the Sylvester operator's spectrum
-// (Lancaster & Tismenetsky, The Theory of Matrices, §12.3); ok is false
+// (λᵢλⱼ = 1 for maps): the operator X ↦ AᵀX + XA has the eigenvalues
+// λᵢ + λⱼ, and X ↦ AᵀXA − X the eigenvalues λᵢλⱼ − 1 (Kronecker products,
+// common practice); ok is false
 // otherwise, or when n exceeds MaxLyapunovStates.
 func LyapunovRat(a, q [][]*big.Rat, discrete bool) (p [][]*big.Rat, ok bool) {
 	n := len(a)

@@ -207,8 +207,8 @@ func CertifyEquilibrium(ctx context.Context, m *model.Model, e *Equilibrium, opt
 // Lyapunov equation. The decay matrix is then Q itself, positive definite,
 // so only P's pivots remain to decide: P ≻ 0 (stable) or a negative pivot
 // (unstable). P is nonsingular (by the inertia theorem of Ostrowski and
-// Schneider, and Taussky's for maps, A has no eigenvalue on the imaginary
-// axis, or on the unit circle), but an indefinite
+// Schneider, and its analogue for maps, A has no eigenvalue on the
+// imaginary axis, or on the unit circle), but an indefinite
 // P can still have a zero leading pivot; the rounded P is tried then. A nil
 // Certification with a note asks the caller for the rounded P.
 func certifyExact(ctx context.Context, m *model.Model, e *Equilibrium, opts CertifyOptions, f []*poly.Poly, affine bool) (*Certification, string, error) {

@@ -8,6 +8,7 @@ import (
 	"strings"
 
 	"github.com/lyacert/lyacert/certify/branches"
+	"github.com/lyacert/lyacert/certify/equilibria"
 	"github.com/lyacert/lyacert/checker"
 	"github.com/lyacert/lyacert/model"
 	"github.com/lyacert/lyacert/poly"
@@ -38,6 +39,10 @@ type BranchesOutput struct {
 	// LinearCertificates: with --certify-linear, the kernel's check of
 	// each branch's linearisation; [] without it.
 	LinearCertificates []LinearCertOutput `json:"linear_certificates"`
+	// Samples: with one free parameter and no closed form, the equilibria
+	// on a grid of it (SamplesJSON; not exact between grid values); null
+	// otherwise.
+	Samples *SamplesOutput `json:"samples"`
 }
 
 // FreeParamOutput is a free parameter and its assumed range.
@@ -469,6 +474,9 @@ func BranchesJSON(m *model.Model, an *branches.Analysis, certs []LinearCert) Bra
 // AnalysisNote says what the symbolic analysis is and is not.
 const AnalysisNote = "This is an analysis, not a certificate: every decision above is exact (rational arithmetic, Sturm sequences), but no certificate is written for it and the checker has not re-checked it. Fix every parameter with --set to certify one equilibrium."
 
+// sampledAnalysisNote replaces AnalysisNote under a sampled analysis.
+const sampledAnalysisNote = "This is a sampled analysis, not a certificate: each grid value was decided exactly (its linearization certificates re-checked by the checker, not written), but the picture between grid values is not exact. Fix the parameter with --set to certify one equilibrium."
+
 // certifiedNote replaces AnalysisNote when the linearisations were
 // certified.
 const certifiedNote = "The analysis above is not a certificate: its decisions are exact, but only the certificates of the linearisation listed were re-checked by the exact checker."
@@ -480,12 +488,18 @@ const certifiedNote = "The analysis above is not a certificate: its decisions ar
 // linearisations when certs is not empty. It returns the first write
 // error.
 func BranchesText(w io.Writer, m *model.Model, an *branches.Analysis, certs []LinearCert) error {
+	return BranchesSampledText(w, m, an, certs, nil)
+}
+
+// BranchesSampledText is BranchesText with, where the branches have no
+// closed form, the sampled analysis s (nil for none) in their place.
+func BranchesSampledText(w io.Writer, m *model.Model, an *branches.Analysis, certs []LinearCert, s *equilibria.Sampling) error {
 	ew := &errWriter{w: w}
-	branchesText(ew, m, an, certs)
+	branchesText(ew, m, an, certs, s)
 	return ew.err
 }
 
-func branchesText(w io.Writer, m *model.Model, an *branches.Analysis, certs []LinearCert) {
+func branchesText(w io.Writer, m *model.Model, an *branches.Analysis, certs []LinearCert, s *equilibria.Sampling) {
 	modelHeader(w, m)
 	kind := "continuous time"
 	if m.Discrete {
@@ -508,8 +522,14 @@ func branchesText(w io.Writer, m *model.Model, an *branches.Analysis, certs []Li
 	fmt.Fprintln(w)
 	if !an.ClosedForm {
 		fmt.Fprintf(w, "Equilibrium branches: no closed form (%s).\n", strings.TrimPrefix(an.Reason, "no closed form: "))
-		fmt.Fprintln(w, "  Fix the parameters with --set to find and certify the equilibria at one parameter point, or sweep the range with lyacert sweep.")
-		fmt.Fprintf(w, "\n%s\n", AnalysisNote)
+		if s == nil {
+			fmt.Fprintln(w, "  Fix the parameters with --set to find and certify the equilibria at one parameter point, or sweep the range with lyacert sweep.")
+			fmt.Fprintf(w, "\n%s\n", AnalysisNote)
+			return
+		}
+		fmt.Fprintln(w, "  Fix the parameters with --set to find and certify the equilibria at one parameter point; below, the range is sampled instead.")
+		samplesText(w, m, s)
+		fmt.Fprintf(w, "\n%s\n", sampledAnalysisNote)
 		return
 	}
 	word := "branches"

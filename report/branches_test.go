@@ -337,7 +337,7 @@ func TestBranchesJSONKeys(t *testing.T) {
 			if err := json.Unmarshal(b, &top); err != nil {
 				t.Fatal(err)
 			}
-			for _, k := range []string{"analysis", "certificate", "time_kind", "params", "free", "closed_form", "reason", "param", "notes", "branches", "bifurcations", "linear_certificates"} {
+			for _, k := range []string{"analysis", "certificate", "time_kind", "params", "free", "closed_form", "reason", "param", "notes", "branches", "bifurcations", "linear_certificates", "samples"} {
 				if _, ok := top[k]; !ok {
 					t.Errorf("top-level key %q missing", k)
 				}

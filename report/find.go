@@ -80,6 +80,16 @@ func qText(q []*big.Rat) string {
 	return "diag(" + strings.Join(parts, ", ") + ")"
 }
 
+// PSourceLabel names where a certificate's P came from, for text and JSON:
+// the exact solution of the Lyapunov equation, or its float solution
+// rounded to short rationals.
+func PSourceLabel(source string) string {
+	if source == equilibria.PExact {
+		return "exact solution of the Lyapunov equation"
+	}
+	return "rounded P, short numbers"
+}
+
 // equilibriumText returns "x = 0, y = 1/2" (exact) or decimals.
 func equilibriumText(m *model.Model, e *equilibria.Equilibrium) string {
 	parts := make([]string, len(m.States))
@@ -230,14 +240,24 @@ func findText(w io.Writer, res *equilibria.FindResult, q []*big.Rat, written []s
 			eq = "AᵀPA − P = −Q"
 		}
 		if ct.P == nil {
+			if ct.ExactNote != "" {
+				fmt.Fprintf(w, "  note: %s\n", ct.ExactNote)
+			}
 			fmt.Fprintf(w, "  Verdict: undecided. %s.\n", upper(ct.Reason))
 			continue
 		}
-		tol := "the float itself"
-		if ct.Tolerance > 0 {
-			tol = fmt.Sprintf("relative tolerance %g", ct.Tolerance)
+		if ct.PSource == equilibria.PExact {
+			fmt.Fprintf(w, "  Lyapunov equation %s with Q = %s; P: %s (exact elimination over the rationals):\n", eq, qText(q), PSourceLabel(ct.PSource))
+		} else {
+			tol := "the float itself"
+			if ct.Tolerance > 0 {
+				tol = fmt.Sprintf("relative tolerance %g", ct.Tolerance)
+			}
+			fmt.Fprintf(w, "  Lyapunov equation %s with Q = %s; P: %s (the float solution rounded over one decimal denominator, %s):\n", eq, qText(q), PSourceLabel(ct.PSource), tol)
 		}
-		fmt.Fprintf(w, "  Lyapunov equation %s with Q = %s, solved in floating point and rounded to rationals (one decimal denominator, %s):\n", eq, qText(q), tol)
+		if ct.ExactNote != "" {
+			fmt.Fprintf(w, "    note: %s\n", ct.ExactNote)
+		}
 		fmt.Fprintf(w, "    P = %s\n", ratRows(ct.P))
 		decrease := "−(AᵀP + PA)"
 		if m.Discrete {

@@ -222,6 +222,8 @@ type CertOutput struct {
 	Method      string     `json:"method"`
 	V           string     `json:"V"`
 	P           [][]string `json:"P"`
+	PSource     string     `json:"P_source"`   // PSourceLabel: "rounded P, short numbers" or "exact solution of the Lyapunov equation"
+	ExactNote   string     `json:"exact_note"` // why the exact P was asked for and not used; "" otherwise
 	Verdict     string     `json:"verdict"`
 	Claim       string     `json:"claim"`
 	Reason      string     `json:"reason"`
@@ -266,7 +268,7 @@ func FindJSON(res *equilibria.FindResult, written []string) FindOutput {
 			eo.Box = append(eo.Box, checker.IntervalText(iv))
 		}
 		if ct := res.Certs[i]; ct != nil {
-			co := &CertOutput{Method: ct.Method, Verdict: ct.Verdict, Claim: ct.Claim, Reason: ct.Reason, Certificate: fileAt(written, i)}
+			co := &CertOutput{Method: ct.Method, PSource: PSourceLabel(ct.PSource), ExactNote: ct.ExactNote, Verdict: ct.Verdict, Claim: ct.Claim, Reason: ct.Reason, Certificate: fileAt(written, i)}
 			if ct.V != nil {
 				co.V = ct.V.String()
 			}

@@ -120,6 +120,19 @@ func (b *builder) region(rg checker.SturmRegion) (*regionView, error) {
 	default:
 		rv.HoldsSet = union(holds)
 	}
+	ends, err := b.alphaDefs(first, pi)
+	if err != nil {
+		return nil, err
+	}
+	rv.Ends = ends
+	return rv, nil
+}
+
+// alphaDefs says what each irrational end named since b.alphas[first]
+// stands for: its closed form when it is a quadratic surd, its decimal,
+// and the polynomial and isolating interval that define it exactly.
+func (b *builder) alphaDefs(first, pi int) ([]rich, error) {
+	var out []rich
 	for _, a := range b.alphas[first:] {
 		f, err := b.parse(a.poly)
 		if err != nil {
@@ -135,9 +148,9 @@ func (b *builder) region(rg checker.SturmRegion) (*regionView, error) {
 			}
 		}
 		r = append(r, ", the root of ", relation{ratFuncNode(f), symEq, zeroNode}, " in ", iso, " (the only one there, by Sturm's theorem).")
-		rv.Ends = append(rv.Ends, r)
+		out = append(out, r)
 	}
-	return rv, nil
+	return out, nil
 }
 
 // union is a union of intervals.

@@ -50,7 +50,21 @@ type CertifyOptions struct {
 	// makes the certificate, and so its digest, a function of the model
 	// alone (sweeps use that for reproducible output).
 	Issued string
+	// Exact uses the exact rational solution of the Lyapunov equation
+	// (poly.LyapunovRat) as P at a rational equilibrium instead of a short
+	// rounding of the float solution; where it cannot (an irrational
+	// equilibrium, a singular equation, too many states) the rounded P is
+	// used and Certification.ExactNote says why.
+	Exact bool
 }
+
+// Sources of P (Certification.PSource).
+const (
+	// PRounded: the float solution rounded to short rationals.
+	PRounded = "rounded"
+	// PExact: the exact rational solution of the Lyapunov equation.
+	PExact = "exact"
+)
 
 // Certification is the outcome of certifying one equilibrium.
 type Certification struct {
@@ -65,6 +79,11 @@ type Certification struct {
 	// float solution itself).
 	P         [][]*big.Rat
 	Tolerance float64
+	// PSource is PExact or PRounded (also when no P was found).
+	PSource string
+	// ExactNote says why the exact P was asked for and not used ("" when
+	// it was used, or not asked for).
+	ExactNote string
 	// V is (x − x*)ᵀP(x − x*) at an exact equilibrium (nil otherwise).
 	V *poly.RatFunc
 	// Decay is the exact enclosure of −(JᵀP + PJ) (or P − JᵀPJ) over the
@@ -111,13 +130,31 @@ func CertifyEquilibrium(ctx context.Context, m *model.Model, e *Equilibrium, opt
 	n := len(m.States)
 	undecided := func(format string, args ...any) (*Certification, error) {
 		return &Certification{Method: MethodLinearization, Verdict: checker.VerdictUndecided, Claim: checker.KindNone,
-			Reason: fmt.Sprintf(format, args...)}, nil
+			PSource: PRounded, Reason: fmt.Sprintf(format, args...)}, nil
 	}
 	if e.Status == EquilibriumApproximate {
 		return undecided("not certified: the Krawczyk test could not prove an equilibrium near this point (singular or ill-conditioned Jacobian)")
 	}
 	if err := requireFixed(m, "certification"); err != nil {
 		return nil, err
+	}
+	f := make([]*poly.Poly, n)
+	for i := range m.F {
+		f[i] = m.F[i].Num
+	}
+	affine := !slices.ContainsFunc(f, func(fi *poly.Poly) bool { return fi.Degree() > 1 })
+	note := ""
+	if opts.Exact {
+		c, why, err := certifyExact(ctx, m, e, opts, f, affine)
+		if c != nil || err != nil {
+			return c, err
+		}
+		note = why
+	}
+	undecidedNote := func(format string, args ...any) (*Certification, error) {
+		c, err := undecided(format, args...)
+		c.ExactNote = note
+		return c, err
 	}
 	q := mat.NewDense(n, n, nil)
 	for i := 0; i < n; i++ {
@@ -128,7 +165,7 @@ func CertifyEquilibrium(ctx context.Context, m *model.Model, e *Equilibrium, opt
 		q.Set(i, i, qi)
 	}
 	if !finiteWithin(e.Jacobian.RawMatrix().Data, FloatRange) {
-		return undecided("not certified: the linearization has entries beyond floating-point range (above %g in magnitude), so the floating-point solver cannot propose P", FloatRange)
+		return undecidedNote("not certified: the linearization has entries beyond floating-point range (above %g in magnitude), so the floating-point solver cannot propose P", FloatRange)
 	}
 	pf, err := solveLyapunov(e.Jacobian, q, m.Discrete)
 	if err != nil {
@@ -139,7 +176,7 @@ func CertifyEquilibrium(ctx context.Context, m *model.Model, e *Equilibrium, opt
 		if !errors.Is(err, lyapunov.ErrSingular) {
 			where = "that the solver could not handle (" + err.Error() + ")"
 		}
-		return undecided("not certified: the linearization has eigenvalues %s, so it decides neither stability nor instability", where)
+		return undecidedNote("not certified: the linearization has eigenvalues %s, so it decides neither stability nor instability", where)
 	}
 	box := e.Box
 	if e.Status == EquilibriumExact {
@@ -148,85 +185,137 @@ func CertifyEquilibrium(ctx context.Context, m *model.Model, e *Equilibrium, opt
 			box[i] = poly.Point(v)
 		}
 	}
-	f := make([]*poly.Poly, n)
-	for i := range m.F {
-		f[i] = m.F[i].Num
-	}
 	pmax := 0.0
 	for i := 0; i < n; i++ {
 		for j := 0; j < n; j++ {
 			pmax = math.Max(pmax, math.Abs(pf.At(i, j)))
 		}
 	}
-	affine := !slices.ContainsFunc(f, func(fi *poly.Poly) bool { return fi.Degree() > 1 })
 	for _, tol := range rationalizeTolerances {
-		p := roundCommon(pf, tol*pmax)
-		var decay [][]poly.Interval
-		proven := false
-		if e.ExactJacobian != nil {
-			mm := poly.DecayAt(e.ExactJacobian, m.Discrete, p)
-			if !floatDefinite(mm, 1e-8) {
-				continue // too coarse: not worth the exact elimination
+		c, err := certifyWith(ctx, m, e, opts, roundCommon(pf, tol*pmax), tol, box, f, affine)
+		if c != nil || err != nil {
+			if c != nil {
+				c.ExactNote = note
 			}
-			decay = pointIntervals(mm)
-			// Both definite with a margin that floating point cannot
-			// blur: the kernel's exact elimination will agree, and runs
-			// once, in the kernel, instead of twice.
-			proven = floatDefinite(mm, -1e-9*float64(n)) && floatDefinite(p, -1e-9*float64(n))
-		} else {
-			decay = poly.DecayEnclosure(f, m.Discrete, p, box)
+			return c, err
 		}
-		k := -1
-		if !proven {
-			// The two eliminations are independent: P's runs beside M's.
-			var pivot *big.Rat
-			done := make(chan struct{})
-			go func() {
-				defer close(done)
-				k, pivot = poly.FirstNonPositivePivot(p)
-			}()
-			definite := poly.PositiveDefiniteOn(decay)
-			<-done
-			if !definite || (k >= 0 && pivot.Sign() == 0) {
-				continue
-			}
-		}
-		c := &Certification{Method: MethodLinearization, P: p, Tolerance: tol, Decay: decay}
-		switch {
-		case k < 0 && affine:
-			c.Verdict, c.Claim = checker.VerdictHolds, checker.KindGlobal
-			c.Reason = "the model is affine, so " + dotWord(m) + " = −(x − x*)ᵀM(x − x*) everywhere, with M = " + decayName(m) + " ≻ 0 and P ≻ 0 exactly (Lyapunov's direct method, global)"
-		case k < 0:
-			c.Verdict, c.Claim = checker.VerdictHolds, checker.KindLocal
-			c.Reason = "the linearization is stable: P ≻ 0 and " + decayName(m) + " ≻ 0 exactly (Lyapunov's indirect method)"
-		default:
-			c.Verdict, c.Claim = checker.VerdictFails, checker.KindUnstable
-			c.Reason = fmt.Sprintf("the equilibrium is unstable: %s ≻ 0 exactly and P has a negative pivot (%d), so −V grows near the equilibrium (Lyapunov's instability theorem)", decayName(m), k+1)
-		}
-		if e.Status == EquilibriumExact && (opts.Full || affine) {
-			v := poly.FromPoly(poly.QuadraticAbout(m.Ring, p, e.Point))
-			c.V = &v
-		}
-		if k < 0 && opts.Full && e.Status == EquilibriumExact && !affine {
-			if err := c.full(ctx, m, e, opts); err != nil {
-				return nil, err
-			}
-			if c.Doc != nil {
-				return c, nil
-			}
-		}
-		doc := linearizationDoc(m, e, p, decay, opts)
-		if err := certificates.Seal(doc); err != nil {
-			return nil, err
-		}
-		c.Doc = doc
-		c.Verified = checker.VerifyContext(ctx, doc)
-		if err := certify.Agrees(c.Verified, c.Verdict, c.Claim); err != nil {
-			return nil, err
-		}
-		return c, nil
 	}
-	return undecided("not certified: no rounding of the float solution P passed the exact tests (P definite or with a negative pivot, and %s ≻ 0)", decayName(m))
+	return undecidedNote("not certified: no rounding of the float solution P passed the exact tests (P definite or with a negative pivot, and %s ≻ 0)", decayName(m))
+}
+
+// certifyExact certifies the equilibrium with the exact solution P of the
+// Lyapunov equation. The decay matrix is then Q itself, positive definite,
+// so only P's pivots remain to decide: P ≻ 0 (stable) or a negative pivot
+// (unstable). P is nonsingular (by the inertia theorem of Ostrowski and
+// Schneider, and its analogue for maps, A has no eigenvalue on the
+// imaginary axis, or on the unit circle), but an indefinite
+// P can still have a zero leading pivot; the rounded P is tried then. A nil
+// Certification with a note asks the caller for the rounded P.
+func certifyExact(ctx context.Context, m *model.Model, e *Equilibrium, opts CertifyOptions, f []*poly.Poly, affine bool) (*Certification, string, error) {
+	n := len(m.States)
+	if e.Status != EquilibriumExact || e.ExactJacobian == nil {
+		return nil, "the exact solution of the Lyapunov equation needs a rational equilibrium, and this one is irrational (enclosed in a Krawczyk box), so P is the rounded float solution", nil
+	}
+	if n > poly.MaxLyapunovStates {
+		return nil, fmt.Sprintf("the Lyapunov equation is solved by exact elimination for at most %d states, and the model has %d, so P is the rounded float solution", poly.MaxLyapunovStates, n), nil
+	}
+	q := make([][]*big.Rat, n)
+	for i := range q {
+		q[i] = make([]*big.Rat, n)
+		for j := range q[i] {
+			q[i][j] = new(big.Rat)
+		}
+		q[i][i].SetInt64(1)
+		if opts.Q != nil {
+			q[i][i].Set(opts.Q[i])
+		}
+	}
+	p, ok := poly.LyapunovRat(e.ExactJacobian, q, m.Discrete)
+	if !ok {
+		return nil, "the Lyapunov equation is singular at this equilibrium (two eigenvalues with λi + λj = 0, or λi·λj = 1 for a map), so it has no exact solution and P is the rounded solution of a shifted equation", nil
+	}
+	box := make([]poly.Interval, n)
+	for i, v := range e.Point {
+		box[i] = poly.Point(v)
+	}
+	c, err := certifyWith(ctx, m, e, opts, p, 0, box, f, affine)
+	if c == nil && err == nil {
+		return nil, "the exact P has a zero leading pivot, so P is the rounded float solution", nil
+	}
+	if c != nil {
+		c.PSource = PExact
+	}
+	return c, "", err
+}
+
+// certifyWith runs the exact tests on one proposed P and, when they pass,
+// writes and re-checks the certificate; nil, nil means they did not pass.
+func certifyWith(ctx context.Context, m *model.Model, e *Equilibrium, opts CertifyOptions, p [][]*big.Rat, tol float64, box []poly.Interval, f []*poly.Poly, affine bool) (*Certification, error) {
+	n := len(m.States)
+	var decay [][]poly.Interval
+	proven := false
+	if e.ExactJacobian != nil {
+		mm := poly.DecayAt(e.ExactJacobian, m.Discrete, p)
+		if !floatDefinite(mm, 1e-8) {
+			return nil, nil // too coarse: not worth the exact elimination
+		}
+		decay = pointIntervals(mm)
+		// Both definite with a margin that floating point cannot
+		// blur: the kernel's exact elimination will agree, and runs
+		// once, in the kernel, instead of twice.
+		proven = floatDefinite(mm, -1e-9*float64(n)) && floatDefinite(p, -1e-9*float64(n))
+	} else {
+		decay = poly.DecayEnclosure(f, m.Discrete, p, box)
+	}
+	k := -1
+	if !proven {
+		// The two eliminations are independent: P's runs beside M's.
+		var pivot *big.Rat
+		done := make(chan struct{})
+		go func() {
+			defer close(done)
+			k, pivot = poly.FirstNonPositivePivot(p)
+		}()
+		definite := poly.PositiveDefiniteOn(decay)
+		<-done
+		if !definite || (k >= 0 && pivot.Sign() == 0) {
+			return nil, nil
+		}
+	}
+	c := &Certification{Method: MethodLinearization, P: p, Tolerance: tol, Decay: decay, PSource: PRounded}
+	switch {
+	case k < 0 && affine:
+		c.Verdict, c.Claim = checker.VerdictHolds, checker.KindGlobal
+		c.Reason = "the model is affine, so " + dotWord(m) + " = −(x − x*)ᵀM(x − x*) everywhere, with M = " + decayName(m) + " ≻ 0 and P ≻ 0 exactly (Lyapunov's direct method, global)"
+	case k < 0:
+		c.Verdict, c.Claim = checker.VerdictHolds, checker.KindLocal
+		c.Reason = "the linearization is stable: P ≻ 0 and " + decayName(m) + " ≻ 0 exactly (Lyapunov's indirect method)"
+	default:
+		c.Verdict, c.Claim = checker.VerdictFails, checker.KindUnstable
+		c.Reason = fmt.Sprintf("the equilibrium is unstable: %s ≻ 0 exactly and P has a negative pivot (%d), so −V grows near the equilibrium (Lyapunov's instability theorem)", decayName(m), k+1)
+	}
+	if e.Status == EquilibriumExact && (opts.Full || affine) {
+		v := poly.FromPoly(poly.QuadraticAbout(m.Ring, p, e.Point))
+		c.V = &v
+	}
+	if k < 0 && opts.Full && e.Status == EquilibriumExact && !affine {
+		if err := c.full(ctx, m, e, opts); err != nil {
+			return nil, err
+		}
+		if c.Doc != nil {
+			return c, nil
+		}
+	}
+	doc := linearizationDoc(m, e, p, decay, opts)
+	if err := certificates.Seal(doc); err != nil {
+		return nil, err
+	}
+	c.Doc = doc
+	c.Verified = checker.VerifyContext(ctx, doc)
+	if err := certify.Agrees(c.Verified, c.Verdict, c.Claim); err != nil {
+		return nil, err
+	}
+	return c, nil
 }
 
 // solveLyapunov solves the Lyapunov (Stein) equation for A in floating
@@ -453,6 +542,7 @@ type FindOptions struct {
 	Q      []*big.Rat // diagonal of Q; nil for the identity
 	All    bool       // certify every equilibrium, not only the model's
 	Source string
+	Exact  bool // P is the exact solution of the Lyapunov equation where it can be (CertifyOptions.Exact)
 }
 
 // FindResult is what Find found and certified.
@@ -543,7 +633,7 @@ func Find(ctx context.Context, m *model.Model, opts FindOptions) (*FindResult, e
 		return nil, &poly.Error{Pos: poly.Pos{File: m.File, Line: 1, Col: 1},
 			Msg: ErrNoTarget.Error() + "; name one with an \"at\" line, or certify every equilibrium found with --all"}
 	}
-	co := CertifyOptions{Q: opts.Q, Full: true, Source: opts.Source, Issued: time.Now().UTC().Format(time.RFC3339)}
+	co := CertifyOptions{Q: opts.Q, Full: true, Source: opts.Source, Exact: opts.Exact, Issued: time.Now().UTC().Format(time.RFC3339)}
 	for i := range search.Equilibria {
 		if !opts.All && i != res.Target {
 			continue

@@ -1,6 +1,7 @@
 package main
 
 import (
+	"bytes"
 	"context"
 	"errors"
 	"fmt"
@@ -30,6 +31,9 @@ type findCmd struct {
 	Plot          string   `name:"plot" placeholder:"FILE.svg|FILE.png|FILE.pdf" help:"With one free parameter: draw the bifurcation diagram (each branch against the parameter, solid where stable, dashed where not, bifurcations marked) to this file."`
 	CertifyLinear bool     `name:"certify-linear" help:"With one free parameter: for each rational branch, certify its linearisation with V = D(p)²·ξᵀP(p)ξ from the exact solution P(p) of the Lyapunov equation, re-checked by the checker, over the exact region where it holds (-o writes the certificates, CERT-k for branch k)."`
 	BoxLyapunov   bool     `name:"box-lyapunov" help:"With free parameters in closed bounded ranges (continuous time, linearization affine in them): look for one P ≻ 0 with AᵀP + PA ≺ 0 at every vertex of the parameter box, which makes the equilibrium locally asymptotically stable for every value in the box (globally for a model linear in the states); prints P, the vertices and their margins, -o writes the certificate."`
+	Exact         bool     `name:"exact" help:"At fixed parameters: certify with the exact rational solution P of the Lyapunov equation instead of the short rounded one (rational equilibria only; elsewhere the rounded P is used, with a note)."`
+	Points        int      `name:"points" placeholder:"N" default:"41" help:"With one free parameter and no closed form for the branches: sample the parameter's range at N evenly spaced values (at least 2) and find the equilibria at each (sampled, not exact between them)."`
+	Report        string   `name:"report" placeholder:"FILE.md|FILE.tex|FILE.html" help:"With free parameters: write a report of the analysis (branches, classification, bifurcations and the bifurcation diagram): Markdown or a LaTeX document with the diagram as a PNG beside it (FILE-diagram.png), or one HTML page with it inline."`
 	PlotState     string   `name:"plot-state" placeholder:"STATE" help:"Draw only this state's coordinate in --plot (default: one panel per state)."`
 	sosFlags
 	limitFlags
@@ -118,6 +122,9 @@ func (c *findCmd) find(ctx context.Context, e *env) int {
 	if free := m.FreeParams(); len(free) > 0 && c.Degree == 0 {
 		return c.symbolic(ctx, e, m, format)
 	}
+	if c.Report != "" {
+		return e.failf(exitInput, "--report %s writes the report of an analysis with free parameters, and %s has none; write the certificate with -o and its report with lyacert report CERT", c.Report, name)
+	}
 	if c.Plot != "" || c.PlotState != "" {
 		return e.failf(exitInput, "--plot draws a bifurcation diagram along one free parameter; %s has none (leave one parameter without --set)", name)
 	}
@@ -128,7 +135,7 @@ func (c *findCmd) find(ctx context.Context, e *env) int {
 	if err != nil {
 		return e.fail(exitInput, err)
 	}
-	res, err := equilibria.Find(ctx, m, equilibria.FindOptions{Q: q, All: c.All, Source: name})
+	res, err := equilibria.Find(ctx, m, equilibria.FindOptions{Q: q, All: c.All, Source: name, Exact: c.Exact})
 	if err != nil {
 		if errors.Is(err, certify.ErrUnverified) {
 			return e.fail(exitRejected, err)
@@ -180,15 +187,27 @@ func (c *findCmd) symbolic(ctx context.Context, e *env, m *model.Model, format s
 		return e.failf(exitInput, "--certify-linear works along one free parameter, and %s are free; fix all but one with --set", paramNames(free))
 	case c.All:
 		return e.failf(exitInput, "--all certifies equilibria at one parameter point; fix the free parameters (%s) with --set", paramNames(free))
+	case c.Exact:
+		return e.failf(exitInput, "--exact chooses the P of a certificate at one parameter point; fix the free parameters (%s) with --set", paramNames(free))
 	case c.Q != "identity":
 		return e.failf(exitInput, "--q sets the Lyapunov equation of a certificate; fix the free parameters (%s) with --set", paramNames(free))
 	case c.Plot != "" && len(free) != 1:
 		return e.failf(exitInput, "--plot %s draws a bifurcation diagram along one free parameter, and %s are free; fix all but one with --set", c.Plot, paramNames(free))
-	case c.PlotState != "" && c.Plot == "":
+	case c.Points < 2 || c.Points > 10001:
+		return e.failf(exitInput, "--points %d: give between 2 and 10001 grid values", c.Points)
+	case c.PlotState != "" && c.Plot == "" && c.Report == "":
 		return e.failf(exitInput, "--plot-state chooses what --plot draws; give --plot FILE too")
 	}
+	var reportFormat report.Format
+	if c.Report != "" {
+		f, err := report.ParseFormat(strings.TrimPrefix(filepath.Ext(c.Report), "."))
+		if err != nil {
+			return e.failf(exitInput, "--report %s: %w", c.Report, err)
+		}
+		reportFormat = f
+	}
 	var states []int
-	if c.Plot != "" {
+	if c.Plot != "" || c.PlotState != "" {
 		s, err := report.DiagramStates(m, c.PlotState)
 		if err != nil {
 			return e.failf(exitInput, "--plot-state: %w", err)
@@ -205,10 +224,33 @@ func (c *findCmd) symbolic(ctx context.Context, e *env, m *model.Model, format s
 			return e.fail(exitInput, err)
 		}
 	}
+	var sampled *equilibria.Sampling
+	if !an.ClosedForm && len(free) == 1 {
+		// No closed form: fall back to the equilibria on a grid of the
+		// parameter, each grid value as find --set would do it.
+		sampled, err = equilibria.Sample(ctx, m, equilibria.SampleOptions{Points: c.Points})
+		if err != nil {
+			return e.fail(exitInput, err)
+		}
+	}
 	if c.JSON {
-		writeJSON(e.stdout, report.BranchesJSON(m, an, certs))
-	} else if err := report.BranchesText(e.stdout, m, an, certs); err != nil {
+		out := report.BranchesJSON(m, an, certs)
+		if sampled != nil {
+			out.Samples = report.SamplesJSON(m, sampled)
+		}
+		writeJSON(e.stdout, out)
+	} else if err := report.BranchesSampledText(e.stdout, m, an, certs, sampled); err != nil {
 		return e.fail(exitInput, err)
+	}
+	if c.Report != "" {
+		var buf bytes.Buffer
+		opts := report.AnalysisOptions{Format: reportFormat, WholeDocument: true, Tool: checkerName(), Figure: figureBeside(c.Report), States: states}
+		if err := report.RenderAnalysis(&buf, m, an, sampled, opts); err != nil {
+			return e.failf(exitFails, "--report %s: %w", c.Report, err)
+		}
+		if err := certificates.WriteFileAtomic(c.Report, buf.Bytes(), 0o644); err != nil {
+			return e.failf(exitInput, "writing the report: %w", err)
+		}
 	}
 	if !an.ClosedForm {
 		if c.Plot != "" {

@@ -20,7 +20,7 @@ import (
 
 var (
 	update         = flag.Bool("update", false, "rewrite testdata/hostile/models.golden")
-	hostileTimeout = flag.Duration("hostile.timeout", time.Second, "time allowed to each hostile model (a hang guard, not a speed target)")
+	hostileTimeout = flag.Duration("hostile.timeout", 10*time.Second, "time allowed to each hostile model (a hang guard against minutes-long runs, not a speed target: generous, so that a loaded machine does not fail it)")
 )
 
 // hostileMemory bounds the heap a hostile model may make the reader take

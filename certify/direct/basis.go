@@ -133,8 +133,11 @@ func (res *Result) tryBasis(ctx context.Context, opts PaveOptions) *Result {
 	higher := []bool{!res.HigherV.IsZero(), !res.HigherD.IsZero()}
 	for i, f := range res.Forms {
 		if !higher[i] {
-			if f.LDL.Semidefinite() {
+			if f.LDL.Semidefinite() && (i == 0 || res.Invariance == nil) {
 				return nil
+			}
+			if f.LDL.Semidefinite() { // −V̇ exactly quadratic and ≥ 0, settled by the invariance principle
+				semi, nr.Kernel = true, res.Kernel
 			}
 			nr.Forms = append(nr.Forms, f)
 			nr.Methods = append(nr.Methods, Method{Form: f.Name, Name: MethodQuadratic, Basis: len(f.Gram)})

@@ -239,6 +239,8 @@ func runCheck(ctx context.Context, m *model.Model, source string, opts PaveOptio
 		}
 		how := "the Gram matrices of the whole functions in monomial bases give the global claim"
 		switch {
+		case up.Invariance != nil && up.Forms[1].Basis == nil:
+			how = "the Gram matrix of V as a whole makes it radially unbounded, and the invariance principle gives global asymptotic stability"
 		case up.Invariance != nil:
 			how = "the Gram matrix of −V̇ as a whole shows V̇ ≤ 0 everywhere, and the invariance principle gives the asymptotic claim"
 		case up.Claim == checker.KindStable:

@@ -49,6 +49,12 @@ func (c *run) invariance(cl Claim) bool {
 		return false
 	}
 	n := len(c.m.States)
+	// Each derivative along the flow multiplies terms and degrees: bounded
+	// by the reading limits before it is computed.
+	lim, fTerms, fDeg := poly.DefaultLimits(), 0, 0
+	for _, f := range c.m.F {
+		fTerms, fDeg = fTerms+f.Num.NumTerms(), max(fDeg, f.Num.Degree())
+	}
 	var gens []poly.RatFunc
 	for j, t := range iv.Lie {
 		if !c.add("invariance", t.Square >= 1 && t.Square <= len(f.z) && !f.zero[t.Square-1] && t.Order >= 0 && t.Order <= n,
@@ -57,6 +63,10 @@ func (c *run) invariance(cl Claim) bool {
 		}
 		h := poly.SquareBase(f.l, f.z, t.Square-1)
 		for range t.Order {
+			if !c.add("invariance", h.Num.NumTerms()*fTerms <= lim.Terms && h.Num.Degree()+fDeg <= lim.Degree,
+				"generator %d stays within the limits terms=%d and degree=%d", j+1, lim.Terms, lim.Degree) {
+				return false
+			}
 			h = c.m.Derivative(h)
 		}
 		gens = append(gens, h)

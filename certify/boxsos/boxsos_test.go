@@ -54,6 +54,10 @@ func TestFind(t *testing.T) {
 		// −V̇ = 2x² − 2(p − 1)xy + 2y²: Sylvester's criterion (common
 		// practice) gives 4 − (p − 1)² > 0 for p ∈ [0, 2] (computed by hand).
 		{"boxcross.lya", "cross term in p"},
+		// −V̇ = 2x² + 2c·x⁴ − 2(p − 1)xy + 2y² ≥ its quadratic part for
+		// c ≥ 0, definite as above (computed by hand): two multipliers,
+		// a quartic term.
+		{"boxquartic.lya", "two parameters, quartic"},
 	} {
 		t.Run(c.file, func(t *testing.T) {
 			doc, err := certify(t, c.file)

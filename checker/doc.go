@@ -22,6 +22,9 @@
 //	margin-gram-ldl      zᵀGz equals the whole function less Σ εᵢxᵢ^(2kᵢ), εᵢ > 0, every
 //	                     state: G ⪰ 0 (zero pivots allowed) ⇒ positive definite and
 //	                     radially unbounded (the margin, not G, makes it definite)
+//	box-multiplier-sos   −V̇ − Σ εᵢxᵢ^(2kᵢ) = σ₀ + Σ σᵢ·(pᵢ − loᵢ)(hiᵢ − pᵢ), σ = zᵀGz, G ⪰ 0
+//	                     by exact LDLᵀ, z monomials in states and parameters: −V̇
+//	                     definite on the closed parameter box (S-procedure)
 //	minor-condition      a minor's factorization as an identity; factor signs by
 //	                     exact interval enclosure over the parameter box (Moore 1966)
 //	semidefinite-kernel  the kernel of a semidefinite −V̇: independent vectors with

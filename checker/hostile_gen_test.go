@@ -5,6 +5,7 @@ import (
 	"crypto/ed25519"
 	"encoding/base64"
 	"flag"
+	"math/big"
 	"os"
 	"path/filepath"
 	"slices"
@@ -14,6 +15,7 @@ import (
 
 	"github.com/lyacert/lyacert/certificates"
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/poly"
 )
 
 var writeHostile = flag.Bool("hostile.write", false, "rewrite the files of testdata/hostile/certificates from testdata/certificates")
@@ -342,6 +344,46 @@ func hostileFiles(t *testing.T) map[string][]byte {
 				mc := claimOf[*checker.MinorCondition](t, d, 2+k)
 				mc.Minor, mc.Constant = m, m
 			}
+		}),
+		// Box multipliers: a changed Gram entry of σ₀, the box widened to
+		// p ∈ [0, 4] (where V fails at p = 4) in the model and its restated
+		// parameters, a negative margin, an unbounded range.
+		"forged-box-gram.json": edit(t, "box-multiplier.json", func(d *checker.Document) {
+			// Refactored exactly, so that only the identity can catch it.
+			tm := &claimOf[*checker.BoxMultiplier](t, d, 0).Terms[0]
+			tm.Gram[0][0] = "2"
+			g := make([][]*big.Rat, len(tm.Gram))
+			for i, row := range tm.Gram {
+				for _, e := range row {
+					q, _ := new(big.Rat).SetString(e)
+					g[i] = append(g[i], q)
+				}
+			}
+			l, dd, ok, _ := poly.RatLDL(g)
+			if !ok {
+				t.Fatal("the changed Gram matrix does not factor")
+			}
+			for i := range l {
+				tm.D[i] = dd[i].RatString()
+				for j := range l[i] {
+					tm.L[i][j] = l[i][j].RatString()
+				}
+			}
+		}),
+		"forged-box-widened.json": edit(t, "box-multiplier.json", func(d *checker.Document) {
+			d.Model = strings.Replace(d.Model, "p in [0, 2]", "p in [0, 4]", 1)
+			d.Parameters[0].Range = "in [0, 4]"
+		}),
+		"forged-box-negative-epsilon.json": edit(t, "box-multiplier.json", func(d *checker.Document) {
+			claimOf[*checker.BoxMultiplier](t, d, 0).Margin = "-1/4*x^2 - 1/4*y^2"
+		}),
+		"forged-box-negative-pivot.json": edit(t, "box-multiplier.json", func(d *checker.Document) {
+			tm := &claimOf[*checker.BoxMultiplier](t, d, 0).Terms[1]
+			tm.D[0] = "-" + tm.D[0]
+		}),
+		"forged-box-unbounded.json": edit(t, "box-multiplier.json", func(d *checker.Document) {
+			d.Model = strings.Replace(d.Model, "p in [0, 2]", "p > 0", 1)
+			d.Parameters[0].Range = "> 0"
 		}),
 		// Moment separations: the moment matrix not ⪰ 0 (the z⁶ moment
 		// made negative, everything else consistent), a value L(p) that

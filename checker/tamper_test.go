@@ -258,7 +258,7 @@ func TestClaimEditsRejected(t *testing.T) {
 
 var ruleNames = []string{"orbital-derivative", "quadratic-part-ldl", "monomial-gram-ldl", "minor-condition",
 	"semidefinite-kernel", "sturm-region", "paving", "witness-points", "refutation", "krawczyk-enclosure", "linearization", "sublevel-basin",
-	"margin-gram-ldl", "moment-separation"}
+	"margin-gram-ldl", "moment-separation", "box-multiplier-sos"}
 
 func mustRead(t *testing.T, raw []byte) *checker.Document {
 	t.Helper()

@@ -78,6 +78,7 @@ func ruleTable() []rule {
 		{"quadratic-part-ldl", 1, func() Claim { return new(QuadraticPart) }, (*run).quadraticPart},
 		{"monomial-gram-ldl", 1, func() Claim { return new(MonomialGram) }, (*run).monomialGram},
 		{"margin-gram-ldl", 1, func() Claim { return new(MarginGram) }, (*run).marginGram},
+		{"box-multiplier-sos", 1, func() Claim { return new(BoxMultiplier) }, (*run).boxMultiplier},
 		{"minor-condition", 2, func() Claim { return new(MinorCondition) }, (*run).minorCondition},
 		{"semidefinite-kernel", 3, func() Claim { return new(NullSpace) }, (*run).nullSpace},
 		{"invariance", 3, func() Claim { return new(Invariance) }, (*run).invariance},

@@ -193,3 +193,39 @@ func dominant(a [][]*big.Rat) bool {
 	}
 	return true
 }
+
+// UnitLower reports that l is unit lower triangular and that the column of
+// l below every index k with zero[k] vanishes. With d ≥ 0 and dₖ = 0 exactly
+// where zero[k], L·diag(d)·Lᵀ = Σₖ dₖ·lₖlₖᵀ is then positive semidefinite
+// (a sum of non-negative multiples of rank-one squares), and the zero
+// columns keep the factorization the one Lagrange's completing of squares
+// gives, so that a claimed LDLᵀ cannot hide a negative direction.
+func (l Matrix) UnitLower(zero []bool) bool {
+	for i := range l {
+		if len(l[i]) != len(l) || len(zero) != len(l) {
+			return false
+		}
+		for j := range l[i] {
+			switch {
+			case j == i && !l[i][j].IsOne(), j > i && !l[i][j].IsZero(), j < i && zero[j] && !l[i][j].IsZero():
+				return false
+			}
+		}
+	}
+	return true
+}
+
+// Bilinear returns g·zᵀGz for monomials (or any polynomials) z in every
+// variable of the ring, states and parameters alike, and a constant
+// Gram matrix G: the term of a multiplier identity Σₖ gₖ·zₖᵀGₖzₖ.
+func Bilinear(g *Poly, gram [][]*big.Rat, z []*Poly) *Poly {
+	sum := Zero(g.Ring())
+	for i := range gram {
+		for j := range gram[i] {
+			if gram[i][j].Sign() != 0 {
+				sum = new(Poly).Add(sum, new(Poly).Scale(new(Poly).Mul(z[i], z[j]), gram[i][j]))
+			}
+		}
+	}
+	return new(Poly).Mul(sum, g)
+}

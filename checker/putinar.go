@@ -1,0 +1,113 @@
+package checker
+
+import (
+	"fmt"
+	"math/big"
+
+	"github.com/lyacert/lyacert/poly"
+)
+
+// BoxMultiplier proves −V̇ positive definite for every parameter value in
+// the box of the model's ranges at once: −V̇ − Margin = σ₀ + Σᵢ σᵢ·(pᵢ −
+// loᵢ)(hiᵢ − pᵢ), with every σ = zᵀGz, z monomials in the states and the
+// parameters, G = L·D·Lᵀ rational with D ≥ 0. Terms[0] is σ₀ (Parameter
+// ""); each further term names the parameter pᵢ of its multiplier.
+type BoxMultiplier struct {
+	Margin string       `json:"margin"`
+	Terms  []Multiplied `json:"terms"`
+}
+
+// Multiplied is one sum of squares of a multiplier identity.
+type Multiplied struct {
+	Parameter string     `json:"parameter"`
+	Basis     []string   `json:"basis"`
+	Gram      [][]string `json:"gram"`
+	L         [][]string `json:"l"`
+	D         []string   `json:"d"`
+}
+
+func (*BoxMultiplier) Rule() string { return "box-multiplier-sos" }
+
+// boxMultiplier: the S-procedure on a box (a Positivstellensatz certificate
+// in Putinar's form, Putinar 1993). On the box every gᵢ = (pᵢ − loᵢ)(hiᵢ −
+// pᵢ) is ≥ 0, as a product of two numbers ≥ 0, and every σ = Σₖ dₖ·qₖ² is
+// ≥ 0 everywhere; so the exact identity gives −V̇ ≥ Margin there, and the
+// margin Σ εⱼ·xⱼ^(2kⱼ) with every εⱼ > 0 and every state present is > 0
+// away from the equilibrium. The identity is one of polynomials in the
+// states and all parameters, so a parameter without a multiplier may take
+// any value. −V̇ then needs no minors and no conditions: the form of V
+// alone decides the rest (conclude).
+func (c *run) boxMultiplier(cl Claim) bool {
+	bm := cl.(*BoxMultiplier)
+	whole, ok := c.shifted("-Vdot")
+	if !ok {
+		return false
+	}
+	const name = "box -Vdot"
+	m, ok := c.parse(name, bm.Margin)
+	if !ok || !c.add(name, whole.IsPoly(), "−V̇ is a polynomial in the states and the parameters") ||
+		!c.add(name, m.IsPoly() && m.Num.EvenPowers(len(c.m.States)), "the margin is Σ εᵢ·xᵢ^(2kᵢ), rational εᵢ > 0, kᵢ ≥ 1, a term for every state") ||
+		!c.add(name, len(bm.Terms) >= 1 && len(bm.Terms) <= 1+len(c.m.Params) && bm.Terms[0].Parameter == "", "σ₀ first, then at most one multiplier per parameter") {
+		return false
+	}
+	sum, seen := poly.Zero(c.r), map[string]bool{}
+	for k := range bm.Terms {
+		t := &bm.Terms[k]
+		what := fmt.Sprintf("%s σ%d", name, k)
+		g, ok := c.boxFactor(what, t.Parameter, k == 0 || !seen[t.Parameter])
+		seen[t.Parameter] = true
+		if !ok || !c.add(what, len(t.Basis) >= 1 && len(t.Basis) <= maxBasis, "a basis of 1 to %d monomials", maxBasis) {
+			return false
+		}
+		z, distinct := make([]*poly.Poly, len(t.Basis)), map[string]bool{}
+		for i, s := range t.Basis {
+			b, ok := c.parse(what, s)
+			if !ok || !c.add(what, b.IsPoly() && b.Num.IsMonomial() && b.Num.Lead().Coef.Cmp(big.NewRat(1, 1)) == 0 && !distinct[b.Num.String()],
+				"basis element %s is a new monomial with coefficient 1", s) {
+				return false
+			}
+			distinct[b.Num.String()], z[i] = true, b.Num
+		}
+		gm, ok1 := c.matrix(what, t.Gram, len(z), "the Gram matrix")
+		l, ok2 := c.matrix(what, t.L, len(z), "L")
+		d, ok3 := c.list(what, t.D, len(z), "pivots")
+		if !ok1 || !ok2 || !ok3 {
+			return false
+		}
+		gc, ok1 := gm.Consts()
+		_, ok2 = l.Consts()
+		dc, ok3 := poly.Matrix{d}.Consts()
+		zero := make([]bool, len(z))
+		for i := 0; ok3 && i < len(z); i++ {
+			ok3, zero[i] = dc[0][i].Sign() >= 0, dc[0][i].Sign() == 0
+		}
+		if !c.add(what, ok1 && ok2 && ok3, "G, L and D are rational numbers, D ≥ 0") ||
+			!c.add(what, l.UnitLower(zero), "L is unit lower triangular, with a zero column below every zero pivot") ||
+			!c.add(what, gm.EqualLDL(l, d), "L·D·Lᵀ reproduces G exactly, so G ⪰ 0") {
+			return false
+		}
+		sum.Add(sum, poly.Bilinear(g, gc, z))
+	}
+	if !c.add(name, sum.Equal(new(poly.Poly).Sub(whole.Num, m.Num)), "σ₀ + Σ σᵢ·(pᵢ − loᵢ)(hiᵢ − pᵢ) equals −V̇ less the margin exactly") {
+		return false
+	}
+	c.forms["-Vdot"] = &checkedForm{basis: true} // definite on the box by the margin; no minors
+	return true
+}
+
+// boxFactor returns 1 for σ₀, else (p − lo)(hi − p) for a free parameter
+// p named once, whose range is the closed bounded interval [lo, hi].
+func (c *run) boxFactor(what, name string, first bool) (*poly.Poly, bool) {
+	if name == "" {
+		return poly.ConstInt(c.r, 1), c.add(what, first, "σ₀, without a multiplier, once")
+	}
+	p, ok := c.m.Param(name)
+	i, isVar := c.r.Index(name)
+	lo, hi := p.Range.Lo, p.Range.Hi
+	if !c.add(what, first && ok && isVar && p.Fixed == nil && lo.Inf == 0 && hi.Inf == 0 && !lo.Open && !hi.Open,
+		"%s is a free parameter named once, whose range is closed and bounded", name) {
+		return nil, false
+	}
+	x := poly.Var(c.r, i)
+	return new(poly.Poly).Mul(new(poly.Poly).Sub(x, poly.Const(c.r, lo.Value)), new(poly.Poly).Sub(poly.Const(c.r, hi.Value), x)), true
+}

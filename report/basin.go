@@ -34,16 +34,16 @@ type BasinOutput struct {
 	Counterexample *CounterexampleJS `json:"counterexample"`
 	// Parameters, with free parameters, are their ranges: c_lo holds for
 	// every parameter value in the box (HoldsFor says so in words).
-	Parameters []ParamRangeJS `json:"parameters,omitempty"`
-	HoldsFor   string         `json:"holds_for,omitempty"`
-	Method         string            `json:"method"`
-	Note           string            `json:"note"`
-	Boxes          int               `json:"boxes"`
-	Verdict        string            `json:"verdict"` // the direct method's, as the kernel derives it
-	Claim          string            `json:"claim"`
-	Digest         string            `json:"digest"`
-	Checks         int               `json:"checks_passed"`
-	Certificate    string            `json:"certificate"`
+	Parameters  []ParamRangeJS `json:"parameters,omitempty"`
+	HoldsFor    string         `json:"holds_for,omitempty"`
+	Method      string         `json:"method"`
+	Note        string         `json:"note"`
+	Boxes       int            `json:"boxes"`
+	Verdict     string         `json:"verdict"` // the direct method's, as the kernel derives it
+	Claim       string         `json:"claim"`
+	Digest      string         `json:"digest"`
+	Checks      int            `json:"checks_passed"`
+	Certificate string         `json:"certificate"`
 	// Improve is set by basin --improve: the search over quadratic V.
 	Improve *ImproveJS `json:"improve,omitempty"`
 }
@@ -69,8 +69,8 @@ type CounterexampleJS struct {
 	Point map[string]string `json:"point"`
 	// Params is the parameter value at which V̇ ≥ 0 holds at Point.
 	Params map[string]string `json:"parameters,omitempty"`
-	V     string            `json:"V"`
-	Vdot  string            `json:"vdot"`
+	V      string            `json:"V"`
+	Vdot   string            `json:"vdot"`
 }
 
 // ParamRangeJS is a free parameter's closed range [lo, hi], exact.

@@ -46,9 +46,9 @@ type Result struct {
 	Params        []string
 	ParamBox      []poly.Interval
 	CounterParams []*big.Rat
-	Claim          *checker.SublevelBasin
-	Doc            *checker.Document
-	Check          checker.Outcome
+	Claim         *checker.SublevelBasin
+	Doc           *checker.Document
+	Check         checker.Outcome
 	// Boxes counts the tree's leaves: Inside where V̇ < 0 was proven,
 	// Outside where V > Level; NearTests the boxes at the equilibrium on
 	// which the quadratic bound was tried.

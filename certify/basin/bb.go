@@ -37,7 +37,7 @@ func (q *queue) Pop() any {
 
 // paver is one branch and bound over the box sides.
 type paver struct {
-	n       int             // the states; the sides after them are parameters
+	n       int // the states; the sides after them are parameters
 	sides   []poly.Interval
 	at      []*big.Rat
 	atf     []float64

@@ -8,12 +8,14 @@ import (
 	"github.com/lyacert/lyacert/poly"
 )
 
-// SublevelBasin claims that every state of the connected component of
-// {V ≤ Level} around the equilibrium tends to the equilibrium. The box of
-// the states (sides [Lo[i], Hi[i]], canonical rationals) is bisected like a
-// Paving's (Resolution, Tree; codes S, I, O, no U): on an O box V > Level
-// throughout, on an I box V̇ < 0 except at the equilibrium; every box that
-// touches the box's boundary is an O box.
+// SublevelBasin claims that, for every value p of the free parameters in
+// their ranges, every state of the connected component of {V(·, p) ≤ Level}
+// around the equilibrium tends to the equilibrium. The box of the states
+// (sides [Lo[i], Hi[i]], canonical rationals) times the box of the free
+// parameters (their ranges, which must be closed and bounded) is bisected
+// like a Paving's (Resolution, Tree; codes S, I, O, no U): on an O box
+// V > Level throughout, on an I box V̇ < 0 except at the equilibrium; every
+// box that touches a face of the state box is an O box.
 type SublevelBasin struct {
 	Level      string   `json:"level"`
 	Lo         []string `json:"lo"`
@@ -35,15 +37,19 @@ func (*SublevelBasin) Rule() string { return "sublevel-basin" }
 // cannot leave it: V does not grow on it, and a continuous path that stays in
 // {V ≤ c} stays in one component. Solutions in K therefore exist for all
 // time and tend to the largest invariant set in {V̇ = 0} ∩ K, which is {x*}.
-// An I box is proven by the centred form of −V̇ > 0 on it, or by
-// −V̇ = yᵀ(G + M(y))y (y = x − x*) with every matrix of G + Enclose(M) on the
-// box positive definite (poly.PositiveNearZero).
+// With free parameters the argument runs for each value p in their box Q on
+// its own: the leaves whose parameter sides hold p cover the state box, so
+// the claims of those leaves are the claims above for V(·, p), with the
+// equilibrium and the level the same for every p. An I box is proven by the
+// centred form of −V̇ > 0 on it, or by −V̇ = yᵀ(G(p) + M(y, p))y
+// (y = x − x*) with every matrix of Enclose(G) + Enclose(M) on the box
+// positive definite (poly.PositiveNearZero).
 func (c *run) sublevelBasin(cl Claim) bool {
 	b := cl.(*SublevelBasin)
 	n := len(c.m.States)
 	const what = "sublevel-basin"
-	if !c.once(what) || !c.add(what, c.derived && !c.m.Discrete && c.r.NumVars() == n && c.v.IsPoly() && c.vdot.IsPoly(),
-		"follows V̇ in continuous time, V and V̇ polynomials with every parameter fixed") {
+	if !c.once(what) || !c.add(what, c.derived && !c.m.Discrete && c.v.IsPoly() && c.vdot.IsPoly(),
+		"follows V̇ in continuous time, V and V̇ polynomials") {
 		return false
 	}
 	level, ok := parseRat(b.Level)
@@ -58,7 +64,7 @@ func (c *run) sublevelBasin(cl Claim) bool {
 	if !c.add(what, err == nil, "the box is well formed and holds the equilibrium inside%s", errSuffix(err)) {
 		return false
 	}
-	vars := make([]int, n)
+	vars := make([]int, len(sides))
 	for i := range vars {
 		vars[i] = i
 	}
@@ -69,7 +75,7 @@ func (c *run) sublevelBasin(cl Claim) bool {
 	}
 	near := c.m.Shift(c.vdot).Neg().Num // −V̇ at x* + y, in y
 	count := 0
-	err = walkPaving(b.Tree, n, res, func(code byte, g poly.DyadicBox) error {
+	err = walkPaving(b.Tree, len(sides), res, func(code byte, g poly.DyadicBox) error {
 		fs := walk.At(g)
 		if count++; count%4096 == 0 && c.ctx.Err() != nil {
 			return c.ctx.Err()
@@ -86,14 +92,14 @@ func (c *run) sublevelBasin(cl Claim) bool {
 		default:
 			return fmt.Errorf("box %d has the code %q, not S, I or O", count, code)
 		}
-		if g.OnEdge() {
+		if g.OnEdgeFirst(n) {
 			return fmt.Errorf("an I box at depth %d touches the boundary", g.Depth())
 		}
 		if fs[1].PositiveOn(poly.OpenFaces{}) {
 			return nil
 		}
 		y := g.Sides(sides)
-		for i := range y {
+		for i := range at {
 			y[i] = y[i].Sub(poly.Point(at[i]))
 		}
 		if !near.PositiveNearZero(y) {
@@ -108,15 +114,16 @@ func (c *run) sublevelBasin(cl Claim) bool {
 	return true
 }
 
-// basinBox reads the box of a basin claim and the equilibrium, which must
-// be a rational point inside it where V is below the level.
+// basinBox reads the box of a basin claim, followed by the free
+// parameters' ranges, and the equilibrium, which must be a rational point
+// inside it, the same for every parameter value, where V is below the level.
 func (c *run) basinBox(b *SublevelBasin) ([]poly.Interval, []*big.Rat, error) {
 	n := len(c.m.States)
 	if len(b.Lo) != n || len(b.Hi) != n {
 		return nil, nil, fmt.Errorf("%d and %d sides for %d states", len(b.Lo), len(b.Hi), n)
 	}
 	sides := make([]poly.Interval, n)
-	at := make([]*big.Rat, n)
+	at, pt := make([]*big.Rat, n), make([]poly.Interval, n)
 	for i := range n {
 		lo, ok1 := parseRat(b.Lo[i])
 		hi, ok2 := parseRat(b.Hi[i])
@@ -125,12 +132,19 @@ func (c *run) basinBox(b *SublevelBasin) ([]poly.Interval, []*big.Rat, error) {
 			return nil, nil, fmt.Errorf("side %d is not two canonical rationals", i+1)
 		}
 		at[i] = a.Num.ConstTerm()
+		pt[i] = poly.Point(at[i])
 		if lo.Cmp(at[i]) >= 0 || at[i].Cmp(hi) >= 0 {
 			return nil, nil, fmt.Errorf("the equilibrium is not inside side %d", i+1)
 		}
 		sides[i] = poly.Closed(lo, hi)
 	}
-	if level, _ := parseRat(b.Level); c.v.Num.Eval(at).Cmp(level) >= 0 {
+	for i, s := range c.m.Box()[n:] {
+		if !s.Compact() {
+			return nil, nil, fmt.Errorf("the range of parameter %s is not closed and bounded", c.r.Name(n+i))
+		}
+		sides = append(sides, s)
+	}
+	if level, _ := parseRat(b.Level); c.v.Num.Enclose(append(pt, sides[n:]...)).Hi.Value.Cmp(level) >= 0 {
 		return nil, nil, errors.New("V at the equilibrium is not below the level")
 	}
 	return sides, at, nil

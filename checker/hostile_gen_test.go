@@ -240,6 +240,22 @@ func hostileFiles(t *testing.T) map[string][]byte {
 				claimOf[*checker.SublevelBasin](t, d, 0),
 			}
 		}),
+		// The ring with its radius a ∈ [1, 2] (V̇ = 2V(V − a)): one level for
+		// every a is at best 1, the smallest a; the certificate states a
+		// level near 0.99.
+		"forged-basin-box-level-above-one.json": edit(t, "basin-ringbox.json", func(d *checker.Document) {
+			claimOf[*checker.SublevelBasin](t, d, 0).Level = "11/10"
+		}),
+		// The same tree over a ∈ [1/2, 2], the direct method's claims
+		// restated for the wider range (they hold there): at a = 1/2 the
+		// circles V = c > 1/2 grow, so the level near 0.99 must fail.
+		"forged-basin-box-range-widened.json": edit(t, "basin-ringbox.json", func(d *checker.Document) {
+			widen(t, d, "in [1/2, 2]", checker.Interval{Lo: "1/2", Hi: "2", LoClosed: true, HiClosed: true})
+		}),
+		// An open end leaves no closed box to bisect.
+		"forged-basin-box-range-open.json": edit(t, "basin-ringbox.json", func(d *checker.Document) {
+			widen(t, d, "in (1, 2]", checker.Interval{Lo: "1", Hi: "2", HiClosed: true})
+		}),
 		"forged-region-piece-holds.json": edit(t, "lorenz.json", func(d *checker.Document) {
 			rg := claimOf[*checker.SturmRegion](t, d, 0)
 			rg.Pieces[2].Holds = true
@@ -624,4 +640,18 @@ func generatedCertificates(t *testing.T) []hostileInput {
 			}
 		}))},
 	}
+}
+
+// widen restates the range of the parameter a of the ring with a radius
+// (basin-ringbox.json) in the model, the parameters and the region.
+func widen(t *testing.T, d *checker.Document, rng string, iv checker.Interval) {
+	t.Helper()
+	if !strings.Contains(d.Model, "in [1, 2]") {
+		t.Fatal("the ring's model has no range [1, 2]")
+	}
+	d.Model = strings.Replace(d.Model, "in [1, 2]", rng, 1)
+	d.Parameters[0].Range = rng
+	rg := claimOf[*checker.SturmRegion](t, d, 0)
+	rg.Intervals = []checker.Interval{iv}
+	rg.Pieces[0].Interval = iv
 }

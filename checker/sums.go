@@ -126,9 +126,26 @@ func (c *run) momentSeparation(cl Claim) bool {
 	for k := 0; ok && k < len(z); k++ {
 		ok = dc[0][k].Sign() >= 0
 	}
+	// L unit lower triangular with a zero column below each zero pivot, and
+	// the functional supported on products of the basis: every stated
+	// number then matters.
+	prods := map[string]bool{}
+	for a := range z {
+		for b := range z {
+			prods[new(poly.Poly).Mul(z[a], z[b]).String()] = true
+		}
+	}
+	for i := 0; ok && i < len(z); i++ {
+		for j := range z {
+			ok = ok && (j > i && l[i][j].IsZero() || j == i && l[i][j].IsOne() || j < i && (dc[0][j].Sign() != 0 || l[i][j].IsZero()))
+		}
+	}
+	for _, t := range y.Num.Terms() {
+		ok = ok && prods[poly.Monomial(c.r, t.Exp, big.NewRat(1, 1)).String()]
+	}
 	v, okv := parseRat(ns.Value)
 	value := poly.Pairing(p.Num, y.Num)
-	if !c.add(name, ok, "the pivots are rational numbers ≥ 0") ||
+	if !c.add(name, ok, "the pivots are rational numbers ≥ 0, L is unit lower triangular with zero columns below zero pivots, and the moments lie on products of the basis") ||
 		!c.add(name, mom.EqualLDL(l, d), "L·diag(D)·Lᵀ reproduces the moment matrix exactly, so it is ⪰ 0") ||
 		!c.add(name, okv && v.Cmp(value) == 0 && v.Sign() < 0, "L(%s) = %s < 0: no Gram matrix G ⪰ 0 in this basis", ns.Of, value.RatString()) {
 		return false

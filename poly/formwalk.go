@@ -49,8 +49,13 @@ func (w *FormWalk) At(g DyadicBox) []*CenteredForm {
 }
 
 // OnEdge reports whether g touches the boundary of the bisected box.
-func (g DyadicBox) OnEdge() bool {
-	for i, a := range g.A {
+func (g DyadicBox) OnEdge() bool { return g.OnEdgeFirst(len(g.A)) }
+
+// OnEdgeFirst reports whether g touches a face of the bisected box across
+// one of the first k coordinates (the states, when the box also spans
+// parameters that follow them).
+func (g DyadicBox) OnEdgeFirst(k int) bool {
+	for i, a := range g.A[:k] {
 		if a == 0 || a == int64(1)<<g.K[i]-1 {
 			return true
 		}

@@ -443,6 +443,12 @@ func (x Interval) Width() (*big.Rat, bool) {
 	return SubRat(new(big.Rat), x.Hi.Value, x.Lo.Value), true
 }
 
+// Compact reports whether x is [lo, hi] with both ends finite and closed
+// and lo < hi: a side a bisection can halve that holds its own ends.
+func (x Interval) Compact() bool {
+	return ivClosedAt(x.Lo) && ivClosedAt(x.Hi) && x.Lo.Value.Cmp(x.Hi.Value) < 0
+}
+
 // Mid returns (lo + hi)/2. It panics if x is unbounded.
 func (x Interval) Mid() *big.Rat {
 	if x.Lo.Inf != 0 || x.Hi.Inf != 0 {

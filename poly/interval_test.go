@@ -647,3 +647,23 @@ func TestIntervalContainmentProperty(t *testing.T) {
 		}
 	}
 }
+
+// Compact: closed, bounded and wider than a point (common practice).
+func TestIntervalCompact(t *testing.T) {
+	one, two := big.NewRat(1, 1), big.NewRat(2, 1)
+	cases := []struct {
+		x    Interval
+		want bool
+	}{
+		{Closed(one, two), true},
+		{Point(one), false},
+		{Interval{Lo: Bound{Value: one}, Hi: Bound{Value: two, Open: true}}, false},
+		{Interval{Lo: Bound{Value: one}, Hi: ivPosInf}, false},
+		{Entire(), false},
+	}
+	for _, c := range cases {
+		if got := c.x.Compact(); got != c.want {
+			t.Errorf("%v: %v, want %v", c.x, got, c.want)
+		}
+	}
+}

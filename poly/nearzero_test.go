@@ -106,4 +106,52 @@ func TestFormWalkMatchesFreshForms(t *testing.T) {
 	if g := (DyadicBox{A: []int64{1, 2}, K: []int{2, 2}}); g.OnEdge() {
 		t.Error("an inner box is on the edge")
 	}
+	// Only the first k coordinates count: a box inside across x but on the
+	// lower face across the third coordinate (common practice).
+	g := DyadicBox{A: []int64{1, 2, 0}, K: []int{2, 2, 2}}
+	if !g.OnEdge() || g.OnEdgeFirst(2) || !g.OnEdgeFirst(3) {
+		t.Errorf("%v: on the edge %v, across the first two %v, across all three %v", g, g.OnEdge(), g.OnEdgeFirst(2), g.OnEdgeFirst(3))
+	}
+}
+
+// With a parameter a in the coefficients: a·x² + a·y² + x³ = x²(a + x) + a·y²
+// is > 0 but at y = 0 exactly where a > 0 and a + x > 0 (common practice:
+// factor by hand), so it is proven for a ∈ [1, 2] on [−1/2, 1/2]², and not
+// for a ∈ [1/4, 2], where a = 1/4, x = −1/2 gives −1/16.
+func TestPositiveNearZeroParameters(t *testing.T) {
+	r := NewRing([]string{"x", "y"}, []string{"a"})
+	p := MustParse(r, "a*x^2 + a*y^2 + x^3").Num
+	cases := []struct {
+		a    Interval
+		want bool
+	}{
+		{Closed(big.NewRat(1, 1), big.NewRat(2, 1)), true},
+		{Closed(big.NewRat(1, 4), big.NewRat(2, 1)), false},
+		{Closed(big.NewRat(-1, 1), big.NewRat(2, 1)), false},
+	}
+	for _, c := range cases {
+		if got := p.PositiveNearZero(append(halfBox(-1, 1), c.a)); got != c.want {
+			t.Errorf("a ∈ %v: %v, want %v", c.a, got, c.want)
+		}
+	}
+	if _, _, ok := QuadraticCofactors(p); ok {
+		t.Error("QuadraticCofactors accepts a polynomial with a parameter")
+	}
+	g, m, ok := QuadraticParts(p)
+	if !ok {
+		t.Fatal("QuadraticParts refuses a·x² + a·y² + x³")
+	}
+	sum := Zero(r)
+	for i := range 2 {
+		for j := range 2 {
+			e := new(Poly).Mul(Var(r, i), Var(r, j))
+			sum.Add(sum, new(Poly).Mul(e, new(Poly).Add(g[i][j], m[i][j])))
+		}
+	}
+	if !sum.Equal(p) {
+		t.Errorf("yᵀ(G + M)y = %s, want %s", sum, p)
+	}
+	if _, _, ok := QuadraticParts(MustParse(r, "x^2 + a*y").Num); ok {
+		t.Error("QuadraticParts accepts a term linear in the states")
+	}
 }

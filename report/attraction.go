@@ -69,6 +69,9 @@ func (b *builder) attractionOf(res checker.Outcome) (*attractionView, error) {
 		ends = append(ends, []*big.Rat{lo, hi})
 		sides = append(sides, relation{name{s}, symIn, interval{lo: ratNode(lo), hi: ratNode(hi), loClosed: true, hiClosed: true}})
 	}
+	for _, p := range m.FreeParams() { // closed and bounded: the kernel accepted the claim
+		sides = append(sides, relation{name{p.Name}, symIn, interval{lo: ratNode(p.Range.Lo.Value), hi: ratNode(p.Range.Hi.Value), loClosed: true, hiClosed: true}})
+	}
 	in, out := strings.Count(cl.Tree, string(checker.PaveInside)), strings.Count(cl.Tree, string(checker.PaveOutside))
 	res0, _ := new(big.Rat).SetString(cl.Resolution)
 	a.Method = rich{"Method: interval branch and bound. The box ", sides, " was bisected down to a resolution of ", ratNode(res0),
@@ -79,6 +82,12 @@ func (b *builder) attractionOf(res checker.Outcome) (*attractionView, error) {
 		". So the component never reaches the boundary: it is compact and positively invariant, ", vdotSym,
 		" is negative on it but at the equilibrium, and LaSalle's invariance principle gives convergence (Khalil, Nonlinear Systems, §8.2)."}
 	a.Caution = "This is a property of the model stated above, with its parameters fixed as stated, not of the physical system: modelling error, disturbances, delay and saturation can make the true basin smaller than the certified set."
+	if box := freeRanges(b.doc.Document); box != "" {
+		a.Text = append(a.Text, " The level holds for "+forEvery+": "+box+"; the set itself changes with the parameters.")
+		a.Caution = "This is a property of the model stated above, for every parameter value in its stated ranges, not of the physical system: modelling error, disturbances, delay and saturation can make the true basin smaller than the certified set."
+		a.Note = "The set is not drawn: it changes with the parameters."
+		return a, nil
+	}
 	if len(m.States) != 2 {
 		a.Note = fmt.Sprintf("The set is not drawn: a picture needs two states, the model has %d.", len(m.States))
 		return a, nil

@@ -32,14 +32,18 @@ type BasinOutput struct {
 	CHiDecimal     *string           `json:"c_hi_decimal"`
 	Gap            *string           `json:"gap"` // (c_hi − c_lo)/c_hi, decimal
 	Counterexample *CounterexampleJS `json:"counterexample"`
-	Method         string            `json:"method"`
-	Note           string            `json:"note"`
-	Boxes          int               `json:"boxes"`
-	Verdict        string            `json:"verdict"` // the direct method's, as the kernel derives it
-	Claim          string            `json:"claim"`
-	Digest         string            `json:"digest"`
-	Checks         int               `json:"checks_passed"`
-	Certificate    string            `json:"certificate"`
+	// Parameters, with free parameters, are their ranges: c_lo holds for
+	// every parameter value in the box (HoldsFor says so in words).
+	Parameters  []ParamRangeJS `json:"parameters,omitempty"`
+	HoldsFor    string         `json:"holds_for,omitempty"`
+	Method      string         `json:"method"`
+	Note        string         `json:"note"`
+	Boxes       int            `json:"boxes"`
+	Verdict     string         `json:"verdict"` // the direct method's, as the kernel derives it
+	Claim       string         `json:"claim"`
+	Digest      string         `json:"digest"`
+	Checks      int            `json:"checks_passed"`
+	Certificate string         `json:"certificate"`
 	// Improve is set by basin --improve: the search over quadratic V.
 	Improve *ImproveJS `json:"improve,omitempty"`
 }
@@ -63,8 +67,40 @@ type ImproveJS struct {
 // CounterexampleJS is the exact point behind c_hi: the states, V and V̇ there.
 type CounterexampleJS struct {
 	Point map[string]string `json:"point"`
-	V     string            `json:"V"`
-	Vdot  string            `json:"vdot"`
+	// Params is the parameter value at which V̇ ≥ 0 holds at Point.
+	Params map[string]string `json:"parameters,omitempty"`
+	V      string            `json:"V"`
+	Vdot   string            `json:"vdot"`
+}
+
+// ParamRangeJS is a free parameter's closed range [lo, hi], exact.
+type ParamRangeJS struct {
+	Name string `json:"name"`
+	Lo   string `json:"lo"`
+	Hi   string `json:"hi"`
+}
+
+// forEvery is how text and JSON name the scope of a level certified over
+// a box of parameter values.
+const forEvery = "every parameter value in the box"
+
+// paramBox writes the box as "a ∈ [1, 2], b ∈ [0, 1]".
+func paramBox(res *basin.Result) string {
+	var parts []string
+	for i, name := range res.Params {
+		parts = append(parts, fmt.Sprintf("%s ∈ [%s, %s]", name, res.ParamBox[i].Lo.Value.RatString(), res.ParamBox[i].Hi.Value.RatString()))
+	}
+	return strings.Join(parts, ", ")
+}
+
+// counterParams writes the parameter value of the counterexample as
+// "a = 1, b = 0".
+func counterParams(res *basin.Result) string {
+	var parts []string
+	for i, name := range res.Params {
+		parts = append(parts, name+" = "+res.CounterParams[i].RatString())
+	}
+	return strings.Join(parts, ", ")
 }
 
 // dec writes q with six significant digits.
@@ -89,7 +125,17 @@ func BasinJSON(res *basin.Result, written string) BasinOutput {
 		for i, s := range d.Model.States {
 			ce.Point[s] = res.Counterexample[i].RatString()
 		}
+		if len(res.CounterParams) > 0 {
+			ce.Params = map[string]string{}
+			for i, name := range res.Params {
+				ce.Params[name] = res.CounterParams[i].RatString()
+			}
+		}
 		out.Counterexample = ce
+	}
+	for i, name := range res.Params {
+		out.Parameters = append(out.Parameters, ParamRangeJS{Name: name, Lo: res.ParamBox[i].Lo.Value.RatString(), Hi: res.ParamBox[i].Hi.Value.RatString()})
+		out.HoldsFor = forEvery
 	}
 	return out
 }
@@ -170,12 +216,18 @@ func BasinText(w io.Writer, res *basin.Result, written string) error {
 	fmt.Fprintf(ew, "Region of attraction by sublevel sets of V:\n")
 	fmt.Fprintf(ew, "  c_lo = %s ≈ %s  certified: every state in the component of {V ≤ c_lo} around the\n", res.Level.RatString(), dec(res.Level))
 	fmt.Fprintf(ew, "         equilibrium tends to it (sublevel-basin, re-checked exactly)\n")
+	if len(res.Params) > 0 {
+		fmt.Fprintf(ew, "         for %s: %s\n", forEvery, paramBox(res))
+	}
 	if res.Upper != nil {
 		var pt []string
 		for i, s := range m.States {
 			pt = append(pt, s+" = "+res.Counterexample[i].RatString())
 		}
 		fmt.Fprintf(ew, "  c_hi = %s\n       ≈ %s  V̇ ≥ 0 at the exact point %s (V̇ = %s)\n", res.Upper.RatString(), dec(res.Upper), strings.Join(pt, ", "), dec(res.CounterVdot))
+		if len(res.CounterParams) > 0 {
+			fmt.Fprintf(ew, "         with the parameters at %s, so no level above c_hi can be certified for the whole box\n", counterParams(res))
+		}
 		fmt.Fprintf(ew, "  gap (c_hi − c_lo)/c_hi = %.2f %%\n", 100*res.Gap())
 	} else {
 		fmt.Fprintf(ew, "  c_hi: none found\n")
@@ -278,6 +330,9 @@ func (s *segLayer) Thumbnail(c *draw.Canvas) {
 // float64 and proves nothing.
 func BasinPlot(res *basin.Result, format string) ([]byte, error) {
 	m := res.Direct.Model
+	if len(res.Params) > 0 {
+		return nil, fmt.Errorf("the plot needs every parameter fixed (free: %s)", strings.Join(res.Params, ", "))
+	}
 	if len(m.States) != 2 {
 		return nil, fmt.Errorf("the plot needs two states, the model has %d", len(m.States))
 	}

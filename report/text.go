@@ -635,6 +635,9 @@ func VerifyText(w io.Writer, file string, doc *checker.Document, out checker.Out
 	fmt.Fprintf(ew, "  claim %s, verdict %s\n  digest %s\n", out.Kind, out.Verdict, doc.Digest)
 	if out.Basin != "" {
 		fmt.Fprintf(ew, "  region of attraction: the component of {V ≤ %s} around the equilibrium\n", out.Basin)
+		if box := freeRanges(doc); box != "" {
+			fmt.Fprintf(ew, "    for %s: %s\n", forEvery, box)
+		}
 	}
 	for _, ns := range certificates.ContentsOf(doc).NotSOS { // each verified: out.Valid
 		who := "V"
@@ -720,4 +723,16 @@ func SignText(w io.Writer, s SignOutput) error {
 	ew := &errWriter{w: w}
 	fmt.Fprintf(ew, "signed %s with key %s\n  digest %s\n", s.Output, s.Fingerprint, s.Digest)
 	return ew.err
+}
+
+// freeRanges writes the certificate's free parameters with their ranges
+// ("a in [1, 2], b in [0, 1]"), "" when every parameter is fixed.
+func freeRanges(doc *checker.Document) string {
+	var parts []string
+	for _, p := range doc.Parameters {
+		if !strings.HasPrefix(p.Range, "=") {
+			parts = append(parts, p.Name+" "+p.Range)
+		}
+	}
+	return strings.Join(parts, ", ")
 }

@@ -39,9 +39,16 @@ type Result struct {
 	Upper          *big.Rat
 	Counterexample []*big.Rat
 	CounterVdot    *big.Rat
-	Claim          *checker.SublevelBasin
-	Doc            *checker.Document
-	Check          checker.Outcome
+	// Params names the free parameters, in the ring's order, and ParamBox
+	// holds their ranges: Level is certified for every value in the box.
+	// CounterParams is the parameter value at which the counterexample has
+	// V̇ ≥ 0 (nil without free parameters or without c_hi).
+	Params        []string
+	ParamBox      []poly.Interval
+	CounterParams []*big.Rat
+	Claim         *checker.SublevelBasin
+	Doc           *checker.Document
+	Check         checker.Outcome
 	// Boxes counts the tree's leaves: Inside where V̇ < 0 was proven,
 	// Outside where V > Level; NearTests the boxes at the equilibrium on
 	// which the quadratic bound was tried.
@@ -80,8 +87,8 @@ func Find(ctx context.Context, m *model.Model, source string, o Options) (*Resul
 	switch {
 	case m.Discrete:
 		return nil, &poly.Error{Pos: pos, Msg: "basin: the model is a map; sublevel basins are for continuous time (x' = ...)"}
-	case len(m.FreeParams()) > 0:
-		return nil, &poly.Error{Pos: pos, Msg: fmt.Sprintf("basin: fix every parameter with --set (free: %s)", paramNames(m.FreeParams()))}
+	case len(m.FreeParams()) > maxParams:
+		return nil, &poly.Error{Pos: pos, Msg: fmt.Sprintf("basin: at most %d free parameters (free: %s); fix the others with --set", maxParams, paramNames(m.FreeParams()))}
 	case m.V == nil:
 		return nil, &poly.Error{Pos: pos, Msg: "the model has no candidate V (add a line \"V = ...\")"}
 	case !m.V.IsPoly():
@@ -90,6 +97,11 @@ func Find(ctx context.Context, m *model.Model, source string, o Options) (*Resul
 	for i, f := range m.F {
 		if !f.IsPoly() {
 			return nil, &poly.Error{Pos: m.FPos[i], Msg: "basin: the right-hand sides must be polynomials"}
+		}
+	}
+	for _, p := range m.FreeParams() {
+		if !p.Range.Compact() {
+			return nil, &poly.Error{Pos: p.Pos, Msg: fmt.Sprintf("basin: the range of %s must be closed and bounded, as in \"parameter %s in [1, 2]\" (it is %s)", p.Name, p.Name, p.Range)}
 		}
 	}
 	d, err := direct.CheckPaving(ctx, m, source, direct.PaveOptions{})
@@ -101,48 +113,36 @@ func Find(ctx context.Context, m *model.Model, source string, o Options) (*Resul
 	for i := range n {
 		a, err := m.At[i].EvalVars(nil)
 		if err != nil || !a.IsPoly() || !a.Num.IsConst() {
-			return nil, errors.New("basin: the equilibrium is not a rational point")
+			return nil, errors.New("basin: the equilibrium is not a rational point the same for every parameter value")
 		}
 		res.Equilibrium = append(res.Equilibrium, a.Num.ConstTerm())
 	}
-	v, vdot := d.V.Num, d.Vdot.Num
 	near := d.Shifted.Vdot.Neg().Num
-	if _, _, ok := poly.QuadraticCofactors(near); !ok {
+	if _, _, ok := poly.QuadraticParts(near); !ok {
 		return nil, &poly.Error{Pos: m.VPos, Msg: "basin: V̇ has a constant or linear part at the equilibrium"}
 	}
-	r := &rays{v: newFpoly(v, n), vdot: newFpoly(vdot, n)}
+	for _, p := range m.FreeParams() {
+		res.Params = append(res.Params, p.Name)
+		res.ParamBox = append(res.ParamBox, p.Range)
+	}
+	// c_hi: the least V found at a point with V̇ ≥ 0, made exact, over a
+	// grid of parameter values (the level must hold at each of them).
+	var at []float64
 	for _, a := range res.Equilibrium {
 		f, _ := a.Float64()
-		r.at = append(r.at, f)
+		at = append(at, f)
 	}
-	// c_hi: the least V found at a point with V̇ ≥ 0, made exact.
-	target := 0.0
-	if x, vx, ok := r.lowestRise(n); ok {
-		if p, ok := exactRise(v, vdot, res.Equilibrium, x, vx); ok {
-			res.Counterexample, res.Upper, res.CounterVdot = p, v.Eval(p), vdot.Eval(p)
-			target, _ = res.Upper.Float64()
-		}
+	target, ext, err := upper(m, res, at)
+	if err != nil {
+		return nil, err
 	}
-	if res.Upper == nil {
-		// No point with V̇ ≥ 0 on the rays: aim at the set within radius 10.
-		target = math.Inf(1)
-		for _, u := range directions(n, 720) {
-			target = math.Min(target, r.v.eval(r.point(u, 10)))
-		}
-		res.Note = fmt.Sprintf("no point with V̇ ≥ 0 was found on rays up to radius %g from the equilibrium; the level aimed at is V's least value on the sphere of radius 10", rayMax)
-	}
-	if !(target > 0) || math.IsInf(target, 0) {
-		return nil, errors.New("basin: V is not positive away from the equilibrium on the rays searched; no sublevel set to certify")
-	}
-	// The box: the rays' extent of {V ≤ 1.05·target}, widened by a tenth and
-	// rounded up to two significant digits.
-	ext := r.extent(n, 1.05*target)
-	p := &paver{at: res.Equilibrium, atf: r.at, near: near}
+	p := &paver{n: n, at: res.Equilibrium, atf: at, near: near}
 	for i := range n {
 		h := decimalUp(1.1*ext[i] + 1e-9)
 		p.sides = append(p.sides, poly.Closed(new(big.Rat).Sub(res.Equilibrium[i], h), new(big.Rat).Add(res.Equilibrium[i], h)))
 	}
-	root, least, err := p.run(ctx, v, new(poly.Poly).Neg(vdot), target*(1-o.Gap), o.MaxLevel, o.MaxBoxes)
+	p.sides = append(p.sides, res.ParamBox...)
+	root, least, err := p.run(ctx, d.V.Num, new(poly.Poly).Neg(d.Vdot.Num), target*(1-o.Gap), o.MaxLevel, o.MaxBoxes)
 	if err != nil {
 		return nil, err
 	}
@@ -153,10 +153,10 @@ func Find(ctx context.Context, m *model.Model, source string, o Options) (*Resul
 	if lf, _ := res.Level.Float64(); lf < target*(1-o.Gap) && res.Note == "" {
 		res.Note = fmt.Sprintf("the gap was not closed to %g: %d boxes, finest halving %d", o.Gap, p.boxes, o.MaxLevel)
 	}
-	tr, level, in, out := tree(root)
+	tr, level, in, out := tree(root, n)
 	res.Inside, res.Outside, res.NearTests = in, out, p.nearTry
 	cl := &checker.SublevelBasin{Level: res.Level.RatString(), Resolution: new(big.Rat).SetFrac(big.NewInt(1), new(big.Int).Lsh(big.NewInt(1), uint(level))).RatString(), Tree: tr}
-	for _, s := range p.sides {
+	for _, s := range p.sides[:n] {
 		cl.Lo = append(cl.Lo, s.Lo.Value.RatString())
 		cl.Hi = append(cl.Hi, s.Hi.Value.RatString())
 	}
@@ -180,6 +180,102 @@ func Find(ctx context.Context, m *model.Model, source string, o Options) (*Resul
 		return nil, fmt.Errorf("%w: the checker derives the level %q, the engine wrote %q", certify.ErrUnverified, res.Check.Basin, cl.Level)
 	}
 	return res, nil
+}
+
+// maxParams bounds the free parameters of a basin: the grid of c_hi has
+// 5, 3 or 2 values per parameter, and the tree halves every parameter as
+// often as every state.
+const maxParams = 4
+
+// upper finds c_hi (see the package documentation) at every value of a
+// grid over the parameter box, keeping the least, and returns the level to
+// aim at with the rays' extent of {V ≤ 1.05·target} over the grid, side by
+// side. With free parameters the counterexample's parameter values go to
+// res.CounterParams.
+func upper(m *model.Model, res *Result, at []float64) (float64, []float64, error) {
+	n := len(m.States)
+	type sample struct {
+		m    *model.Model
+		vals []*big.Rat
+		r    *rays
+	}
+	var samples []sample
+	for _, vals := range grid(res.ParamBox) {
+		mp := m
+		if len(vals) > 0 {
+			var set []model.Setting
+			for i, name := range res.Params {
+				set = append(set, model.Setting{Name: name, Value: vals[i]})
+			}
+			var err error
+			if mp, err = model.FixParams(m, set); err != nil {
+				return 0, nil, fmt.Errorf("basin: %w", err)
+			}
+		}
+		v := mp.V.Num
+		vdot := mp.Derivative(*mp.V).Num
+		samples = append(samples, sample{mp, vals, &rays{v: newFpoly(v, n), vdot: newFpoly(vdot, n), at: at}})
+		r := samples[len(samples)-1].r
+		x, vx, ok := r.lowestRise(n)
+		if !ok {
+			continue
+		}
+		pt, ok := exactRise(v, vdot, res.Equilibrium, x, vx)
+		if !ok {
+			continue
+		}
+		if c := v.Eval(pt); res.Upper == nil || c.Cmp(res.Upper) < 0 {
+			res.Counterexample, res.Upper, res.CounterVdot, res.CounterParams = pt, c, vdot.Eval(pt), vals
+		}
+	}
+	target := 0.0
+	if res.Upper != nil {
+		target, _ = res.Upper.Float64()
+	} else {
+		// No point with V̇ ≥ 0 on the rays: aim at the set within radius 10.
+		target = math.Inf(1)
+		for _, s := range samples {
+			for _, u := range directions(n, 720) {
+				target = math.Min(target, s.r.v.eval(s.r.point(u, 10)))
+			}
+		}
+		res.Note = fmt.Sprintf("no point with V̇ ≥ 0 was found on rays up to radius %g from the equilibrium; the level aimed at is V's least value on the sphere of radius 10", rayMax)
+	}
+	if !(target > 0) || math.IsInf(target, 0) {
+		return 0, nil, errors.New("basin: V is not positive away from the equilibrium on the rays searched; no sublevel set to certify")
+	}
+	// The box: the rays' extent of {V ≤ 1.05·target}, widened later by a
+	// tenth and rounded up to two significant digits.
+	ext := make([]float64, n)
+	for _, s := range samples {
+		for i, e := range s.r.extent(n, 1.05*target) {
+			ext[i] = math.Max(ext[i], e)
+		}
+	}
+	return target, ext, nil
+}
+
+// grid returns the values of a grid over the box with its corners: 5 values
+// per side for one parameter, 3 for two, 2 beyond; one empty point for an
+// empty box.
+func grid(box []poly.Interval) [][]*big.Rat {
+	k := map[int]int64{1: 5, 2: 3}[len(box)]
+	if k == 0 {
+		k = 2
+	}
+	out := [][]*big.Rat{nil}
+	for _, s := range box {
+		var next [][]*big.Rat
+		for _, pre := range out {
+			for j := range k {
+				w, _ := s.Width()
+				x := new(big.Rat).Mul(w, big.NewRat(int64(j), k-1))
+				next = append(next, append(append([]*big.Rat(nil), pre...), x.Add(x, s.Lo.Value)))
+			}
+		}
+		out = next
+	}
+	return out
 }
 
 // below returns a short decimal just below x > 0: x truncated to six

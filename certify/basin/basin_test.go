@@ -7,6 +7,7 @@ import (
 	"math/rand/v2"
 	"os"
 	"path/filepath"
+	"strings"
 	"testing"
 
 	"github.com/lyacert/lyacert/certify/ode"
@@ -55,6 +56,48 @@ func TestRingLevelIsTwo(t *testing.T) {
 	}
 	if r.CounterVdot.Sign() < 0 || r.Level.Cmp(r.Upper) > 0 {
 		t.Errorf("counterexample V̇ = %s, c_lo %s > c_hi %s", r.CounterVdot, r.Level, r.Upper)
+	}
+}
+
+// The ring example of Slotine & Li (Applied Nonlinear Control, ch. 3) with
+// its 2 made a parameter a ∈ [1, 2]: V̇ = 2V(V − a), so for each a the best
+// level is a (hand computation, generalizing the book's), and one level for
+// every a in the box is at best the smallest a, exactly 1. The counterexample
+// must sit at a parameter value in the box where V̇ ≥ 0 holds exactly, which
+// for V ≈ 1 means a ≤ V.
+func TestRingBoxLevelIsOne(t *testing.T) {
+	r := find(t, "ringbox.lya", Options{Gap: 0.01})
+	lo := float(r.Level)
+	if lo < 0.98 || lo > 1 {
+		t.Errorf("c_lo = %g, want in [0.98, 1] (Slotine & Li, generalized: the best level is 1)", lo)
+	}
+	if r.Upper == nil || math.Abs(float(r.Upper)-1) > 0.01 {
+		t.Fatalf("c_hi = %v, want 1 within 1 %%", r.Upper)
+	}
+	if len(r.CounterParams) != 1 || r.CounterParams[0].Cmp(big.NewRat(1, 1)) < 0 || r.CounterParams[0].Cmp(r.Upper) > 0 {
+		t.Errorf("counterexample at a = %v, want 1 ≤ a ≤ V = %s", r.CounterParams, r.Upper)
+	}
+	// V̇ = 2V(V − a) at the point, recomputed by hand.
+	x1, x2 := r.Counterexample[0], r.Counterexample[1]
+	v := new(big.Rat).Add(new(big.Rat).Mul(x1, x1), new(big.Rat).Mul(x2, x2))
+	want := new(big.Rat).Sub(v, r.CounterParams[0])
+	want.Mul(want, v).Mul(want, big.NewRat(2, 1))
+	if want.Cmp(r.CounterVdot) != 0 || want.Sign() < 0 {
+		t.Errorf("V̇ at the counterexample = %s, 2V(V − a) = %s", r.CounterVdot, want)
+	}
+}
+
+// A parameter range that is not closed and bounded has no box to bisect.
+func TestParameterRangeMustBeCompact(t *testing.T) {
+	for _, rng := range []string{"in (1, 2]", "> 1", ""} {
+		src := "state x1, x2\nparameter a " + rng + "\nx1' = x1*(x1^2 + x2^2 - a) - 4*x1*x2^2\nx2' = 4*x1^2*x2 + x2*(x1^2 + x2^2 - a)\nV = x1^2 + x2^2\n"
+		m, err := model.Parse("open.lya", []byte(src))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if _, err := Find(context.Background(), m, "open.lya", Options{}); err == nil || !strings.Contains(err.Error(), "closed and bounded") {
+			t.Errorf("range %q: %v, want an error about a closed and bounded range", rng, err)
+		}
 	}
 }
 

@@ -37,6 +37,7 @@ func (q *queue) Pop() any {
 
 // paver is one branch and bound over the box sides.
 type paver struct {
+	n       int // the states; the sides after them are parameters
 	sides   []poly.Interval
 	at      []*big.Rat
 	atf     []float64
@@ -51,7 +52,7 @@ func (p *paver) classify(n *node) {
 	e := n.forms[0].Enclose(closed)
 	n.vlo = e.Lo.Value
 	n.key, _ = n.vlo.Float64()
-	if n.g.OnEdge() {
+	if n.g.OnEdgeFirst(p.n) {
 		return
 	}
 	if n.forms[1].PositiveOn(closed) {
@@ -61,7 +62,7 @@ func (p *paver) classify(n *node) {
 	s := n.g.Sides(p.sides)
 	// Try the quadratic bound only on boxes that hold the equilibrium or
 	// touch a box that does (a float test that only chooses what to try).
-	for i := range s {
+	for i := range p.n {
 		lo, _ := s[i].Lo.Value.Float64()
 		hi, _ := s[i].Hi.Value.Float64()
 		w := hi - lo
@@ -69,7 +70,7 @@ func (p *paver) classify(n *node) {
 			return
 		}
 	}
-	for i := range s {
+	for i := range p.n {
 		s[i] = s[i].Sub(poly.Point(p.at[i]))
 	}
 	p.nearTry++
@@ -97,7 +98,7 @@ func (p *paver) run(ctx context.Context, v, negVdot *poly.Poly, goal float64, ma
 	p.classify(root)
 	p.boxes = 1
 	q := &queue{}
-	if !root.dec || root.g.OnEdge() {
+	if !root.dec || root.g.OnEdgeFirst(p.n) {
 		heap.Push(q, root)
 	}
 	for q.Len() > 0 {
@@ -120,7 +121,7 @@ func (p *paver) run(ctx context.Context, v, negVdot *poly.Poly, goal float64, ma
 				ch.forms[j] = new(poly.CenteredForm).Half(f, dim, k == 1)
 			}
 			p.classify(ch)
-			if ch.dec && !ch.g.OnEdge() {
+			if ch.dec && !ch.g.OnEdgeFirst(p.n) {
 				ch.forms = nil
 			} else {
 				heap.Push(q, ch)
@@ -139,10 +140,11 @@ func (p *paver) run(ctx context.Context, v, negVdot *poly.Poly, goal float64, ma
 }
 
 // tree writes the bisection tree against the level: S for a split box, I
-// for a box where V̇ < 0 was proven (inside the edge), O for every other
+// for a box where V̇ < 0 was proven (off the faces of the first states
+// coordinates, the state box), O for every other
 // box (V > level, since level < the lower end of V on it). It returns the
 // tree, the resolution level and the counts of I and O boxes.
-func tree(root *node) (string, int, int, int) {
+func tree(root *node, states int) (string, int, int, int) {
 	var b strings.Builder
 	level, in, out := 0, 0, 0
 	var rec func(n *node)
@@ -154,7 +156,7 @@ func tree(root *node) (string, int, int, int) {
 			rec(n.hi)
 			return
 		}
-		if n.dec && !n.g.OnEdge() {
+		if n.dec && !n.g.OnEdgeFirst(states) {
 			b.WriteByte(checker.PaveInside)
 			in++
 		} else {

@@ -1,9 +1,17 @@
 // Package basin estimates the region of attraction of an equilibrium by
-// sublevel sets of a candidate V in continuous time, with every parameter
-// fixed: a level c_lo certified by the kernel's sublevel-basin rule, and a
-// level c_hi above which no sublevel set of V around the equilibrium can be
-// certified, witnessed by an exact rational point x ≠ x* with V̇(x) ≥ 0 and
-// V(x) = c_hi.
+// sublevel sets of a candidate V in continuous time: a level c_lo certified
+// by the kernel's sublevel-basin rule, and a level c_hi above which no
+// sublevel set of V around the equilibrium can be certified, witnessed by an
+// exact rational point x ≠ x* with V̇(x) ≥ 0 and V(x) = c_hi.
+//
+// Free parameters must have closed bounded ranges, and the equilibrium must
+// not depend on them: c_lo then holds for every parameter value p in the
+// box. The bisection runs over states and parameters together (every side
+// halved in turn, so the widest relative to the box first), and for each
+// fixed p the boxes whose parameter sides hold p pave the state box, so the
+// argument below applies slice by slice. c_hi is the least of the values
+// found at a grid of parameter values, and its point comes with the p at
+// which V̇ ≥ 0 holds there.
 //
 // The lower level comes from interval branch and bound on a box of the
 // states around the equilibrium. Every box of a bisection tree carries the

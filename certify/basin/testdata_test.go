@@ -18,6 +18,7 @@ var update = flag.Bool("update", false, "rewrite the basin certificates of testd
 var basinCases = []struct{ name, model string }{
 	{"basin-ring", "ring.lya"},
 	{"basin-vanderpol", "vanderpol.lya"},
+	{"basin-ringbox", "ringbox.lya"},
 }
 
 // TestTestdataBasinCertificates rewrites them with -update; without, it

@@ -115,6 +115,9 @@ func sosGram(p poly.RatFunc, nstates int) (f Form, m Method, prob *sdp.Problem, 
 		}
 		basis[i] = poly.Monomial(r, full, big.NewRat(1, 1))
 	}
+	if res.Outside != "" {
+		return f, m, prob, nil, "it has a term that no product of monomials of its Newton basis reaches (of odd degree in some state, say), so it is no sum of squares: no Gram matrix exists"
+	}
 	if res.NotSOS != nil {
 		ns = notSOSClaim(basis, res.NotSOS)
 		why = fmt.Sprintf("it is not a sum of squares in the %d-monomial Newton basis (an exact moment matrix separates it: a moment-separation claim)", res.Sizes.Basis)

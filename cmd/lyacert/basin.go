@@ -15,7 +15,7 @@ type basinCmd struct {
 	common
 	File     string   `arg:"" help:"Model file (.lya) with V, continuous time, or - for standard input."`
 	Out      string   `short:"o" name:"out" placeholder:"CERT" help:"Write the certificate (the direct method's claims and the sublevel basin) to this file (atomically)."`
-	Set      []string `name:"set" placeholder:"NAME=VALUE" help:"Fix a parameter to an exact value (repeatable); every parameter must be fixed."`
+	Set      []string `name:"set" placeholder:"NAME=VALUE" help:"Fix a parameter to an exact value (repeatable); a parameter left free needs a closed bounded range (parameter a in [1, 2]), and the level then holds for every parameter value in the box."`
 	Plot     string   `name:"plot" placeholder:"FILE" help:"Draw the certified set, V̇ = 0, the counterexample and trajectories (two states) to FILE (.svg, .png or .pdf)."`
 	Gap      float64  `name:"gap" default:"0.01" help:"Stop refining when (c_hi − c_lo)/c_hi is at most this."`
 	MaxBoxes int      `name:"max-boxes" default:"300000" help:"At most this many boxes in the bisection tree."`

@@ -48,6 +48,18 @@ type CheckOutput struct {
 	// Points: rational point pieces of the region settled by a nested
 	// certificate of the model with the parameter fixed there ([] when none).
 	Points []PointOutput `json:"points"`
+	// BoxSOS is the result of check --box-sos (null without the flag).
+	BoxSOS *BoxSOSOutput `json:"box_sos"`
+}
+
+// BoxSOSOutput is what check --box-sos found: one certificate for every
+// parameter value in the box (holds), or why not.
+type BoxSOSOutput struct {
+	Holds  bool   `json:"holds"`
+	Claim  string `json:"claim"`
+	Digest string `json:"digest"`
+	Checks int    `json:"checks_passed"`
+	Reason string `json:"reason"`
 }
 
 // PointOutput is one point piece settled by a nested certificate.

@@ -736,3 +736,21 @@ func freeRanges(doc *checker.Document) string {
 	}
 	return strings.Join(parts, ", ")
 }
+
+// BoxSOSText prints what check --box-sos found.
+func BoxSOSText(w io.Writer, b *BoxSOSOutput, written string) error {
+	ew := &errWriter{w: w}
+	fmt.Fprintln(ew, "\nOne certificate for the whole parameter box (sums of squares with multipliers)")
+	if !b.Holds {
+		fmt.Fprintf(ew, "  none found: %s\n", b.Reason)
+		return ew.err
+	}
+	fmt.Fprintf(ew, "  −V̇ − margin = σ₀ + Σ σᵢ·(pᵢ − loᵢ)(hiᵢ − pᵢ) with every σ a sum of squares: V̇ < 0 away from\n")
+	fmt.Fprintf(ew, "  the equilibrium for every parameter value in the box, so %s there.\n", textClaims[b.Claim])
+	fmt.Fprintf(ew, "  Re-checked by the exact checker: %d checks passed", b.Checks)
+	if written != "" {
+		fmt.Fprintf(ew, "; this certificate (not the one above) written to %s", written)
+	}
+	fmt.Fprintf(ew, "\n  digest %s\n", b.Digest)
+	return ew.err
+}

@@ -11,6 +11,7 @@ import (
 	"strings"
 
 	"github.com/lyacert/lyacert/certificates"
+	"github.com/lyacert/lyacert/certify/boxsos"
 
 	"github.com/alecthomas/kong"
 	"github.com/willabides/kongplete"
@@ -228,6 +229,7 @@ type checkCmd struct {
 	Set    []string `name:"set" placeholder:"NAME=VALUE" help:"Fix a parameter to an exact value (repeatable), e.g. --set r=1/2."`
 	Sign   string   `name:"sign" placeholder:"KEY" help:"Sign the written certificate with this ed25519 private key (PEM, PKCS #8: NAME.key from lyacert key new; needs -o)."`
 	SDPOut string   `name:"sdp-out" placeholder:"FILE" help:"Write the last semidefinite program solved (a sum-of-squares search) to FILE in SDPA sparse format."`
+	BoxSOS bool     `name:"box-sos" help:"When the verdict is not a global holds: look for one certificate that V̇ < 0 for every parameter value in the box of closed bounded ranges, −V̇ − margin = σ₀ + Σ σᵢ·(pᵢ − loᵢ)(hiᵢ − pᵢ) with sums of squares σ; -o then writes that certificate."`
 	paveFlags
 	limitFlags
 	timeoutFlag
@@ -285,7 +287,7 @@ func (c *checkCmd) run(e *env) int {
 	if code != 0 {
 		return code
 	}
-	c.sdpOut = c.SDPOut
+	c.sdpOut, c.boxSOS = c.SDPOut, c.BoxSOS
 	ctx, cancel := c.timeoutFlag.budget()
 	defer cancel()
 	code = within(ctx, e, func(ctx context.Context, e *env) int {
@@ -352,22 +354,52 @@ func runCheck(ctx context.Context, name string, src []byte, settings []model.Set
 			return code, false
 		}
 	}
+	// --box-sos: one certificate for the whole box, in place of the direct
+	// method's, when that does not hold everywhere.
+	var box *report.BoxSOSOutput
+	doc := res.Doc
+	if pf != nil && pf.boxSOS && (res.Verdict != checker.VerdictHolds || res.Claim != checker.KindGlobal) {
+		box = &report.BoxSOSOutput{}
+		bm, err := boxsos.Find(ctx, m)
+		if err == nil {
+			bd, err2 := boxsos.Document(res.Doc, bm)
+			err = err2
+			if err == nil {
+				if v := checker.VerifyContext(ctx, bd); v.Valid && v.Verdict == checker.VerdictHolds && (res.Verdict != checker.VerdictHolds || v.Kind == checker.KindGlobal) {
+					box.Holds, box.Claim, box.Digest, box.Checks, doc = true, v.Kind, bd.Digest, len(v.Records), bd
+				} else {
+					err = errors.New("the checker does not accept the box certificate")
+				}
+			}
+		}
+		if err != nil {
+			if ctx.Err() != nil {
+				return exitStopped, false
+			}
+			box.Reason = err.Error()
+		}
+	}
 	written := ""
 	if out != "" {
-		if err := certificates.WriteFile(res.Doc, out); err != nil {
+		if err := certificates.WriteFile(doc, out); err != nil {
 			return e.failf(exitInput, "writing the certificate: %w", err), false
 		}
 		written = out
 	}
 	if asJSON {
-		writeJSON(e.stdout, report.CheckJSON(res, written))
+		cj := report.CheckJSON(res, written)
+		cj.BoxSOS = box
+		writeJSON(e.stdout, cj)
 	} else {
 		report.CheckText(e.stdout, res, written)
+		if box != nil {
+			report.BoxSOSText(e.stdout, box, written)
+		}
 	}
 	if code := pf.finish(res, e); code != 0 {
 		return code, false
 	}
-	if res.Verdict == checker.VerdictHolds {
+	if res.Verdict == checker.VerdictHolds || box != nil && box.Holds {
 		return exitHolds, true
 	}
 	return exitFails, true

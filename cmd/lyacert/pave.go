@@ -27,6 +27,7 @@ type paveFlags struct {
 	Slice      []string `name:"slice" placeholder:"NAME=VALUE" help:"For more than two paved parameters: fix all but two for the plot (repeatable)."`
 	Workers    int      `name:"workers" default:"0" help:"Goroutines for the paving (0: one per core); the result does not depend on it."`
 	sdpOut     string   // check --sdp-out, carried to runCheck
+	boxSOS     bool     // check --box-sos, carried to runCheck
 }
 
 // requested reports whether the user asked for a paving explicitly.

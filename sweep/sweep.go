@@ -254,6 +254,13 @@ func oneLine(err error) string {
 	return strings.Join(strings.Fields(strings.ReplaceAll(err.Error(), "\n", "; ")), " ")
 }
 
+// GCPercent is the garbage collector's target (runtime/debug.SetGCPercent)
+// that lyacert sweep runs with: a sweep allocates many short-lived values
+// per point and keeps little alive, and collecting at 400 % heap growth
+// instead of Go's default 100 % costs a few megabytes while letting two
+// workers scale (measured in BENCHMARKS.md: 1.9× instead of 1.4×).
+const GCPercent = 400
+
 // EquilibriumDigits is the number of significant digits of the decimals of
 // an exact equilibrium; an enclosed one gets enclosedDigits, fewer than its
 // box pins down.

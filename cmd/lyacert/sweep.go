@@ -57,6 +57,12 @@ func (c *sweepCmd) Run(e *env) error {
 }
 
 func (c *sweepCmd) run(e *env) int {
+	// A sweep allocates many short-lived values per point and keeps little
+	// alive: the garbage collector's target sweep.GCPercent costs a few
+	// megabytes and lets two workers scale. A GOGC set by the user wins.
+	if os.Getenv("GOGC") == "" {
+		defer debug.SetGCPercent(debug.SetGCPercent(sweep.GCPercent))
+	}
 	fail := func(format string, args ...any) int {
 		return e.failf(exitInput, format, args...)
 	}

@@ -60,8 +60,8 @@
 // a sum of squares (a dual, or moment, certificate). Find rounds L to
 // rationals and adds θ times the moments of the uniform measure on
 // [−1, 1]ⁿ, whose moment matrix is positive definite, with θ a small power
-// of two that keeps L(p) < 0; exact LDLᵀ then proves M ≻ 0. A term of p that
-// no product z_a z_b reaches gives the refutation L = −sign(p_γ)·[x^γ] with
-// M = 0 directly. Motzkin's polynomial x⁴y² + x²y⁴ − 3x²y² + 1 (Motzkin
-// 1967) is refuted this way.
+// of two that keeps L(p) < 0; exact LDLᵀ then proves M ≻ 0. Motzkin's
+// polynomial x⁴y² + x²y⁴ − 3x²y² + 1 (Motzkin 1967) is refuted this way. A
+// term of p that no product z_a z_b reaches needs no functional: no Gram
+// matrix in the basis can produce it (Result.Outside says which).
 package sos

@@ -342,20 +342,11 @@ func Find(ctx context.Context, p *poly.Poly, opts *Options) (*Result, error) {
 	res := &Result{Vars: g.Vars, Basis: g.Basis}
 	res.Sizes.Candidates, res.Sizes.Basis, res.Sizes.Constraints = ncand, len(g.Basis), len(g.Classes)
 	if len(g.Outside) > 0 {
-		// A term no product of the basis reaches: L = −sign(p_γ) at that
-		// monomial, zero elsewhere, has the zero moment matrix and L(p) < 0.
-		e := g.Outside[0]
-		var c *big.Rat
-		for _, t := range p.Terms() {
-			if Key(t.Exp[:len(e)]) == Key(e) {
-				c = t.Coef
-			}
-		}
-		// That needs no certificate: no Gram matrix in any basis of these
-		// monomials can reach the term (the kernel's moment separation
-		// reads functionals on products of the basis only).
-		_ = c
-		res.Outside = Key(e)
+		// A term of p that no product of the basis reaches: no Gram matrix
+		// exists in it, plainly, and no certificate is needed for that (the
+		// kernel's moment separation reads functionals on products of the
+		// basis only).
+		res.Outside = Key(g.Outside[0])
 		return res, nil
 	}
 	if len(g.Basis) == 0 {

@@ -8,6 +8,7 @@ import (
 	"math/big"
 	"strings"
 
+	"github.com/lyacert/lyacert/certify"
 	"github.com/lyacert/lyacert/certify/basin"
 	"github.com/lyacert/lyacert/certify/ode"
 	"github.com/lyacert/lyacert/poly"
@@ -243,34 +244,6 @@ func BasinText(w io.Writer, res *basin.Result, written string) error {
 	return ew.err
 }
 
-// fpoly evaluates a polynomial in the states in float64, for pictures.
-type fpoly struct {
-	coef []float64
-	exp  [][]int
-}
-
-func newFpoly(p *poly.Poly, n int) fpoly {
-	var f fpoly
-	for _, t := range p.Terms() {
-		c, _ := t.Coef.Float64()
-		f.coef = append(f.coef, c)
-		f.exp = append(f.exp, t.Exp[:n])
-	}
-	return f
-}
-
-func (f fpoly) eval(x []float64) float64 {
-	s := 0.0
-	for k, c := range f.coef {
-		v := c
-		for i, e := range f.exp[k] {
-			v *= math.Pow(x[i], float64(e))
-		}
-		s += v
-	}
-	return s
-}
-
 // contour returns the segments of {f = 0} on a grid over the view (marching
 // squares, common practice), for pictures only.
 func contour(f func(x, y float64) float64, x0, x1, y0, y1 float64, cells int) [][4]float64 {
@@ -359,8 +332,8 @@ func BasinPlot(res *basin.Result, format string) ([]byte, error) {
 // the level c_lo, the paved box and, when known, c_hi with its point.
 type basinScene struct {
 	states  []string
-	v, vd   fpoly
-	f       [2]fpoly
+	v, vd   certify.FloatPoly
+	f       [2]certify.FloatPoly
 	at      [2]float64
 	level   float64
 	box     [4]float64 // x0, x1, y0, y1
@@ -372,9 +345,9 @@ type basinScene struct {
 // newBasinScene converts the exact data of a two-state basin to float64;
 // sides are the paved box's [lo, hi] per state.
 func newBasinScene(states []string, v, vdot *poly.Poly, f []poly.RatFunc, at []*big.Rat, level *big.Rat, sides [][]*big.Rat) *basinScene {
-	s := &basinScene{states: states, v: newFpoly(v, 2), vd: newFpoly(vdot, 2)}
+	s := &basinScene{states: states, v: certify.NewFloatPoly(v, 2), vd: certify.NewFloatPoly(vdot, 2)}
 	for i := range 2 {
-		s.f[i] = newFpoly(f[i].Num, 2)
+		s.f[i] = certify.NewFloatPoly(f[i].Num, 2)
 		s.at[i], _ = at[i].Float64()
 		s.box[2*i], _ = sides[i][0].Float64()
 		s.box[2*i+1], _ = sides[i][1].Float64()
@@ -397,9 +370,9 @@ func (s *basinScene) plot() *plot.Plot {
 	p.Title.Text = s.title
 	p.X.Label.Text, p.Y.Label.Text = s.states[0], s.states[1]
 	p.X.Min, p.X.Max, p.Y.Min, p.Y.Max = x0, x1, y0, y1
-	level := &segLayer{contour(func(x, y float64) float64 { return v.eval([]float64{x, y}) - clo }, x0, x1, y0, y1, 300),
+	level := &segLayer{contour(func(x, y float64) float64 { return v.Eval([]float64{x, y}) - clo }, x0, x1, y0, y1, 300),
 		draw.LineStyle{Color: holdsColor, Width: vg.Points(2)}}
-	zero := &segLayer{contour(func(x, y float64) float64 { return vd.eval([]float64{x, y}) }, x0, x1, y0, y1, 300),
+	zero := &segLayer{contour(func(x, y float64) float64 { return vd.Eval([]float64{x, y}) }, x0, x1, y0, y1, 300),
 		draw.LineStyle{Color: color.RGBA{0xd9, 0x5f, 0x02, 0xff}, Width: vg.Points(1)}}
 	frame := &segLayer{[][4]float64{{box[0], box[2], box[1], box[2]}, {box[1], box[2], box[1], box[3]}, {box[1], box[3], box[0], box[3]}, {box[0], box[3], box[0], box[2]}},
 		draw.LineStyle{Color: color.Gray{0xa0}, Width: vg.Points(0.7), Dashes: []vg.Length{vg.Points(1), vg.Points(2)}}}
@@ -407,7 +380,7 @@ func (s *basinScene) plot() *plot.Plot {
 	p.Legend.Add("V = c_lo (certified)", level)
 	p.Legend.Add("V̇ = 0", zero)
 	p.Legend.Add("paved box", frame)
-	rhs := func(x, dx []float64) { dx[0], dx[1] = fs[0].eval(x), fs[1].eval(x) }
+	rhs := func(x, dx []float64) { dx[0], dx[1] = fs[0].Eval(x), fs[1].Eval(x) }
 	far := 10 * math.Max(x1-x0, y1-y0)
 	traj := func(start []float64, dashed bool) *plotter.Line {
 		r, _ := ode.Integrate(rhs, 0, 30, start, ode.Options{RelTol: 1e-7, AbsTol: 1e-9, MaxSteps: 20000,
@@ -436,11 +409,11 @@ func (s *basinScene) plot() *plot.Plot {
 	ray := func(th, c float64) []float64 {
 		lo, hi := 0.0, 1e-3
 		pt := func(t float64) []float64 { return []float64{atx + t*math.Cos(th), aty + t*math.Sin(th)} }
-		for hi < 1e3 && v.eval(pt(hi)) < c {
+		for hi < 1e3 && v.Eval(pt(hi)) < c {
 			lo, hi = hi, hi*1.5
 		}
 		for range 50 {
-			if mid := (lo + hi) / 2; v.eval(pt(mid)) < c {
+			if mid := (lo + hi) / 2; v.Eval(pt(mid)) < c {
 				lo = mid
 			} else {
 				hi = mid

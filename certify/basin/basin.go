@@ -214,7 +214,7 @@ func upper(m *model.Model, res *Result, at []float64) (float64, []float64, error
 		}
 		v := mp.V.Num
 		vdot := mp.Derivative(*mp.V).Num
-		samples = append(samples, sample{mp, vals, &rays{v: newFpoly(v, n), vdot: newFpoly(vdot, n), at: at}})
+		samples = append(samples, sample{mp, vals, &rays{v: certify.NewFloatPoly(v, n), vdot: certify.NewFloatPoly(vdot, n), at: at}})
 		r := samples[len(samples)-1].r
 		x, vx, ok := r.lowestRise(n)
 		if !ok {
@@ -236,7 +236,7 @@ func upper(m *model.Model, res *Result, at []float64) (float64, []float64, error
 		target = math.Inf(1)
 		for _, s := range samples {
 			for _, u := range directions(n, 720) {
-				target = math.Min(target, s.r.v.eval(s.r.point(u, 10)))
+				target = math.Min(target, s.r.v.Eval(s.r.point(u, 10)))
 			}
 		}
 		res.Note = fmt.Sprintf("no point with V̇ ≥ 0 was found on rays up to radius %g from the equilibrium; the level aimed at is V's least value on the sphere of radius 10", rayMax)

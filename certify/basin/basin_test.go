@@ -10,6 +10,7 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/lyacert/lyacert/certify"
 	"github.com/lyacert/lyacert/certify/ode"
 	"github.com/lyacert/lyacert/model"
 )
@@ -204,14 +205,14 @@ func TestCertifiedSetsConverge(t *testing.T) {
 		t.Run(name, func(t *testing.T) {
 			r := find(t, name, Options{Gap: 0.02})
 			n := len(r.Equilibrium)
-			rs := &rays{v: newFpoly(r.Direct.V.Num, n)}
-			fs := make([]fpoly, n)
+			rs := &rays{v: certify.NewFloatPoly(r.Direct.V.Num, n)}
+			fs := make([]certify.FloatPoly, n)
 			for i, f := range r.Direct.Model.F {
-				fs[i] = newFpoly(f.Num, n)
+				fs[i] = certify.NewFloatPoly(f.Num, n)
 			}
 			rhs := func(x, dx []float64) {
 				for i := range fs {
-					dx[i] = fs[i].eval(x)
+					dx[i] = fs[i].Eval(x)
 				}
 			}
 			c := float(r.Level)
@@ -223,7 +224,7 @@ func TestCertifiedSetsConverge(t *testing.T) {
 					b, _ := new(big.Rat).SetString(r.Claim.Hi[i])
 					x[i] = float(a) + rng.Float64()*(float(b)-float(a))
 				}
-				if rs.v.eval(x) > c {
+				if rs.v.Eval(x) > c {
 					continue
 				}
 				k++

@@ -2,40 +2,7 @@ package basin
 
 import (
 	"math"
-
-	"github.com/lyacert/lyacert/poly"
 )
-
-// fpoly is a polynomial in the states with float64 coefficients, for
-// proposals and pictures only.
-type fpoly struct {
-	coef []float64
-	exp  [][]int
-}
-
-func newFpoly(p *poly.Poly, n int) fpoly {
-	var f fpoly
-	for _, t := range p.Terms() {
-		c, _ := t.Coef.Float64()
-		f.coef = append(f.coef, c)
-		f.exp = append(f.exp, t.Exp[:n])
-	}
-	return f
-}
-
-func (f fpoly) eval(x []float64) float64 {
-	s := 0.0
-	for k, c := range f.coef {
-		v := c
-		for i, e := range f.exp[k] {
-			for range e {
-				v *= x[i]
-			}
-		}
-		s += v
-	}
-	return s
-}
 
 // directions returns unit vectors spread over the sphere in n dimensions:
 // equal angles in the plane, a Fibonacci lattice on the 2-sphere (common

@@ -4,6 +4,7 @@ import (
 	"math"
 	"math/big"
 
+	"github.com/lyacert/lyacert/certify"
 	"github.com/lyacert/lyacert/poly"
 )
 
@@ -11,7 +12,7 @@ import (
 // float64.
 type rays struct {
 	at      []float64
-	v, vdot fpoly
+	v, vdot certify.FloatPoly
 }
 
 func (r *rays) point(u []float64, t float64) []float64 {
@@ -35,17 +36,17 @@ const (
 func (r *rays) firstRise(u []float64) (v, t float64, ok bool) {
 	q := math.Pow(rayMax/rayMin, 1/float64(raySteps))
 	best := math.Inf(1)
-	prev, prevNeg := rayMin, r.vdot.eval(r.point(u, rayMin)) < 0
+	prev, prevNeg := rayMin, r.vdot.Eval(r.point(u, rayMin)) < 0
 	for k := 1; k <= raySteps; k++ {
 		s := rayMin * math.Pow(q, float64(k))
 		x := r.point(u, s)
-		if d := r.vdot.eval(x); d >= 0 {
+		if d := r.vdot.Eval(x); d >= 0 {
 			at := s
 			if prevNeg { // bisect to the sign change
 				lo, hi := prev, s
 				for range 80 {
 					mid := (lo + hi) / 2
-					if r.vdot.eval(r.point(u, mid)) >= 0 {
+					if r.vdot.Eval(r.point(u, mid)) >= 0 {
 						hi = mid
 					} else {
 						lo = mid
@@ -53,7 +54,7 @@ func (r *rays) firstRise(u []float64) (v, t float64, ok bool) {
 				}
 				at = hi
 			}
-			if w := r.v.eval(r.point(u, at)); w < best {
+			if w := r.v.Eval(r.point(u, at)); w < best {
 				best, t, ok = w, at, true
 			}
 			prevNeg = false
@@ -61,7 +62,7 @@ func (r *rays) firstRise(u []float64) (v, t float64, ok bool) {
 			prevNeg = true
 		}
 		prev = s
-		if ok && r.v.eval(x) > 4*best+1 {
+		if ok && r.v.Eval(x) > 4*best+1 {
 			break // V far above the best already: nothing lower further out on a growing V
 		}
 	}
@@ -202,12 +203,12 @@ func (r *rays) extent(n int, c float64) []float64 {
 	}
 	for _, u := range directions(n, count) {
 		lo, hi := 0.0, rayMin
-		for hi < rayMax && r.v.eval(r.point(u, hi)) <= c {
+		for hi < rayMax && r.v.Eval(r.point(u, hi)) <= c {
 			lo, hi = hi, hi*1.25
 		}
 		for range 60 {
 			mid := (lo + hi) / 2
-			if r.v.eval(r.point(u, mid)) <= c {
+			if r.v.Eval(r.point(u, mid)) <= c {
 				lo = mid
 			} else {
 				hi = mid

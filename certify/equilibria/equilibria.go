@@ -12,6 +12,7 @@ import (
 
 	"gonum.org/v1/gonum/mat"
 
+	"github.com/lyacert/lyacert/certify"
 	"github.com/lyacert/lyacert/model"
 	"github.com/lyacert/lyacert/poly"
 )
@@ -472,69 +473,25 @@ func substituteVals(vals []*poly.Poly, k int, expr *poly.Poly) []*poly.Poly {
 	return out
 }
 
-// floatPoly is a polynomial in the states with float64 coefficients, for
-// Newton's method and float Jacobians only.
-type floatPoly struct {
-	coef []float64
-	exp  [][]int
-}
-
-func toFloatPoly(p *poly.Poly) floatPoly {
-	var f floatPoly
-	for _, t := range p.Terms() {
-		c, _ := t.Coef.Float64()
-		f.coef = append(f.coef, c)
-		f.exp = append(f.exp, t.Exp)
-	}
-	return f
-}
-
-func (f floatPoly) eval(x []float64) float64 {
-	s := 0.0
-	for k, c := range f.coef {
-		v := c
-		for i, e := range f.exp[k] {
-			for ; e > 0; e-- {
-				v *= x[i]
-			}
-		}
-		s += v
-	}
-	return s
-}
-
-// magnitude returns Σ |terms| at x, the scale against which a residual is small.
-func (f floatPoly) magnitude(x []float64) float64 {
-	s := 0.0
-	for k, c := range f.coef {
-		v := math.Abs(c)
-		for i, e := range f.exp[k] {
-			v *= math.Pow(math.Abs(x[i]), float64(e))
-		}
-		s += v
-	}
-	return s
-}
-
-func floatSystem(g []*poly.Poly, jac [][]*poly.Poly) ([]floatPoly, [][]floatPoly) {
-	fg := make([]floatPoly, len(g))
-	fj := make([][]floatPoly, len(g))
+func floatSystem(g []*poly.Poly, jac [][]*poly.Poly) ([]certify.FloatPoly, [][]certify.FloatPoly) {
+	fg := make([]certify.FloatPoly, len(g))
+	fj := make([][]certify.FloatPoly, len(g))
 	for i := range g {
-		fg[i] = toFloatPoly(g[i])
-		fj[i] = make([]floatPoly, len(g))
+		fg[i] = newFloat(g[i])
+		fj[i] = make([]certify.FloatPoly, len(g))
 		for j := range g {
-			fj[i][j] = toFloatPoly(jac[i][j])
+			fj[i][j] = newFloat(jac[i][j])
 		}
 	}
 	return fg, fj
 }
 
-func evalJacobian(fj [][]floatPoly, x []float64) *mat.Dense {
+func evalJacobian(fj [][]certify.FloatPoly, x []float64) *mat.Dense {
 	n := len(fj)
 	a := mat.NewDense(n, n, nil)
 	for i := range fj {
 		for j := range fj[i] {
-			a.Set(i, j, fj[i][j].eval(x))
+			a.Set(i, j, fj[i][j].Eval(x))
 		}
 	}
 	return a
@@ -543,7 +500,7 @@ func evalJacobian(fj [][]floatPoly, x []float64) *mat.Dense {
 // newtonCandidates runs damped Newton iterations from deterministic starting
 // points (the origin and pseudo-random points in boxes of half-width 1/2, 2,
 // 8, 32 and 128) and returns the distinct limits.
-func newtonCandidates(fg []floatPoly, fj [][]floatPoly, n int) [][]float64 {
+func newtonCandidates(fg []certify.FloatPoly, fj [][]certify.FloatPoly, n int) [][]float64 {
 	rng := rand.New(rand.NewPCG(1969, 1977))
 	starts := [][]float64{make([]float64, n)}
 	for _, s := range []float64{0.5, 2, 8, 32, 128} {
@@ -578,13 +535,13 @@ func newtonCandidates(fg []floatPoly, fj [][]floatPoly, n int) [][]float64 {
 // newton runs damped Newton's method (step halving on the max-norm of the
 // residual) and reports convergence: a residual below 1e-10 of the size of
 // the terms at the point.
-func newton(fg []floatPoly, fj [][]floatPoly, x0 []float64) ([]float64, bool) {
+func newton(fg []certify.FloatPoly, fj [][]certify.FloatPoly, x0 []float64) ([]float64, bool) {
 	n := len(fg)
 	x := slices.Clone(x0)
 	res := func(x []float64) float64 {
 		r := 0.0
 		for _, f := range fg {
-			r = math.Max(r, math.Abs(f.eval(x)))
+			r = math.Max(r, math.Abs(f.Eval(x)))
 		}
 		return r
 	}
@@ -593,7 +550,7 @@ func newton(fg []floatPoly, fj [][]floatPoly, x0 []float64) ([]float64, bool) {
 	var step mat.VecDense
 	for it := 0; it < 80; it++ {
 		for i, f := range fg {
-			gv.SetVec(i, f.eval(x))
+			gv.SetVec(i, f.Eval(x))
 		}
 		var lu mat.LU
 		lu.Factorize(evalJacobian(fj, x))
@@ -634,7 +591,7 @@ func newton(fg []floatPoly, fj [][]floatPoly, x0 []float64) ([]float64, bool) {
 	}
 	scale := 0.0
 	for _, f := range fg {
-		scale = math.Max(scale, f.magnitude(x))
+		scale = math.Max(scale, f.Magnitude(x))
 	}
 	for _, v := range x {
 		if math.IsNaN(v) || math.IsInf(v, 0) || math.Abs(v) > 1e12 {
@@ -695,7 +652,7 @@ func rationalize(x, tol float64) *big.Rat {
 }
 
 // linearize sets the Jacobians, eigenvalues and class.
-func (e *Equilibrium) linearize(fj [][]floatPoly, jac [][]*poly.Poly, discrete bool) {
+func (e *Equilibrium) linearize(fj [][]certify.FloatPoly, jac [][]*poly.Poly, discrete bool) {
 	n := len(fj)
 	if e.Status == EquilibriumExact {
 		pt := slices.Clone(e.Point)
@@ -921,3 +878,6 @@ func classify2(tr, det, disc int, note string) string {
 	}
 	return side + " focus" + note
 }
+
+// newFloat is p in float64, every variable kept.
+func newFloat(p *poly.Poly) certify.FloatPoly { return certify.NewFloatPoly(p, 0) }

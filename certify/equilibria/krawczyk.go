@@ -6,6 +6,7 @@ import (
 
 	"gonum.org/v1/gonum/mat"
 
+	"github.com/lyacert/lyacert/certify"
 	"github.com/lyacert/lyacert/poly"
 )
 
@@ -20,7 +21,7 @@ var krawczykRadii = []float64{1e-10, 1e-7, 1e-5, 1e-12}
 // exactly one zero of g. Floats propose the centre, the radius and the
 // preconditioner Y ≈ J(c)⁻¹ (rounded to short rationals); the inclusion
 // K(X) ⊂ int X decides (poly.KrawczykImage).
-func encloseZero(g []*poly.Poly, jac [][]*poly.Poly, fj [][]floatPoly, c []float64) (box []poly.Interval, y [][]*big.Rat, k []poly.Interval, ok bool) {
+func encloseZero(g []*poly.Poly, jac [][]*poly.Poly, fj [][]certify.FloatPoly, c []float64) (box []poly.Interval, y [][]*big.Rat, k []poly.Interval, ok bool) {
 	n := len(g)
 	var inv mat.Dense
 	if err := inv.Inverse(evalJacobian(fj, c)); err != nil {

@@ -1,6 +1,6 @@
 package certificates
 
-import "github.com/lyacert/lyacert/checker"
+import "github.com/lyacert/lyacert/claims"
 
 // Contents gathers a certificate's claims by kind, for people and programs
 // that present them (reports, terminal text, --json). It decides nothing:
@@ -8,19 +8,19 @@ import "github.com/lyacert/lyacert/checker"
 type Contents struct {
 	V, Vdot       string
 	Forms         []FormView
-	Conditions    []checker.MinorCondition
+	Conditions    []claims.MinorCondition
 	Kernel        [][]string
 	Region        *RegionView
-	Witnesses     []checker.Witness
-	Refutation    *checker.Refutation
-	Krawczyk      *checker.KrawczykEnclosure
-	Linearization *checker.Linearization
+	Witnesses     []claims.Witness
+	Refutation    *claims.Refutation
+	Krawczyk      *claims.KrawczykEnclosure
+	Linearization *claims.Linearization
 	// NotSOS are the proofs that V or −V̇ is no sum of squares in a basis.
-	NotSOS []checker.NotSOS
+	NotSOS []claims.NotSOS
 	// Invariance is the invariance principle's identities; Points the
 	// nested certificates of point pieces.
-	Invariance *checker.Invariance
-	Points     []*checker.PointCheck
+	Invariance *claims.Invariance
+	Points     []*claims.PointCheck
 }
 
 // FormView is a Gram matrix with its LDLᵀ: of the quadratic part (Basis nil)
@@ -29,52 +29,52 @@ type FormView struct {
 	Name   string
 	Basis  []string
 	Margin string
-	checker.LDLForm
+	claims.LDLForm
 }
 
 // RegionView is where the conditions hold: the pieces of one parameter's
 // range, or a paving of several parameters' box (with its product form).
 type RegionView struct {
 	Param     string
-	Intervals []checker.Interval
-	Pieces    []checker.Piece
-	Paving    *checker.Paving
+	Intervals []claims.Interval
+	Pieces    []claims.Piece
+	Paving    *claims.Paving
 }
 
 // ContentsOf gathers the claims of d.
-func ContentsOf(d *checker.Document) Contents {
+func ContentsOf(d *claims.Document) Contents {
 	var c Contents
 	for _, cl := range d.Claims {
 		switch x := cl.(type) {
-		case *checker.OrbitalDerivative:
+		case *claims.OrbitalDerivative:
 			c.V, c.Vdot = x.V, x.Vdot
-		case *checker.QuadraticPart:
+		case *claims.QuadraticPart:
 			c.Forms = append(c.Forms, FormView{Name: x.Of, LDLForm: x.LDLForm})
-		case *checker.MonomialGram:
+		case *claims.MonomialGram:
 			c.Forms = append(c.Forms, FormView{Name: x.Of, Basis: x.Basis, LDLForm: x.LDLForm})
-		case *checker.MarginGram:
+		case *claims.MarginGram:
 			c.Forms = append(c.Forms, FormView{Name: x.Of, Basis: x.Basis, Margin: x.Margin, LDLForm: x.LDLForm})
-		case *checker.NotSOS:
+		case *claims.NotSOS:
 			c.NotSOS = append(c.NotSOS, *x)
-		case *checker.MinorCondition:
+		case *claims.MinorCondition:
 			c.Conditions = append(c.Conditions, *x)
-		case *checker.Invariance:
+		case *claims.Invariance:
 			c.Invariance = x
-		case *checker.PointCheck:
+		case *claims.PointCheck:
 			c.Points = append(c.Points, x)
-		case *checker.NullSpace:
+		case *claims.NullSpace:
 			c.Kernel = x.Vectors
-		case *checker.SturmRegion:
+		case *claims.SturmRegion:
 			c.Region = &RegionView{Param: x.Param, Intervals: x.Intervals, Pieces: x.Pieces}
-		case *checker.Paving:
-			c.Region = &RegionView{Intervals: []checker.Interval{}, Pieces: []checker.Piece{}, Paving: x}
-		case *checker.WitnessPoints:
+		case *claims.Paving:
+			c.Region = &RegionView{Intervals: []claims.Interval{}, Pieces: []claims.Piece{}, Paving: x}
+		case *claims.WitnessPoints:
 			c.Witnesses = x.Points
-		case *checker.Refutation:
+		case *claims.Refutation:
 			c.Refutation = x
-		case *checker.KrawczykEnclosure:
+		case *claims.KrawczykEnclosure:
 			c.Krawczyk = x
-		case *checker.Linearization:
+		case *claims.Linearization:
 			c.Linearization = x
 		}
 	}
@@ -82,7 +82,7 @@ func ContentsOf(d *checker.Document) Contents {
 }
 
 // ClaimsOf returns the claims of d of type T, in order.
-func ClaimsOf[T checker.Claim](d *checker.Document) []T {
+func ClaimsOf[T claims.Claim](d *claims.Document) []T {
 	var out []T
 	for _, c := range d.Claims {
 		if t, ok := c.(T); ok {
@@ -93,7 +93,7 @@ func ClaimsOf[T checker.Claim](d *checker.Document) []T {
 }
 
 // First returns the first claim of d of type T.
-func First[T checker.Claim](d *checker.Document) (T, bool) {
+func First[T claims.Claim](d *claims.Document) (T, bool) {
 	if cs := ClaimsOf[T](d); len(cs) > 0 {
 		return cs[0], true
 	}

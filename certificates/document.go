@@ -11,13 +11,13 @@ import (
 	"sync"
 	"syscall"
 
-	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 )
 
 // Seal sets d's digest: the SHA-256 of its canonical serialization, as
-// checker.Document.ComputeDigest computes it, by a faster path (the tests
+// claims.Document.ComputeDigest computes it, by a faster path (the tests
 // hold the two equal byte for byte).
-func Seal(d *checker.Document) error {
+func Seal(d *claims.Document) error {
 	c := *d
 	c.Digest = ""
 	c.Signature = nil
@@ -34,17 +34,17 @@ func Seal(d *checker.Document) error {
 	return nil
 }
 
-// Marshal returns the document as a certificate file (checker.Document.File).
-func Marshal(d *checker.Document) ([]byte, error) { return d.File() }
+// Marshal returns the document as a certificate file (claims.Document.File).
+func Marshal(d *claims.Document) ([]byte, error) { return d.File() }
 
-// ReadFile reads a certificate file strictly (see checker.Read).
-func ReadFile(path string) (*checker.Document, error) {
+// ReadFile reads a certificate file strictly (see claims.Read).
+func ReadFile(path string) (*claims.Document, error) {
 	f, err := os.Open(path)
 	if err != nil {
 		return nil, err
 	}
 	defer f.Close()
-	d, err := checker.Read(f)
+	d, err := claims.Read(f)
 	if err != nil {
 		return nil, fmt.Errorf("%s: %w", path, err)
 	}
@@ -54,7 +54,7 @@ func ReadFile(path string) (*checker.Document, error) {
 // WriteFile writes the document to path atomically: to a temporary file in
 // the same directory, then renamed over path, so that a reader never sees a
 // half-written certificate and an existing file is never truncated.
-func WriteFile(d *checker.Document, path string) error {
+func WriteFile(d *claims.Document, path string) error {
 	b, err := Marshal(d)
 	if err != nil {
 		return err

@@ -8,11 +8,12 @@ import (
 	"github.com/lyacert/lyacert/certificates"
 	"github.com/lyacert/lyacert/certify/direct"
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/model"
 )
 
 // A certificate travels as JSON: written by Marshal, read back by
-// checker.Read and re-checked from scratch by checker.Verify, which
+// claims.Read and re-checked from scratch by checker.Verify, which
 // derives the verdict from the claims. The model is an invented scenario,
 // x' = −x + y, y' = −2y with V = x² + y², so V̇ = −2x² + 2xy − 4y²
 // (negative definite by Sylvester's criterion: 2 > 0 and 2·4 − 1 > 0,
@@ -31,7 +32,7 @@ func ExampleMarshal() {
 	if err != nil {
 		log.Fatal(err)
 	}
-	doc, err := checker.Read(bytes.NewReader(data))
+	doc, err := claims.Read(bytes.NewReader(data))
 	if err != nil {
 		log.Fatal(err)
 	}

@@ -5,7 +5,7 @@ import (
 	"math/big"
 	"slices"
 
-	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/poly"
 )
 
@@ -33,9 +33,9 @@ type PavingBox struct {
 // Summarize computes the summary of a paving from its tree. It returns an
 // error if the box, the resolution or the tree is malformed (the classes are
 // taken as written; checker.Verify checks them).
-func Summarize(p *checker.Paving) (PavingSummary, error) {
+func Summarize(p *claims.Paving) (PavingSummary, error) {
 	var s PavingSummary
-	sides, err := p.Sides()
+	sides, _, err := p.Sides()
 	if err != nil {
 		return s, err
 	}
@@ -43,7 +43,7 @@ func Summarize(p *checker.Paving) (PavingSummary, error) {
 	if err != nil {
 		return s, err
 	}
-	share := map[byte]*big.Rat{checker.PaveInside: new(big.Rat), checker.PaveOutside: new(big.Rat), checker.PaveUndecided: new(big.Rat)}
+	share := map[byte]*big.Rat{claims.PaveInside: new(big.Rat), claims.PaveOutside: new(big.Rat), claims.PaveUndecided: new(big.Rat)}
 	count := map[byte]int{}
 	var inside []PavingLeaf
 	for _, lf := range leaves {
@@ -53,7 +53,7 @@ func Summarize(p *checker.Paving) (PavingSummary, error) {
 		}
 		share[lf.Class].Add(share[lf.Class], new(big.Rat).SetFrac(big.NewInt(1), new(big.Int).Lsh(big.NewInt(1), uint(d))))
 		count[lf.Class]++
-		if lf.Class == checker.PaveInside {
+		if lf.Class == claims.PaveInside {
 			inside = append(inside, lf)
 		}
 	}
@@ -63,10 +63,10 @@ func Summarize(p *checker.Paving) (PavingSummary, error) {
 		vol.Mul(vol, w)
 	}
 	s.Volume = vol.RatString()
-	s.Inside, s.Outside, s.Undecided = count[checker.PaveInside], count[checker.PaveOutside], count[checker.PaveUndecided]
-	s.InsideFraction = share[checker.PaveInside].RatString()
-	s.OutsideFraction = share[checker.PaveOutside].RatString()
-	s.UndecidedFraction = share[checker.PaveUndecided].RatString()
+	s.Inside, s.Outside, s.Undecided = count[claims.PaveInside], count[claims.PaveOutside], count[claims.PaveUndecided]
+	s.InsideFraction = share[claims.PaveInside].RatString()
+	s.OutsideFraction = share[claims.PaveOutside].RatString()
+	s.UndecidedFraction = share[claims.PaveUndecided].RatString()
 	s.InsideBoxes = []PavingBox{}
 	scale, merged := mergePaving(inside, len(sides))
 	for _, b := range merged {
@@ -144,7 +144,7 @@ func sameExcept(x, y [2][]int64, j int) bool {
 }
 
 // PavingLeaf is a leaf of a paving's tree as a box of parameter values, with
-// its class (checker.PaveInside, PaveOutside or PaveUndecided) and its place
+// its class (claims.PaveInside, PaveOutside or PaveUndecided) and its place
 // on the dyadic grid of the paved box.
 type PavingLeaf struct {
 	Class  byte
@@ -156,8 +156,8 @@ type PavingLeaf struct {
 // in depth-first order. It returns an error if the box, the resolution or
 // the tree is malformed; the classes are as written (checker.Verify checks
 // them).
-func Leaves(p *checker.Paving) ([]PavingLeaf, error) {
-	sides, err := p.Sides()
+func Leaves(p *claims.Paving) ([]PavingLeaf, error) {
+	sides, _, err := p.Sides()
 	if err != nil {
 		return nil, err
 	}

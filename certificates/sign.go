@@ -17,7 +17,7 @@ import (
 	"slices"
 	"strings"
 
-	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 )
 
 // Key files are PEM (RFC 7468) so that general tools read them: the private
@@ -40,7 +40,7 @@ var ErrUntrusted = errors.New("signed by a key that is not trusted")
 // VerifyTrusted checks d's signature and requires its key to be one of
 // trusted. It returns the signing key, or ErrUnsigned, ErrBadSignature, or
 // ErrUntrusted wrapped with the signer's fingerprint.
-func VerifyTrusted(d *checker.Document, trusted []ed25519.PublicKey) (ed25519.PublicKey, error) {
+func VerifyTrusted(d *claims.Document, trusted []ed25519.PublicKey) (ed25519.PublicKey, error) {
 	pub, err := d.VerifySignature()
 	if err != nil {
 		return nil, err
@@ -86,7 +86,7 @@ func Fingerprint(pub ed25519.PublicKey) string {
 // digest does not match it, since signing it would vouch for content the
 // digest does not describe. The signature is outside the canonical
 // serialization, so signing does not change the digest.
-func Sign(d *checker.Document, priv ed25519.PrivateKey) error {
+func Sign(d *claims.Document, priv ed25519.PrivateKey) error {
 	if len(priv) != ed25519.PrivateKeySize {
 		return fmt.Errorf("sign: the private key has %d bytes, want %d", len(priv), ed25519.PrivateKeySize)
 	}
@@ -98,8 +98,8 @@ func Sign(d *checker.Document, priv ed25519.PrivateKey) error {
 		return fmt.Errorf("sign: the stored digest %q does not match the content (%s)", d.Digest, digest)
 	}
 	pub := priv.Public().(ed25519.PublicKey)
-	d.Signature = &checker.Signature{
-		Algorithm: checker.SignatureAlgorithm,
+	d.Signature = &claims.Signature{
+		Algorithm: claims.SignatureAlgorithm,
 		PublicKey: base64.StdEncoding.EncodeToString(pub),
 		Value:     base64.StdEncoding.EncodeToString(ed25519.Sign(priv, []byte(digest))),
 	}

@@ -17,6 +17,7 @@ import (
 	"testing"
 
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 )
 
 func testKey(t *testing.T, seedByte byte) ed25519.PrivateKey {
@@ -28,7 +29,7 @@ func testKey(t *testing.T, seedByte byte) ed25519.PrivateKey {
 	return ed25519.NewKeyFromSeed(seed)
 }
 
-func signedCoolant(t *testing.T, priv ed25519.PrivateKey) *checker.Document {
+func signedCoolant(t *testing.T, priv ed25519.PrivateKey) *claims.Document {
 	t.Helper()
 	d, err := ReadFile("../testdata/certificates/coolant.json")
 	if err != nil {
@@ -46,39 +47,39 @@ func TestSignatures(t *testing.T) {
 	bobPub := bob.Public().(ed25519.PublicKey)
 	tests := []struct {
 		name    string
-		alter   func(d *checker.Document)
+		alter   func(d *claims.Document)
 		trusted []ed25519.PublicKey
 		want    error // nil: valid and trusted
 	}{
 		// common practice, no source: the four cases a reader meets.
-		{"good", func(*checker.Document) {}, []ed25519.PublicKey{alicePub}, nil},
-		{"good among several trusted", func(*checker.Document) {}, []ed25519.PublicKey{bobPub, alicePub}, nil},
-		{"altered after signing, digest re-sealed", func(d *checker.Document) {
+		{"good", func(*claims.Document) {}, []ed25519.PublicKey{alicePub}, nil},
+		{"good among several trusted", func(*claims.Document) {}, []ed25519.PublicKey{bobPub, alicePub}, nil},
+		{"altered after signing, digest re-sealed", func(d *claims.Document) {
 			d.Issued = "2030-01-01T00:00:00Z"
 			if err := Seal(d); err != nil {
 				t.Fatal(err)
 			}
-		}, []ed25519.PublicKey{alicePub}, checker.ErrBadSignature},
-		{"altered after signing, digest stale", func(d *checker.Document) { d.Source = "other.lya" }, []ed25519.PublicKey{alicePub}, checker.ErrBadSignature},
-		{"wrong key", func(*checker.Document) {}, []ed25519.PublicKey{bobPub}, ErrUntrusted},
-		{"no trusted key", func(*checker.Document) {}, nil, ErrUntrusted},
-		{"absent", func(d *checker.Document) { d.Signature = nil }, []ed25519.PublicKey{alicePub}, checker.ErrUnsigned},
-		{"public key swapped", func(d *checker.Document) {
+		}, []ed25519.PublicKey{alicePub}, claims.ErrBadSignature},
+		{"altered after signing, digest stale", func(d *claims.Document) { d.Source = "other.lya" }, []ed25519.PublicKey{alicePub}, claims.ErrBadSignature},
+		{"wrong key", func(*claims.Document) {}, []ed25519.PublicKey{bobPub}, ErrUntrusted},
+		{"no trusted key", func(*claims.Document) {}, nil, ErrUntrusted},
+		{"absent", func(d *claims.Document) { d.Signature = nil }, []ed25519.PublicKey{alicePub}, claims.ErrUnsigned},
+		{"public key swapped", func(d *claims.Document) {
 			d.Signature.PublicKey = base64.StdEncoding.EncodeToString(bobPub)
-		}, []ed25519.PublicKey{bobPub}, checker.ErrBadSignature},
-		{"re-signed by another key", func(d *checker.Document) {
+		}, []ed25519.PublicKey{bobPub}, claims.ErrBadSignature},
+		{"re-signed by another key", func(d *claims.Document) {
 			if err := Sign(d, bob); err != nil {
 				t.Fatal(err)
 			}
 		}, []ed25519.PublicKey{alicePub}, ErrUntrusted},
-		{"value not base64", func(d *checker.Document) { d.Signature.Value = "!!" }, []ed25519.PublicKey{alicePub}, checker.ErrBadSignature},
-		{"value truncated", func(d *checker.Document) { d.Signature.Value = d.Signature.Value[:20] }, []ed25519.PublicKey{alicePub}, checker.ErrBadSignature},
-		{"other algorithm", func(d *checker.Document) { d.Signature.Algorithm = "rsa" }, []ed25519.PublicKey{alicePub}, checker.ErrBadSignature},
-		{"one bit of the signature flipped", func(d *checker.Document) {
+		{"value not base64", func(d *claims.Document) { d.Signature.Value = "!!" }, []ed25519.PublicKey{alicePub}, claims.ErrBadSignature},
+		{"value truncated", func(d *claims.Document) { d.Signature.Value = d.Signature.Value[:20] }, []ed25519.PublicKey{alicePub}, claims.ErrBadSignature},
+		{"other algorithm", func(d *claims.Document) { d.Signature.Algorithm = "rsa" }, []ed25519.PublicKey{alicePub}, claims.ErrBadSignature},
+		{"one bit of the signature flipped", func(d *claims.Document) {
 			b, _ := base64.StdEncoding.DecodeString(d.Signature.Value)
 			b[5] ^= 1
 			d.Signature.Value = base64.StdEncoding.EncodeToString(b)
-		}, []ed25519.PublicKey{alicePub}, checker.ErrBadSignature},
+		}, []ed25519.PublicKey{alicePub}, claims.ErrBadSignature},
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
@@ -102,10 +103,10 @@ func TestSignatures(t *testing.T) {
 				t.Errorf("unsigned document has a signature check %+v", *sig)
 			case d.Signature != nil && sig == nil:
 				t.Errorf("signed document has no signature check")
-			case sig != nil && sig.OK != !errors.Is(err, checker.ErrBadSignature):
+			case sig != nil && sig.OK != !errors.Is(err, claims.ErrBadSignature):
 				t.Errorf("signature check %+v, VerifyTrusted said %v", *sig, err)
 			}
-			if errors.Is(err, checker.ErrBadSignature) && res.Valid {
+			if errors.Is(err, claims.ErrBadSignature) && res.Valid {
 				t.Errorf("checker.Verify accepts a document with a bad signature")
 			}
 		})
@@ -128,7 +129,7 @@ func TestErrorMessagesAreDistinct(t *testing.T) {
 	if err == nil || err.Error() != want {
 		t.Errorf("untrusted: %v, want %q", err, want)
 	}
-	msgs := map[string]bool{checker.ErrUnsigned.Error(): true, checker.ErrBadSignature.Error(): true, ErrUntrusted.Error(): true}
+	msgs := map[string]bool{claims.ErrUnsigned.Error(): true, claims.ErrBadSignature.Error(): true, ErrUntrusted.Error(): true}
 	if len(msgs) != 3 {
 		t.Errorf("the three signature errors share a message")
 	}

@@ -8,6 +8,7 @@ import (
 	"time"
 
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/model"
 	"github.com/lyacert/lyacert/poly"
 )
@@ -38,24 +39,24 @@ func Agrees(out checker.Outcome, verdict, kind string) error {
 var ErrUnverified = errors.New("internal error: the exact checker rejected the certificate the engine built")
 
 // NewDocument starts a certificate of m with no claims.
-func NewDocument(m *model.Model, source string) *checker.Document {
+func NewDocument(m *model.Model, source string) *claims.Document {
 	desc := m.Description
 	if desc == nil {
 		desc = []string{}
 	}
-	params := []checker.Parameter{}
+	params := []claims.Parameter{}
 	for _, p := range m.Params {
-		params = append(params, checker.Parameter{Name: p.Name, Range: model.RangeText(p)})
+		params = append(params, claims.Parameter{Name: p.Name, Range: model.RangeText(p)})
 	}
-	return &checker.Document{
+	return &claims.Document{
 		Parameters:  params,
-		Format:      checker.Format,
+		Format:      claims.Format,
 		Tool:        "lyacert " + Version,
 		Issued:      time.Now().UTC().Format(time.RFC3339),
 		Source:      source,
 		Description: desc,
 		Model:       m.Canonical(),
-		Claims:      []checker.Claim{},
+		Claims:      []claims.Claim{},
 	}
 }
 

@@ -5,26 +5,9 @@ import (
 	"fmt"
 	"math/big"
 
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/poly"
 )
-
-// SublevelBasin claims that, for every value p of the free parameters in
-// their ranges, every state of the connected component of {V(·, p) ≤ Level}
-// around the equilibrium tends to the equilibrium. The box of the states
-// (sides [Lo[i], Hi[i]], canonical rationals) times the box of the free
-// parameters (their ranges, which must be closed and bounded) is bisected
-// like a Paving's (Resolution, Tree; codes S, I, O, no U): on an O box
-// V > Level throughout, on an I box V̇ < 0 except at the equilibrium; every
-// box that touches a face of the state box is an O box.
-type SublevelBasin struct {
-	Level      string   `json:"level"`
-	Lo         []string `json:"lo"`
-	Hi         []string `json:"hi"`
-	Resolution string   `json:"resolution"`
-	Tree       string   `json:"tree"`
-}
-
-func (*SublevelBasin) Rule() string { return "sublevel-basin" }
 
 // sublevelBasin: a compact positively invariant set on which V̇ < 0 except at
 // the equilibrium lies in the equilibrium's region of attraction (Lyapunov's
@@ -44,20 +27,20 @@ func (*SublevelBasin) Rule() string { return "sublevel-basin" }
 // centred form of −V̇ > 0 on it, or by −V̇ = yᵀ(G(p) + M(y, p))y
 // (y = x − x*) with every matrix of Enclose(G) + Enclose(M) on the box
 // positive definite (poly.PositiveNearZero).
-func (c *run) sublevelBasin(cl Claim) bool {
-	b := cl.(*SublevelBasin)
+func (c *run) sublevelBasin(cl claims.Claim) bool {
+	b := cl.(*claims.SublevelBasin)
 	n := len(c.m.States)
 	const what = "sublevel-basin"
 	if !c.once(what) || !c.add(what, c.derived && !c.m.Discrete && c.v.IsPoly() && c.vdot.IsPoly(),
 		"follows V̇ in continuous time, V and V̇ polynomials") {
 		return false
 	}
-	level, ok := parseRat(b.Level)
+	level, ok := poly.ParseRat(b.Level)
 	if !c.add(what, ok && level.RatString() == b.Level && level.Sign() > 0, "the level %q is a canonical rational > 0", b.Level) {
 		return false
 	}
-	res, ok := ResolutionLevel(b.Resolution)
-	if !c.add(what, ok, "the resolution %q is 2^-L with 0 ≤ L ≤ %d", b.Resolution, MaxPavingLevel) {
+	res, ok := claims.ResolutionLevel(b.Resolution)
+	if !c.add(what, ok, "the resolution %q is 2^-L with 0 ≤ L ≤ %d", b.Resolution, claims.MaxPavingLevel) {
 		return false
 	}
 	sides, at, err := c.basinBox(b)
@@ -75,20 +58,20 @@ func (c *run) sublevelBasin(cl Claim) bool {
 	}
 	near := c.m.Shift(c.vdot).Neg().Num // −V̇ at x* + y, in y
 	count := 0
-	err = walkPaving(b.Tree, len(sides), res, func(code byte, g poly.DyadicBox) error {
+	err = claims.WalkPaving(b.Tree, len(sides), res, func(code byte, g poly.DyadicBox) error {
 		fs := walk.At(g)
 		if count++; count%4096 == 0 && c.ctx.Err() != nil {
 			return c.ctx.Err()
 		}
 		switch code {
-		case PaveSplit:
+		case claims.PaveSplit:
 			return nil
-		case PaveOutside:
+		case claims.PaveOutside:
 			if !fs[0].PositiveOn(poly.OpenFaces{}) {
 				return fmt.Errorf("an O box at depth %d is not proven to have V > level", g.Depth())
 			}
 			return nil
-		case PaveInside:
+		case claims.PaveInside:
 		default:
 			return fmt.Errorf("box %d has the code %q, not S, I or O", count, code)
 		}
@@ -117,26 +100,22 @@ func (c *run) sublevelBasin(cl Claim) bool {
 // basinBox reads the box of a basin claim, followed by the free
 // parameters' ranges, and the equilibrium, which must be a rational point
 // inside it, the same for every parameter value, where V is below the level.
-func (c *run) basinBox(b *SublevelBasin) ([]poly.Interval, []*big.Rat, error) {
+func (c *run) basinBox(b *claims.SublevelBasin) ([]poly.Interval, []*big.Rat, error) {
 	n := len(c.m.States)
-	if len(b.Lo) != n || len(b.Hi) != n {
-		return nil, nil, fmt.Errorf("%d and %d sides for %d states", len(b.Lo), len(b.Hi), n)
+	sides, err := b.Sides(n)
+	if err != nil {
+		return nil, nil, err
 	}
-	sides := make([]poly.Interval, n)
-	at, pt := make([]*big.Rat, n), make([]poly.Interval, n)
+	at, err := c.m.ConstantAt()
+	if err != nil {
+		return nil, nil, err
+	}
+	pt := make([]poly.Interval, n)
 	for i := range n {
-		lo, ok1 := parseRat(b.Lo[i])
-		hi, ok2 := parseRat(b.Hi[i])
-		a, err := c.m.At[i].EvalVars(nil)
-		if !ok1 || !ok2 || lo.RatString() != b.Lo[i] || hi.RatString() != b.Hi[i] || err != nil || !a.IsPoly() || !a.Num.IsConst() {
-			return nil, nil, fmt.Errorf("side %d is not two canonical rationals", i+1)
-		}
-		at[i] = a.Num.ConstTerm()
 		pt[i] = poly.Point(at[i])
-		if lo.Cmp(at[i]) >= 0 || at[i].Cmp(hi) >= 0 {
+		if sides[i].Lo.Value.Cmp(at[i]) >= 0 || at[i].Cmp(sides[i].Hi.Value) >= 0 {
 			return nil, nil, fmt.Errorf("the equilibrium is not inside side %d", i+1)
 		}
-		sides[i] = poly.Closed(lo, hi)
 	}
 	for i, s := range c.m.Box()[n:] {
 		if !s.Compact() {
@@ -144,7 +123,7 @@ func (c *run) basinBox(b *SublevelBasin) ([]poly.Interval, []*big.Rat, error) {
 		}
 		sides = append(sides, s)
 	}
-	if level, _ := parseRat(b.Level); c.v.Num.Enclose(append(pt, sides[n:]...)).Hi.Value.Cmp(level) >= 0 {
+	if level, _ := poly.ParseRat(b.Level); c.v.Num.Enclose(append(pt, sides[n:]...)).Hi.Value.Cmp(level) >= 0 {
 		return nil, nil, errors.New("V at the equilibrium is not below the level")
 	}
 	return sides, at, nil

@@ -6,113 +6,15 @@ import (
 	"math/big"
 	"slices"
 
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/poly"
 )
-
-// OrbitalDerivative restates the candidate V and its derivative along the
-// flow, V̇ = Σ ∂V/∂xᵢ·fᵢ, or for a map ΔV = V(f(x)) − V(x).
-type OrbitalDerivative struct {
-	V    string `json:"V"`
-	Vdot string `json:"vdot"`
-}
-
-// LDLForm is a Gram matrix G with G = L·diag(D)·Lᵀ, L unit lower triangular,
-// and the leading principal minors of G on its non-zero pivots. Of is "V" or
-// "-Vdot". A zero pivot is allowed only with a zero column of L below it
-// (the semidefinite case).
-type LDLForm struct {
-	Of     string     `json:"of"`
-	Gram   [][]string `json:"gram"`
-	L      [][]string `json:"l"`
-	D      []string   `json:"d"`
-	Minors []string   `json:"minors"`
-}
-
-// QuadraticPart is the LDLᵀ of the Gram matrix of the quadratic part of V or
-// −V̇ at the equilibrium, in the states.
-type QuadraticPart struct{ LDLForm }
-
-// MonomialGram is the LDLᵀ of a Gram matrix of the whole function, all
-// degrees: V or −V̇ = zᵀGz for the monomials z of Basis (each with
-// coefficient 1, a pure power of every state among them).
-type MonomialGram struct {
-	Basis []string `json:"basis"`
-	LDLForm
-}
-
-// MinorCondition is what one leading principal minor requires: Minor > 0,
-// with Minor's numerator times its denominator factored as
-// Constant · Π Factorᵢ^Powerᵢ. Factors whose sign the assumptions fix are
-// discharged; Condition is the product of the rest (with the constant's sign
-// and the discharged signs folded in), which must be > 0.
-type MinorCondition struct {
-	Form      string   `json:"form"`
-	Index     int      `json:"index"`
-	Minor     string   `json:"minor"`
-	Constant  string   `json:"constant"`
-	Factors   []Factor `json:"factors"`
-	Condition string   `json:"condition"`
-}
-
-// Factor is one factor of a minor, with its sign status.
-type Factor struct {
-	Poly   string `json:"poly"`
-	Power  int    `json:"power"`
-	Status string `json:"status"`
-}
-
-// Factor statuses.
-const (
-	StatusPositive  = "positive-by-assumption"
-	StatusNegative  = "negative-by-assumption"
-	StatusCondition = "condition"
-)
-
-// NullSpace spans the set where the semidefinite quadratic form of −V̇
-// vanishes: one vector per zero pivot.
-type NullSpace struct {
-	Of      string     `json:"of"`
-	Vectors [][]string `json:"vectors"`
-}
-
-// WitnessPoints are points of parameter space where the conditions hold or
-// fail (several free parameters).
-type WitnessPoints struct {
-	Points []Witness `json:"points"`
-}
-
-// Witness gives exactly the parameters the conditions involve, the
-// conditions' values there in order, and whether all are > 0.
-type Witness struct {
-	Params map[string]string `json:"params"`
-	Values []string          `json:"values"`
-	Holds  bool              `json:"holds"`
-}
-
-// Refutation is a point where the candidate fails: V ≤ 0 or V̇ > 0 at a state
-// other than the equilibrium. Params fixes only the parameters on which V or
-// V̇ at Point depends; V and Vdot are the exact values there, as functions
-// of the remaining parameters, whose sign must hold on their whole range.
-type Refutation struct {
-	Params map[string]string `json:"params"`
-	Point  map[string]string `json:"point"`
-	V      string            `json:"V"`
-	Vdot   string            `json:"vdot"`
-}
-
-func (*OrbitalDerivative) Rule() string { return "orbital-derivative" }
-func (*QuadraticPart) Rule() string     { return "quadratic-part-ldl" }
-func (*MonomialGram) Rule() string      { return "monomial-gram-ldl" }
-func (*MinorCondition) Rule() string    { return "minor-condition" }
-func (*NullSpace) Rule() string         { return "semidefinite-kernel" }
-func (*WitnessPoints) Rule() string     { return "witness-points" }
-func (*Refutation) Rule() string        { return "refutation" }
 
 // derivative: V is the model's candidate, and the stated derivative equals
 // the one recomputed by the chain rule (ΔV by composition for a map). The
 // model's equilibrium must make f vanish identically.
-func (c *run) derivative(cl Claim) bool {
-	od := cl.(*OrbitalDerivative)
+func (c *run) derivative(cl claims.Claim) bool {
+	od := cl.(*claims.OrbitalDerivative)
 	m := c.m
 	if !c.once("orbital-derivative") {
 		return false
@@ -168,8 +70,8 @@ func (c *run) shifted(of string) (poly.RatFunc, bool) {
 // first pivots (L unit lower triangular), and G ≻ 0 iff every minor is > 0.
 // With zero pivots whose columns of L vanish, G = L·D·Lᵀ with D ≥ 0 is
 // positive semidefinite.
-func (c *run) quadraticPart(cl Claim) bool {
-	f := &cl.(*QuadraticPart).LDLForm
+func (c *run) quadraticPart(cl claims.Claim) bool {
+	f := &cl.(*claims.QuadraticPart).LDLForm
 	whole, ok := c.shifted(f.Of)
 	if !ok {
 		return false
@@ -192,32 +94,23 @@ func (c *run) quadraticPart(cl Claim) bool {
 // −V̇ a semidefinite G (zero pivots with zero columns of L), or a basis
 // without a pure power of some state, still gives −V̇ = Σ dₖ·qₖ² ≥ 0
 // everywhere: V̇ ≤ 0, a semidefinite form.
-func (c *run) monomialGram(cl Claim) bool {
-	mg := cl.(*MonomialGram)
+func (c *run) monomialGram(cl claims.Claim) bool {
+	mg := cl.(*claims.MonomialGram)
 	whole, ok := c.shifted(mg.Of)
 	if !ok {
 		return false
 	}
 	name := "basis " + mg.Of
-	n := len(mg.Basis)
-	z := make([]*poly.Poly, n)
+	z, ok := c.monomials(name, mg.Basis, false)
+	if !ok {
+		return false
+	}
+	n := len(z)
 	pure := make([]bool, len(c.m.States))
-	seen := map[string]bool{}
-	for i, s := range mg.Basis {
-		b, ok := c.parse(name, s)
-		if !ok {
-			return false
-		}
-		mono := b.IsPoly() && b.Num.IsMonomial() && b.Num.Lead().Coef.Cmp(big.NewRat(1, 1)) == 0 &&
-			b.Num.DegreeIn(c.r.ParamMask()) == 0 && b.Num.Degree() >= 1
-		if !c.add(name, mono && !seen[b.Num.String()], "basis element %s is a new monomial in the states with coefficient 1", s) {
-			return false
-		}
-		seen[b.Num.String()] = true
-		if vars := b.Num.VarsUsed(); len(vars) == 1 {
+	for _, b := range z {
+		if vars := b.VarsUsed(); len(vars) == 1 {
 			pure[vars[0]] = true
 		}
-		z[i] = b.Num
 	}
 	g, ok := c.matrix(name, mg.Gram, n, "the Gram matrix")
 	free := ok
@@ -258,7 +151,7 @@ func (c *run) matrix(name string, rows [][]string, n int, what string) (poly.Mat
 }
 
 // form checks G = L·D·Lᵀ and the minors of one form against the recomputed G.
-func (c *run) form(f *LDLForm, g poly.Matrix) (*checkedForm, bool) {
+func (c *run) form(f *claims.LDLForm, g poly.Matrix) (*checkedForm, bool) {
 	name, n := f.Of, len(g)
 	cf := &checkedForm{g: g}
 	claimedG, ok1 := c.matrix("form "+name, f.Gram, n, "the Gram matrix")
@@ -268,23 +161,11 @@ func (c *run) form(f *LDLForm, g poly.Matrix) (*checkedForm, bool) {
 		return cf, false
 	}
 	cf.d, cf.l, cf.zero = d, l, make([]bool, n)
-	unit, zeroCols := true, true
 	for i := range n {
 		cf.zero[i] = d[i].IsZero()
 		cf.semidef = cf.semidef || cf.zero[i]
-		for j := range n {
-			switch {
-			case j == i:
-				unit = unit && l[i][j].IsOne()
-			case j > i:
-				unit = unit && l[i][j].IsZero()
-			case cf.zero[j]:
-				zeroCols = zeroCols && l[i][j].IsZero()
-			}
-		}
 	}
-	if !c.add("ldl "+name, unit, "L is unit lower triangular") ||
-		!c.add("ldl "+name, zeroCols, "a zero pivot has a zero column of L below it") ||
+	if !c.add("ldl "+name, l.UnitLower(cf.zero), "L is unit lower triangular, with a zero column below every zero pivot") ||
 		!c.add("ldl "+name, g.EqualLDL(l, d), "L·D·Lᵀ reproduces the Gram matrix exactly") {
 		return cf, false
 	}
@@ -341,15 +222,15 @@ func (c *run) list(name string, ss []string, n int, what string) ([]poly.RatFunc
 // factor's sign status follows from its exact interval enclosure over the
 // parameter box (Moore 1966): minor > 0 iff the condition > 0 there. The
 // conditions come in the order of the minors, V's first.
-func (c *run) minorCondition(cl Claim) bool {
-	cd := cl.(*MinorCondition)
+func (c *run) minorCondition(cl claims.Claim) bool {
+	cd := cl.(*claims.MinorCondition)
 	what := fmt.Sprintf("condition %d", len(c.conds)+1)
 	if !c.add(what, len(c.forms) == 2 && len(c.conds) < len(c.minors), "there is a minor of the two forms left for it") {
 		return false
 	}
 	w := c.minors[len(c.conds)]
 	mi, ok := c.parse(what, cd.Minor)
-	k, ok2 := parseRat(cd.Constant)
+	k, ok2 := poly.ParseRat(cd.Constant)
 	if !ok || !c.add(what, cd.Form == w.form && cd.Index == w.index && mi.Equal(w.minor), "it is minor %d of %s, stated", w.index, w.form) ||
 		!c.add(what, ok2 && k.Sign() != 0, "it has a non-zero rational constant") {
 		return false
@@ -380,9 +261,9 @@ func (c *run) minorCondition(cl Claim) bool {
 			return false
 		}
 		switch status {
-		case StatusNegative:
+		case claims.StatusNegative:
 			sign = -sign
-		case StatusCondition:
+		case claims.StatusCondition:
 			q.Mul(q, pw)
 		}
 	}
@@ -407,20 +288,20 @@ func FactorStatus(f *poly.Poly, power int, box []poly.Interval) string {
 	e := f.Enclose(box)
 	switch {
 	case power%2 == 0 && !e.ContainsZero():
-		return StatusPositive
+		return claims.StatusPositive
 	case power%2 == 1 && e.Positive():
-		return StatusPositive
+		return claims.StatusPositive
 	case power%2 == 1 && e.Negative():
-		return StatusNegative
+		return claims.StatusNegative
 	}
-	return StatusCondition
+	return claims.StatusCondition
 }
 
 // nullSpace: for G = L·D·Lᵀ ⪰ 0 the set where zᵀGz = 0 is the kernel of G;
 // the stated vectors are independent (1 at their own zero pivot, 0 at the
 // others) and G·k = 0 for each, one per zero pivot, so they span it.
-func (c *run) nullSpace(cl Claim) bool {
-	ns := cl.(*NullSpace)
+func (c *run) nullSpace(cl claims.Claim) bool {
+	ns := cl.(*claims.NullSpace)
 	f := c.forms[ns.Of]
 	if !c.once("semidefinite-kernel") || !c.add("kernel", ns.Of == "-Vdot" && f != nil && !f.basis, "the kernel of the quadratic part of −V̇") {
 		return false
@@ -476,8 +357,8 @@ func (c *run) conditionsUsed(what string) (map[int]bool, bool) {
 }
 
 // witnessPoints: the conditions evaluated exactly at each point.
-func (c *run) witnessPoints(cl Claim) bool {
-	wp := cl.(*WitnessPoints)
+func (c *run) witnessPoints(cl claims.Claim) bool {
+	wp := cl.(*claims.WitnessPoints)
 	var used map[int]bool
 	if c.seen["paving"] { // beside a paving, after its region
 		used = c.region.used
@@ -508,7 +389,7 @@ func (c *run) witnessPoints(cl Claim) bool {
 		all, exact := true, true
 		for j, q := range c.conds {
 			x := new(poly.Poly).EvalVars(q.Num, vals).ConstTerm()
-			claimed, ok := parseRat(w.Values[j])
+			claimed, ok := poly.ParseRat(w.Values[j])
 			exact = exact && ok && claimed.Cmp(x) == 0
 			all = all && x.Sign() > 0
 		}
@@ -523,30 +404,16 @@ func (c *run) witnessPoints(cl Claim) bool {
 
 // paramValues reads values of some free parameters, each inside its range.
 func (c *run) paramValues(vals map[string]string, what string) (map[int]*big.Rat, bool) {
-	out := map[int]*big.Rat{}
-	// In name order, so that the record of checks is the same every time.
-	for _, name := range slices.Sorted(maps.Keys(vals)) {
-		s := vals[name]
-		p, ok := c.m.Param(name)
-		i, isVar := c.r.Index(name)
-		if !c.add(what, ok && isVar && p.Fixed == nil, "%s is a free parameter", name) {
-			return nil, false
-		}
-		v, ok := parseRat(s)
-		if !c.add(what, ok && p.Range.Contains(v), "%s = %s lies in %s", name, s, p.Range) {
-			return nil, false
-		}
-		out[i] = v
-	}
-	return out, true
+	out, err := c.m.ParamValues(vals)
+	return out, c.add(what, err == nil, "the parameter values are exact and inside their ranges%s", errSuffix(err))
 }
 
 // refutation: a point where V ≤ 0 or V̇ ≥ 0 refutes the candidate. The values
 // are recomputed as functions of the parameters left free, and their sign
 // must hold on the whole box by exact interval enclosure. Every fixed
 // parameter must matter.
-func (c *run) refutation(cl Claim) bool {
-	rf := cl.(*Refutation)
+func (c *run) refutation(cl claims.Claim) bool {
+	rf := cl.(*claims.Refutation)
 	if !c.once("refutation") || !c.add("refutation", c.derived, "follows the derivative") {
 		return false
 	}
@@ -556,7 +423,7 @@ func (c *run) refutation(cl Claim) bool {
 	}
 	point, all := map[int]*big.Rat{}, len(rf.Point) == len(c.m.States)
 	for i, s := range c.m.States {
-		point[i], ok = parseRat(rf.Point[s])
+		point[i], ok = poly.ParseRat(rf.Point[s])
 		all = all && ok
 	}
 	if !c.add("refutation", all, "the point gives every state, and nothing else, as a rational") {

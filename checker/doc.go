@@ -1,9 +1,9 @@
 // Package checker is lyacert's trusted kernel: it re-checks a certificate
 // from scratch with exact rational arithmetic, knowing nothing of how the
-// certificate was found. It imports only poly, model and the standard
-// library, and uses no floating point.
+// certificate was found. It imports only poly, model, claims (the
+// certificate format) and the standard library, and uses no floating point.
 //
-// A certificate (Document) is a model text, a restatement of its parameters
+// A certificate (claims.Document) is a model text, a restatement of its parameters
 // and a list of claims. Each claim names the rule that checks it; Verify
 // dispatches on the name, in the order of the table below, and derives the
 // verdict (holds, holds-on-region, fails, undecided) and the kind of claim
@@ -65,7 +65,7 @@
 // (refuted by a negative leading minor) or is undecided, and a failing test
 // turns into "fails" only beside a refutation that reaches the equilibrium.
 //
-// Read takes a file only byte for byte as File writes it; the digest (SHA-256
-// of the canonical serialization) is checked last, and a present ed25519
-// signature must verify against it.
+// claims.Read takes a file only byte for byte as File writes it; the digest
+// (SHA-256 of the canonical serialization) is checked last, and a present
+// ed25519 signature must verify against it.
 package checker

@@ -7,6 +7,7 @@ import (
 	"path/filepath"
 
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 )
 
 // Re-checking a certificate needs nothing but the file: the kernel reads it
@@ -19,7 +20,7 @@ func ExampleVerify() {
 		log.Fatal(err)
 	}
 	defer f.Close()
-	doc, err := checker.Read(f)
+	doc, err := claims.Read(f)
 	if err != nil {
 		log.Fatal(err)
 	}

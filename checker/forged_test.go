@@ -7,6 +7,7 @@ import (
 
 	"github.com/lyacert/lyacert/certificates"
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 )
 
 // A forged verdict is rejected even with every derived number left intact
@@ -21,9 +22,9 @@ func TestForgedVerdictRejected(t *testing.T) {
 	}
 	// Drop the refutation and anything after the conditions: what remains
 	// must not be taken for a proof.
-	var kept []checker.Claim
+	var kept []claims.Claim
 	for _, c := range doc.Claims {
-		if _, ok := c.(*checker.Refutation); !ok {
+		if _, ok := c.(*claims.Refutation); !ok {
 			kept = append(kept, c)
 		}
 	}
@@ -43,14 +44,14 @@ func TestStrayWitnessRejected(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	var claims []checker.Claim
+	var cs []claims.Claim
 	for _, c := range doc.Claims {
-		claims = append(claims, c)
-		if _, ok := c.(*checker.SturmRegion); ok {
-			claims = append(claims, &checker.WitnessPoints{Points: []checker.Witness{{Params: map[string]string{"r": "5"}, Values: []string{"1"}, Holds: true}}})
+		cs = append(cs, c)
+		if _, ok := c.(*claims.SturmRegion); ok {
+			cs = append(cs, &claims.WitnessPoints{Points: []claims.Witness{{Params: map[string]string{"r": "5"}, Values: []string{"1"}, Holds: true}}})
 		}
 	}
-	doc.Claims = claims
+	doc.Claims = cs
 	if err := certificates.Seal(doc); err != nil {
 		t.Fatal(err)
 	}

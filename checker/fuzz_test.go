@@ -8,6 +8,7 @@ import (
 	"time"
 
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 )
 
 // FuzzReadVerify feeds arbitrary bytes to the kernel's reader and, when they
@@ -29,7 +30,7 @@ func FuzzReadVerify(f *testing.F) {
 		// timer makes one a crasher that it records.
 		tm := time.AfterFunc(10*time.Second, func() { panic("Read and Verify took longer than 10 s") })
 		defer tm.Stop()
-		d, err := checker.Read(bytes.NewReader(data))
+		d, err := claims.Read(bytes.NewReader(data))
 		if err != nil {
 			if d != nil {
 				t.Fatal("Read returned a document with an error")

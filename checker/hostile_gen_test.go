@@ -14,7 +14,7 @@ import (
 	"testing"
 
 	"github.com/lyacert/lyacert/certificates"
-	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/poly"
 )
 
@@ -26,7 +26,7 @@ var writeHostile = flag.Bool("hostile.write", false, "rewrite the files of testd
 // a change to the reader or to the honest certificates cannot change what
 // they test unnoticed.
 
-func honest(t *testing.T, name string) *checker.Document {
+func honest(t *testing.T, name string) *claims.Document {
 	t.Helper()
 	d, err := certificates.ReadFile(filepath.Join("..", "testdata", "certificates", name))
 	if err != nil {
@@ -46,7 +46,7 @@ func honestBytes(t *testing.T, name string) []byte {
 
 // sealed re-seals d (a correct digest for the forged content, as a forger
 // would write) and returns its file text.
-func sealed(t *testing.T, d *checker.Document) []byte {
+func sealed(t *testing.T, d *claims.Document) []byte {
 	t.Helper()
 	if err := certificates.Seal(d); err != nil {
 		t.Fatal(err)
@@ -59,7 +59,7 @@ func sealed(t *testing.T, d *checker.Document) []byte {
 }
 
 // edit returns the honest certificate name changed by f and re-sealed.
-func edit(t *testing.T, name string, f func(d *checker.Document)) []byte {
+func edit(t *testing.T, name string, f func(d *claims.Document)) []byte {
 	d := honest(t, name)
 	f(d)
 	return sealed(t, d)
@@ -76,7 +76,7 @@ func replace(t *testing.T, name, old, new string) []byte {
 	return bytes.Replace(b, []byte(old), []byte(new), 1)
 }
 
-func claimOf[T checker.Claim](t *testing.T, d *checker.Document, k int) T {
+func claimOf[T claims.Claim](t *testing.T, d *claims.Document, k int) T {
 	t.Helper()
 	cs := certificates.ClaimsOf[T](d)
 	if len(cs) <= k {
@@ -90,7 +90,7 @@ func signingKey(b byte) ed25519.PrivateKey {
 	return ed25519.NewKeyFromSeed(seed)
 }
 
-func signed(t *testing.T, name string, f func(s *checker.Signature)) []byte {
+func signed(t *testing.T, name string, f func(s *claims.Signature)) []byte {
 	t.Helper()
 	d := honest(t, name)
 	if err := certificates.Sign(d, signingKey(7)); err != nil {
@@ -147,226 +147,226 @@ func hostileFiles(t *testing.T) map[string][]byte {
 		"rule-renamed-refutation.json":   replace(t, "coolant.json", `"rule": "refutation"`, `"rule": "witness-points"`),
 
 		// The claims: content a forger re-sealed.
-		"claims-null.json": edit(t, "cubic.json", func(d *checker.Document) { d.Claims = nil }),
-		"claims-out-of-order.json": edit(t, "cubic.json", func(d *checker.Document) {
+		"claims-null.json": edit(t, "cubic.json", func(d *claims.Document) { d.Claims = nil }),
+		"claims-out-of-order.json": edit(t, "cubic.json", func(d *claims.Document) {
 			d.Claims[0], d.Claims[1] = d.Claims[1], d.Claims[0]
 		}),
-		"claims-conditions-first.json": edit(t, "cubic.json", func(d *checker.Document) {
+		"claims-conditions-first.json": edit(t, "cubic.json", func(d *claims.Document) {
 			d.Claims = append(d.Claims[3:], d.Claims[:3]...)
 		}),
-		"claims-duplicated-derivative.json": edit(t, "cubic.json", func(d *checker.Document) {
-			d.Claims = append([]checker.Claim{d.Claims[0]}, d.Claims...)
+		"claims-duplicated-derivative.json": edit(t, "cubic.json", func(d *claims.Document) {
+			d.Claims = append([]claims.Claim{d.Claims[0]}, d.Claims...)
 		}),
-		"claims-duplicated-condition.json": edit(t, "cubic.json", func(d *checker.Document) {
+		"claims-duplicated-condition.json": edit(t, "cubic.json", func(d *claims.Document) {
 			d.Claims = append(d.Claims, d.Claims[len(d.Claims)-1])
 		}),
-		"claims-duplicated-form.json": edit(t, "cubic.json", func(d *checker.Document) {
+		"claims-duplicated-form.json": edit(t, "cubic.json", func(d *claims.Document) {
 			d.Claims = append(d.Claims[:2], d.Claims[1:]...)
 		}),
-		"claims-condition-dropped.json": edit(t, "cubic.json", func(d *checker.Document) {
+		"claims-condition-dropped.json": edit(t, "cubic.json", func(d *claims.Document) {
 			d.Claims = d.Claims[:len(d.Claims)-1]
 		}),
-		"claims-only-derivative-lin.json": edit(t, "lin-logistic.json", func(d *checker.Document) {
+		"claims-only-derivative-lin.json": edit(t, "lin-logistic.json", func(d *claims.Document) {
 			d.Claims = append(honest(t, "cubic.json").Claims[:1], d.Claims...)
 		}),
-		"forged-refutation-values.json": edit(t, "cubic.json", func(d *checker.Document) {
-			d.Claims = append(d.Claims, &checker.Refutation{Params: map[string]string{}, Point: map[string]string{"x": "1"}, V: "1", Vdot: "2"})
+		"forged-refutation-values.json": edit(t, "cubic.json", func(d *claims.Document) {
+			d.Claims = append(d.Claims, &claims.Refutation{Params: map[string]string{}, Point: map[string]string{"x": "1"}, V: "1", Vdot: "2"})
 		}),
-		"forged-refutation-equilibrium.json": edit(t, "coolant.json", func(d *checker.Document) {
-			rf := claimOf[*checker.Refutation](t, d, 0)
+		"forged-refutation-equilibrium.json": edit(t, "coolant.json", func(d *claims.Document) {
+			rf := claimOf[*claims.Refutation](t, d, 0)
 			rf.Point = map[string]string{"h": "0", "q": "0", "z": "0"}
 			rf.V, rf.Vdot = "0", "0"
 		}),
-		"forged-refutation-param-outside.json": edit(t, "coolant.json", func(d *checker.Document) {
-			claimOf[*checker.Refutation](t, d, 0).Params = map[string]string{"k": "-1"}
+		"forged-refutation-param-outside.json": edit(t, "coolant.json", func(d *claims.Document) {
+			claimOf[*claims.Refutation](t, d, 0).Params = map[string]string{"k": "-1"}
 		}),
-		"forged-refutation-unknown-state.json": edit(t, "coolant.json", func(d *checker.Document) {
-			claimOf[*checker.Refutation](t, d, 0).Point = map[string]string{"y": "1"}
+		"forged-refutation-unknown-state.json": edit(t, "coolant.json", func(d *claims.Document) {
+			claimOf[*claims.Refutation](t, d, 0).Point = map[string]string{"y": "1"}
 		}),
 		// A point where V̇ > 0 far from the equilibrium only: V = x² + y²
 		// for x' = −x, y' = −y³ + y⁵ has V̇ = −2x² − 2y⁴ + 2y⁶, < 0 near the
 		// origin, > 0 at (0, 2); it denies no local claim.
-		"forged-refutation-far.json": edit(t, "local.json", func(d *checker.Document) {
+		"forged-refutation-far.json": edit(t, "local.json", func(d *claims.Document) {
 			d.Model = "state x, y\nx' = -x\ny' = -y^3 + y^5\nV = x^2 + y^2\n"
-			d.Claims = []checker.Claim{
-				&checker.OrbitalDerivative{V: "x^2 + y^2", Vdot: "-2*x^2 - 2*y^4 + 2*y^6"},
-				&checker.Refutation{Params: map[string]string{}, Point: map[string]string{"x": "0", "y": "2"}, V: "4", Vdot: "96"},
+			d.Claims = []claims.Claim{
+				&claims.OrbitalDerivative{V: "x^2 + y^2", Vdot: "-2*x^2 - 2*y^4 + 2*y^6"},
+				&claims.Refutation{Params: map[string]string{}, Point: map[string]string{"x": "0", "y": "2"}, V: "4", Vdot: "96"},
 			}
 		}),
 		// Sublevel basins: the ring example's best level is exactly 2
 		// (V̇ = 2V(V − 2)); its certificate states a level near 1.9.
-		"forged-basin-level-beyond-chi.json": edit(t, "basin-ring.json", func(d *checker.Document) {
-			claimOf[*checker.SublevelBasin](t, d, 0).Level = "201/100"
+		"forged-basin-level-beyond-chi.json": edit(t, "basin-ring.json", func(d *claims.Document) {
+			claimOf[*claims.SublevelBasin](t, d, 0).Level = "201/100"
 		}),
-		"forged-basin-level-huge.json": edit(t, "basin-ring.json", func(d *checker.Document) {
-			claimOf[*checker.SublevelBasin](t, d, 0).Level = "10"
+		"forged-basin-level-huge.json": edit(t, "basin-ring.json", func(d *claims.Document) {
+			claimOf[*claims.SublevelBasin](t, d, 0).Level = "10"
 		}),
-		"forged-basin-level-zero.json": edit(t, "basin-ring.json", func(d *checker.Document) {
-			claimOf[*checker.SublevelBasin](t, d, 0).Level = "0"
+		"forged-basin-level-zero.json": edit(t, "basin-ring.json", func(d *claims.Document) {
+			claimOf[*claims.SublevelBasin](t, d, 0).Level = "0"
 		}),
-		"forged-basin-edge-box-inside.json": edit(t, "basin-ring.json", func(d *checker.Document) {
-			b := claimOf[*checker.SublevelBasin](t, d, 0)
+		"forged-basin-edge-box-inside.json": edit(t, "basin-ring.json", func(d *claims.Document) {
+			b := claimOf[*claims.SublevelBasin](t, d, 0)
 			b.Tree = strings.Replace(b.Tree, "O", "I", 1) // the first leaf is a corner
 		}),
-		"forged-basin-box-reclassified.json": edit(t, "basin-ring.json", func(d *checker.Document) {
-			b := claimOf[*checker.SublevelBasin](t, d, 0)
+		"forged-basin-box-reclassified.json": edit(t, "basin-ring.json", func(d *claims.Document) {
+			b := claimOf[*claims.SublevelBasin](t, d, 0)
 			b.Tree = strings.Replace(b.Tree, "I", "O", 1)
 		}),
-		"forged-basin-box-removed.json": edit(t, "basin-vanderpol.json", func(d *checker.Document) {
-			b := claimOf[*checker.SublevelBasin](t, d, 0)
+		"forged-basin-box-removed.json": edit(t, "basin-vanderpol.json", func(d *claims.Document) {
+			b := claimOf[*claims.SublevelBasin](t, d, 0)
 			b.Tree = b.Tree[:len(b.Tree)-1]
 		}),
-		"forged-basin-undecided-box.json": edit(t, "basin-vanderpol.json", func(d *checker.Document) {
-			b := claimOf[*checker.SublevelBasin](t, d, 0)
+		"forged-basin-undecided-box.json": edit(t, "basin-vanderpol.json", func(d *claims.Document) {
+			b := claimOf[*claims.SublevelBasin](t, d, 0)
 			b.Tree = strings.Replace(b.Tree, "I", "U", 1)
 		}),
-		"forged-basin-equilibrium-outside.json": edit(t, "basin-ring.json", func(d *checker.Document) {
-			b := claimOf[*checker.SublevelBasin](t, d, 0)
+		"forged-basin-equilibrium-outside.json": edit(t, "basin-ring.json", func(d *claims.Document) {
+			b := claimOf[*claims.SublevelBasin](t, d, 0)
 			b.Lo = []string{"0", "0"}
 		}),
-		"forged-basin-box-shrunk.json": edit(t, "basin-ring.json", func(d *checker.Document) {
-			b := claimOf[*checker.SublevelBasin](t, d, 0)
+		"forged-basin-box-shrunk.json": edit(t, "basin-ring.json", func(d *claims.Document) {
+			b := claimOf[*claims.SublevelBasin](t, d, 0)
 			b.Lo, b.Hi = []string{"-1", "-1"}, []string{"1", "1"}
 		}),
-		"forged-basin-alone.json": edit(t, "basin-ring.json", func(d *checker.Document) {
-			d.Claims = []checker.Claim{claimOf[*checker.SublevelBasin](t, d, 0)}
+		"forged-basin-alone.json": edit(t, "basin-ring.json", func(d *claims.Document) {
+			d.Claims = []claims.Claim{claimOf[*claims.SublevelBasin](t, d, 0)}
 		}),
 		// The same claim for a system whose best level is 1 (V̇ = 2V(V − 1)),
 		// with its derivative stated correctly: V̇ > 0 on part of the set.
-		"forged-basin-other-model.json": edit(t, "basin-ring.json", func(d *checker.Document) {
+		"forged-basin-other-model.json": edit(t, "basin-ring.json", func(d *claims.Document) {
 			d.Model = "state x1, x2\nx1' = x1^3 - 3*x1*x2^2 - x1\nx2' = 5*x1^2*x2 + x2^3 - x2\nV = x1^2 + x2^2\n"
-			d.Claims = []checker.Claim{
-				&checker.OrbitalDerivative{V: "x1^2 + x2^2", Vdot: "2*x1^4 + 4*x1^2*x2^2 + 2*x2^4 - 2*x1^2 - 2*x2^2"},
-				claimOf[*checker.SublevelBasin](t, d, 0),
+			d.Claims = []claims.Claim{
+				&claims.OrbitalDerivative{V: "x1^2 + x2^2", Vdot: "2*x1^4 + 4*x1^2*x2^2 + 2*x2^4 - 2*x1^2 - 2*x2^2"},
+				claimOf[*claims.SublevelBasin](t, d, 0),
 			}
 		}),
 		// The ring with its radius a ∈ [1, 2] (V̇ = 2V(V − a)): one level for
 		// every a is at best 1, the smallest a; the certificate states a
 		// level near 0.99.
-		"forged-basin-box-level-above-one.json": edit(t, "basin-ringbox.json", func(d *checker.Document) {
-			claimOf[*checker.SublevelBasin](t, d, 0).Level = "11/10"
+		"forged-basin-box-level-above-one.json": edit(t, "basin-ringbox.json", func(d *claims.Document) {
+			claimOf[*claims.SublevelBasin](t, d, 0).Level = "11/10"
 		}),
 		// The same tree over a ∈ [1/2, 2], the direct method's claims
 		// restated for the wider range (they hold there): at a = 1/2 the
 		// circles V = c > 1/2 grow, so the level near 0.99 must fail.
-		"forged-basin-box-range-widened.json": edit(t, "basin-ringbox.json", func(d *checker.Document) {
-			widen(t, d, "in [1/2, 2]", checker.Interval{Lo: "1/2", Hi: "2", LoClosed: true, HiClosed: true})
+		"forged-basin-box-range-widened.json": edit(t, "basin-ringbox.json", func(d *claims.Document) {
+			widen(t, d, "in [1/2, 2]", claims.Interval{Lo: "1/2", Hi: "2", LoClosed: true, HiClosed: true})
 		}),
 		// An open end leaves no closed box to bisect.
-		"forged-basin-box-range-open.json": edit(t, "basin-ringbox.json", func(d *checker.Document) {
-			widen(t, d, "in (1, 2]", checker.Interval{Lo: "1", Hi: "2", HiClosed: true})
+		"forged-basin-box-range-open.json": edit(t, "basin-ringbox.json", func(d *claims.Document) {
+			widen(t, d, "in (1, 2]", claims.Interval{Lo: "1", Hi: "2", HiClosed: true})
 		}),
-		"forged-region-piece-holds.json": edit(t, "lorenz.json", func(d *checker.Document) {
-			rg := claimOf[*checker.SturmRegion](t, d, 0)
+		"forged-region-piece-holds.json": edit(t, "lorenz.json", func(d *claims.Document) {
+			rg := claimOf[*claims.SturmRegion](t, d, 0)
 			rg.Pieces[2].Holds = true
 			rg.Intervals = append(rg.Intervals, rg.Pieces[2].Interval)
 		}),
-		"forged-point-value.json": edit(t, "lorenz.json", func(d *checker.Document) {
+		"forged-point-value.json": edit(t, "lorenz.json", func(d *claims.Document) {
 			// The certificate at r = 1 stated for r = 2.
-			pc := claimOf[*checker.PointCheck](t, d, 0)
+			pc := claimOf[*claims.PointCheck](t, d, 0)
 			pc.Params = map[string]string{"r": "2"}
 		}),
-		"forged-point-dropped.json": edit(t, "lorenz.json", func(d *checker.Document) {
+		"forged-point-dropped.json": edit(t, "lorenz.json", func(d *claims.Document) {
 			// The point piece r = 1 left holding without its certificate.
-			d.Claims = slices.DeleteFunc(d.Claims, func(c checker.Claim) bool { return c.Rule() == "point-check" })
+			d.Claims = slices.DeleteFunc(d.Claims, func(c claims.Claim) bool { return c.Rule() == "point-check" })
 		}),
-		"forged-point-claims.json": edit(t, "lorenz.json", func(d *checker.Document) {
+		"forged-point-claims.json": edit(t, "lorenz.json", func(d *claims.Document) {
 			// A cofactor of the nested certificate's invariance claim
 			// changed, and the nested certificate re-sealed.
-			sub := claimOf[*checker.PointCheck](t, d, 0).Certificate
-			claimOf[*checker.Invariance](t, sub, 0).States[0].Cofactors[0] = "1"
+			sub := claimOf[*claims.PointCheck](t, d, 0).Certificate
+			claimOf[*claims.Invariance](t, sub, 0).States[0].Cofactors[0] = "1"
 			if err := certificates.Seal(sub); err != nil {
 				t.Fatal(err)
 			}
 		}),
-		"forged-region-piece-refuted.json": edit(t, "coolant.json", func(d *checker.Document) {
-			rg := claimOf[*checker.SturmRegion](t, d, 0)
+		"forged-region-piece-refuted.json": edit(t, "coolant.json", func(d *claims.Document) {
+			rg := claimOf[*claims.SturmRegion](t, d, 0)
 			for i := range rg.Pieces {
-				if rg.Pieces[i].Status == checker.PieceUndecided {
-					rg.Pieces[i].Status = checker.PieceFails
+				if rg.Pieces[i].Status == claims.PieceUndecided {
+					rg.Pieces[i].Status = claims.PieceFails
 				}
 			}
 		}),
-		"forged-region-status-unknown.json": edit(t, "lorenz.json", func(d *checker.Document) {
-			claimOf[*checker.SturmRegion](t, d, 0).Pieces[0].Status = "likely"
+		"forged-region-status-unknown.json": edit(t, "lorenz.json", func(d *claims.Document) {
+			claimOf[*claims.SturmRegion](t, d, 0).Pieces[0].Status = "likely"
 		}),
-		"forged-invariance-cofactor.json": edit(t, "oscillator.json", func(d *checker.Document) {
-			iv := claimOf[*checker.Invariance](t, d, 0)
+		"forged-invariance-cofactor.json": edit(t, "oscillator.json", func(d *claims.Document) {
+			iv := claimOf[*claims.Invariance](t, d, 0)
 			iv.States[0].Cofactors[0] = "2"
 		}),
-		"forged-invariance-other-root.json": edit(t, "oscillator.json", func(d *checker.Document) {
+		"forged-invariance-other-root.json": edit(t, "oscillator.json", func(d *claims.Document) {
 			// x³ − x has the real roots −1, 0, 1: a solution could sit at x = ±1.
-			iv := claimOf[*checker.Invariance](t, d, 0)
+			iv := claimOf[*claims.Invariance](t, d, 0)
 			iv.States[0].Poly = "x^3 - x"
 		}),
-		"forged-invariance-order.json": edit(t, "oscillator.json", func(d *checker.Document) {
-			claimOf[*checker.Invariance](t, d, 0).Lie[0].Order = 99
+		"forged-invariance-order.json": edit(t, "oscillator.json", func(d *claims.Document) {
+			claimOf[*claims.Invariance](t, d, 0).Lie[0].Order = 99
 		}),
-		"forged-invariance-zero-pivot.json": edit(t, "oscillator.json", func(d *checker.Document) {
-			claimOf[*checker.Invariance](t, d, 0).Lie[0].Square = 1
+		"forged-invariance-zero-pivot.json": edit(t, "oscillator.json", func(d *claims.Document) {
+			claimOf[*claims.Invariance](t, d, 0).Lie[0].Square = 1
 		}),
-		"forged-invariance-line.json": edit(t, "oscillator.json", func(d *checker.Document) {
+		"forged-invariance-line.json": edit(t, "oscillator.json", func(d *claims.Document) {
 			// x' = y, y' = −c·y: every point of the x axis is an equilibrium,
 			// so no identity can exist; the oscillator's claims, V̇ first,
 			// no longer match the model.
 			d.Model = strings.Replace(d.Model, "y' = -k*x - c*y", "y' = -c*y", 1)
 		}),
-		"forged-region-piece-moved.json": edit(t, "lorenz.json", func(d *checker.Document) {
-			rg := claimOf[*checker.SturmRegion](t, d, 0)
+		"forged-region-piece-moved.json": edit(t, "lorenz.json", func(d *claims.Document) {
+			rg := claimOf[*claims.SturmRegion](t, d, 0)
 			rg.Pieces[0].Hi, rg.Pieces[1].Lo, rg.Pieces[1].Hi, rg.Pieces[2].Lo = "2", "2", "2", "2"
 			rg.Intervals[0].Hi = "2"
 		}),
-		"forged-region-gap.json": edit(t, "lorenz.json", func(d *checker.Document) {
-			rg := claimOf[*checker.SturmRegion](t, d, 0)
+		"forged-region-gap.json": edit(t, "lorenz.json", func(d *claims.Document) {
+			rg := claimOf[*claims.SturmRegion](t, d, 0)
 			rg.Pieces = append(rg.Pieces[:1], rg.Pieces[2:]...)
 		}),
-		"forged-region-intervals.json": edit(t, "lorenz.json", func(d *checker.Document) {
-			rg := claimOf[*checker.SturmRegion](t, d, 0)
+		"forged-region-intervals.json": edit(t, "lorenz.json", func(d *claims.Document) {
+			rg := claimOf[*claims.SturmRegion](t, d, 0)
 			rg.Intervals[0].Hi = "inf"
 		}),
-		"forged-paving-code.json": edit(t, "twogains.json", func(d *checker.Document) {
-			pv := claimOf[*checker.Paving](t, d, 0)
+		"forged-paving-code.json": edit(t, "twogains.json", func(d *claims.Document) {
+			pv := claimOf[*claims.Paving](t, d, 0)
 			pv.Tree = strings.Replace(pv.Tree, "U", "I", 1)
 		}),
-		"forged-paving-resolution.json": edit(t, "twogains.json", func(d *checker.Document) {
-			claimOf[*checker.Paving](t, d, 0).Resolution = "1/1152921504606846976"
+		"forged-paving-resolution.json": edit(t, "twogains.json", func(d *claims.Document) {
+			claimOf[*claims.Paving](t, d, 0).Resolution = "1/1152921504606846976"
 		}),
-		"forged-paving-truncated.json": edit(t, "twogains.json", func(d *checker.Document) {
-			pv := claimOf[*checker.Paving](t, d, 0)
+		"forged-paving-truncated.json": edit(t, "twogains.json", func(d *claims.Document) {
+			pv := claimOf[*claims.Paving](t, d, 0)
 			pv.Tree = pv.Tree[:len(pv.Tree)-1]
 		}),
-		"forged-paving-box.json": edit(t, "twogains.json", func(d *checker.Document) {
-			claimOf[*checker.Paving](t, d, 0).Box[0].Hi = "3"
+		"forged-paving-box.json": edit(t, "twogains.json", func(d *claims.Document) {
+			claimOf[*claims.Paving](t, d, 0).Box[0].Hi = "3"
 		}),
-		"forged-witness.json": edit(t, "twogains.json", func(d *checker.Document) {
-			w := claimOf[*checker.WitnessPoints](t, d, 0)
+		"forged-witness.json": edit(t, "twogains.json", func(d *claims.Document) {
+			w := claimOf[*claims.WitnessPoints](t, d, 0)
 			w.Points[0].Holds = !w.Points[0].Holds
 		}),
-		"forged-kernel.json": edit(t, "cubic.json", func(d *checker.Document) {
-			d.Claims = append(d.Claims[:3], append([]checker.Claim{&checker.NullSpace{Of: "-Vdot", Vectors: [][]string{{"1"}}}}, d.Claims[3:]...)...)
+		"forged-kernel.json": edit(t, "cubic.json", func(d *claims.Document) {
+			d.Claims = append(d.Claims[:3], append([]claims.Claim{&claims.NullSpace{Of: "-Vdot", Vectors: [][]string{{"1"}}}}, d.Claims[3:]...)...)
 		}),
 		// Margin forms: a changed ε, a changed Gram entry, a margin
 		// without y (consistent otherwise: ε·y⁴ moved back onto G).
-		"forged-margin-epsilon.json": edit(t, "margin.json", func(d *checker.Document) {
-			claimOf[*checker.MarginGram](t, d, 0).Margin = "x^4 + y^4"
+		"forged-margin-epsilon.json": edit(t, "margin.json", func(d *claims.Document) {
+			claimOf[*claims.MarginGram](t, d, 0).Margin = "x^4 + y^4"
 		}),
-		"forged-margin-gram.json": edit(t, "margin.json", func(d *checker.Document) {
-			claimOf[*checker.MarginGram](t, d, 0).Gram[2][4] = "-3/2"
+		"forged-margin-gram.json": edit(t, "margin.json", func(d *claims.Document) {
+			claimOf[*claims.MarginGram](t, d, 0).Gram[2][4] = "-3/2"
 		}),
-		"forged-margin-state-missing.json": edit(t, "margin.json", func(d *checker.Document) {
-			mg := claimOf[*checker.MarginGram](t, d, 0)
+		"forged-margin-state-missing.json": edit(t, "margin.json", func(d *claims.Document) {
+			mg := claimOf[*claims.MarginGram](t, d, 0)
 			mg.Margin, mg.Gram[0][0], mg.D[0], mg.Minors = "1/2*x^4", "2", "2", []string{"2", "4", "6"}
 			for k, m := range []string{"2", "4", "6"} {
-				mc := claimOf[*checker.MinorCondition](t, d, 2+k)
+				mc := claimOf[*claims.MinorCondition](t, d, 2+k)
 				mc.Minor, mc.Constant = m, m
 			}
 		}),
 		// Box multipliers: a changed Gram entry of σ₀, the box widened to
 		// p ∈ [0, 4] (where V fails at p = 4) in the model and its restated
 		// parameters, a negative margin, an unbounded range.
-		"forged-box-gram.json": edit(t, "box-multiplier.json", func(d *checker.Document) {
+		"forged-box-gram.json": edit(t, "box-multiplier.json", func(d *claims.Document) {
 			// Refactored exactly, so that only the identity can catch it.
-			tm := &claimOf[*checker.BoxMultiplier](t, d, 0).Terms[0]
+			tm := &claimOf[*claims.BoxMultiplier](t, d, 0).Terms[0]
 			tm.Gram[0][0] = "2"
 			g := make([][]*big.Rat, len(tm.Gram))
 			for i, row := range tm.Gram {
@@ -386,139 +386,139 @@ func hostileFiles(t *testing.T) map[string][]byte {
 				}
 			}
 		}),
-		"forged-box-widened.json": edit(t, "box-multiplier.json", func(d *checker.Document) {
+		"forged-box-widened.json": edit(t, "box-multiplier.json", func(d *claims.Document) {
 			d.Model = strings.Replace(d.Model, "p in [0, 2]", "p in [0, 4]", 1)
 			d.Parameters[0].Range = "in [0, 4]"
 		}),
-		"forged-box-negative-epsilon.json": edit(t, "box-multiplier.json", func(d *checker.Document) {
-			claimOf[*checker.BoxMultiplier](t, d, 0).Margin = "-1/4*x^2 - 1/4*y^2"
+		"forged-box-negative-epsilon.json": edit(t, "box-multiplier.json", func(d *claims.Document) {
+			claimOf[*claims.BoxMultiplier](t, d, 0).Margin = "-1/4*x^2 - 1/4*y^2"
 		}),
-		"forged-box-negative-pivot.json": edit(t, "box-multiplier.json", func(d *checker.Document) {
-			tm := &claimOf[*checker.BoxMultiplier](t, d, 0).Terms[1]
+		"forged-box-negative-pivot.json": edit(t, "box-multiplier.json", func(d *claims.Document) {
+			tm := &claimOf[*claims.BoxMultiplier](t, d, 0).Terms[1]
 			tm.D[0] = "-" + tm.D[0]
 		}),
-		"forged-box-unbounded.json": edit(t, "box-multiplier.json", func(d *checker.Document) {
+		"forged-box-unbounded.json": edit(t, "box-multiplier.json", func(d *claims.Document) {
 			d.Model = strings.Replace(d.Model, "p in [0, 2]", "p > 0", 1)
 			d.Parameters[0].Range = "> 0"
 		}),
 		// Moment separations: the moment matrix not ⪰ 0 (the z⁶ moment
 		// made negative, everything else consistent), a value L(p) that
 		// is not the pairing, a moment matrix other than L(z_a·z_b).
-		"forged-moments-not-psd.json": edit(t, "motzkin.json", func(d *checker.Document) {
-			ns := claimOf[*checker.NotSOS](t, d, 0)
+		"forged-moments-not-psd.json": edit(t, "motzkin.json", func(d *claims.Document) {
+			ns := claimOf[*claims.NotSOS](t, d, 0)
 			ns.Moments = strings.Replace(ns.Moments, "+ 1/7168*z^6", "- 1/7168*z^6", 1)
 			ns.Moment[0][0], ns.D[0], ns.Value = "-1/7168", "-1/7168", "-483859/161280"
 		}),
-		"forged-moments-value.json": edit(t, "motzkin.json", func(d *checker.Document) {
-			claimOf[*checker.NotSOS](t, d, 0).Value = "-1"
+		"forged-moments-value.json": edit(t, "motzkin.json", func(d *claims.Document) {
+			claimOf[*claims.NotSOS](t, d, 0).Value = "-1"
 		}),
-		"forged-moments-matrix.json": edit(t, "motzkin.json", func(d *checker.Document) {
-			ns := claimOf[*checker.NotSOS](t, d, 0)
+		"forged-moments-matrix.json": edit(t, "motzkin.json", func(d *claims.Document) {
+			ns := claimOf[*claims.NotSOS](t, d, 0)
 			ns.Moment[1][1], ns.D[1] = "1", "1"
 		}),
-		"forged-moments-sos.json": edit(t, "margin.json", func(d *checker.Document) {
+		"forged-moments-sos.json": edit(t, "margin.json", func(d *claims.Document) {
 			// −V̇ of margin.json is a sum of squares: no functional can
 			// separate it; this one is positive on it.
-			d.Claims = append(d.Claims, &checker.NotSOS{Of: "-Vdot", Basis: []string{"x^2", "y^2"}, Moments: "x^4 + y^4",
+			d.Claims = append(d.Claims, &claims.NotSOS{Of: "-Vdot", Basis: []string{"x^2", "y^2"}, Moments: "x^4 + y^4",
 				Moment: [][]string{{"1", "0"}, {"0", "1"}}, L: [][]string{{"1", "0"}, {"0", "1"}}, D: []string{"1", "1"}, Value: "-4"})
 		}),
-		"forged-minor-constant-zero.json": edit(t, "cubic.json", func(d *checker.Document) {
-			claimOf[*checker.MinorCondition](t, d, 0).Constant = "0"
+		"forged-minor-constant-zero.json": edit(t, "cubic.json", func(d *claims.Document) {
+			claimOf[*claims.MinorCondition](t, d, 0).Constant = "0"
 		}),
-		"forged-condition.json": edit(t, "unstable.json", func(d *checker.Document) {
-			mc := claimOf[*checker.MinorCondition](t, d, 1)
+		"forged-condition.json": edit(t, "unstable.json", func(d *claims.Document) {
+			mc := claimOf[*claims.MinorCondition](t, d, 1)
 			mc.Condition = "1"
 		}),
-		"forged-factor-status.json": edit(t, "coolant.json", func(d *checker.Document) {
-			mc := claimOf[*checker.MinorCondition](t, d, 4)
+		"forged-factor-status.json": edit(t, "coolant.json", func(d *claims.Document) {
+			mc := claimOf[*claims.MinorCondition](t, d, 4)
 			for i := range mc.Factors {
-				mc.Factors[i].Status = checker.StatusPositive
+				mc.Factors[i].Status = claims.StatusPositive
 			}
 		}),
-		"factor-power-1e6.json": edit(t, "coolant.json", func(d *checker.Document) {
-			claimOf[*checker.MinorCondition](t, d, 4).Factors[0].Power = 1000000
+		"factor-power-1e6.json": edit(t, "coolant.json", func(d *claims.Document) {
+			claimOf[*claims.MinorCondition](t, d, 4).Factors[0].Power = 1000000
 		}),
-		"factor-power-negative.json": edit(t, "coolant.json", func(d *checker.Document) {
-			claimOf[*checker.MinorCondition](t, d, 4).Factors[0].Power = -1
+		"factor-power-negative.json": edit(t, "coolant.json", func(d *claims.Document) {
+			claimOf[*claims.MinorCondition](t, d, 4).Factors[0].Power = -1
 		}),
-		"factor-power-maxint.json": edit(t, "coolant.json", func(d *checker.Document) {
-			claimOf[*checker.MinorCondition](t, d, 4).Factors[0].Power = 1<<63 - 1
+		"factor-power-maxint.json": edit(t, "coolant.json", func(d *claims.Document) {
+			claimOf[*claims.MinorCondition](t, d, 4).Factors[0].Power = 1<<63 - 1
 		}),
-		"forged-gram.json": edit(t, "cubic.json", func(d *checker.Document) {
-			claimOf[*checker.QuadraticPart](t, d, 0).Gram[0][0] = "2"
+		"forged-gram.json": edit(t, "cubic.json", func(d *claims.Document) {
+			claimOf[*claims.QuadraticPart](t, d, 0).Gram[0][0] = "2"
 		}),
-		"forged-ldl-pivot.json": edit(t, "ogata.json", func(d *checker.Document) {
-			f := claimOf[*checker.QuadraticPart](t, d, 0)
+		"forged-ldl-pivot.json": edit(t, "ogata.json", func(d *claims.Document) {
+			f := claimOf[*claims.QuadraticPart](t, d, 0)
 			f.D[0] = "-" + f.D[0]
 		}),
-		"gram-100-rows.json": edit(t, "cubic.json", func(d *checker.Document) {
-			f := claimOf[*checker.QuadraticPart](t, d, 0)
+		"gram-100-rows.json": edit(t, "cubic.json", func(d *claims.Document) {
+			f := claimOf[*claims.QuadraticPart](t, d, 0)
 			for range 99 {
 				f.Gram = append(f.Gram, []string{"0"})
 			}
 		}),
-		"gram-long-row.json": edit(t, "cubic.json", func(d *checker.Document) {
-			f := claimOf[*checker.QuadraticPart](t, d, 0)
+		"gram-long-row.json": edit(t, "cubic.json", func(d *claims.Document) {
+			f := claimOf[*claims.QuadraticPart](t, d, 0)
 			for range 10000 {
 				f.Gram[0] = append(f.Gram[0], "0")
 			}
 		}),
-		"number-200000-digits.json": edit(t, "cubic.json", func(d *checker.Document) {
-			claimOf[*checker.MinorCondition](t, d, 0).Constant = strings.Repeat("9", 200000)
+		"number-200000-digits.json": edit(t, "cubic.json", func(d *claims.Document) {
+			claimOf[*claims.MinorCondition](t, d, 0).Constant = strings.Repeat("9", 200000)
 		}),
-		"exponent-1e6.json": edit(t, "cubic.json", func(d *checker.Document) {
-			claimOf[*checker.OrbitalDerivative](t, d, 0).Vdot = "-2*x^1000000"
+		"exponent-1e6.json": edit(t, "cubic.json", func(d *claims.Document) {
+			claimOf[*claims.OrbitalDerivative](t, d, 0).Vdot = "-2*x^1000000"
 		}),
-		"parens-300.json": edit(t, "cubic.json", func(d *checker.Document) {
-			claimOf[*checker.OrbitalDerivative](t, d, 0).Vdot = strings.Repeat("(", 300) + "-2*x^4" + strings.Repeat(")", 300)
+		"parens-300.json": edit(t, "cubic.json", func(d *claims.Document) {
+			claimOf[*claims.OrbitalDerivative](t, d, 0).Vdot = strings.Repeat("(", 300) + "-2*x^4" + strings.Repeat(")", 300)
 		}),
-		"model-power-tower.json": edit(t, "cubic.json", func(d *checker.Document) {
+		"model-power-tower.json": edit(t, "cubic.json", func(d *claims.Document) {
 			d.Model = "state x\nx' = -x^3\nV = x^2*((((((2^64)^64)^64)^64)^64)^64)\n"
 		}),
-		"model-changed.json": edit(t, "cubic.json", func(d *checker.Document) {
+		"model-changed.json": edit(t, "cubic.json", func(d *claims.Document) {
 			d.Model = "state x\nx' = x^3\nV = x^2\n"
 		}),
-		"model-empty.json": edit(t, "cubic.json", func(d *checker.Document) { d.Model = "" }),
-		"parameters-range.json": edit(t, "coolant.json", func(d *checker.Document) {
+		"model-empty.json": edit(t, "cubic.json", func(d *claims.Document) { d.Model = "" }),
+		"parameters-range.json": edit(t, "coolant.json", func(d *claims.Document) {
 			d.Parameters[0].Range = "in [0, 10]"
 		}),
-		"parameters-dropped.json": edit(t, "coolant.json", func(d *checker.Document) {
+		"parameters-dropped.json": edit(t, "coolant.json", func(d *claims.Document) {
 			d.Parameters = d.Parameters[1:]
 		}),
-		"derivative-wrong-V.json": edit(t, "cubic.json", func(d *checker.Document) {
-			claimOf[*checker.OrbitalDerivative](t, d, 0).V = "2*x^2"
+		"derivative-wrong-V.json": edit(t, "cubic.json", func(d *claims.Document) {
+			claimOf[*claims.OrbitalDerivative](t, d, 0).V = "2*x^2"
 		}),
-		"linearization-asymmetric.json": edit(t, "lin-lorenz-r20-origin.json", func(d *checker.Document) {
-			lz := claimOf[*checker.Linearization](t, d, 0)
+		"linearization-asymmetric.json": edit(t, "lin-lorenz-r20-origin.json", func(d *claims.Document) {
+			lz := claimOf[*claims.Linearization](t, d, 0)
 			lz.P[0][1] = lz.P[0][1] + "1"
 		}),
-		"linearization-decay.json": edit(t, "lin-logistic.json", func(d *checker.Document) {
-			lz := claimOf[*checker.Linearization](t, d, 0)
+		"linearization-decay.json": edit(t, "lin-logistic.json", func(d *claims.Document) {
+			lz := claimOf[*claims.Linearization](t, d, 0)
 			lz.Decay[0][0][0] = "1000"
 		}),
-		"vertex-p-indefinite.json": edit(t, "box-gain.json", func(d *checker.Document) {
-			claimOf[*checker.VertexLyapunov](t, d, 0).P = [][]string{{"1", "2"}, {"2", "1"}}
+		"vertex-p-indefinite.json": edit(t, "box-gain.json", func(d *claims.Document) {
+			claimOf[*claims.VertexLyapunov](t, d, 0).P = [][]string{{"1", "2"}, {"2", "1"}}
 		}),
-		"vertex-not-affine.json": edit(t, "box-gain.json", func(d *checker.Document) {
+		"vertex-not-affine.json": edit(t, "box-gain.json", func(d *claims.Document) {
 			d.Model = strings.Replace(d.Model, "-k*x", "-k^2*x", 1)
 		}),
-		"vertex-unbounded.json": edit(t, "box-gain.json", func(d *checker.Document) {
+		"vertex-unbounded.json": edit(t, "box-gain.json", func(d *claims.Document) {
 			d.Model = strings.Replace(d.Model, "k in [1, 2]", "k >= 1", 1)
 			d.Parameters[0].Range = ">= 1"
 		}),
-		"vertex-box-widened.json": edit(t, "box-gain.json", func(d *checker.Document) {
+		"vertex-box-widened.json": edit(t, "box-gain.json", func(d *claims.Document) {
 			d.Model = strings.Replace(d.Model, "k in [1, 2]", "k in [1, 4]", 1)
 			d.Parameters[0].Range = "in [1, 4]"
 		}),
-		"vertex-map.json": edit(t, "box-gain.json", func(d *checker.Document) {
+		"vertex-map.json": edit(t, "box-gain.json", func(d *claims.Document) {
 			d.Model = strings.NewReplacer("x' = y", "x+ = y", "y' =", "y+ =").Replace(d.Model)
 		}),
-		"krawczyk-box-reversed.json": edit(t, "lin-quadmap.json", func(d *checker.Document) {
-			kz := claimOf[*checker.KrawczykEnclosure](t, d, 0)
+		"krawczyk-box-reversed.json": edit(t, "lin-quadmap.json", func(d *claims.Document) {
+			kz := claimOf[*claims.KrawczykEnclosure](t, d, 0)
 			kz.Box[0][0], kz.Box[0][1] = kz.Box[0][1], kz.Box[0][0]
 		}),
-		"krawczyk-image-forged.json": edit(t, "lin-quadmap.json", func(d *checker.Document) {
-			kz := claimOf[*checker.KrawczykEnclosure](t, d, 0)
+		"krawczyk-image-forged.json": edit(t, "lin-quadmap.json", func(d *claims.Document) {
+			kz := claimOf[*claims.KrawczykEnclosure](t, d, 0)
 			kz.Krawczyk[0] = kz.Box[0]
 		}),
 
@@ -534,21 +534,21 @@ func hostileFiles(t *testing.T) map[string][]byte {
 			return b
 		}(),
 		"digest-tampered.json": replace(t, "cubic.json", `"digest": "sha256:`, `"digest": "sha256:0`),
-		"signature-tampered.json": signed(t, "cubic.json", func(s *checker.Signature) {
+		"signature-tampered.json": signed(t, "cubic.json", func(s *claims.Signature) {
 			v := []byte(s.Value)
 			v[0] ^= 'A' ^ 'B'
 			s.Value = string(v)
 		}),
-		"signature-other-key.json": signed(t, "cubic.json", func(s *checker.Signature) {
+		"signature-other-key.json": signed(t, "cubic.json", func(s *claims.Signature) {
 			s.PublicKey = base64Key(signingKey(8))
 		}),
-		"signature-algorithm.json": signed(t, "cubic.json", func(s *checker.Signature) { s.Algorithm = "ed448" }),
-		"signature-not-base64.json": signed(t, "cubic.json", func(s *checker.Signature) {
+		"signature-algorithm.json": signed(t, "cubic.json", func(s *claims.Signature) { s.Algorithm = "ed448" }),
+		"signature-not-base64.json": signed(t, "cubic.json", func(s *claims.Signature) {
 			s.Value = "!" + s.Value[1:]
 		}),
-		"signature-empty.json": signed(t, "cubic.json", func(s *checker.Signature) { *s = checker.Signature{} }),
+		"signature-empty.json": signed(t, "cubic.json", func(s *claims.Signature) { *s = claims.Signature{} }),
 		"signature-content-changed.json": func() []byte {
-			b := signed(t, "cubic.json", func(*checker.Signature) {})
+			b := signed(t, "cubic.json", func(*claims.Signature) {})
 			return bytes.Replace(b, []byte(`"tool": "lyacert"`), []byte(`"tool": "lyacert 2"`), 1)
 		}(),
 	}
@@ -591,7 +591,7 @@ func generatedCertificates(t *testing.T) []hostileInput {
 	cubic := honest(t, "cubic.json")
 	withVdot := func(s string) []byte {
 		d := honest(t, "cubic.json")
-		claimOf[*checker.OrbitalDerivative](t, d, 0).Vdot = s
+		claimOf[*claims.OrbitalDerivative](t, d, 0).Vdot = s
 		return sealed(t, d)
 	}
 	deep := 1000000
@@ -604,36 +604,36 @@ func generatedCertificates(t *testing.T) []hostileInput {
 		{"gen/dev-urandom", device("/dev/urandom")},
 		{"gen/json-nested-1e6", stream(head, "[", deep, strings.Repeat("]", deep)+"}")},
 		{"gen/gram-1e4x1e4", stream(rows, row, 10000, `[]]}]}`)},
-		{"gen/spaces-64MiB", stream("", " ", checker.MaxDocumentBytes+1, "")},
+		{"gen/spaces-64MiB", stream("", " ", claims.MaxDocumentBytes+1, "")},
 		{"gen/parens-1e6-vdot", inMemory(withVdot(strings.Repeat("(", deep) + "-2*x^4" + strings.Repeat(")", deep)))},
-		{"gen/parens-1e6-model", inMemory(edit(t, "cubic.json", func(d *checker.Document) {
+		{"gen/parens-1e6-model", inMemory(edit(t, "cubic.json", func(d *claims.Document) {
 			d.Model = "state x\nx' = -x^3\nV = " + strings.Repeat("(", deep) + "x^2" + strings.Repeat(")", deep) + "\n"
 		}))},
 		{"gen/string-1e7-vdot", inMemory(withVdot(strings.Repeat("x", 1e7)))},
-		{"gen/string-1e7-tool", inMemory(edit(t, "cubic.json", func(d *checker.Document) { d.Tool = strings.Repeat("t", 1e7) }))},
-		{"gen/string-1e7-number", inMemory(edit(t, "cubic.json", func(d *checker.Document) {
-			claimOf[*checker.MinorCondition](t, d, 0).Constant = strings.Repeat("7", 1e7)
+		{"gen/string-1e7-tool", inMemory(edit(t, "cubic.json", func(d *claims.Document) { d.Tool = strings.Repeat("t", 1e7) }))},
+		{"gen/string-1e7-number", inMemory(edit(t, "cubic.json", func(d *claims.Document) {
+			claimOf[*claims.MinorCondition](t, d, 0).Constant = strings.Repeat("7", 1e7)
 		}))},
-		{"gen/gram-1e4-rows", inMemory(edit(t, "cubic.json", func(d *checker.Document) {
-			f := claimOf[*checker.QuadraticPart](t, d, 0)
+		{"gen/gram-1e4-rows", inMemory(edit(t, "cubic.json", func(d *claims.Document) {
+			f := claimOf[*claims.QuadraticPart](t, d, 0)
 			for range 9999 {
 				f.Gram = append(f.Gram, []string{"0"})
 			}
 		}))},
-		{"gen/claims-1e5", inMemory(edit(t, "cubic.json", func(d *checker.Document) {
+		{"gen/claims-1e5", inMemory(edit(t, "cubic.json", func(d *claims.Document) {
 			for range 100000 {
 				d.Claims = append(d.Claims, d.Claims[0])
 			}
 		}))},
-		{"gen/factors-1e4", inMemory(edit(t, "coolant.json", func(d *checker.Document) {
-			mc := claimOf[*checker.MinorCondition](t, d, 4)
+		{"gen/factors-1e4", inMemory(edit(t, "coolant.json", func(d *claims.Document) {
+			mc := claimOf[*claims.MinorCondition](t, d, 4)
 			f := mc.Factors[len(mc.Factors)-1]
 			for range 10000 {
 				mc.Factors = append(mc.Factors, f)
 			}
 		}))},
-		{"gen/witnesses-1e4", inMemory(edit(t, "twogains.json", func(d *checker.Document) {
-			w := claimOf[*checker.WitnessPoints](t, d, 0)
+		{"gen/witnesses-1e4", inMemory(edit(t, "twogains.json", func(d *claims.Document) {
+			w := claimOf[*claims.WitnessPoints](t, d, 0)
 			p := w.Points[0]
 			for range 10000 {
 				w.Points = append(w.Points, p)
@@ -644,14 +644,14 @@ func generatedCertificates(t *testing.T) []hostileInput {
 
 // widen restates the range of the parameter a of the ring with a radius
 // (basin-ringbox.json) in the model, the parameters and the region.
-func widen(t *testing.T, d *checker.Document, rng string, iv checker.Interval) {
+func widen(t *testing.T, d *claims.Document, rng string, iv claims.Interval) {
 	t.Helper()
 	if !strings.Contains(d.Model, "in [1, 2]") {
 		t.Fatal("the ring's model has no range [1, 2]")
 	}
 	d.Model = strings.Replace(d.Model, "in [1, 2]", rng, 1)
 	d.Parameters[0].Range = rng
-	rg := claimOf[*checker.SturmRegion](t, d, 0)
-	rg.Intervals = []checker.Interval{iv}
+	rg := claimOf[*claims.SturmRegion](t, d, 0)
+	rg.Intervals = []claims.Interval{iv}
 	rg.Pieces[0].Interval = iv
 }

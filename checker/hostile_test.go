@@ -13,6 +13,7 @@ import (
 	"time"
 	"unicode/utf8"
 
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/internal/bounded"
 
 	"github.com/rogpeppe/go-internal/txtar"
@@ -91,7 +92,7 @@ func inMemory(b []byte) func() (io.Reader, func(), error) {
 // refuses it, "rejected: <check>: <reason>" with the first failing check of
 // Verify, or "valid: <verdict>".
 func outcome(r io.Reader) string {
-	d, err := checker.Read(r)
+	d, err := claims.Read(r)
 	if err != nil {
 		return "read error: " + err.Error()
 	}

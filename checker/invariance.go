@@ -4,35 +4,9 @@ import (
 	"fmt"
 	"slices"
 
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/poly"
 )
-
-// Invariance shows that the largest invariant set in {V̇ = 0} is the
-// equilibrium. Lie lists generators: the square bases qₖ of −V̇'s
-// semidefinite form, its quadratic part or a Gram form of the whole in a
-// monomial basis (−V̇ = Σ dₖ·qₖ², Square k counted from 1) and their
-// derivatives along the flow of order Order. States gives, for every state
-// s, a polynomial g in s alone whose only real root is the equilibrium's
-// coordinate, with cofactors: g = Σ Cofactors[j]·Lie[j].
-type Invariance struct {
-	Lie    []LieTerm `json:"lie"`
-	States []Vanish  `json:"states"`
-}
-
-// LieTerm is the derivative of order Order along the flow of square base Square.
-type LieTerm struct {
-	Square int `json:"square"`
-	Order  int `json:"order"`
-}
-
-// Vanish is g(s) = Σ cofactorⱼ·generatorⱼ for one state s.
-type Vanish struct {
-	State     string   `json:"state"`
-	Poly      string   `json:"poly"`
-	Cofactors []string `json:"cofactors"`
-}
-
-func (*Invariance) Rule() string { return "invariance" }
 
 // invariance: the invariance principle (LaSalle 1960; Barbashin and
 // Krasovskii 1952). Where −V̇ = Σ dₖ·qₖ² with every dₖ > 0 (the conditions),
@@ -41,8 +15,8 @@ func (*Invariance) Rule() string { return "invariance" }
 // Each g = Σ cⱼ·L_f^{oⱼ}q_{kⱼ} then vanishes along it, so every state sits
 // at the only real root of its g, the equilibrium: the largest invariant
 // set in {V̇ = 0} is the equilibrium, and bounded solutions tend to it.
-func (c *run) invariance(cl Claim) bool {
-	iv := cl.(*Invariance)
+func (c *run) invariance(cl claims.Claim) bool {
+	iv := cl.(*claims.Invariance)
 	f := c.forms["-Vdot"]
 	if !c.once("invariance") || !c.add("invariance", !c.m.Discrete && f != nil && f.semidef && (f.basis || !c.higherD && c.hasKernel),
 		"follows a semidefinite −V̇, exactly quadratic with its kernel or a Gram form of the whole, in continuous time") {

@@ -4,62 +4,13 @@ import (
 	"math/big"
 	"slices"
 
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/model"
 	"github.com/lyacert/lyacert/poly"
 )
 
-// KrawczykEnclosure proves that a box holds exactly one equilibrium of a
-// model without free parameters and without an "at" point (Krawczyk 1969;
-// Moore 1977): with g = f (continuous time) or g = f − x (discrete time), J
-// its Jacobian, Y a rational preconditioner and m the box's midpoint,
-// K(X) = m − Y·g(m) + (I − Y·J(X))·(X − m) lies in the interior of X. Box
-// has one closed [lo, hi] per state; every number is in canonical form.
-type KrawczykEnclosure struct {
-	Box            [][2]string `json:"box"`
-	Preconditioner [][]string  `json:"preconditioner"` // Y
-	Krawczyk       [][2]string `json:"krawczyk"`       // K(Box), recomputed
-}
-
-// Linearization certifies the stability or the instability of one
-// equilibrium x* of a model without free parameters through its
-// linearization (Lyapunov's indirect method). x* is the model's "at" point,
-// a rational zero of the equations, or the box of a preceding
-// KrawczykEnclosure. With J(x) the Jacobian of f, Decay encloses over the box
-// (or gives at the point) the symmetric matrix
-//
-//	M(x) = −(J(x)ᵀP + P·J(x))   (continuous time)
-//	M(x) = P − J(x)ᵀP·J(x)      (discrete time)
-//
-// The rule requires M(x*) ≻ 0; then P ≻ 0 gives local asymptotic stability
-// (V = (x − x*)ᵀP(x − x*) decreases near x*) and a negative LDLᵀ pivot of P
-// gives instability (W = −V increases near x* and is positive arbitrarily
-// close to it: Lyapunov's instability theorem). When every fᵢ has degree ≤ 1
-// the linearization is exact, f(x) = J·(x − x*), so V̇ (ΔV) equals
-// −(x − x*)ᵀM(x − x*) everywhere and P ≻ 0 gives global asymptotic stability
-// (Lyapunov's direct method, V radially unbounded).
-type Linearization struct {
-	P     [][]string    `json:"p"`     // symmetric
-	Decay [][][2]string `json:"decay"` // M entrywise over the box, recomputed
-}
-
-func (*KrawczykEnclosure) Rule() string { return "krawczyk-enclosure" }
-func (*Linearization) Rule() string     { return "linearization" }
-
-// IntervalText returns the closed interval [lo, hi] of a certificate.
-func IntervalText(x poly.Interval) [2]string {
-	return [2]string{poly.RatString(x.Lo.Value), poly.RatString(x.Hi.Value)}
-}
-
-// canonicalRat reads a number that must be in RatString form.
-func canonicalRat(s string) (*big.Rat, bool) {
-	q, ok := parseRat(s)
-	if !ok || poly.RatString(q) != s {
-		return nil, false
-	}
-	return q, true
-}
-
-// rationalMatrix reads an n×n matrix of canonical rationals.
+// rationalMatrix reads an n×n matrix of canonical rationals, symmetric
+// when it is a P.
 func (c *run) rationalMatrix(what string, rows [][]string, n int) ([][]*big.Rat, bool) {
 	out := make([][]*big.Rat, n)
 	ok := len(rows) == n
@@ -67,15 +18,13 @@ func (c *run) rationalMatrix(what string, rows [][]string, n int) ([][]*big.Rat,
 		out[i] = make([]*big.Rat, n)
 		ok = len(rows[i]) == n
 		for j := 0; ok && j < n; j++ {
-			out[i][j], ok = canonicalRat(rows[i][j])
+			out[i][j], ok = claims.CanonicalRat(rows[i][j])
 		}
 	}
-	return out, c.add("linearization", ok, "%s is a %d×%d matrix of rationals in canonical form", what, n, n)
-}
-
-// sameText reports that a stated interval is the closed interval x.
-func sameText(a [2]string, x poly.Interval) bool {
-	return !x.Lo.Open && !x.Hi.Open && a == IntervalText(x)
+	for i := 0; ok && what == "P" && i < n*n; i++ {
+		ok = out[i/n][i%n].Cmp(out[i%n][i/n]) == 0
+	}
+	return out, c.add("linearization", ok, "%s is a %d×%d matrix of rationals in canonical form (symmetric if P)", what, n, n)
 }
 
 // pointModel checks that the model has no free parameters and no candidate,
@@ -97,8 +46,8 @@ func (c *run) pointModel() (g, f []*poly.Poly, ok bool) {
 }
 
 // krawczyk: exactly one equilibrium in the box (Krawczyk's theorem).
-func (c *run) krawczyk(cl Claim) bool {
-	kz := cl.(*KrawczykEnclosure)
+func (c *run) krawczyk(cl claims.Claim) bool {
+	kz := cl.(*claims.KrawczykEnclosure)
 	m := c.m
 	n := len(m.States)
 	g, _, ok := c.pointModel()
@@ -109,8 +58,8 @@ func (c *run) krawczyk(cl Claim) bool {
 	}
 	box := make([]poly.Interval, n)
 	for i, iv := range kz.Box {
-		lo, ok1 := canonicalRat(iv[0])
-		hi, ok2 := canonicalRat(iv[1])
+		lo, ok1 := claims.CanonicalRat(iv[0])
+		hi, ok2 := claims.CanonicalRat(iv[1])
 		if !c.add("krawczyk", ok1 && ok2 && lo.Cmp(hi) < 0, "box side %d has canonical rational ends, lo < hi", i+1) {
 			return false
 		}
@@ -122,7 +71,7 @@ func (c *run) krawczyk(cl Claim) bool {
 	}
 	same, inside := true, true
 	for i, k := range poly.KrawczykImage(g, box, y) {
-		same = same && sameText(kz.Krawczyk[i], k)
+		same = same && kz.Krawczyk[i] == claims.IntervalText(k)
 		inside = inside && k.Lo.Value.Cmp(box[i].Lo.Value) > 0 && k.Hi.Value.Cmp(box[i].Hi.Value) < 0
 	}
 	c.equilibrium = box
@@ -132,8 +81,8 @@ func (c *run) krawczyk(cl Claim) bool {
 
 // linearization: Lyapunov's indirect method, with the decay matrix enclosed
 // exactly over the equilibrium's box (or evaluated at its point).
-func (c *run) linearization(cl Claim) bool {
-	lz := cl.(*Linearization)
+func (c *run) linearization(cl claims.Claim) bool {
+	lz := cl.(*claims.Linearization)
 	m := c.m
 	n := len(m.States)
 	_, f, ok := c.pointModel()
@@ -162,17 +111,15 @@ func (c *run) linearization(cl Claim) bool {
 		return false
 	}
 	e := poly.DecayEnclosure(f, m.Discrete, p, box)
-	symmetric, same := true, len(lz.Decay) == n
+	same := len(lz.Decay) == n
 	for i := range n {
 		same = same && len(lz.Decay[i]) == n
 		for j := range n {
-			symmetric = symmetric && p[i][j].Cmp(p[j][i]) == 0
-			same = same && sameText(lz.Decay[i][j], e[i][j])
+			same = same && lz.Decay[i][j] == claims.IntervalText(e[i][j])
 		}
 	}
 	mname := map[bool]string{false: "−(JᵀP + PJ)", true: "P − JᵀPJ"}[m.Discrete]
-	if !c.add("linearization", symmetric, "P is symmetric") ||
-		!c.add("decay", same, "the enclosure of M = %s equals the recomputed one", mname) ||
+	if !c.add("decay", same, "the enclosure of M = %s equals the recomputed one", mname) ||
 		!c.add("decay", poly.PositiveDefiniteOn(e), "M = %s is positive definite at the equilibrium (midpoint minus row-sum radius, exact LDLᵀ)", mname) {
 		return false
 	}

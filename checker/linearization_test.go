@@ -6,6 +6,7 @@ import (
 	"path/filepath"
 	"testing"
 
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/poly"
 )
 
@@ -14,13 +15,13 @@ import (
 // requires Verify to reject it; and the verdict is the one the mathematics
 // gives, whatever the file says.
 func TestLinearizationForgeries(t *testing.T) {
-	load := func(name string) *Document {
+	load := func(name string) *claims.Document {
 		f, err := os.Open(filepath.Join("..", "testdata", "certificates", name))
 		if err != nil {
 			t.Fatal(err)
 		}
 		defer f.Close()
-		d, err := Read(f)
+		d, err := claims.Read(f)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -41,7 +42,7 @@ func TestLinearizationForgeries(t *testing.T) {
 			t.Errorf("%s: derived %s, want %s", file, got, want)
 		}
 	}
-	seal := func(d *Document) {
+	seal := func(d *claims.Document) {
 		var err error
 		if d.Digest, err = d.ComputeDigest(); err != nil {
 			t.Fatal(err)
@@ -49,46 +50,46 @@ func TestLinearizationForgeries(t *testing.T) {
 	}
 	forgeries := []struct {
 		name, file string
-		change     func(d *Document)
+		change     func(d *claims.Document)
 	}{
-		{"box moved off the equilibrium, K recomputed", "lin-quadmap.json", func(d *Document) {
-			kz := firstClaim[*KrawczykEnclosure](d)
+		{"box moved off the equilibrium, K recomputed", "lin-quadmap.json", func(d *claims.Document) {
+			kz := firstClaim[*claims.KrawczykEnclosure](d)
 			lo, hi := ratOf(kz.Box[0][0]), ratOf(kz.Box[0][1])
 			shift := big.NewRat(1, 1000)
 			box := []poly.Interval{poly.Closed(lo.Add(lo, shift), hi.Add(hi, shift))}
-			kz.Box[0] = IntervalText(box[0])
+			kz.Box[0] = claims.IntervalText(box[0])
 			r := poly.NewRing([]string{"x"}, nil)
 			g := []*poly.Poly{poly.MustParse(r, "x^2 - 1/2 - x").Num}
 			k := poly.KrawczykImage(g, box, ratMatrix([]string{kz.Preconditioner[0][0]}))
-			kz.Krawczyk[0] = IntervalText(k[0])
+			kz.Krawczyk[0] = claims.IntervalText(k[0])
 		}},
-		{"P replaced by an indefinite one, decay recomputed", "lin-logistic.json", func(d *Document) {
-			lz := firstClaim[*Linearization](d)
+		{"P replaced by an indefinite one, decay recomputed", "lin-logistic.json", func(d *claims.Document) {
+			lz := firstClaim[*claims.Linearization](d)
 			p := ratMatrix([]string{"-1"})
 			r := poly.NewRing([]string{"x"}, nil)
 			f := []*poly.Poly{poly.MustParse(r, "-5/2*x^2 + 5/2*x").Num}
 			e := poly.DecayEnclosure(f, true, p, []poly.Interval{poly.Point(big.NewRat(3, 5))})
 			lz.P = [][]string{{"-1"}}
-			lz.Decay = [][][2]string{{IntervalText(e[0][0])}}
+			lz.Decay = [][][2]string{{claims.IntervalText(e[0][0])}}
 		}},
 		// Ogata's A with P = I: M = −(A + Aᵀ) = [[0, 0], [0, 2]] is singular
 		// (hand computation); a stability claim needs M ≻ 0.
-		{"affine model, P = I, M recomputed (singular)", "lin-ogata.json", func(d *Document) {
+		{"affine model, P = I, M recomputed (singular)", "lin-ogata.json", func(d *claims.Document) {
 			setP(d, ratMatrix([]string{"1", "0"}, []string{"0", "1"}), ogataF(), false)
 		}},
 		// P = [[1, 2], [2, 1]] is indefinite; M = [[4, 2], [2, −2]] (hand
 		// computation) is indefinite too.
-		{"affine model, indefinite P, M recomputed", "lin-ogata.json", func(d *Document) {
+		{"affine model, indefinite P, M recomputed", "lin-ogata.json", func(d *claims.Document) {
 			setP(d, ratMatrix([]string{"1", "2"}, []string{"2", "1"}), ogataF(), false)
 		}},
-		{"affine model, P changed, M left as it was", "lin-ogata.json", func(d *Document) {
-			firstClaim[*Linearization](d).P[0][0] = "7/5"
+		{"affine model, P changed, M left as it was", "lin-ogata.json", func(d *claims.Document) {
+			firstClaim[*claims.Linearization](d).P[0][0] = "7/5"
 		}},
-		{"affine model, one entry of M changed", "lin-ogata.json", func(d *Document) {
-			firstClaim[*Linearization](d).Decay[1][1] = [2]string{"2", "2"}
+		{"affine model, one entry of M changed", "lin-ogata.json", func(d *claims.Document) {
+			firstClaim[*claims.Linearization](d).Decay[1][1] = [2]string{"2", "2"}
 		}},
-		{"affine map, P scaled to a negative definite one, M recomputed", "lin-discrete.json", func(d *Document) {
-			lz := firstClaim[*Linearization](d)
+		{"affine map, P scaled to a negative definite one, M recomputed", "lin-discrete.json", func(d *claims.Document) {
+			lz := firstClaim[*claims.Linearization](d)
 			p := make([][]*big.Rat, len(lz.P))
 			for i := range lz.P {
 				for _, v := range lz.P[i] {
@@ -98,10 +99,10 @@ func TestLinearizationForgeries(t *testing.T) {
 			r := poly.NewRing([]string{"x", "y"}, nil)
 			setP(d, p, []*poly.Poly{poly.MustParse(r, "x/2").Num, poly.MustParse(r, "y/2").Num}, true)
 		}},
-		{"a candidate V slipped in", "lin-logistic.json", func(d *Document) {
-			d.Claims = append([]Claim{&OrbitalDerivative{V: "x^2", Vdot: "0"}}, d.Claims...)
+		{"a candidate V slipped in", "lin-logistic.json", func(d *claims.Document) {
+			d.Claims = append([]claims.Claim{&claims.OrbitalDerivative{V: "x^2", Vdot: "0"}}, d.Claims...)
 		}},
-		{"model with a free parameter", "lin-logistic.json", func(d *Document) {
+		{"model with a free parameter", "lin-logistic.json", func(d *claims.Document) {
 			d.Model = "state x\nparameter r in [0, 4]\nx+ = r*x*(1 - x)\nat x = 3/5\n"
 		}},
 	}
@@ -131,8 +132,8 @@ func ogataF() []*poly.Poly {
 
 // setP puts p in the document's linearization claim with the decay matrix
 // recomputed at the origin, so that only the signs can object.
-func setP(d *Document, p [][]*big.Rat, f []*poly.Poly, discrete bool) {
-	lz := firstClaim[*Linearization](d)
+func setP(d *claims.Document, p [][]*big.Rat, f []*poly.Poly, discrete bool) {
+	lz := firstClaim[*claims.Linearization](d)
 	box := make([]poly.Interval, len(p))
 	for i := range box {
 		box[i] = poly.Point(new(big.Rat))
@@ -142,7 +143,7 @@ func setP(d *Document, p [][]*big.Rat, f []*poly.Poly, discrete bool) {
 	for i := range p {
 		for j := range p[i] {
 			lz.P[i] = append(lz.P[i], poly.RatString(p[i][j]))
-			lz.Decay[i] = append(lz.Decay[i], IntervalText(e[i][j]))
+			lz.Decay[i] = append(lz.Decay[i], claims.IntervalText(e[i][j]))
 		}
 	}
 }
@@ -165,7 +166,7 @@ func ratMatrix(rows ...[]string) [][]*big.Rat {
 	return out
 }
 
-func firstClaim[T Claim](d *Document) T {
+func firstClaim[T claims.Claim](d *claims.Document) T {
 	for _, c := range d.Claims {
 		if t, ok := c.(T); ok {
 			return t

@@ -1,34 +1,12 @@
 package checker
 
 import (
-	"maps"
 	"slices"
-	"strings"
 
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/model"
 	"github.com/lyacert/lyacert/poly"
 )
-
-// PointCheck is a certificate of the model with some free parameters
-// fixed, whole: its model text must be this model's with those values
-// (model.FixParams), and the kernel verifies it from scratch. A region's
-// point piece at those values holds when it proves the claim there, where
-// the quadratic test of the whole range is only inconclusive.
-type PointCheck struct {
-	Params      map[string]string `json:"params"`
-	Certificate *Document         `json:"certificate"`
-}
-
-func (*PointCheck) Rule() string { return "point-check" }
-
-// pointKey names a point of parameter space: "a=4, b=1/2" in name order.
-func pointKey(vals map[string]string) string {
-	var parts []string
-	for _, k := range slices.Sorted(maps.Keys(vals)) {
-		parts = append(parts, k+"="+vals[k])
-	}
-	return strings.Join(parts, ", ")
-}
 
 // pointCheck: the model with the stated parameters fixed (model.FixParams,
 // each value inside its range) is a model in its own right; the nested
@@ -36,9 +14,9 @@ func pointKey(vals map[string]string) string {
 // digest included, no deeper nesting), and the verdict and kind derived
 // there hold at that point (Lyapunov's theorems apply to each parameter
 // value separately).
-func (c *run) pointCheck(cl Claim) bool {
-	pc := cl.(*PointCheck)
-	key := pointKey(pc.Params)
+func (c *run) pointCheck(cl claims.Claim) bool {
+	pc := cl.(*claims.PointCheck)
+	key := pc.Key()
 	vals, ok := c.paramValues(pc.Params, "point "+key)
 	if !ok || !c.add("point "+key, len(vals) > 0 && c.points[key] == nil && !c.nested, "a new point, not inside another") {
 		return false

@@ -2,31 +2,10 @@ package checker
 
 import (
 	"fmt"
-	"math/big"
 
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/poly"
 )
-
-// BoxMultiplier proves −V̇ positive definite for every parameter value in
-// the box of the model's ranges at once: −V̇ − Margin = σ₀ + Σᵢ σᵢ·(pᵢ −
-// loᵢ)(hiᵢ − pᵢ), with every σ = zᵀGz, z monomials in the states and the
-// parameters, G = L·D·Lᵀ rational with D ≥ 0. Terms[0] is σ₀ (Parameter
-// ""); each further term names the parameter pᵢ of its multiplier.
-type BoxMultiplier struct {
-	Margin string       `json:"margin"`
-	Terms  []Multiplied `json:"terms"`
-}
-
-// Multiplied is one sum of squares of a multiplier identity.
-type Multiplied struct {
-	Parameter string     `json:"parameter"`
-	Basis     []string   `json:"basis"`
-	Gram      [][]string `json:"gram"`
-	L         [][]string `json:"l"`
-	D         []string   `json:"d"`
-}
-
-func (*BoxMultiplier) Rule() string { return "box-multiplier-sos" }
 
 // boxMultiplier: the S-procedure on a box (a Positivstellensatz certificate
 // in Putinar's form, Putinar 1993). On the box every gᵢ = (pᵢ − loᵢ)(hiᵢ −
@@ -37,8 +16,8 @@ func (*BoxMultiplier) Rule() string { return "box-multiplier-sos" }
 // states and all parameters, so a parameter without a multiplier may take
 // any value. −V̇ then needs no minors and no conditions: the form of V
 // alone decides the rest (conclude).
-func (c *run) boxMultiplier(cl Claim) bool {
-	bm := cl.(*BoxMultiplier)
+func (c *run) boxMultiplier(cl claims.Claim) bool {
+	bm := cl.(*claims.BoxMultiplier)
 	whole, ok := c.shifted("-Vdot")
 	if !ok {
 		return false
@@ -56,17 +35,12 @@ func (c *run) boxMultiplier(cl Claim) bool {
 		what := fmt.Sprintf("%s σ%d", name, k)
 		g, ok := c.boxFactor(what, t.Parameter, k == 0 || !seen[t.Parameter])
 		seen[t.Parameter] = true
-		if !ok || !c.add(what, len(t.Basis) >= 1 && len(t.Basis) <= maxBasis, "a basis of 1 to %d monomials", maxBasis) {
+		if !ok {
 			return false
 		}
-		z, distinct := make([]*poly.Poly, len(t.Basis)), map[string]bool{}
-		for i, s := range t.Basis {
-			b, ok := c.parse(what, s)
-			if !ok || !c.add(what, b.IsPoly() && b.Num.IsMonomial() && b.Num.Lead().Coef.Cmp(big.NewRat(1, 1)) == 0 && !distinct[b.Num.String()],
-				"basis element %s is a new monomial with coefficient 1", s) {
-				return false
-			}
-			distinct[b.Num.String()], z[i] = true, b.Num
+		z, ok := c.monomials(what, t.Basis, true)
+		if !ok {
+			return false
 		}
 		gm, ok1 := c.matrix(what, t.Gram, len(z), "the Gram matrix")
 		l, ok2 := c.matrix(what, t.L, len(z), "L")
@@ -104,7 +78,7 @@ func (c *run) boxFactor(what, name string, first bool) (*poly.Poly, bool) {
 	p, ok := c.m.Param(name)
 	i, isVar := c.r.Index(name)
 	lo, hi := p.Range.Lo, p.Range.Hi
-	if !c.add(what, first && ok && isVar && p.Fixed == nil && lo.Inf == 0 && hi.Inf == 0 && !lo.Open && !hi.Open,
+	if !c.add(what, first && ok && isVar && p.Fixed == nil && p.Range.Compact(),
 		"%s is a free parameter named once, whose range is closed and bounded", name) {
 		return nil, false
 	}

@@ -5,6 +5,7 @@ import (
 
 	"github.com/lyacert/lyacert/certificates"
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 )
 
 // boxDocument is a certificate written by hand for x' = −a·x + y,
@@ -14,25 +15,25 @@ import (
 // terms are 2(a − 1)(a − 1 + 2 − a) = 2(a − 1)), so σ₀ = x² + 2(a·x − x)²
 // + y² + 2(b·y − y)², with Gram blocks [[3, −2], [−2, 2]] = L·diag(3, 2/3)·Lᵀ,
 // L₂₁ = −2/3, and σ_a = 2x², σ_b = 2y².
-func boxDocument(t *testing.T, model string) *checker.Document {
+func boxDocument(t *testing.T, model string) *claims.Document {
 	t.Helper()
 	gram := [][]string{{"3", "-2", "0", "0"}, {"-2", "2", "0", "0"}, {"0", "0", "3", "-2"}, {"0", "0", "-2", "2"}}
 	l := [][]string{{"1", "0", "0", "0"}, {"-2/3", "1", "0", "0"}, {"0", "0", "1", "0"}, {"0", "0", "-2/3", "1"}}
-	d := &checker.Document{
-		Format: checker.Format, Tool: "lyacert", Issued: "2026-12-01T00:00:00Z", Description: []string{},
+	d := &claims.Document{
+		Format: claims.Format, Tool: "lyacert", Issued: "2026-12-01T00:00:00Z", Description: []string{},
 		Model:      model,
-		Parameters: []checker.Parameter{{Name: "a", Range: "in [1, 2]"}, {Name: "b", Range: "in [1, 2]"}},
-		Claims: []checker.Claim{
-			&checker.OrbitalDerivative{V: "x^2 + y^2", Vdot: "-2*a*x^2 - 2*b*y^2"},
-			&checker.QuadraticPart{LDLForm: checker.LDLForm{Of: "V", Gram: [][]string{{"1", "0"}, {"0", "1"}},
+		Parameters: []claims.Parameter{{Name: "a", Range: "in [1, 2]"}, {Name: "b", Range: "in [1, 2]"}},
+		Claims: []claims.Claim{
+			&claims.OrbitalDerivative{V: "x^2 + y^2", Vdot: "-2*a*x^2 - 2*b*y^2"},
+			&claims.QuadraticPart{LDLForm: claims.LDLForm{Of: "V", Gram: [][]string{{"1", "0"}, {"0", "1"}},
 				L: [][]string{{"1", "0"}, {"0", "1"}}, D: []string{"1", "1"}, Minors: []string{"1", "1"}}},
-			&checker.BoxMultiplier{Margin: "x^2 + y^2", Terms: []checker.Multiplied{
+			&claims.BoxMultiplier{Margin: "x^2 + y^2", Terms: []claims.Multiplied{
 				{Basis: []string{"x", "a*x", "y", "b*y"}, Gram: gram, L: l, D: []string{"3", "2/3", "3", "2/3"}},
 				{Parameter: "a", Basis: []string{"x"}, Gram: [][]string{{"2"}}, L: [][]string{{"1"}}, D: []string{"2"}},
 				{Parameter: "b", Basis: []string{"y"}, Gram: [][]string{{"2"}}, L: [][]string{{"1"}}, D: []string{"2"}},
 			}},
-			&checker.MinorCondition{Form: "V", Index: 1, Minor: "1", Constant: "1", Factors: []checker.Factor{}, Condition: "1"},
-			&checker.MinorCondition{Form: "V", Index: 2, Minor: "1", Constant: "1", Factors: []checker.Factor{}, Condition: "1"},
+			&claims.MinorCondition{Form: "V", Index: 1, Minor: "1", Constant: "1", Factors: []claims.Factor{}, Condition: "1"},
+			&claims.MinorCondition{Form: "V", Index: 2, Minor: "1", Constant: "1", Factors: []claims.Factor{}, Condition: "1"},
 		},
 	}
 	if err := certificates.Seal(d); err != nil {

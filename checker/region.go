@@ -5,52 +5,8 @@ import (
 	"reflect"
 	"slices"
 
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/poly"
-)
-
-// SturmRegion is the exact set of values of one parameter where every
-// condition holds: Pieces partition the parameter's allowed range (or a side
-// of a paving's box) into intervals on which every condition holds (Holds)
-// or some condition fails throughout; Intervals lists the holding pieces.
-type SturmRegion struct {
-	Param     string     `json:"param"`
-	Intervals []Interval `json:"intervals"`
-	Pieces    []Piece    `json:"pieces"`
-}
-
-func (*SturmRegion) Rule() string { return "sturm-region" }
-
-// Interval has ends that are "-inf", "inf", an exact rational, or an
-// irrational algebraic number: the unique root of LoPoly (HiPoly) in the
-// open isolating interval LoIsolating (HiIsolating), with Lo (Hi) its
-// decimal value to 15 significant digits, correctly rounded.
-type Interval struct {
-	Lo          string     `json:"lo"`
-	Hi          string     `json:"hi"`
-	LoClosed    bool       `json:"lo_closed"`
-	HiClosed    bool       `json:"hi_closed"`
-	LoPoly      string     `json:"lo_poly,omitempty"`
-	HiPoly      string     `json:"hi_poly,omitempty"`
-	LoIsolating *[2]string `json:"lo_isolating,omitempty"`
-	HiIsolating *[2]string `json:"hi_isolating,omitempty"`
-}
-
-// Piece is one interval of the partition of a parameter's range. Status
-// is "holds" (every condition > 0 throughout; Holds), "fails" (the
-// candidate is refuted throughout: a quadratic part takes negative values,
-// see regionPieces) or "undecided" (some condition ≤ 0 throughout, and no
-// refutation).
-type Piece struct {
-	Interval
-	Holds  bool   `json:"holds"`
-	Status string `json:"status"`
-}
-
-// Statuses of a piece.
-const (
-	PieceHolds     = "holds"
-	PieceFails     = "fails"
-	PieceUndecided = "undecided"
 )
 
 // readEnd reads one end of a piece: ±inf, a rational, or an algebraic
@@ -64,7 +20,7 @@ func (c *run) readEnd(value, polyText string, iso *[2]string, closed bool, param
 	case polyText == "" && iso == nil && value == "inf":
 		e.Inf = 1
 	case polyText == "" && iso == nil:
-		q, ok := parseRat(value)
+		q, ok := poly.ParseRat(value)
 		if !c.add("region", ok, "%s end %q is a rational", what, value) {
 			return e, false
 		}
@@ -86,11 +42,8 @@ func (c *run) readEnd(value, polyText string, iso *[2]string, closed bool, param
 		if !c.add("region", iso != nil, "%s end: %s comes with an isolating interval", what, polyText) {
 			return e, false
 		}
-		a, ok1 := parseRat(iso[0])
-		b, ok2 := parseRat(iso[1])
-		if !c.add("region", ok1 && ok2 && a.Cmp(b) < 0, "%s end: isolating interval (%s, %s)", what, iso[0], iso[1]) ||
-			!c.add("region", st.Count(poly.UBound{Value: a}, poly.UBound{Value: b}) == 1, "%s end: %s has exactly one root in [%s, %s] (Sturm)", what, polyText, iso[0], iso[1]) ||
-			!c.add("region", st.RoundsTo(a, b, value), "%s end: the root of %s rounds to %s", what, polyText, value) {
+		a, b, err := st.Isolates(*iso, value)
+		if !c.add("region", err == nil, "%s end: %s has exactly one root in its isolating interval, and it rounds to %s (Sturm)%s", what, polyText, value, errSuffix(err)) {
 			return e, false
 		}
 		e.P, e.A, e.B = st.P, a, b
@@ -105,8 +58,8 @@ func (c *run) readEnd(value, polyText string, iso *[2]string, closed bool, param
 // polynomial in an isolating interval) and shows every real root of every
 // condition to be an end, so that one rational sample decides each piece
 // (poly.Tiling.Signs).
-func (c *run) sturmRegion(cl Claim) bool {
-	rg := cl.(*SturmRegion)
+func (c *run) sturmRegion(cl claims.Claim) bool {
+	rg := cl.(*claims.SturmRegion)
 	used, ok := c.conditionsUsed("region")
 	if !ok {
 		return false
@@ -147,7 +100,7 @@ func (c *run) sturmRegion(cl Claim) bool {
 // small t ≠ 0, whatever the higher-order terms: the candidate fails
 // arbitrarily close to the equilibrium. A Gram matrix in a monomial basis
 // is not unique, so only quadratic parts count.
-func (c *run) regionPieces(rg *SturmRegion, pi int, conds []poly.Univariate, dom poly.Interval) (anyHolds, anyFails, allRefuted, ok bool) {
+func (c *run) regionPieces(rg *claims.SturmRegion, pi int, conds []poly.Univariate, dom poly.Interval) (anyHolds, anyFails, allRefuted, ok bool) {
 	if !c.add("region", len(rg.Pieces) > 0, "the pieces partition the range %s of %s", dom, rg.Param) {
 		return false, false, false, false
 	}
@@ -184,7 +137,7 @@ func (c *run) regionPieces(rg *SturmRegion, pi int, conds []poly.Univariate, dom
 	refuted := make([]bool, len(pieces))
 	claimed := make([]bool, len(pieces))
 	for i, p := range rg.Pieces {
-		claimed[i] = p.Status == PieceFails
+		claimed[i] = p.Status == claims.PieceFails
 	}
 	for _, of := range []string{"V", "-Vdot"} {
 		if f := c.forms[of]; f != nil && !f.basis && slices.Contains(claimed, true) {
@@ -193,12 +146,12 @@ func (c *run) regionPieces(rg *SturmRegion, pi int, conds []poly.Univariate, dom
 			}
 		}
 	}
-	var holdsText []Interval
+	var holdsText []claims.Interval
 	allRefuted = true
 	for i, p := range rg.Pieces {
 		pos := slices.IndexFunc(signs, func(s poly.Signs) bool { return !s.Positive[i] })
-		allRefuted = allRefuted && p.Status == PieceFails
-		if !c.add("region", p.Holds == (p.Status == PieceHolds) && (p.Status != PieceFails || refuted[i]) && slices.Contains([]string{PieceHolds, PieceFails, PieceUndecided}, p.Status),
+		allRefuted = allRefuted && p.Status == claims.PieceFails
+		if !c.add("region", p.Holds == (p.Status == claims.PieceHolds) && (p.Status != claims.PieceFails || refuted[i]) && slices.Contains([]string{claims.PieceHolds, claims.PieceFails, claims.PieceUndecided}, p.Status),
 			"piece %d: status %q agrees with holds = %v (fails only where a leading minor is negative: %v)", i+1, p.Status, p.Holds, refuted[i]) {
 			return false, false, false, false
 		}
@@ -218,7 +171,7 @@ func (c *run) regionPieces(rg *SturmRegion, pi int, conds []poly.Univariate, dom
 			return false, false, false, false
 		}
 	}
-	if !c.add("region", slices.EqualFunc(holdsText, rg.Intervals, func(x, y Interval) bool { return reflect.DeepEqual(x, y) }), "the listed intervals are the holding pieces") {
+	if !c.add("region", slices.EqualFunc(holdsText, rg.Intervals, func(x, y claims.Interval) bool { return reflect.DeepEqual(x, y) }), "the listed intervals are the holding pieces") {
 		return false, false, false, false
 	}
 	return anyHolds, anyFails, allRefuted, true

@@ -3,52 +3,27 @@ package checker
 import (
 	"math/big"
 
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/poly"
 )
-
-// MarginGram is a Gram matrix of the whole function less a margin: V or
-// −V̇ minus Margin equals zᵀGz for the monomials z of Basis, with G = L·D·Lᵀ
-// and D ≥ 0 (zero pivots allowed, with zero columns), and Margin
-// = Σ εᵢ·xᵢ^(2kᵢ) with rational εᵢ > 0 and a term for every state.
-type MarginGram struct {
-	Basis  []string `json:"basis"`
-	Margin string   `json:"margin"`
-	LDLForm
-}
-
-// NotSOS is a moment functional separating V or −V̇ from the sums of
-// squares of polynomials in the span of the monomials Basis: Moments lists
-// its values, L(x^γ) = the coefficient of x^γ; Moment is M_ab = L(z_a·z_b)
-// = L·diag(D)·Lᵀ with D ≥ 0; Value = L(p) < 0.
-type NotSOS struct {
-	Of      string     `json:"of"`
-	Basis   []string   `json:"basis"`
-	Moments string     `json:"moments"`
-	Moment  [][]string `json:"moment"`
-	L       [][]string `json:"l"`
-	D       []string   `json:"d"`
-	Value   string     `json:"value"`
-}
-
-func (*MarginGram) Rule() string { return "margin-gram-ldl" }
-func (*NotSOS) Rule() string     { return "moment-separation" }
 
 // maxBasis bounds the bases these rules read, so that the exact LDLᵀ
 // identity (n³ products) stays within a reader's patience.
 const maxBasis = 400
 
-// monomials reads a basis of distinct monomials in the states, each of
-// degree at least one with coefficient 1.
-func (c *run) monomials(name string, ss []string) ([]*poly.Poly, bool) {
+// monomials reads a basis of 1 to maxBasis distinct monomials with
+// coefficient 1: in the states alone, each of degree ≥ 1, or (all) in the
+// states and the parameters.
+func (c *run) monomials(name string, ss []string, all bool) ([]*poly.Poly, bool) {
 	if !c.add(name, len(ss) >= 1 && len(ss) <= maxBasis, "a basis of 1 to %d monomials", maxBasis) {
 		return nil, false
 	}
 	z, seen := make([]*poly.Poly, len(ss)), map[string]bool{}
 	for i, s := range ss {
 		b, ok := c.parse(name, s)
-		if !ok || !c.add(name, b.IsPoly() && b.Num.IsMonomial() && b.Num.Lead().Coef.Cmp(big.NewRat(1, 1)) == 0 &&
-			b.Num.DegreeIn(c.r.ParamMask()) == 0 && b.Num.Degree() >= 1 && !seen[b.Num.String()],
-			"basis element %s is a new monomial in the states with coefficient 1", s) {
+		if !ok || !c.add(name, b.IsPoly() && b.Num.IsMonomial() && b.Num.Lead().Coef.Cmp(big.NewRat(1, 1)) == 0 && !seen[b.Num.String()] &&
+			(all || b.Num.DegreeIn(c.r.ParamMask()) == 0 && b.Num.Degree() >= 1),
+			"basis element %s is a new monomial with coefficient 1 (in the states alone: %v)", s, !all) {
 			return nil, false
 		}
 		seen[b.Num.String()], z[i] = true, b.Num
@@ -62,14 +37,14 @@ func (c *run) monomials(name string, ss []string) ([]*poly.Poly, bool) {
 // from the origin and tends to ∞ with |x|: p is positive definite and
 // radially unbounded (the margin form of a Gram certificate, Peyrl &
 // Parrilo 2008). G may be singular: the margin, not G, makes p definite.
-func (c *run) marginGram(cl Claim) bool {
-	mg := cl.(*MarginGram)
+func (c *run) marginGram(cl claims.Claim) bool {
+	mg := cl.(*claims.MarginGram)
 	whole, ok := c.shifted(mg.Of)
 	if !ok {
 		return false
 	}
 	name := "margin " + mg.Of
-	z, ok1 := c.monomials(name, mg.Basis)
+	z, ok1 := c.monomials(name, mg.Basis, false)
 	m, ok2 := c.parse(name, mg.Margin)
 	if !ok1 || !ok2 {
 		return false
@@ -99,8 +74,8 @@ func (c *run) marginGram(cl Claim) bool {
 // positive semidefinite matrices): p is no sum of squares of polynomials in
 // the span of z (semidefinite duality, Parrilo 2003). It decides no
 // verdict; it says that no Gram certificate exists in that basis.
-func (c *run) momentSeparation(cl Claim) bool {
-	ns := cl.(*NotSOS)
+func (c *run) momentSeparation(cl claims.Claim) bool {
+	ns := cl.(*claims.NotSOS)
 	name := "moments " + ns.Of
 	if !c.add(name, c.derived && (ns.Of == "V" || ns.Of == "-Vdot"), "of V or −V̇, after the derivative") || !c.once("moment-separation "+ns.Of) {
 		return false
@@ -109,7 +84,7 @@ func (c *run) momentSeparation(cl Claim) bool {
 	if ns.Of == "-Vdot" {
 		p = c.m.Shift(c.vdot).Neg()
 	}
-	z, ok1 := c.monomials(name, ns.Basis)
+	z, ok1 := c.monomials(name, ns.Basis, false)
 	y, ok2 := c.parse(name, ns.Moments)
 	if !ok1 || !ok2 || !c.add(name, p.IsPoly() && p.Num.DegreeIn(c.r.ParamMask()) == 0 && y.IsPoly() && y.Num.DegreeIn(c.r.ParamMask()) == 0,
 		"the function and the moments are polynomials in the states alone") {
@@ -123,27 +98,14 @@ func (c *run) momentSeparation(cl Claim) bool {
 		return false
 	}
 	dc, ok := poly.Matrix{d}.Consts()
+	zero := make([]bool, len(z))
 	for k := 0; ok && k < len(z); k++ {
-		ok = dc[0][k].Sign() >= 0
+		ok, zero[k] = dc[0][k].Sign() >= 0, dc[0][k].Sign() == 0
 	}
-	// L unit lower triangular with a zero column below each zero pivot, and
-	// the functional supported on products of the basis: every stated
-	// number then matters.
-	prods := map[string]bool{}
-	for a := range z {
-		for b := range z {
-			prods[new(poly.Poly).Mul(z[a], z[b]).String()] = true
-		}
-	}
-	for i := 0; ok && i < len(z); i++ {
-		for j := range z {
-			ok = ok && (j > i && l[i][j].IsZero() || j == i && l[i][j].IsOne() || j < i && (dc[0][j].Sign() != 0 || l[i][j].IsZero()))
-		}
-	}
-	for _, t := range y.Num.Terms() {
-		ok = ok && prods[poly.Monomial(c.r, t.Exp, big.NewRat(1, 1)).String()]
-	}
-	v, okv := parseRat(ns.Value)
+	// L with zero columns below zero pivots, and the functional supported
+	// on products of the basis: every stated number then matters.
+	ok = ok && l.UnitLower(zero) && y.Num.InProducts(z)
+	v, okv := poly.ParseRat(ns.Value)
 	value := poly.Pairing(p.Num, y.Num)
 	if !c.add(name, ok, "the pivots are rational numbers ≥ 0, L is unit lower triangular with zero columns below zero pivots, and the moments lie on products of the basis") ||
 		!c.add(name, mom.EqualLDL(l, d), "L·diag(D)·Lᵀ reproduces the moment matrix exactly, so it is ⪰ 0") ||

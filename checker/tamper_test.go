@@ -16,6 +16,7 @@ import (
 
 	"github.com/lyacert/lyacert/certificates"
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 )
 
 // noClaim lists the fields that carry no claim; the mutation test leaves
@@ -128,7 +129,7 @@ func TestTamperedCertificatesRejected(t *testing.T) {
 			if err != nil {
 				t.Fatal(err)
 			}
-			orig, err := checker.Read(bytes.NewReader(raw))
+			orig, err := claims.Read(bytes.NewReader(raw))
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -142,7 +143,7 @@ func TestTamperedCertificatesRejected(t *testing.T) {
 			}
 			undecodable := 0
 			for _, m := range ms {
-				doc, err := checker.Decode(m.doc)
+				doc, err := claims.Decode(m.doc)
 				if err != nil {
 					undecodable++ // no longer a certificate at all: rejected
 					continue
@@ -211,8 +212,8 @@ func TestClaimEditsRejected(t *testing.T) {
 			if err := json.Unmarshal(raw, &top); err != nil {
 				t.Fatal(err)
 			}
-			var claims []map[string]any
-			if err := json.Unmarshal(top["claims"], &claims); err != nil {
+			var objs []map[string]any
+			if err := json.Unmarshal(top["claims"], &objs); err != nil {
 				t.Fatal(err)
 			}
 			orig := checker.Verify(mustRead(t, raw))
@@ -221,7 +222,7 @@ func TestClaimEditsRejected(t *testing.T) {
 				c, _ := json.Marshal(edited)
 				top["claims"] = c
 				b, _ := json.Marshal(top)
-				doc, err := checker.Decode(b)
+				doc, err := claims.Decode(b)
 				if err != nil {
 					return // no longer decodes: rejected
 				}
@@ -237,20 +238,20 @@ func TestClaimEditsRejected(t *testing.T) {
 				}
 				t.Errorf("%s is accepted (verdict %s, kind %s)", what, r.Verdict, r.Kind)
 			}
-			for i, cl := range claims {
+			for i, cl := range objs {
 				rule := cl["rule"].(string)
 				for _, other := range ruleNames {
 					if other == rule {
 						continue
 					}
-					edited := slices.Clone(claims)
+					edited := slices.Clone(objs)
 					c := maps.Clone(cl)
 					c["rule"] = other
 					edited[i] = c
 					check(fmt.Sprintf("claim %d renamed %s → %s", i+1, rule, other), edited, false)
 				}
-				check(fmt.Sprintf("claim %d (%s) duplicated", i+1, rule), slices.Insert(slices.Clone(claims), i, cl), false)
-				check(fmt.Sprintf("claim %d (%s) deleted", i+1, rule), slices.Delete(slices.Clone(claims), i, i+1), true)
+				check(fmt.Sprintf("claim %d (%s) duplicated", i+1, rule), slices.Insert(slices.Clone(objs), i, cl), false)
+				check(fmt.Sprintf("claim %d (%s) deleted", i+1, rule), slices.Delete(slices.Clone(objs), i, i+1), true)
 			}
 		})
 	}
@@ -260,9 +261,9 @@ var ruleNames = []string{"orbital-derivative", "quadratic-part-ldl", "monomial-g
 	"semidefinite-kernel", "sturm-region", "paving", "witness-points", "refutation", "krawczyk-enclosure", "linearization", "sublevel-basin",
 	"margin-gram-ldl", "moment-separation", "box-multiplier-sos"}
 
-func mustRead(t *testing.T, raw []byte) *checker.Document {
+func mustRead(t *testing.T, raw []byte) *claims.Document {
 	t.Helper()
-	d, err := checker.Read(bytes.NewReader(raw))
+	d, err := claims.Read(bytes.NewReader(raw))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -277,7 +278,7 @@ func TestReadRefusesReformattedFiles(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if _, err := checker.Read(bytes.NewReader(raw)); err != nil {
+	if _, err := claims.Read(bytes.NewReader(raw)); err != nil {
 		t.Fatalf("the file as written: %v", err)
 	}
 	for name, edit := range map[string]func([]byte) []byte{
@@ -287,7 +288,7 @@ func TestReadRefusesReformattedFiles(t *testing.T) {
 		"trailing data":  func(b []byte) []byte { return append(slices.Clone(b), "{}\n"...) },
 		"CRLF line ends": func(b []byte) []byte { return bytes.ReplaceAll(b, []byte("\n"), []byte("\r\n")) },
 	} {
-		if _, err := checker.Read(bytes.NewReader(edit(raw))); err == nil {
+		if _, err := claims.Read(bytes.NewReader(edit(raw))); err == nil {
 			t.Errorf("%s: accepted", name)
 		}
 	}

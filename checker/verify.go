@@ -3,10 +3,10 @@ package checker
 import (
 	"context"
 	"fmt"
-	"math/big"
 	"slices"
 	"strings"
 
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/model"
 	"github.com/lyacert/lyacert/poly"
 )
@@ -57,52 +57,46 @@ type Outcome struct {
 type rule struct {
 	name  string
 	rank  int // claims come in ascending rank
-	new   func() Claim
-	check func(c *run, cl Claim) bool
+	check func(c *run, cl claims.Claim) bool
 }
 
 // rules is the kernel's rule table, in the order claims must appear (set in
 // init: point-check verifies nested claims by the same table).
 var rules []rule
 
-func init() {
-	rules = ruleTable()
-	for _, r := range rules {
-		claimTypes[r.name] = r.new
-	}
-}
+func init() { rules = ruleTable() }
 
 func ruleTable() []rule {
 	return []rule{
-		{"orbital-derivative", 0, func() Claim { return new(OrbitalDerivative) }, (*run).derivative},
-		{"quadratic-part-ldl", 1, func() Claim { return new(QuadraticPart) }, (*run).quadraticPart},
-		{"monomial-gram-ldl", 1, func() Claim { return new(MonomialGram) }, (*run).monomialGram},
-		{"margin-gram-ldl", 1, func() Claim { return new(MarginGram) }, (*run).marginGram},
-		{"box-multiplier-sos", 1, func() Claim { return new(BoxMultiplier) }, (*run).boxMultiplier},
-		{"minor-condition", 2, func() Claim { return new(MinorCondition) }, (*run).minorCondition},
-		{"semidefinite-kernel", 3, func() Claim { return new(NullSpace) }, (*run).nullSpace},
-		{"invariance", 3, func() Claim { return new(Invariance) }, (*run).invariance},
-		{"point-check", 3, func() Claim { return new(PointCheck) }, (*run).pointCheck},
-		{"sturm-region", 4, func() Claim { return new(SturmRegion) }, (*run).sturmRegion},
-		{"paving", 4, func() Claim { return new(Paving) }, (*run).paving},
-		{"witness-points", 4, func() Claim { return new(WitnessPoints) }, (*run).witnessPoints},
-		{"refutation", 5, func() Claim { return new(Refutation) }, (*run).refutation},
-		{"moment-separation", 5, func() Claim { return new(NotSOS) }, (*run).momentSeparation},
-		{"krawczyk-enclosure", 6, func() Claim { return new(KrawczykEnclosure) }, (*run).krawczyk},
-		{"linearization", 7, func() Claim { return new(Linearization) }, (*run).linearization},
-		{"vertex-lyapunov", 7, func() Claim { return new(VertexLyapunov) }, (*run).vertexLyapunov},
-		{"sublevel-basin", 8, func() Claim { return new(SublevelBasin) }, (*run).sublevelBasin},
+		{"orbital-derivative", 0, (*run).derivative},
+		{"quadratic-part-ldl", 1, (*run).quadraticPart},
+		{"monomial-gram-ldl", 1, (*run).monomialGram},
+		{"margin-gram-ldl", 1, (*run).marginGram},
+		{"box-multiplier-sos", 1, (*run).boxMultiplier},
+		{"minor-condition", 2, (*run).minorCondition},
+		{"semidefinite-kernel", 3, (*run).nullSpace},
+		{"invariance", 3, (*run).invariance},
+		{"point-check", 3, (*run).pointCheck},
+		{"sturm-region", 4, (*run).sturmRegion},
+		{"paving", 4, (*run).paving},
+		{"witness-points", 4, (*run).witnessPoints},
+		{"refutation", 5, (*run).refutation},
+		{"moment-separation", 5, (*run).momentSeparation},
+		{"krawczyk-enclosure", 6, (*run).krawczyk},
+		{"linearization", 7, (*run).linearization},
+		{"vertex-lyapunov", 7, (*run).vertexLyapunov},
+		{"sublevel-basin", 8, (*run).sublevelBasin},
 	}
 }
 
 // Verify re-checks d: the model text and its parameters, every claim by the
 // rule it names, the verdict derived from them, the digest and a present
 // signature (see the package documentation).
-func Verify(d *Document) Outcome { return VerifyContext(context.Background(), d) }
+func Verify(d *claims.Document) Outcome { return VerifyContext(context.Background(), d) }
 
 // VerifyContext is Verify within ctx's deadline: a run that ctx stops is
 // invalid (its record says so), never a verdict.
-func VerifyContext(ctx context.Context, d *Document) Outcome {
+func VerifyContext(ctx context.Context, d *claims.Document) Outcome {
 	c := &run{ctx: ctx, doc: d, records: make([]Record, 0, 64), forms: map[string]*checkedForm{}, seen: map[string]bool{}, sturm: map[string]*poly.Sturm{}, points: map[string]*[2]string{}}
 	verdict, kind := c.verify()
 	if d.Signature != nil {
@@ -126,7 +120,7 @@ func VerifyContext(ctx context.Context, d *Document) Outcome {
 // run is the state of one verification: the facts established so far.
 type run struct {
 	ctx     context.Context
-	doc     *Document
+	doc     *claims.Document
 	records []Record
 	failed  bool
 	m       *model.Model
@@ -205,7 +199,7 @@ func (c *run) once(key string) bool {
 
 func (c *run) verify() (verdict, kind string) {
 	d := c.doc
-	if !c.add("format", d.Format == Format, "format %q", d.Format) {
+	if !c.add("format", d.Format == claims.Format, "format %q", d.Format) {
 		return
 	}
 	m, err := model.Parse("certificate model", []byte(d.Model))
@@ -215,7 +209,7 @@ func (c *run) verify() (verdict, kind string) {
 	c.m, c.r, c.box = m, m.Ring, m.Box()
 	same := len(d.Parameters) == len(m.Params)
 	for i := 0; same && i < len(m.Params); i++ {
-		same = d.Parameters[i] == Parameter{m.Params[i].Name, model.RangeText(m.Params[i])}
+		same = d.Parameters[i] == claims.Parameter{Name: m.Params[i].Name, Range: model.RangeText(m.Params[i])}
 	}
 	if !c.add("parameters", same, "the parameters and their assumptions are restated as in the model") ||
 		!c.add("claims", len(d.Claims) > 0, "the certificate states claims") {
@@ -376,10 +370,13 @@ func errSuffix(err error) string {
 	return ": " + strings.ReplaceAll(err.Error(), "\n", "; ")
 }
 
-func parseRat(s string) (*big.Rat, bool) {
-	if s == "" || len(s) > 100000 || strings.ContainsAny(s, " \t\n") {
-		return nil, false
+// signature records the check of a present signature. Verify does not
+// require one; a present one must verify, since a reader would otherwise take
+// a forged or stale signature at face value.
+func (c *run) signature() {
+	if _, err := c.doc.VerifySignature(); err != nil {
+		c.add("signature", false, "%v", err)
+	} else {
+		c.add("signature", true, "the ed25519 signature of the digest by the key it names is valid")
 	}
-	q, ok := new(big.Rat).SetString(s)
-	return q, ok
 }

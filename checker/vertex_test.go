@@ -5,6 +5,7 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/model"
 	"github.com/lyacert/lyacert/poly"
 )
@@ -63,15 +64,15 @@ func vertexDecay(m *model.Model, p [][]string) [][][]string {
 
 // vertexDoc is a sealed certificate of the model text with one
 // vertex-lyapunov claim (and any further claims).
-func vertexDoc(t *testing.T, text string, p [][]string, more ...Claim) *Document {
+func vertexDoc(t *testing.T, text string, p [][]string, more ...claims.Claim) *claims.Document {
 	t.Helper()
 	m, err := model.Parse("test.lya", []byte(text))
 	if err != nil {
 		t.Fatal(err)
 	}
-	d := &Document{Format: Format, Model: text, Parameters: []Parameter{}, Claims: append([]Claim{&VertexLyapunov{P: p, Decay: vertexDecay(m, p)}}, more...)}
+	d := &claims.Document{Format: claims.Format, Model: text, Parameters: []claims.Parameter{}, Claims: append([]claims.Claim{&claims.VertexLyapunov{P: p, Decay: vertexDecay(m, p)}}, more...)}
 	for _, q := range m.Params {
-		d.Parameters = append(d.Parameters, Parameter{q.Name, model.RangeText(q)})
+		d.Parameters = append(d.Parameters, claims.Parameter{Name: q.Name, Range: model.RangeText(q)})
 	}
 	if d.Digest, err = d.ComputeDigest(); err != nil {
 		t.Fatal(err)
@@ -103,7 +104,7 @@ func TestVertexLyapunov(t *testing.T) {
 		{"vertex (4, 1) fails", strings.Replace(osc, "[1, 2]", "[1, 4]", 1), hand, "", "at vertex"},
 		{"an unstable vertex", strings.Replace(osc, "c in [1, 2]", "c in [-1, 2]", 1), hand, "", "at vertex"},
 		{"P indefinite", osc, [][]string{{"1", "2"}, {"2", "1"}}, "", "P is positive definite"},
-		{"P asymmetric", osc, [][]string{{"2", "1/2"}, {"1/3", "1"}}, "", "P is symmetric"},
+		{"P asymmetric", osc, [][]string{{"2", "1/2"}, {"1/3", "1"}}, "", "(symmetric if P)"},
 		{"P not canonical", osc, [][]string{{"2", "2/4"}, {"1/2", "1"}}, "", "canonical"},
 		{"P of the wrong size", osc, [][]string{{"2"}}, "", "2×2"},
 		{"decay matrices forged", osc, nil, "", "equals the recomputed"},
@@ -114,14 +115,14 @@ func TestVertexLyapunov(t *testing.T) {
 		{"map", "state x\nparameter k in [0, 1/2]\nx+ = k*x\n", [][]string{{"1"}}, "", "continuous time"},
 		{"no free parameter", "state x\nx' = -x\n", [][]string{{"1"}}, "", "free parameters"},
 		{"candidate V stated", osc + "V = x^2 + y^2\n", hand, "", "no candidate"},
-		{"equilibrium moving with k", "state x\nparameter k in [1, 2]\nx' = -x + k\nat x = k\n", [][]string{{"1"}}, "", "does not depend"},
+		{"equilibrium moving with k", "state x\nparameter k in [1, 2]\nx' = -x + k\nat x = k\n", [][]string{{"1"}}, "", "free of the parameters"},
 		{"not an equilibrium", "state x\nparameter k in [1, 2]\nx' = -x + k\n", [][]string{{"1"}}, "", "f(x*) = 0"},
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
 			d := vertexDoc(t, tt.text, tt.p)
 			if tt.p == nil { // a valid P with a forged M at the last vertex
-				vl := d.Claims[0].(*VertexLyapunov)
+				vl := d.Claims[0].(*claims.VertexLyapunov)
 				vl.P = hand
 				m, _ := model.Parse("test.lya", []byte(tt.text))
 				vl.Decay = vertexDecay(m, hand)
@@ -145,7 +146,7 @@ func TestVertexLyapunov(t *testing.T) {
 		})
 	}
 	// The claim is stated once, and claims nothing beside itself.
-	if out := Verify(vertexDoc(t, osc, hand, &VertexLyapunov{P: hand})); out.Valid {
+	if out := Verify(vertexDoc(t, osc, hand, &claims.VertexLyapunov{P: hand})); out.Valid {
 		t.Errorf("two vertex claims accepted")
 	}
 }

@@ -104,6 +104,17 @@ func (m *Model) AtPoint() ([]*big.Rat, error) {
 	return pt, nil
 }
 
+// ConstantAt returns the equilibrium as rationals, for a model whose
+// equilibrium is the same for every parameter value.
+func (m *Model) ConstantAt() ([]*big.Rat, error) {
+	for i, a := range m.At {
+		if !a.IsPoly() || !a.Num.IsConst() {
+			return nil, fmt.Errorf("the equilibrium's %s = %s depends on the parameters", m.States[i], a)
+		}
+	}
+	return m.AtPoint()
+}
+
 // CheckEquilibrium returns an error unless the equilibrium makes every
 // residual vanish identically in the parameters (exact). When the residuals
 // involve one parameter only, the error says for which allowed values of it

@@ -1,6 +1,10 @@
 package model
 
-import "github.com/lyacert/lyacert/poly"
+import (
+	"math/big"
+
+	"github.com/lyacert/lyacert/poly"
+)
 
 // Derivative returns the derivative of v along the flow: the orbital (Lie)
 // derivative V̇ = Σ ∂V/∂xᵢ · fᵢ for continuous time, and the difference
@@ -55,4 +59,46 @@ func (m *Model) Unshift(p poly.RatFunc) poly.RatFunc {
 		sub[i] = poly.FromPoly(poly.Var(r, i)).Sub(m.At[i])
 	}
 	return p.ComposeStates(sub, has)
+}
+
+// JacobianAt returns the Jacobian ∂fᵢ/∂xₖ at the states pt, as polynomials
+// in the parameters, and whether f has degree ≤ 1 in the states; bad is the
+// index of the first right-hand side with a denominator (then jac is nil),
+// −1 when there is none.
+func (m *Model) JacobianAt(pt []*big.Rat) (jac [][]*poly.Poly, affine bool, bad int) {
+	states := make([]bool, m.Ring.NumVars())
+	vals := map[int]*big.Rat{}
+	for i, v := range pt {
+		states[i], vals[i] = true, v
+	}
+	affine = true
+	for i, f := range m.F {
+		if !f.IsPoly() {
+			return nil, false, i
+		}
+		affine = affine && f.Num.DegreeIn(states) <= 1
+		row := make([]*poly.Poly, len(m.F))
+		for k := range row {
+			row[k] = new(poly.Poly).EvalVars(new(poly.Poly).Derivative(f.Num, k), vals)
+		}
+		jac = append(jac, row)
+	}
+	return jac, affine, -1
+}
+
+// Vertex returns a point of the ring's variables: the states at pt, the
+// free parameters at vertex v of their box (parameter j of FreeParams at
+// its upper end exactly when bit j of v is set; every range bounded), the
+// rest 0.
+func (m *Model) Vertex(pt []*big.Rat, v int) []*big.Rat {
+	x := make([]*big.Rat, m.Ring.NumVars())
+	for i := range x {
+		x[i] = new(big.Rat)
+	}
+	copy(x, pt)
+	for j, p := range m.FreeParams() {
+		k, _ := m.Ring.Index(p.Name)
+		x[k] = map[bool]*big.Rat{false: p.Range.Lo.Value, true: p.Range.Hi.Value}[v>>j&1 == 1]
+	}
+	return x
 }

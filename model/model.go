@@ -3,6 +3,7 @@ package model
 import (
 	"errors"
 	"fmt"
+	"maps"
 	"math/big"
 	"slices"
 	"strings"
@@ -73,6 +74,26 @@ func (m *Model) Param(name string) (Param, bool) {
 		}
 	}
 	return Param{}, false
+}
+
+// ParamValues reads values of free parameters, each an exact rational
+// (poly.ParseRat) inside the parameter's range, indexed like the ring's
+// variables. The first bad entry in name order is the error.
+func (m *Model) ParamValues(vals map[string]string) (map[int]*big.Rat, error) {
+	out := map[int]*big.Rat{}
+	for _, name := range slices.Sorted(maps.Keys(vals)) {
+		p, ok := m.Param(name)
+		i, isVar := m.Ring.Index(name)
+		if !ok || !isVar || p.Fixed != nil {
+			return nil, fmt.Errorf("%s is not a free parameter", name)
+		}
+		v, ok := poly.ParseRat(vals[name])
+		if !ok || !p.Range.Contains(v) {
+			return nil, fmt.Errorf("%s = %s does not lie in %s", name, vals[name], p.Range)
+		}
+		out[i] = v
+	}
+	return out, nil
 }
 
 // keywords cannot name a state or a parameter. The old spellings "param"

@@ -3,6 +3,7 @@ package poly
 import (
 	"math/big"
 	"strconv"
+	"strings"
 )
 
 // Exact rational arithmetic with a fast path for small operands.
@@ -145,4 +146,15 @@ func QuoRat(z, x, y *big.Rat) *big.Rat {
 		}
 	}
 	return z.Quo(x, y)
+}
+
+// ParseRat reads an exact number, "p/q" or a decimal
+// (big.Rat.SetString), refusing white space, the empty string and texts over
+// 100,000 bytes.
+func ParseRat(s string) (*big.Rat, bool) {
+	if s == "" || len(s) > 100000 || strings.ContainsAny(s, " \t\n") {
+		return nil, false
+	}
+	q, ok := new(big.Rat).SetString(s)
+	return q, ok
 }

@@ -215,6 +215,23 @@ func (l Matrix) UnitLower(zero []bool) bool {
 	return true
 }
 
+// InProducts reports that every monomial of p is a product z_a·z_b of two
+// polynomials of z (monomials).
+func (p *Poly) InProducts(z []*Poly) bool {
+	prods := map[string]bool{}
+	for a := range z {
+		for b := range z {
+			prods[new(Poly).Mul(z[a], z[b]).String()] = true
+		}
+	}
+	for _, t := range p.Terms() {
+		if !prods[Monomial(p.Ring(), t.Exp, big.NewRat(1, 1)).String()] {
+			return false
+		}
+	}
+	return true
+}
+
 // Bilinear returns g·zᵀGz for monomials (or any polynomials) z in every
 // variable of the ring, states and parameters alike, and a constant
 // Gram matrix G: the term of a multiplier identity Σₖ gₖ·zₖᵀGₖzₖ.

@@ -1,6 +1,7 @@
 package poly
 
 import (
+	"fmt"
 	"math/big"
 	"slices"
 )
@@ -74,6 +75,22 @@ func (s *Sturm) RoundsTo(a, b *big.Rat, dec string) bool {
 		hi = b
 	}
 	return lo.Cmp(hi) < 0 && s.Count(UBound{Value: lo, Open: true}, UBound{Value: hi, Open: true}) == 1
+}
+
+// Isolates reads an isolating interval [a, b] (a < b, exact rationals)
+// and checks that P has exactly one root in it that dec rounds (RoundsTo).
+func (s *Sturm) Isolates(iso [2]string, dec string) (a, b *big.Rat, err error) {
+	a, ok1 := ParseRat(iso[0])
+	b, ok2 := ParseRat(iso[1])
+	switch {
+	case !ok1 || !ok2 || a.Cmp(b) >= 0:
+		return nil, nil, fmt.Errorf("(%s, %s) is not an interval with rational ends", iso[0], iso[1])
+	case s.Count(UBound{Value: a}, UBound{Value: b}) != 1:
+		return nil, nil, fmt.Errorf("not exactly one root in [%s, %s]", iso[0], iso[1])
+	case !s.RoundsTo(a, b, dec):
+		return nil, nil, fmt.Errorf("the root does not round to %s", dec)
+	}
+	return a, b, nil
 }
 
 // Tiling is a list of spans in increasing order, each next one starting

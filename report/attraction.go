@@ -6,6 +6,7 @@ import (
 	"strings"
 
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
@@ -30,9 +31,9 @@ type attractionView struct {
 // attractionOf presents the certificate's sublevel-basin claim, which
 // checker.Verify has accepted (res.Basin is its level), or returns nil.
 func (b *builder) attractionOf(res checker.Outcome) (*attractionView, error) {
-	var cl *checker.SublevelBasin
+	var cl *claims.SublevelBasin
 	for _, c := range b.doc.Claims {
-		if s, ok := c.(*checker.SublevelBasin); ok {
+		if s, ok := c.(*claims.SublevelBasin); ok {
 			cl = s
 		}
 	}
@@ -72,7 +73,7 @@ func (b *builder) attractionOf(res checker.Outcome) (*attractionView, error) {
 	for _, p := range m.FreeParams() { // closed and bounded: the kernel accepted the claim
 		sides = append(sides, relation{name{p.Name}, symIn, interval{lo: ratNode(p.Range.Lo.Value), hi: ratNode(p.Range.Hi.Value), loClosed: true, hiClosed: true}})
 	}
-	in, out := strings.Count(cl.Tree, string(checker.PaveInside)), strings.Count(cl.Tree, string(checker.PaveOutside))
+	in, out := strings.Count(cl.Tree, string(claims.PaveInside)), strings.Count(cl.Tree, string(claims.PaveOutside))
 	res0, _ := new(big.Rat).SetString(cl.Resolution)
 	a.Method = rich{"Method: interval branch and bound. The box ", sides, " was bisected down to a resolution of ", ratNode(res0),
 		fmt.Sprintf(" of its sides into %d boxes. On %d of them ", in+out, out), relation{vSym, symGreater, cSym},

@@ -9,7 +9,7 @@ import (
 
 	"github.com/lyacert/lyacert/certify/branches"
 	"github.com/lyacert/lyacert/certify/equilibria"
-	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/model"
 	"github.com/lyacert/lyacert/poly"
 )
@@ -286,8 +286,8 @@ func spansOutput(ss []poly.Span, r *poly.Ring, pi int) []IntervalOutput {
 
 // checkerInterval is iv in the kernel's shape, for the text helpers
 // shared with check.
-func (iv IntervalOutput) checkerInterval() checker.Interval {
-	c := checker.Interval{Lo: iv.Lo, Hi: iv.Hi, LoClosed: iv.LoClosed, HiClosed: iv.HiClosed, LoIsolating: iv.LoIsolating, HiIsolating: iv.HiIsolating}
+func (iv IntervalOutput) checkerInterval() claims.Interval {
+	c := claims.Interval{Lo: iv.Lo, Hi: iv.Hi, LoClosed: iv.LoClosed, HiClosed: iv.HiClosed, LoIsolating: iv.LoIsolating, HiIsolating: iv.HiIsolating}
 	if iv.LoPoly != nil {
 		c.LoPoly = *iv.LoPoly
 	}

@@ -9,6 +9,7 @@ import (
 	"github.com/lyacert/lyacert/certify/direct"
 	"github.com/lyacert/lyacert/certify/equilibria"
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/poly"
 	"github.com/lyacert/lyacert/sweep"
 )
@@ -21,30 +22,30 @@ import (
 // minors, the conditions in the text's words, the region, witnesses,
 // refutation or kernel, and the certificate's digest and re-check.
 type CheckOutput struct {
-	Verdict     string              `json:"verdict"`
-	Claim       string              `json:"claim"`
-	Reason      string              `json:"reason"`
-	TimeKind    string              `json:"time_kind"` // "continuous" or "discrete"
-	V           string              `json:"V"`
-	Vdot        string              `json:"vdot"`
-	Minors      []string            `json:"minors"`
-	Forms       []FormOutput        `json:"forms"`
-	Conditions  []string            `json:"conditions"`
-	Region      *RegionOutput       `json:"region"`
-	Witnesses   []checker.Witness   `json:"witnesses"`
-	Refutation  *checker.Refutation `json:"refutation"`
-	Kernel      [][]string          `json:"kernel"`
-	Digest      string              `json:"digest"`
-	Checks      int                 `json:"checks_passed"`
-	Certificate string              `json:"certificate"`
+	Verdict     string             `json:"verdict"`
+	Claim       string             `json:"claim"`
+	Reason      string             `json:"reason"`
+	TimeKind    string             `json:"time_kind"` // "continuous" or "discrete"
+	V           string             `json:"V"`
+	Vdot        string             `json:"vdot"`
+	Minors      []string           `json:"minors"`
+	Forms       []FormOutput       `json:"forms"`
+	Conditions  []string           `json:"conditions"`
+	Region      *RegionOutput      `json:"region"`
+	Witnesses   []claims.Witness   `json:"witnesses"`
+	Refutation  *claims.Refutation `json:"refutation"`
+	Kernel      [][]string         `json:"kernel"`
+	Digest      string             `json:"digest"`
+	Checks      int                `json:"checks_passed"`
+	Certificate string             `json:"certificate"`
 
 	// NotSOS: exact proofs that V or −V̇ is no sum of squares in a
 	// monomial basis (absent when there are none).
-	NotSOS []checker.NotSOS `json:"not_sos,omitempty"`
+	NotSOS []claims.NotSOS `json:"not_sos,omitempty"`
 
 	// Invariance: the invariance principle's identities (null when the
 	// claim does not rest on it).
-	Invariance *checker.Invariance `json:"invariance"`
+	Invariance *claims.Invariance `json:"invariance"`
 	// Points: rational point pieces of the region settled by a nested
 	// certificate of the model with the parameter fixed there ([] when none).
 	Points []PointOutput `json:"points"`
@@ -85,19 +86,19 @@ type FormOutput struct {
 // RegionOutput is a region: one parameter's pieces, or a paving with its
 // summary and its product form.
 type RegionOutput struct {
-	Param     string                `json:"param"`
-	Intervals []checker.Interval    `json:"intervals"`
-	Pieces    []checker.Piece       `json:"pieces"`
-	Paving    *PavingOutput         `json:"paving"`
-	Product   []checker.SturmRegion `json:"product"`
+	Param     string               `json:"param"`
+	Intervals []claims.Interval    `json:"intervals"`
+	Pieces    []claims.Piece       `json:"pieces"`
+	Paving    *PavingOutput        `json:"paving"`
+	Product   []claims.SturmRegion `json:"product"`
 }
 
 // PavingOutput is a paving of a RegionOutput with its counts and shares.
 type PavingOutput struct {
-	Params     []string           `json:"params"`
-	Box        []checker.Interval `json:"box"`
-	Resolution string             `json:"resolution"`
-	Tree       string             `json:"tree"`
+	Params     []string          `json:"params"`
+	Box        []claims.Interval `json:"box"`
+	Resolution string            `json:"resolution"`
+	Tree       string            `json:"tree"`
 	certificates.PavingSummary
 }
 
@@ -174,7 +175,7 @@ type VerifyOutput struct {
 
 // VerifyJSON is the JSON of checker.Verify's outcome for doc and of the
 // trust check.
-func VerifyJSON(doc *checker.Document, out checker.Outcome, trust Trust) VerifyOutput {
+func VerifyJSON(doc *claims.Document, out checker.Outcome, trust Trust) VerifyOutput {
 	altered, recomputed := Altered(doc)
 	v := VerifyOutput{Valid: out.Valid && (!trust.Required || trust.Trusted), MathematicsValid: out.Valid,
 		Claim: out.Kind, Verdict: out.Verdict, Digest: doc.Digest, Altered: altered, RecomputedDigest: recomputed,
@@ -277,7 +278,7 @@ func FindJSON(res *equilibria.FindResult, written []string) FindOutput {
 			eo.Exact = ex
 		}
 		for _, iv := range e.Box {
-			eo.Box = append(eo.Box, checker.IntervalText(iv))
+			eo.Box = append(eo.Box, claims.IntervalText(iv))
 		}
 		if ct := res.Certs[i]; ct != nil {
 			co := &CertOutput{Method: ct.Method, PSource: PSourceLabel(ct.PSource), ExactNote: ct.ExactNote, Verdict: ct.Verdict, Claim: ct.Claim, Reason: ct.Reason, Certificate: fileAt(written, i)}

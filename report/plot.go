@@ -13,7 +13,7 @@ import (
 	"strings"
 
 	"github.com/lyacert/lyacert/certificates"
-	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/font"
@@ -155,7 +155,7 @@ func stripSVG(rv *regionView) (string, error) {
 // its name and decimal, as in the report). format is "svg", "png" or "pdf".
 // The certificate is re-checked first, as for Render; one without a
 // one-parameter region gives an error.
-func RegionPlot(doc *checker.Document, format string) ([]byte, error) {
+func RegionPlot(doc *claims.Document, format string) ([]byte, error) {
 	p, err := build(doc, Options{})
 	if err != nil {
 		return nil, err
@@ -399,7 +399,7 @@ func pavingPicture(v *pavingView) string {
 	var b strings.Builder
 	b.WriteString("\\begin{center}\n\\setlength{\\unitlength}{1mm}\n")
 	fmt.Fprintf(&b, "\\begin{picture}(%.0f,%.0f)(-12,-10)\n", width+12, height+12)
-	order := map[byte]int{checker.PaveInside: 0, checker.PaveOutside: 1, checker.PaveUndecided: 2}
+	order := map[byte]int{claims.PaveInside: 0, claims.PaveOutside: 1, claims.PaveUndecided: 2}
 	sorted := append([]certificates.PavingLeaf(nil), v.leaves...)
 	sort.SliceStable(sorted, func(i, j int) bool { return order[sorted[i].Class] < order[sorted[j].Class] })
 	for _, lf := range sorted {
@@ -409,9 +409,9 @@ func pavingPicture(v *pavingView) string {
 			lo, hi = (f(lf.Lo[1])-y0)*sy, (f(lf.Hi[1])-y0)*sy
 		}
 		switch lf.Class {
-		case checker.PaveInside:
+		case claims.PaveInside:
 			fmt.Fprintf(&b, "\\put(%.2f,%.2f){\\rule{%.2fmm}{%.2fmm}}\n", a, lo, c-a, hi-lo)
-		case checker.PaveUndecided:
+		case claims.PaveUndecided:
 			fmt.Fprintf(&b, "\\put(%.2f,%.2f){\\framebox(%.2f,%.2f){}}\n", a, lo, c-a, hi-lo)
 		}
 	}
@@ -443,7 +443,7 @@ const maxDrawnLeaves = 20000
 // newPavingView shows a several-parameter paving: its box, its resolution,
 // the classes' counts and exact shares of the volume, and a picture of the
 // leaves projected on the first two paved parameters.
-func newPavingView(pv *checker.Paving) *pavingView {
+func newPavingView(pv *claims.Paving) *pavingView {
 	v := &pavingView{}
 	for _, s := range pv.Params {
 		v.Params = append(v.Params, name{s})
@@ -520,7 +520,7 @@ func pavingSVG(params []string, leaves []certificates.PavingLeaf) (string, error
 	f := func(q *big.Rat) float64 { x, _ := q.Float64(); return x }
 	// Undecided and outside boxes last, so that in a projection they show
 	// over inside ones: the picture errs on the side of caution.
-	order := map[byte]int{checker.PaveInside: 0, checker.PaveOutside: 1, checker.PaveUndecided: 2}
+	order := map[byte]int{claims.PaveInside: 0, claims.PaveOutside: 1, claims.PaveUndecided: 2}
 	sorted := append([]certificates.PavingLeaf(nil), leaves...)
 	sort.SliceStable(sorted, func(i, j int) bool { return order[sorted[i].Class] < order[sorted[j].Class] })
 	for _, lf := range sorted {
@@ -537,9 +537,9 @@ func pavingSVG(params []string, leaves []certificates.PavingLeaf) (string, error
 		pg.LineStyle.Width = vg.Points(0.2)
 		pg.LineStyle.Color = color.Gray{0x60}
 		switch lf.Class {
-		case checker.PaveInside:
+		case claims.PaveInside:
 			pg.Color = holdsColor
-		case checker.PaveOutside:
+		case claims.PaveOutside:
 			pg.Color = failsColor
 		default:
 			// A thick outline keeps even the smallest undecided box
@@ -554,15 +554,15 @@ func pavingSVG(params []string, leaves []certificates.PavingLeaf) (string, error
 
 // classColors are the paving classes' colours, those of the strips.
 var classColors = map[byte]color.Color{
-	checker.PaveInside:    holdsColor,
-	checker.PaveOutside:   failsColor,
-	checker.PaveUndecided: undecidedColor,
+	claims.PaveInside:    holdsColor,
+	claims.PaveOutside:   failsColor,
+	claims.PaveUndecided: undecidedColor,
 }
 
 var classNames = map[byte]string{
-	checker.PaveInside:    "inside: the conditions hold (proven)",
-	checker.PaveOutside:   "outside: a condition fails (proven)",
-	checker.PaveUndecided: "undecided at the resolution",
+	claims.PaveInside:    "inside: the conditions hold (proven)",
+	claims.PaveOutside:   "outside: a condition fails (proven)",
+	claims.PaveUndecided: "undecided at the resolution",
 }
 
 // PavingPlot draws a paving's leaves, coloured by class, over the two
@@ -571,7 +571,7 @@ var classNames = map[byte]string{
 // its index in pv.Params), each within its side of the box: a leaf is drawn
 // when the value lies in it, its lower end included, its upper end only at
 // the top of the box. The float64 positions are for the picture only.
-func PavingPlot(pv *checker.Paving, fixed map[int]*big.Rat, format string) ([]byte, error) {
+func PavingPlot(pv *claims.Paving, fixed map[int]*big.Rat, format string) ([]byte, error) {
 	leaves, err := certificates.Leaves(pv)
 	if err != nil {
 		return nil, err
@@ -607,7 +607,7 @@ func PavingPlot(pv *checker.Paving, fixed map[int]*big.Rat, format string) ([]by
 	p.Y.Max, _ = y1.Float64()
 	p.Y.Max += (p.Y.Max - p.Y.Min) / 5 // room for the legend above the box
 	layers := map[byte]*boxLayer{}
-	for _, c := range []byte{checker.PaveInside, checker.PaveOutside, checker.PaveUndecided} {
+	for _, c := range []byte{claims.PaveInside, claims.PaveOutside, claims.PaveUndecided} {
 		layers[c] = &boxLayer{fill: classColors[c]}
 	}
 	for _, lf := range leaves {
@@ -626,7 +626,7 @@ func PavingPlot(pv *checker.Paving, fixed map[int]*big.Rat, format string) ([]by
 		r[3], _ = lf.Hi[axes[1]].Float64()
 		layers[lf.Class].boxes = append(layers[lf.Class].boxes, r)
 	}
-	for _, c := range []byte{checker.PaveInside, checker.PaveOutside, checker.PaveUndecided} {
+	for _, c := range []byte{claims.PaveInside, claims.PaveOutside, claims.PaveUndecided} {
 		p.Add(layers[c])
 		p.Legend.Add(classNames[c]+", "+boxes(len(layers[c].boxes)), layers[c])
 	}

@@ -5,7 +5,7 @@ import (
 	"math/big"
 	"strconv"
 
-	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 )
 
 // regionView is the one-parameter region: the pieces of the parameter's
@@ -52,9 +52,9 @@ func (b *builder) regions(p *page) error {
 	if rg == nil {
 		return nil
 	}
-	var rs []checker.SturmRegion
+	var rs []claims.SturmRegion
 	if rg.Param != "" {
-		rs = append(rs, checker.SturmRegion{Param: rg.Param, Intervals: rg.Intervals, Pieces: rg.Pieces})
+		rs = append(rs, claims.SturmRegion{Param: rg.Param, Intervals: rg.Intervals, Pieces: rg.Pieces})
 	}
 	if rg.Paving != nil {
 		rs = append(rs, rg.Paving.Product...)
@@ -70,7 +70,7 @@ func (b *builder) regions(p *page) error {
 	return nil
 }
 
-func (b *builder) region(rg checker.SturmRegion) (*regionView, error) {
+func (b *builder) region(rg claims.SturmRegion) (*regionView, error) {
 	first := len(b.alphas)
 	pi, ok := b.r.Index(rg.Param)
 	if !ok {

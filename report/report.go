@@ -10,6 +10,7 @@ import (
 
 	"github.com/lyacert/lyacert/certificates"
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/model"
 	"github.com/lyacert/lyacert/poly"
 )
@@ -58,7 +59,7 @@ type Options struct {
 // that fresh result, never one stored anywhere. A certificate that the
 // checker rejects gives an error wrapping ErrInvalid that lists the failed
 // checks, and nothing is written.
-func Render(w io.Writer, doc *checker.Document, opts Options) error {
+func Render(w io.Writer, doc *claims.Document, opts Options) error {
 	p, err := build(doc, opts)
 	if err != nil {
 		return err
@@ -165,7 +166,7 @@ type recordView struct {
 	Signature string
 }
 
-func build(doc *checker.Document, opts Options) (*page, error) {
+func build(doc *claims.Document, opts Options) (*page, error) {
 	res := checker.Verify(doc)
 	if !res.Valid {
 		var failed []string
@@ -235,7 +236,7 @@ func paragraphs(lines []string) [][]string {
 // docView is a verified certificate with its claims gathered by kind and the
 // verdict the checker derived.
 type docView struct {
-	*checker.Document
+	*claims.Document
 	certificates.Contents
 	Claim, Verdict string
 }
@@ -575,7 +576,7 @@ func (b *builder) paramPoint(vals map[string]string) list {
 }
 
 // condition states what one minor requires after the assumptions.
-func (b *builder) condition(c checker.MinorCondition) (rich, error) {
+func (b *builder) condition(c claims.MinorCondition) (rich, error) {
 	form := node(vSym)
 	if c.Form != "V" {
 		form = neg(b.derivName())
@@ -596,9 +597,9 @@ func (b *builder) condition(c checker.MinorCondition) (rich, error) {
 			fn = power{fn, f.Power}
 		}
 		switch f.Status {
-		case checker.StatusPositive:
+		case claims.StatusPositive:
 			discharged = append(discharged, relation{fn, symGreater, zeroNode})
-		case checker.StatusNegative:
+		case claims.StatusNegative:
 			discharged = append(discharged, relation{fn, symLess, zeroNode})
 		}
 	}

@@ -15,6 +15,7 @@ import (
 	"github.com/lyacert/lyacert/certificates"
 	"github.com/lyacert/lyacert/certify/direct"
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/model"
 	"github.com/lyacert/lyacert/report"
 )
@@ -43,7 +44,7 @@ func signingKey() ed25519.PrivateKey {
 // certificate signed.
 func generate(t *testing.T) {
 	t.Helper()
-	issue := func(file, source string) *checker.Document {
+	issue := func(file, source string) *claims.Document {
 		src, err := os.ReadFile(file)
 		if err != nil {
 			t.Fatal(err)
@@ -87,7 +88,7 @@ func generate(t *testing.T) {
 
 type certFile struct {
 	name string // base name without .json
-	doc  *checker.Document
+	doc  *claims.Document
 }
 
 // certs returns every certificate of the shared test data and of this
@@ -276,16 +277,16 @@ func TestInvalidCertificateIsRefused(t *testing.T) {
 	c := certs(t)[0]
 	tests := []struct {
 		name  string
-		alter func(d *checker.Document)
+		alter func(d *claims.Document)
 	}{
 		// common practice, no source: a report never presents a
 		// certificate the checker rejects.
-		{"changed candidate", func(d *checker.Document) {
-			d.Claims = append([]checker.Claim{&checker.OrbitalDerivative{V: "x^2", Vdot: "0"}}, d.Claims[1:]...)
+		{"changed candidate", func(d *claims.Document) {
+			d.Claims = append([]claims.Claim{&claims.OrbitalDerivative{V: "x^2", Vdot: "0"}}, d.Claims[1:]...)
 		}},
-		{"claim deleted", func(d *checker.Document) { d.Claims = d.Claims[1:] }},
-		{"stale digest", func(d *checker.Document) { d.Digest = "sha256:00" }},
-		{"bad signature", func(d *checker.Document) {
+		{"claim deleted", func(d *claims.Document) { d.Claims = d.Claims[1:] }},
+		{"stale digest", func(d *claims.Document) { d.Digest = "sha256:00" }},
+		{"bad signature", func(d *claims.Document) {
 			if err := certificates.Sign(d, signingKey()); err != nil {
 				t.Fatal(err)
 			}

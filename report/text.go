@@ -10,6 +10,7 @@ import (
 	"github.com/lyacert/lyacert/certificates"
 	"github.com/lyacert/lyacert/certify/direct"
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/model"
 	"github.com/lyacert/lyacert/poly"
 )
@@ -245,9 +246,9 @@ func conditionsText(w io.Writer, res *direct.Result) {
 		var discharged []string
 		for _, f := range c.Factors {
 			switch f.Status {
-			case checker.StatusPositive:
+			case claims.StatusPositive:
 				discharged = append(discharged, factorText(f)+" > 0 by assumption")
-			case checker.StatusNegative:
+			case claims.StatusNegative:
 				discharged = append(discharged, factorText(f)+" < 0 by assumption")
 			}
 		}
@@ -302,7 +303,7 @@ func conditionText(q *poly.Poly) string {
 }
 
 // intervalText writes an interval of a parameter as [a, b), {a} for a point.
-func intervalText(iv checker.Interval) string {
+func intervalText(iv claims.Interval) string {
 	if iv.Lo == iv.Hi && iv.LoPoly == iv.HiPoly && iv.LoClosed && iv.HiClosed {
 		return "{" + iv.Lo + "}"
 	}
@@ -318,7 +319,7 @@ func intervalText(iv checker.Interval) string {
 
 // rootLines adds to lines, once each, "a is the root of p in (l, u)" for
 // the irrational ends of iv, after indent.
-func rootLines(lines []string, indent string, iv checker.Interval) []string {
+func rootLines(lines []string, indent string, iv claims.Interval) []string {
 	for _, e := range [][3]string{{iv.Lo, iv.LoPoly, isoText(iv.LoIsolating)}, {iv.Hi, iv.HiPoly, isoText(iv.HiIsolating)}} {
 		if e[1] == "" {
 			continue
@@ -333,8 +334,8 @@ func rootLines(lines []string, indent string, iv checker.Interval) []string {
 // mergeAdjacent joins holding intervals that meet ([0, 1) and {1} make
 // [0, 1]), for statements of where a claim holds; the certificate keeps the
 // pieces apart, since each rests on its own argument.
-func mergeAdjacent(ivs []checker.Interval) []checker.Interval {
-	var out []checker.Interval
+func mergeAdjacent(ivs []claims.Interval) []claims.Interval {
+	var out []claims.Interval
 	for _, iv := range ivs {
 		if k := len(out) - 1; k >= 0 && out[k].Hi == iv.Lo && out[k].HiPoly == iv.LoPoly && out[k].HiClosed != iv.LoClosed {
 			out[k].Hi, out[k].HiPoly, out[k].HiIsolating, out[k].HiClosed = iv.Hi, iv.HiPoly, iv.HiIsolating, iv.HiClosed
@@ -347,11 +348,11 @@ func mergeAdjacent(ivs []checker.Interval) []checker.Interval {
 
 // elsewhere says what the pieces of a one-parameter region that do not hold
 // are: refuted (the candidate fails there), undecided, or some of each.
-func elsewhere(pieces []checker.Piece) string {
+func elsewhere(pieces []claims.Piece) string {
 	fails, undecided := false, false
 	for _, p := range pieces {
-		fails = fails || pieceWord(p) == checker.PieceFails
-		undecided = undecided || pieceWord(p) == checker.PieceUndecided
+		fails = fails || pieceWord(p) == claims.PieceFails
+		undecided = undecided || pieceWord(p) == claims.PieceUndecided
 	}
 	switch {
 	case fails && undecided:
@@ -363,7 +364,7 @@ func elsewhere(pieces []checker.Piece) string {
 }
 
 // maxOrder is the highest order of derivative the invariance identities use.
-func maxOrder(iv *checker.Invariance) int {
+func maxOrder(iv *claims.Invariance) int {
 	k := 0
 	for _, t := range iv.Lie {
 		k = max(k, t.Order)
@@ -372,9 +373,9 @@ func maxOrder(iv *checker.Invariance) int {
 }
 
 // pieceWord is a piece's status: holds, fails (refuted) or undecided.
-func pieceWord(p checker.Piece) string {
+func pieceWord(p claims.Piece) string {
 	if p.Status == "" { // a region written before pieces had a status
-		return map[bool]string{true: checker.PieceHolds, false: checker.PieceUndecided}[p.Holds]
+		return map[bool]string{true: claims.PieceHolds, false: claims.PieceUndecided}[p.Holds]
 	}
 	return p.Status
 }
@@ -553,7 +554,7 @@ func boxes(n int) string {
 }
 
 // productText writes a product region as "r ∈ [0, 1) × b ∈ (0, 4]".
-func productText(fs []checker.SturmRegion) string {
+func productText(fs []claims.SturmRegion) string {
 	var parts []string
 	for _, f := range fs {
 		var ivs []string
@@ -602,7 +603,7 @@ func percent(share string) string {
 // recomputation is listed; a valid one gets its claim, verdict and digest,
 // and, with --trust, who signed it. file is how the certificate is named.
 // It returns the first write error.
-func VerifyText(w io.Writer, file string, doc *checker.Document, out checker.Outcome, trust Trust) error {
+func VerifyText(w io.Writer, file string, doc *claims.Document, out checker.Outcome, trust Trust) error {
 	ew := &errWriter{w: w}
 	var failed []checker.Record
 	for _, c := range out.Records {
@@ -671,7 +672,7 @@ type Trust struct {
 // Altered reports whether doc's content no longer hashes to the digest it
 // states, with the digest it does hash to. A certificate that cannot be
 // serialized counts as altered.
-func Altered(doc *checker.Document) (bool, string) {
+func Altered(doc *claims.Document) (bool, string) {
 	d, err := doc.ComputeDigest()
 	if err != nil {
 		return true, "nothing (it cannot be serialized: " + err.Error() + ")"
@@ -727,7 +728,7 @@ func SignText(w io.Writer, s SignOutput) error {
 
 // freeRanges writes the certificate's free parameters with their ranges
 // ("a in [1, 2], b in [0, 1]"), "" when every parameter is fixed.
-func freeRanges(doc *checker.Document) string {
+func freeRanges(doc *claims.Document) string {
 	var parts []string
 	for _, p := range doc.Parameters {
 		if !strings.HasPrefix(p.Range, "=") {

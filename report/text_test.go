@@ -5,6 +5,7 @@ import (
 	"testing"
 
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/poly"
 )
 
@@ -67,7 +68,7 @@ func TestPercent(t *testing.T) {
 // digest is SHA-256 of the canonical serialization: common practice for
 // telling a changed file from a wrong one).
 func TestVerifyTextInvalidNotAltered(t *testing.T) {
-	doc := &checker.Document{Format: "lyacert-certificate/3"}
+	doc := &claims.Document{Format: "lyacert-certificate/3"}
 	d, err := doc.ComputeDigest()
 	if err != nil {
 		t.Fatal(err)

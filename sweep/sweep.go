@@ -12,6 +12,7 @@ import (
 
 	"github.com/lyacert/lyacert/certify/equilibria"
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/internal/workpool"
 	"github.com/lyacert/lyacert/model"
 	"github.com/lyacert/lyacert/poly"
@@ -23,7 +24,7 @@ import (
 type SweepPoint struct {
 	Index int
 	Lines []SweepLine
-	Docs  []*checker.Document
+	Docs  []*claims.Document
 }
 
 // Progress receives the number of grid points completed.
@@ -183,7 +184,7 @@ func sweepPoint(opts *SweepOptions, base *model.Model, index, size int, source s
 	sp := SweepPoint{Index: index}
 	none := func(reason string) SweepPoint {
 		sp.Lines = []SweepLine{{Index: index, Of: size, Params: params, Verdict: checker.VerdictUndecided, Claim: checker.KindNone, Reason: reason}}
-		sp.Docs = []*checker.Document{nil}
+		sp.Docs = []*claims.Document{nil}
 		return sp
 	}
 	m, err := model.FixParams(base, settings)
@@ -219,7 +220,7 @@ func sweepPoint(opts *SweepOptions, base *model.Model, index, size int, source s
 		// A grid point runs to its end: the sweep stops between points, so
 		// that no line records a point cut off half way.
 		c, err := equilibria.CertifyEquilibrium(context.Background(), m, e, co)
-		var doc *checker.Document
+		var doc *claims.Document
 		switch {
 		case err != nil:
 			line.Verdict, line.Claim, line.Reason = checker.VerdictUndecided, checker.KindNone, "not certified: "+oneLine(err)

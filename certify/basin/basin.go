@@ -11,6 +11,7 @@ import (
 	"github.com/lyacert/lyacert/certify"
 	"github.com/lyacert/lyacert/certify/direct"
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/model"
 	"github.com/lyacert/lyacert/poly"
 )
@@ -23,7 +24,7 @@ type Options struct {
 	// MaxBoxes bounds the leaves of the bisection tree (default 300000).
 	MaxBoxes int
 	// MaxLevel bounds the halvings of every side (default 30, at most
-	// checker.MaxPavingLevel − 1).
+	// claims.MaxPavingLevel − 1).
 	MaxLevel int
 }
 
@@ -46,8 +47,8 @@ type Result struct {
 	Params        []string
 	ParamBox      []poly.Interval
 	CounterParams []*big.Rat
-	Claim         *checker.SublevelBasin
-	Doc           *checker.Document
+	Claim         *claims.SublevelBasin
+	Doc           *claims.Document
 	Check         checker.Outcome
 	// Boxes counts the tree's leaves: Inside where V̇ < 0 was proven,
 	// Outside where V > Level; NearTests the boxes at the equilibrium on
@@ -82,7 +83,7 @@ func Find(ctx context.Context, m *model.Model, source string, o Options) (*Resul
 	if o.MaxLevel <= 0 {
 		o.MaxLevel = 30
 	}
-	o.MaxLevel = min(o.MaxLevel, checker.MaxPavingLevel-1)
+	o.MaxLevel = min(o.MaxLevel, claims.MaxPavingLevel-1)
 	pos := poly.Pos{File: m.File, Line: 1, Col: 1}
 	switch {
 	case m.Discrete:
@@ -155,7 +156,7 @@ func Find(ctx context.Context, m *model.Model, source string, o Options) (*Resul
 	}
 	tr, level, in, out := tree(root, n)
 	res.Inside, res.Outside, res.NearTests = in, out, p.nearTry
-	cl := &checker.SublevelBasin{Level: res.Level.RatString(), Resolution: new(big.Rat).SetFrac(big.NewInt(1), new(big.Int).Lsh(big.NewInt(1), uint(level))).RatString(), Tree: tr}
+	cl := &claims.SublevelBasin{Level: res.Level.RatString(), Resolution: new(big.Rat).SetFrac(big.NewInt(1), new(big.Int).Lsh(big.NewInt(1), uint(level))).RatString(), Tree: tr}
 	for _, s := range p.sides[:n] {
 		cl.Lo = append(cl.Lo, s.Lo.Value.RatString())
 		cl.Hi = append(cl.Hi, s.Hi.Value.RatString())
@@ -163,7 +164,7 @@ func Find(ctx context.Context, m *model.Model, source string, o Options) (*Resul
 	res.Claim = cl
 	res.Method = fmt.Sprintf("interval branch and bound: %d boxes (%d with V̇ < 0, %d with V > c_lo), exact centred forms, the quadratic bound tried on %d boxes at the equilibrium; c_hi by %s", in+out, in, out, p.nearTry, "rays, pattern search and an exact rational point")
 	doc := *d.Doc
-	doc.Claims = append(append([]checker.Claim(nil), d.Doc.Claims...), cl)
+	doc.Claims = append(append([]claims.Claim(nil), d.Doc.Claims...), cl)
 	doc.Signature = nil
 	if err := certificates.Seal(&doc); err != nil {
 		return nil, err

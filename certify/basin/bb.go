@@ -6,7 +6,7 @@ import (
 	"math/big"
 	"strings"
 
-	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/poly"
 )
 
@@ -150,17 +150,17 @@ func tree(root *node, states int) (string, int, int, int) {
 	var rec func(n *node)
 	rec = func(n *node) {
 		if n.lo != nil {
-			b.WriteByte(checker.PaveSplit)
+			b.WriteByte(claims.PaveSplit)
 			level = max(level, n.g.MinLevel()+1)
 			rec(n.lo)
 			rec(n.hi)
 			return
 		}
 		if n.dec && !n.g.OnEdgeFirst(states) {
-			b.WriteByte(checker.PaveInside)
+			b.WriteByte(claims.PaveInside)
 			in++
 		} else {
-			b.WriteByte(checker.PaveOutside)
+			b.WriteByte(claims.PaveOutside)
 			out++
 		}
 	}

@@ -8,6 +8,7 @@ import (
 	"testing"
 
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/model"
 	"github.com/lyacert/lyacert/poly"
 )
@@ -75,7 +76,7 @@ func TestImproveVanDerPol(t *testing.T) {
 		t.Fatalf("the improved certificate does not verify: valid %v, basin %q, level %s", out.Valid, out.Basin, res.Level.RatString())
 	}
 	// The certificate's V is yᵀPy with the reported P.
-	v, err := poly.Parse(m.Ring, res.Doc.Claims[0].(*checker.OrbitalDerivative).V)
+	v, err := poly.Parse(m.Ring, res.Doc.Claims[0].(*claims.OrbitalDerivative).V)
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -9,7 +9,7 @@ import (
 
 	"github.com/lyacert/lyacert/certificates"
 	"github.com/lyacert/lyacert/certify/sdp"
-	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/model"
 	"github.com/lyacert/lyacert/poly"
 )
@@ -31,7 +31,7 @@ type block struct {
 
 // Find looks for a box-multiplier certificate of −V̇ for m's candidate V.
 // Every free parameter with a closed bounded range gets a multiplier.
-func Find(ctx context.Context, m *model.Model) (*checker.BoxMultiplier, error) {
+func Find(ctx context.Context, m *model.Model) (*claims.BoxMultiplier, error) {
 	if m.V == nil {
 		return nil, errors.New("the model states no candidate V")
 	}
@@ -356,9 +356,9 @@ func problem(p *poly.Poly, blocks []block, marginExps [][]int, emax float64) (*s
 // Gram matrix of the exact residual by the projection onto its classes,
 // and factors every Gram matrix exactly; nil when a pivot is negative or
 // a monomial of the residual is out of σ₀'s reach.
-func exact(r *poly.Ring, blocks []block, xs []sdp.Block, target *poly.Poly, bits int) *checker.BoxMultiplier {
+func exact(r *poly.Ring, blocks []block, xs []sdp.Block, target *poly.Poly, bits int) *claims.BoxMultiplier {
 	resid := target
-	cl := &checker.BoxMultiplier{}
+	cl := &claims.BoxMultiplier{}
 	grams := make([][][]*big.Rat, len(blocks))
 	for k := len(blocks) - 1; k >= 0; k-- {
 		b := blocks[k]
@@ -379,12 +379,12 @@ func exact(r *poly.Ring, blocks []block, xs []sdp.Block, target *poly.Poly, bits
 		}
 		grams[k] = g
 		resid = new(poly.Poly).Sub(resid, poly.Bilinear(b.g, g, z))
-		t := checker.Multiplied{Parameter: b.param, Gram: strings(g), L: strings(l), D: []string{}}
+		t := claims.Multiplied{Parameter: b.param, Gram: strings(g), L: strings(l), D: []string{}}
 		for i := range z {
 			t.Basis = append(t.Basis, z[i].String())
 			t.D = append(t.D, d[i].RatString())
 		}
-		cl.Terms = append([]checker.Multiplied{t}, cl.Terms...)
+		cl.Terms = append([]claims.Multiplied{t}, cl.Terms...)
 	}
 	if !resid.IsZero() {
 		return nil
@@ -472,26 +472,26 @@ func strings(m [][]*big.Rat) [][]string {
 // by the direct method: its derivative, V's form and V's conditions, with
 // −V̇'s form, its conditions and every claim resting on them (regions,
 // kernels, refutations) replaced by bm. The result is sealed, not checked.
-func Document(doc *checker.Document, bm *checker.BoxMultiplier) (*checker.Document, error) {
+func Document(doc *claims.Document, bm *claims.BoxMultiplier) (*claims.Document, error) {
 	out := *doc
-	out.Digest, out.Signature, out.Claims = "", nil, []checker.Claim{}
+	out.Digest, out.Signature, out.Claims = "", nil, []claims.Claim{}
 	for _, c := range doc.Claims {
 		switch c := c.(type) {
-		case *checker.OrbitalDerivative:
+		case *claims.OrbitalDerivative:
 			out.Claims = append(out.Claims, c)
-		case *checker.QuadraticPart:
+		case *claims.QuadraticPart:
 			if c.Of == "V" {
 				out.Claims = append(out.Claims, c, bm)
 			}
-		case *checker.MonomialGram:
+		case *claims.MonomialGram:
 			if c.Of == "V" {
 				out.Claims = append(out.Claims, c, bm)
 			}
-		case *checker.MarginGram:
+		case *claims.MarginGram:
 			if c.Of == "V" {
 				out.Claims = append(out.Claims, c, bm)
 			}
-		case *checker.MinorCondition:
+		case *claims.MinorCondition:
 			if c.Form == "V" {
 				out.Claims = append(out.Claims, c)
 			}

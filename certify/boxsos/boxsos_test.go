@@ -11,6 +11,7 @@ import (
 	"github.com/lyacert/lyacert/certificates"
 	"github.com/lyacert/lyacert/certify/direct"
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/model"
 )
 
@@ -28,7 +29,7 @@ func load(t *testing.T, name string) *model.Model {
 }
 
 // certify runs the direct method for V's form and the box search for −V̇.
-func certify(t *testing.T, name string) (*checker.Document, error) {
+func certify(t *testing.T, name string) (*claims.Document, error) {
 	t.Helper()
 	m := load(t, name)
 	res, err := direct.Check(m, name)

@@ -13,6 +13,7 @@ import (
 	"github.com/lyacert/lyacert/certify/pave"
 	"github.com/lyacert/lyacert/certify/sdp"
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/model"
 	"github.com/lyacert/lyacert/poly"
 )
@@ -67,9 +68,9 @@ type FactorStatus struct {
 // range, or a paving of several parameters' box (with its product form).
 type Region struct {
 	Param     string
-	Intervals []checker.Interval
-	Pieces    []checker.Piece
-	Paving    *checker.Paving
+	Intervals []claims.Interval
+	Pieces    []claims.Piece
+	Paving    *claims.Paving
 }
 
 // Result is the outcome of Check: the derivation, the verdict, and the
@@ -91,12 +92,12 @@ type Result struct {
 	// Notes are further remarks for people (no claims).
 	Notes      []string
 	Region     *Region
-	Witnesses  []checker.Witness
-	Refutation *checker.Refutation
+	Witnesses  []claims.Witness
+	Refutation *claims.Refutation
 	Kernel     [][]poly.RatFunc
-	Invariance *checker.Invariance   // the invariance principle's identities, when found
-	Points     []*checker.PointCheck // rational point pieces proven by the model with the parameter fixed there
-	Doc        *checker.Document
+	Invariance *claims.Invariance   // the invariance principle's identities, when found
+	Points     []*claims.PointCheck // rational point pieces proven by the model with the parameter fixed there
+	Doc        *claims.Document
 	Check      checker.Outcome
 	// Paving is the engine's paving of a region in several parameters
 	// (Region.Paving is its exact record in the certificate); nil when
@@ -112,7 +113,7 @@ type Result struct {
 	// NotSOS are exact proofs that V or −V̇ is no sum of squares in the
 	// monomial basis of the search (moment-separation claims): reported,
 	// they change no verdict.
-	NotSOS []checker.NotSOS
+	NotSOS []claims.NotSOS
 }
 
 // Check analyses the model's candidate V: it computes V̇ exactly, completes
@@ -257,14 +258,14 @@ func runCheck(ctx context.Context, m *model.Model, source string, opts PaveOptio
 // fixed at that value: the whole functions' Gram matrices, the invariance
 // principle. A piece holds when that check proves at least the claim of
 // the rest of the region; its certificate's claims go into this one.
-func (res *Result) checkPoints(name string, pieces []checker.Piece) {
+func (res *Result) checkPoints(name string, pieces []claims.Piece) {
 	if res.Claim != checker.KindGlobal && res.Claim != checker.KindLocal && res.Claim != checker.KindStable {
 		return
 	}
 	rank := func(k string) int {
 		return slices.Index([]string{checker.KindStable, checker.KindLocal, checker.KindGlobal}, k)
 	}
-	weakest, byConds := "", slices.ContainsFunc(pieces, func(pc checker.Piece) bool { return pc.Holds })
+	weakest, byConds := "", slices.ContainsFunc(pieces, func(pc claims.Piece) bool { return pc.Holds })
 	defer func() {
 		if weakest != "" && (!byConds || rank(weakest) < rank(res.Claim)) {
 			res.Claim = weakest
@@ -272,7 +273,7 @@ func (res *Result) checkPoints(name string, pieces []checker.Piece) {
 	}()
 	for i, pc := range pieces {
 		v, isRat := new(big.Rat).SetString(pc.Lo)
-		if pc.Status != checker.PieceUndecided || !isRat || pc.LoPoly != "" || pc.Lo != pc.Hi || !pc.LoClosed || !pc.HiClosed {
+		if pc.Status != claims.PieceUndecided || !isRat || pc.LoPoly != "" || pc.Lo != pc.Hi || !pc.LoClosed || !pc.HiClosed {
 			continue
 		}
 		fixed, err := model.FixParams(res.Model, []model.Setting{{Name: name, Value: v}})
@@ -286,14 +287,14 @@ func (res *Result) checkPoints(name string, pieces []checker.Piece) {
 		if weakest == "" || rank(sub.Claim) < rank(weakest) {
 			weakest = sub.Claim
 		}
-		pieces[i].Holds, pieces[i].Status = true, checker.PieceHolds
+		pieces[i].Holds, pieces[i].Status = true, claims.PieceHolds
 		// The enclosing certificate says when it was issued.
 		doc := sub.Doc
 		doc.Issued = ""
 		if certificates.Seal(doc) != nil {
 			continue
 		}
-		res.Points = append(res.Points, &checker.PointCheck{Params: map[string]string{name: pc.Lo}, Certificate: doc})
+		res.Points = append(res.Points, &claims.PointCheck{Params: map[string]string{name: pc.Lo}, Certificate: doc})
 		res.Notes = append(res.Notes, fmt.Sprintf("at %s = %s, where the quadratic test is inconclusive, the model with %s fixed proves the claim (%s); its certificate is part of this one", name, pc.Lo, name, pointHow(sub)))
 	}
 }
@@ -316,7 +317,7 @@ func (rg *Region) refuted() bool {
 		return false
 	}
 	for _, pc := range rg.Pieces {
-		if pc.Status != checker.PieceFails {
+		if pc.Status != claims.PieceFails {
 			return false
 		}
 	}
@@ -371,9 +372,9 @@ func (res *Result) conditions() {
 				st := checker.FactorStatus(fa.P, fa.Power, box)
 				cond.Factors = append(cond.Factors, FactorStatus{fa, st})
 				switch st {
-				case checker.StatusNegative:
+				case claims.StatusNegative:
 					sign = -sign
-				case checker.StatusCondition:
+				case claims.StatusCondition:
 					q.Mul(q, new(poly.Poly).Pow(fa.P, fa.Power))
 				}
 			}
@@ -451,10 +452,10 @@ func (res *Result) regionFor(name string) {
 	for _, pc := range pieces {
 		holds = holds || pc.Holds
 		fails = fails || !pc.Holds
-		refuted = refuted && pc.Status == checker.PieceFails
+		refuted = refuted && pc.Status == claims.PieceFails
 	}
 	for _, pc := range pieces {
-		if pc.Status == checker.PieceUndecided && pc.Lo == pc.Hi && pc.LoPoly == "" && pc.LoClosed && pc.HiClosed {
+		if pc.Status == claims.PieceUndecided && pc.Lo == pc.Hi && pc.LoPoly == "" && pc.LoClosed && pc.HiClosed {
 			res.Notes = append(res.Notes, fmt.Sprintf("at %s = %s a condition is exactly zero: a form is only semidefinite there and the quadratic test is inconclusive; run with --set %s=%s for the tests of the whole functions", name, pc.Lo, name, pc.Lo))
 		}
 	}
@@ -527,7 +528,7 @@ func (res *Result) witnesses(vars []int) {
 		grids[i] = samples(p.Range)
 		base[p.Name] = grids[i][len(grids[i])/2]
 	}
-	var hold, fail *checker.Witness
+	var hold, fail *claims.Witness
 	failStrict := false
 	idx := make([]int, len(free))
 	for count := 0; count < 4096; count++ {
@@ -553,7 +554,7 @@ func (res *Result) witnesses(vars []int) {
 			}
 			strict = strict || x.Sign() < 0
 		}
-		w := &checker.Witness{Params: vals, Values: values, Holds: all}
+		w := &claims.Witness{Params: vals, Values: values, Holds: all}
 		if all && hold == nil {
 			hold = w
 		}
@@ -579,7 +580,7 @@ func (res *Result) witnesses(vars []int) {
 			break
 		}
 	}
-	for _, w := range []*checker.Witness{hold, fail} {
+	for _, w := range []*claims.Witness{hold, fail} {
 		if w != nil {
 			res.Witnesses = append(res.Witnesses, *w)
 		}
@@ -661,7 +662,7 @@ func failingParams(res *Result) (map[string]string, []*big.Rat, bool) {
 
 // refuteAnywhere looks for a state point where V ≤ 0 or V̇ ≥ 0 (other than
 // the equilibrium) at parameter values where the conditions fail.
-func refuteAnywhere(m *model.Model, res *Result) *checker.Refutation {
+func refuteAnywhere(m *model.Model, res *Result) *claims.Refutation {
 	vals, point, ok := failingParams(res)
 	if !ok {
 		return nil
@@ -712,7 +713,7 @@ func refuteAnywhere(m *model.Model, res *Result) *checker.Refutation {
 
 // alongRay evaluates V and V̇ at equilibrium + t·y for t = 1, 1/2, 1/4, ...
 // (and −t) and returns the first point that refutes the candidate.
-func alongRay(m *model.Model, res *Result, vals map[string]string, params []*big.Rat, y []*big.Rat, strict bool) *checker.Refutation {
+func alongRay(m *model.Model, res *Result, vals map[string]string, params []*big.Rat, y []*big.Rat, strict bool) *claims.Refutation {
 	n := len(m.States)
 	x := slices.Clone(params)
 	at := make([]*big.Rat, n)
@@ -807,7 +808,7 @@ func denSign(h poly.RatFunc) int {
 // The linear part may vanish at some parameter values (V = a·x at a = 0);
 // there the gradient gives no direction, so the parameter samples are tried
 // in turn until one gives a non-zero gradient.
-func refuteLinear(m *model.Model, vs, lin poly.RatFunc) *checker.Refutation {
+func refuteLinear(m *model.Model, vs, lin poly.RatFunc) *claims.Refutation {
 	res := &Result{Model: m}
 	res.V = *m.V
 	res.Vdot = m.Derivative(res.V)
@@ -875,12 +876,12 @@ func finish(ctx context.Context, res *Result, source string) (*Result, error) {
 	return res, nil
 }
 
-func (res *Result) document(source string) *checker.Document {
+func (res *Result) document(source string) *claims.Document {
 	d := certify.NewDocument(res.Model, source)
-	add := func(c checker.Claim) { d.Claims = append(d.Claims, c) }
-	add(&checker.OrbitalDerivative{V: res.V.String(), Vdot: res.Vdot.String()})
+	add := func(c claims.Claim) { d.Claims = append(d.Claims, c) }
+	add(&claims.OrbitalDerivative{V: res.V.String(), Vdot: res.Vdot.String()})
 	for _, f := range res.Forms {
-		lf := checker.LDLForm{Of: f.Name, Gram: f.Gram.Strings(), L: f.LDL.L.Strings(), D: []string{}, Minors: []string{}}
+		lf := claims.LDLForm{Of: f.Name, Gram: f.Gram.Strings(), L: f.LDL.L.Strings(), D: []string{}, Minors: []string{}}
 		for _, p := range f.LDL.D {
 			lf.D = append(lf.D, p.String())
 		}
@@ -888,32 +889,32 @@ func (res *Result) document(source string) *checker.Document {
 			lf.Minors = append(lf.Minors, mi.String())
 		}
 		if f.Basis == nil {
-			add(&checker.QuadraticPart{LDLForm: lf})
+			add(&claims.QuadraticPart{LDLForm: lf})
 			continue
 		}
 		if f.Margin != nil {
-			mg := &checker.MarginGram{LDLForm: lf, Margin: f.Margin.String()}
+			mg := &claims.MarginGram{LDLForm: lf, Margin: f.Margin.String()}
 			for _, z := range f.Basis {
 				mg.Basis = append(mg.Basis, z.String())
 			}
 			add(mg)
 			continue
 		}
-		mg := &checker.MonomialGram{LDLForm: lf}
+		mg := &claims.MonomialGram{LDLForm: lf}
 		for _, z := range f.Basis {
 			mg.Basis = append(mg.Basis, z.String())
 		}
 		add(mg)
 	}
 	for _, c := range res.Conds {
-		cd := &checker.MinorCondition{Form: c.Form, Index: c.Index, Minor: c.Minor.String(), Constant: c.Constant.RatString(), Condition: c.Q.String(), Factors: []checker.Factor{}}
+		cd := &claims.MinorCondition{Form: c.Form, Index: c.Index, Minor: c.Minor.String(), Constant: c.Constant.RatString(), Condition: c.Q.String(), Factors: []claims.Factor{}}
 		for _, f := range c.Factors {
-			cd.Factors = append(cd.Factors, checker.Factor{Poly: f.P.String(), Power: f.Power, Status: f.Status})
+			cd.Factors = append(cd.Factors, claims.Factor{Poly: f.P.String(), Power: f.Power, Status: f.Status})
 		}
 		add(cd)
 	}
 	if len(res.Kernel) > 0 {
-		ns := &checker.NullSpace{Of: "-Vdot"}
+		ns := &claims.NullSpace{Of: "-Vdot"}
 		for _, k := range res.Kernel {
 			var row []string
 			for _, e := range k {
@@ -933,10 +934,10 @@ func (res *Result) document(source string) *checker.Document {
 	case rg != nil && rg.Paving != nil:
 		add(rg.Paving)
 	case rg != nil:
-		add(&checker.SturmRegion{Param: rg.Param, Intervals: rg.Intervals, Pieces: rg.Pieces})
+		add(&claims.SturmRegion{Param: rg.Param, Intervals: rg.Intervals, Pieces: rg.Pieces})
 	}
 	if len(res.Witnesses) > 0 {
-		add(&checker.WitnessPoints{Points: res.Witnesses})
+		add(&claims.WitnessPoints{Points: res.Witnesses})
 	}
 	if res.Refutation != nil {
 		add(res.Refutation)
@@ -950,7 +951,7 @@ func (res *Result) document(source string) *checker.Document {
 // minimalRefutation states a refuting point with only the parameters that V
 // or V̇ there depends on; the values are functions of the others, which do
 // not occur in them.
-func minimalRefutation(m *model.Model, res *Result, vals map[string]string, x []*big.Rat) *checker.Refutation {
+func minimalRefutation(m *model.Model, res *Result, vals map[string]string, x []*big.Rat) *claims.Refutation {
 	r := m.Ring
 	n := len(m.States)
 	keep := map[int]*big.Rat{}
@@ -1012,7 +1013,7 @@ func minimalRefutation(m *model.Model, res *Result, vals map[string]string, x []
 	for i, name := range m.States {
 		pt[name] = x[i].RatString()
 	}
-	return &checker.Refutation{Params: params, Point: pt, V: at(res.V, keep).String(), Vdot: at(res.Vdot, keep).String()}
+	return &claims.Refutation{Params: params, Point: pt, V: at(res.V, keep).String(), Vdot: at(res.Vdot, keep).String()}
 }
 
 // systemDoc restates the model in a certificate: time, states, assumptions,

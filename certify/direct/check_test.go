@@ -11,6 +11,7 @@ import (
 	"gonum.org/v1/gonum/mat"
 
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/model"
 	"github.com/lyacert/lyacert/poly"
 )
@@ -59,7 +60,7 @@ func TestLorenzRegion(t *testing.T) {
 	var named []string
 	for _, c := range res.Conds {
 		for _, f := range c.Factors {
-			if f.Status == checker.StatusPositive {
+			if f.Status == claims.StatusPositive {
 				named = append(named, f.P.String())
 			}
 		}

@@ -6,7 +6,7 @@ import (
 	"slices"
 	"strings"
 
-	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/poly"
 )
 
@@ -30,7 +30,7 @@ const (
 // (monomials in the states of degree ≤ cofactorDegree) solve a homogeneous
 // linear system, one equation per monomial in the states. Nil when none is
 // found within the limits.
-func (res *Result) invariance() *checker.Invariance {
+func (res *Result) invariance() *claims.Invariance {
 	m := res.Model
 	if m.Discrete || len(res.Forms) != 2 || (!res.HigherD.IsZero() && res.Forms[1].Basis == nil) {
 		return nil
@@ -57,7 +57,7 @@ func (res *Result) invariance() *checker.Invariance {
 			z = append(z, poly.FromPoly(b).ComposeStates(sub, has))
 		}
 	}
-	claim := &checker.Invariance{}
+	claim := &claims.Invariance{}
 	var gens []poly.RatFunc
 	for k := range fd.LDL.D {
 		if fd.LDL.Zero[k] {
@@ -67,7 +67,7 @@ func (res *Result) invariance() *checker.Invariance {
 		for o := 0; o <= min(lieOrders, n); o++ {
 			if !h.IsZero() {
 				gens = append(gens, h)
-				claim.Lie = append(claim.Lie, checker.LieTerm{Square: k + 1, Order: o})
+				claim.Lie = append(claim.Lie, claims.LieTerm{Square: k + 1, Order: o})
 			}
 			h = m.Derivative(h)
 		}
@@ -93,9 +93,9 @@ func (res *Result) invariance() *checker.Invariance {
 		claim.States = append(claim.States, v)
 	}
 	// Only the generators some identity uses (the kernel refuses others).
-	var lie []checker.LieTerm
+	var lie []claims.LieTerm
 	for j, t := range claim.Lie {
-		if slices.ContainsFunc(claim.States, func(v checker.Vanish) bool { return v.Cofactors[j] != "0" }) {
+		if slices.ContainsFunc(claim.States, func(v claims.Vanish) bool { return v.Cofactors[j] != "0" }) {
 			lie = append(lie, t)
 		}
 	}
@@ -135,7 +135,7 @@ func stateMonomials(r *poly.Ring, n, d int) []poly.RatFunc {
 // vanishing solves for g(s) = Σ_e a_e·(s − s*)ᵉ = Σ_{j,m} c_{jm}·m·hⱼ with
 // the least degree of g that admits a solution, and keeps it when g's only
 // real root is s*.
-func vanishing(r *poly.Ring, s int, zs poly.RatFunc, at *big.Rat, gens, monos []poly.RatFunc) (checker.Vanish, bool) {
+func vanishing(r *poly.Ring, s int, zs poly.RatFunc, at *big.Rat, gens, monos []poly.RatFunc) (claims.Vanish, bool) {
 	for deg := 1; deg <= vanishDegree; deg++ {
 		var cols []poly.RatFunc
 		for e := 1; e <= deg; e++ {
@@ -164,7 +164,7 @@ func vanishing(r *poly.Ring, s int, zs poly.RatFunc, at *big.Rat, gens, monos []
 		if !g.IsPoly() || !uni || !u.OnlyRealRoot(at) {
 			continue
 		}
-		v := checker.Vanish{Poly: g.String()}
+		v := claims.Vanish{Poly: g.String()}
 		for j := range gens {
 			c := poly.FromPoly(poly.Zero(r))
 			for k, mo := range monos {
@@ -174,7 +174,7 @@ func vanishing(r *poly.Ring, s int, zs poly.RatFunc, at *big.Rat, gens, monos []
 		}
 		return v, true
 	}
-	return checker.Vanish{}, false
+	return claims.Vanish{}, false
 }
 
 // nullVector returns a solution x ≠ 0 of Σ xᵢ·colsᵢ = 0 (identically in the

@@ -12,6 +12,7 @@ import (
 	"github.com/lyacert/lyacert/certificates"
 	"github.com/lyacert/lyacert/certify/pave"
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/model"
 	"github.com/lyacert/lyacert/poly"
 )
@@ -173,13 +174,13 @@ func (res *Result) paveRegion(ctx context.Context, vars []int, opts PaveOptions)
 		return err
 	}
 	res.Paving = pv
-	doc := &checker.Paving{
+	doc := &claims.Paving{
 		Resolution: new(big.Rat).SetFrac(big.NewInt(1), new(big.Int).Lsh(big.NewInt(1), uint(level))).RatString(),
 		Tree:       pv.Tree,
 	}
 	for _, s := range box {
 		doc.Params = append(doc.Params, r.Name(s.Var))
-		doc.Box = append(doc.Box, checker.Interval{
+		doc.Box = append(doc.Box, claims.Interval{
 			Lo: s.Range.Lo.Value.RatString(), Hi: s.Range.Hi.Value.RatString(),
 			LoClosed: !s.Range.Lo.Open, HiClosed: !s.Range.Hi.Open,
 		})
@@ -205,7 +206,7 @@ func (res *Result) paveRegion(ctx context.Context, vars []int, opts PaveOptions)
 				}
 			}
 			pieces := OneParamRegion(r, s.Var, us, s.Range)
-			doc.Product = append(doc.Product, checker.SturmRegion{Param: r.Name(s.Var), Intervals: Intervals(pieces), Pieces: pieces})
+			doc.Product = append(doc.Product, claims.SturmRegion{Param: r.Name(s.Var), Intervals: Intervals(pieces), Pieces: pieces})
 			holds, fails := false, false
 			for _, pc := range pieces {
 				holds = holds || pc.Holds
@@ -276,11 +277,11 @@ func sameRange(side, r poly.Interval) bool {
 // failingWitness returns a point where some condition fails: the centre of
 // the first outside box of the paving, or a point of a failing piece of the
 // product form, with the parameters the conditions involve.
-func (res *Result) failingWitness(vars []int, box []pave.Side) (checker.Witness, bool) {
+func (res *Result) failingWitness(vars []int, box []pave.Side) (claims.Witness, bool) {
 	r := res.Model.Ring
-	try := func(point map[int]*big.Rat) (checker.Witness, bool) {
+	try := func(point map[int]*big.Rat) (claims.Witness, bool) {
 		vals := map[int]*big.Rat{}
-		w := checker.Witness{Params: map[string]string{}, Values: []string{}}
+		w := claims.Witness{Params: map[string]string{}, Values: []string{}}
 		for _, v := range vars {
 			vals[v] = point[v]
 			w.Params[r.Name(v)] = point[v].RatString()
@@ -300,7 +301,7 @@ func (res *Result) failingWitness(vars []int, box []pave.Side) (checker.Witness,
 	}
 	if leaves, err := certificates.Leaves(res.Region.Paving); err == nil {
 		for _, lf := range leaves {
-			if lf.Class != checker.PaveOutside {
+			if lf.Class != claims.PaveOutside {
 				continue
 			}
 			point := map[int]*big.Rat{}
@@ -327,5 +328,5 @@ func (res *Result) failingWitness(vars []int, box []pave.Side) (checker.Witness,
 			}
 		}
 	}
-	return checker.Witness{}, false
+	return claims.Witness{}, false
 }

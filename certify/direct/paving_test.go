@@ -13,6 +13,7 @@ import (
 	"testing"
 
 	"github.com/lyacert/lyacert/certificates"
+	"github.com/lyacert/lyacert/claims"
 
 	"gonum.org/v1/gonum/mat"
 
@@ -74,13 +75,13 @@ func leavesOf(t *testing.T, res *Result) []certificates.PavingLeaf {
 func TestPavingLorenz(t *testing.T) {
 	cases := []struct {
 		box     map[string][2]*big.Rat
-		product [][]checker.Interval // holding intervals of r, then b
+		product [][]claims.Interval // holding intervals of r, then b
 		resol   string
 		verdict string
 	}{
 		{ // Strogatz §9.2; r = 1 lies on a grid line of this box
 			box: pavingBox("r", "0", "2", "b", "0", "4"),
-			product: [][]checker.Interval{
+			product: [][]claims.Interval{
 				{{Lo: "0", Hi: "1", LoClosed: true}},
 				{{Lo: "0", Hi: "4", HiClosed: true}}, // b > 0 keeps the lower end open
 			},
@@ -88,7 +89,7 @@ func TestPavingLorenz(t *testing.T) {
 		},
 		{ // Strogatz §9.2; r = 1 falls inside boxes of this one
 			box: pavingBox("r", "1/2", "3", "b", "1", "5/2"),
-			product: [][]checker.Interval{
+			product: [][]claims.Interval{
 				{{Lo: "1/2", Hi: "1", LoClosed: true}},
 				{{Lo: "1", Hi: "5/2", LoClosed: true, HiClosed: true}},
 			},
@@ -112,9 +113,9 @@ func TestPavingLorenz(t *testing.T) {
 		k := 0 // r is the first paved parameter
 		for _, lf := range leavesOf(t, res) {
 			switch {
-			case lf.Class == checker.PaveOutside && lf.Lo[k].Cmp(one) < 0:
+			case lf.Class == claims.PaveOutside && lf.Lo[k].Cmp(one) < 0:
 				t.Errorf("outside box with r from %s < 1", lf.Lo[k].RatString())
-			case lf.Class == checker.PaveInside && lf.Hi[k].Cmp(one) >= 0:
+			case lf.Class == claims.PaveInside && lf.Hi[k].Cmp(one) >= 0:
 				t.Errorf("inside box reaching r = %s ≥ 1", lf.Hi[k].RatString())
 			}
 		}
@@ -185,7 +186,7 @@ func TestPavingAgainstEigenSym(t *testing.T) {
 		pv := res.Region.Paving
 		checked := map[byte]int{}
 		for _, lf := range leavesOf(t, res) {
-			if lf.Class == checker.PaveUndecided || rng.IntN(4) != 0 {
+			if lf.Class == claims.PaveUndecided || rng.IntN(4) != 0 {
 				continue
 			}
 			x := make([]*big.Rat, m.Ring.NumVars())
@@ -203,18 +204,18 @@ func TestPavingAgainstEigenSym(t *testing.T) {
 				minEig = math.Min(minEig, smallestEigenvalue(t, f, x))
 			}
 			switch lf.Class {
-			case checker.PaveInside:
+			case claims.PaveInside:
 				if !(minEig > 0) {
 					t.Errorf("%s: inside at %v, but the smallest eigenvalue is %g", file, x, minEig)
 				}
-			case checker.PaveOutside:
+			case claims.PaveOutside:
 				if minEig > 1e-9 {
 					t.Errorf("%s: outside at %v, but both forms are positive definite (smallest eigenvalue %g)", file, x, minEig)
 				}
 			}
 			checked[lf.Class]++
 		}
-		if checked[checker.PaveInside] == 0 || (checked[checker.PaveOutside] == 0 && summary(t, pv).Outside > 0) {
+		if checked[claims.PaveInside] == 0 || (checked[claims.PaveOutside] == 0 && summary(t, pv).Outside > 0) {
 			t.Errorf("%s: checked %v", file, checked)
 		}
 	}
@@ -321,18 +322,18 @@ func TestPavingTamper(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	pv, _ := certificates.First[*checker.Paving](res.Doc)
+	pv, _ := certificates.First[*claims.Paving](res.Doc)
 	volume := summary(t, pv).Volume
 	// A changed box may still be paved correctly: then the certificate is
 	// valid but about another box, which its volume shows; anything else
 	// must be rejected.
-	reject := func(what string, change func(p *checker.Paving)) {
+	reject := func(what string, change func(p *claims.Paving)) {
 		t.Helper()
-		doc, err := checker.Read(strings.NewReader(string(raw)))
+		doc, err := claims.Read(strings.NewReader(string(raw)))
 		if err != nil {
 			t.Fatal(err)
 		}
-		p, _ := certificates.First[*checker.Paving](doc)
+		p, _ := certificates.First[*claims.Paving](doc)
 		change(p)
 		if err := certificates.Seal(doc); err != nil {
 			t.Fatal(err)
@@ -349,28 +350,28 @@ func TestPavingTamper(t *testing.T) {
 			if byte(c) == pv.Tree[i] {
 				continue
 			}
-			reject("tree", func(p *checker.Paving) { p.Tree = p.Tree[:i] + string(c) + p.Tree[i+1:] })
+			reject("tree", func(p *claims.Paving) { p.Tree = p.Tree[:i] + string(c) + p.Tree[i+1:] })
 		}
 	}
-	reject("tree end", func(p *checker.Paving) { p.Tree += "I" })
-	reject("tree cut", func(p *checker.Paving) { p.Tree = p.Tree[:len(p.Tree)-1] })
+	reject("tree end", func(p *claims.Paving) { p.Tree += "I" })
+	reject("tree cut", func(p *claims.Paving) { p.Tree = p.Tree[:len(p.Tree)-1] })
 	bump := func(s string) string {
 		q := rat(s)
 		return q.Add(q, big.NewRat(1, 64)).RatString()
 	}
 	for i := range pv.Box {
-		reject("box lo", func(p *checker.Paving) { p.Box[i].Lo = bump(p.Box[i].Lo) })
-		reject("box hi", func(p *checker.Paving) { p.Box[i].Hi = bump(p.Box[i].Hi) })
-		reject("box lo closed", func(p *checker.Paving) { p.Box[i].LoClosed = !p.Box[i].LoClosed })
-		reject("box hi closed", func(p *checker.Paving) { p.Box[i].HiClosed = !p.Box[i].HiClosed })
+		reject("box lo", func(p *claims.Paving) { p.Box[i].Lo = bump(p.Box[i].Lo) })
+		reject("box hi", func(p *claims.Paving) { p.Box[i].Hi = bump(p.Box[i].Hi) })
+		reject("box lo closed", func(p *claims.Paving) { p.Box[i].LoClosed = !p.Box[i].LoClosed })
+		reject("box hi closed", func(p *claims.Paving) { p.Box[i].HiClosed = !p.Box[i].HiClosed })
 	}
-	reject("params", func(p *checker.Paving) { p.Params[0], p.Params[1] = p.Params[1], p.Params[0] })
-	reject("resolution", func(p *checker.Paving) { p.Resolution = "1/8" })
-	reject("resolution", func(p *checker.Paving) { p.Resolution = "1/32" })
-	reject("resolution", func(p *checker.Paving) { p.Resolution = "2/32" })
+	reject("params", func(p *claims.Paving) { p.Params[0], p.Params[1] = p.Params[1], p.Params[0] })
+	reject("resolution", func(p *claims.Paving) { p.Resolution = "1/8" })
+	reject("resolution", func(p *claims.Paving) { p.Resolution = "1/32" })
+	reject("resolution", func(p *claims.Paving) { p.Resolution = "2/32" })
 }
 
-func summary(t *testing.T, pv *checker.Paving) certificates.PavingSummary {
+func summary(t *testing.T, pv *claims.Paving) certificates.PavingSummary {
 	t.Helper()
 	s, err := certificates.Summarize(pv)
 	if err != nil {

@@ -4,7 +4,7 @@ import (
 	"math/big"
 	"slices"
 
-	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/poly"
 )
 
@@ -46,7 +46,7 @@ func (b breakpoint) upperRat() *big.Rat {
 // every condition that vanishes there. Isolating intervals are refined only
 // until neighbours separate; between and at the breakpoints the signs are
 // decided exactly.
-func OneParamRegion(r *poly.Ring, param int, conds []poly.Univariate, dom poly.Interval) []checker.Piece {
+func OneParamRegion(r *poly.Ring, param int, conds []poly.Univariate, dom poly.Interval) []claims.Piece {
 	var bps []breakpoint
 	for _, f := range poly.CoprimeBasis(conds) {
 		for _, root := range f.IsolateRoots() {
@@ -56,7 +56,7 @@ func OneParamRegion(r *poly.Ring, param int, conds []poly.Univariate, dom poly.I
 		}
 	}
 	separate(bps)
-	var pieces []checker.Piece
+	var pieces []claims.Piece
 	lo := rangeEnd(dom.Lo)
 	for _, bp := range bps {
 		atLo := dom.Lo.Inf == 0 && bp.rational() && bp.root.Exact.Cmp(dom.Lo.Value) == 0
@@ -64,32 +64,32 @@ func OneParamRegion(r *poly.Ring, param int, conds []poly.Univariate, dom poly.I
 		closed := open
 		closed.closed = true
 		if !atLo {
-			iv := checker.Interval{}
+			iv := claims.Interval{}
 			setLo(&iv, lo)
 			setHi(&iv, open)
-			pieces = append(pieces, checker.Piece{Interval: iv})
+			pieces = append(pieces, claims.Piece{Interval: iv})
 		}
-		pt := checker.Interval{}
+		pt := claims.Interval{}
 		setLo(&pt, closed)
 		setHi(&pt, closed)
-		pieces = append(pieces, checker.Piece{Interval: pt})
+		pieces = append(pieces, claims.Piece{Interval: pt})
 		lo = open
 	}
 	last := bps == nil || !(dom.Hi.Inf == 0 && bps[len(bps)-1].rational() && bps[len(bps)-1].root.Exact.Cmp(dom.Hi.Value) == 0)
 	if last {
-		iv := checker.Interval{}
+		iv := claims.Interval{}
 		setLo(&iv, lo)
 		setHi(&iv, rangeEnd(dom.Hi))
-		pieces = append(pieces, checker.Piece{Interval: iv})
+		pieces = append(pieces, claims.Piece{Interval: iv})
 	}
 	// Decide each piece: interval pieces at an interior rational sample,
 	// point pieces at the point (an irrational breakpoint is a root of some
 	// condition, so it fails).
 	for i := range pieces {
 		pieces[i].Holds = holdsOn(conds, pieces[i].Interval)
-		pieces[i].Status = checker.PieceUndecided
+		pieces[i].Status = claims.PieceUndecided
 		if pieces[i].Holds {
-			pieces[i].Status = checker.PieceHolds
+			pieces[i].Status = claims.PieceHolds
 		}
 	}
 	return pieces
@@ -102,7 +102,7 @@ func OneParamRegion(r *poly.Ring, param int, conds []poly.Univariate, dom poly.I
 // roots in the range are roots of the conditions), so an interior sample
 // decides an open piece; a closed rational end is checked too; a piece with
 // a closed irrational end, or an irrational point, stays undecided.
-func refuteOn(pieces []checker.Piece, forms []Form, param int) {
+func refuteOn(pieces []claims.Piece, forms []Form, param int) {
 	var minors [][]poly.Univariate
 	for _, f := range forms {
 		if f.Basis != nil {
@@ -145,13 +145,13 @@ func refuteOn(pieces []checker.Piece, forms []Form, param int) {
 			}
 		}
 		if ok && !slices.ContainsFunc(at, func(x *big.Rat) bool { return !negativeAt(x) }) {
-			pieces[i].Status = checker.PieceFails
+			pieces[i].Status = claims.PieceFails
 		}
 	}
 }
 
 type pend struct {
-	iv     checker.Interval // only the Lo-side fields are used
+	iv     claims.Interval // only the Lo-side fields are used
 	closed bool
 }
 
@@ -182,11 +182,11 @@ func endOf(r *poly.Ring, param int, bp breakpoint) pend {
 	return e
 }
 
-func setLo(iv *checker.Interval, e pend) {
+func setLo(iv *claims.Interval, e pend) {
 	iv.Lo, iv.LoPoly, iv.LoIsolating, iv.LoClosed = e.iv.Lo, e.iv.LoPoly, e.iv.LoIsolating, e.closed
 }
 
-func setHi(iv *checker.Interval, e pend) {
+func setHi(iv *claims.Interval, e pend) {
 	iv.Hi, iv.HiPoly, iv.HiIsolating, iv.HiClosed = e.iv.Lo, e.iv.LoPoly, e.iv.LoIsolating, e.closed
 }
 
@@ -245,7 +245,7 @@ func separate(bps []breakpoint) {
 }
 
 // holdsOn decides whether every condition is > 0 on a piece.
-func holdsOn(conds []poly.Univariate, iv checker.Interval) bool {
+func holdsOn(conds []poly.Univariate, iv claims.Interval) bool {
 	point := iv.Lo == iv.Hi && iv.LoPoly == iv.HiPoly && iv.LoClosed && iv.HiClosed
 	if point {
 		if iv.LoPoly != "" {
@@ -269,7 +269,7 @@ func holdsOn(conds []poly.Univariate, iv checker.Interval) bool {
 }
 
 // samplePoint returns a rational strictly inside an interval piece.
-func samplePoint(iv checker.Interval) *big.Rat {
+func samplePoint(iv claims.Interval) *big.Rat {
 	lo := innerRat(iv.Lo, iv.LoIsolating, true)
 	hi := innerRat(iv.Hi, iv.HiIsolating, false)
 	switch {
@@ -302,8 +302,8 @@ func innerRat(v string, iso *[2]string, lower bool) *big.Rat {
 }
 
 // Intervals returns the holding pieces.
-func Intervals(pieces []checker.Piece) []checker.Interval {
-	out := []checker.Interval{}
+func Intervals(pieces []claims.Piece) []claims.Interval {
+	out := []claims.Interval{}
 	for _, p := range pieces {
 		if p.Holds {
 			out = append(out, p.Interval)

@@ -9,6 +9,7 @@ import (
 	"github.com/lyacert/lyacert/certify/sdp"
 	"github.com/lyacert/lyacert/certify/sos"
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/poly"
 )
 
@@ -91,7 +92,7 @@ func (res *Result) methods() {
 // ε·Σ (pure powers)² will do (margin-gram-ldl). It returns the SDP it
 // solved (nil when none), an exact proof that p is no sum of squares in
 // the basis when the search found one, and, when it fails, why.
-func sosGram(p poly.RatFunc, nstates int) (f Form, m Method, prob *sdp.Problem, ns *checker.NotSOS, why string) {
+func sosGram(p poly.RatFunc, nstates int) (f Form, m Method, prob *sdp.Problem, ns *claims.NotSOS, why string) {
 	r := p.Ring()
 	if !p.IsPoly() || p.Num.DegreeIn(r.ParamMask()) > 0 {
 		return f, m, nil, nil, "it involves parameters (fix them with --set for a sum-of-squares search)"
@@ -172,7 +173,7 @@ func sosGram(p poly.RatFunc, nstates int) (f Form, m Method, prob *sdp.Problem, 
 }
 
 // notSOSClaim states an exact moment separation in the basis z.
-func notSOSClaim(z []*poly.Poly, ns *sos.NotSOS) *checker.NotSOS {
+func notSOSClaim(z []*poly.Poly, ns *sos.NotSOS) *claims.NotSOS {
 	r := z[0].Ring()
 	n := len(z)
 	mom, l, d := poly.NewMatrix(r, n), poly.NewMatrix(r, n), make([]string, n)
@@ -191,7 +192,7 @@ func notSOSClaim(z []*poly.Poly, ns *sos.NotSOS) *checker.NotSOS {
 			}
 		}
 	}
-	c := &checker.NotSOS{Moments: ns.Functional.String(), Moment: mom.Strings(), L: l.Strings(), D: d, Value: ns.Value.RatString()}
+	c := &claims.NotSOS{Moments: ns.Functional.String(), Moment: mom.Strings(), L: l.Strings(), D: d, Value: ns.Value.RatString()}
 	for _, b := range z {
 		c.Basis = append(c.Basis, b.String())
 	}

@@ -10,6 +10,7 @@ import (
 
 	"github.com/lyacert/lyacert/certificates"
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/model"
 	"github.com/lyacert/lyacert/poly"
 )
@@ -27,7 +28,7 @@ func TestMarginForm(t *testing.T) {
 	if res.Verdict != checker.VerdictHolds || res.Claim != checker.KindGlobal || !res.Check.Valid || res.Check.Kind != checker.KindGlobal {
 		t.Fatalf("verdict %s (%s), kernel %v %s; reason %q notes %q", res.Verdict, res.Claim, res.Check.Valid, res.Check.Kind, res.Reason, res.Notes)
 	}
-	mgs := certificates.ClaimsOf[*checker.MarginGram](res.Doc)
+	mgs := certificates.ClaimsOf[*claims.MarginGram](res.Doc)
 	if len(mgs) != 1 || mgs[0].Of != "-Vdot" || len(res.Methods) != 2 || res.Methods[1].Name != MethodMargin {
 		t.Fatalf("want one margin form of −V̇; claims %d, methods %v", len(mgs), res.Methods)
 	}
@@ -57,10 +58,10 @@ func TestMotzkinNotSOS(t *testing.T) {
 	if res.Verdict != checker.VerdictUndecided || !res.Check.Valid || res.Check.Verdict != checker.VerdictUndecided {
 		t.Fatalf("verdict %s, kernel %v %s", res.Verdict, res.Check.Valid, res.Check.Verdict)
 	}
-	if len(certificates.ClaimsOf[*checker.MonomialGram](res.Doc))+len(certificates.ClaimsOf[*checker.MarginGram](res.Doc)) > 0 {
+	if len(certificates.ClaimsOf[*claims.MonomialGram](res.Doc))+len(certificates.ClaimsOf[*claims.MarginGram](res.Doc)) > 0 {
 		t.Fatal("a Gram certificate for Motzkin's form")
 	}
-	ns := certificates.ClaimsOf[*checker.NotSOS](res.Doc)
+	ns := certificates.ClaimsOf[*claims.NotSOS](res.Doc)
 	if len(ns) != 1 || ns[0].Of != "-Vdot" || !slices.Equal(res.Check.NotSOS, []string{"-Vdot"}) {
 		t.Fatalf("moment separations %v, kernel %v", ns, res.Check.NotSOS)
 	}
@@ -178,7 +179,7 @@ func TestRandomPlantedNegative(t *testing.T) {
 		if res.Verdict == checker.VerdictHolds || res.Verdict == checker.VerdictOnRegion {
 			t.Fatalf("case %d: −V̇ = %s, negative at (1, 1), yet %s", k, p, res.Verdict)
 		}
-		if len(certificates.ClaimsOf[*checker.MonomialGram](res.Doc))+len(certificates.ClaimsOf[*checker.MarginGram](res.Doc)) > 0 {
+		if len(certificates.ClaimsOf[*claims.MonomialGram](res.Doc))+len(certificates.ClaimsOf[*claims.MarginGram](res.Doc)) > 0 {
 			t.Fatalf("case %d: a Gram certificate for −V̇ = %s", k, p)
 		}
 		separated += len(res.Check.NotSOS)

@@ -13,6 +13,7 @@ import (
 	"github.com/lyacert/lyacert/certificates"
 	"github.com/lyacert/lyacert/certify"
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 
 	"gonum.org/v1/gonum/mat"
 
@@ -28,7 +29,7 @@ const (
 	// nonlinear argument of the model's derivative (local or global claim).
 	MethodFull = "full"
 	// MethodLinearization: Lyapunov's indirect method at the equilibrium, in
-	// a checker.Linearization document (local stability or instability;
+	// a claims.Linearization document (local stability or instability;
 	// global stability when the model is affine, where the linearization is
 	// the model itself).
 	MethodLinearization = "linearization"
@@ -93,7 +94,7 @@ type Certification struct {
 	Check *direct.Result
 	// Doc has passed checker.Verify; Verified is that result. Nil when
 	// nothing was certified (verdict undecided).
-	Doc      *checker.Document
+	Doc      *claims.Document
 	Verified checker.Outcome
 }
 
@@ -486,18 +487,18 @@ func dotWord(m *model.Model) string {
 	return "V̇"
 }
 
-// linearizationDoc builds the checker.Linearization document: the
+// linearizationDoc builds the claims.Linearization document: the
 // model without a candidate, its equilibrium as the "at" point (exact) or
 // as the box (enclosed), P, the Krawczyk data and the enclosure of M.
-func linearizationDoc(m *model.Model, e *Equilibrium, p [][]*big.Rat, decay [][]poly.Interval, opts CertifyOptions) *checker.Document {
+func linearizationDoc(m *model.Model, e *Equilibrium, p [][]*big.Rat, decay [][]poly.Interval, opts CertifyOptions) *claims.Document {
 	n := len(m.States)
 	// The canonical text of the model without a candidate, with the exact
 	// equilibrium as its "at" line (model.Canonical's form) or with none.
 	mc := *m
 	mc.V, mc.AtGiven = nil, false
 	text := mc.Canonical()
-	lz := &checker.Linearization{}
-	var kz *checker.KrawczykEnclosure
+	lz := &claims.Linearization{}
+	var kz *claims.KrawczykEnclosure
 	if e.Status == EquilibriumExact {
 		parts := make([]string, n)
 		for i, v := range e.Point {
@@ -505,17 +506,17 @@ func linearizationDoc(m *model.Model, e *Equilibrium, p [][]*big.Rat, decay [][]
 		}
 		text += "at " + strings.Join(parts, ", ") + "\n"
 	} else {
-		kz = &checker.KrawczykEnclosure{Preconditioner: ratMatrixText(e.Y)}
+		kz = &claims.KrawczykEnclosure{Preconditioner: ratMatrixText(e.Y)}
 		for i, iv := range e.Box {
-			kz.Box = append(kz.Box, checker.IntervalText(iv))
-			kz.Krawczyk = append(kz.Krawczyk, checker.IntervalText(e.K[i]))
+			kz.Box = append(kz.Box, claims.IntervalText(iv))
+			kz.Krawczyk = append(kz.Krawczyk, claims.IntervalText(e.K[i]))
 		}
 	}
 	lz.P = ratMatrixText(p)
 	lz.Decay = make([][][2]string, n)
 	for i := range decay {
 		for j := range decay[i] {
-			lz.Decay[i] = append(lz.Decay[i], checker.IntervalText(decay[i][j]))
+			lz.Decay[i] = append(lz.Decay[i], claims.IntervalText(decay[i][j]))
 		}
 	}
 	d := certify.NewDocument(m, opts.Source)

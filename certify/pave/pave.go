@@ -13,7 +13,7 @@ import (
 	"sync/atomic"
 
 	"github.com/lyacert/lyacert/certify/interval"
-	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/internal/workpool"
 	"github.com/lyacert/lyacert/poly"
 )
@@ -60,11 +60,11 @@ const DefaultMaxBoxes = 4 << 20
 var ErrTooManyBoxes = errors.New("the paving needs more boxes than allowed; use a coarser resolution or a smaller box")
 
 // Result is the result of PaveRegion: the tree in the encoding of
-// checker.Paving, and statistics.
+// claims.Paving, and statistics.
 type Result struct {
 	Box   []Side
 	Level int    // the resolution is 2^-Level of each side
-	Tree  string // depth-first codes, see checker.Paving
+	Tree  string // depth-first codes, see claims.Paving
 	// Boxes is the number of boxes of the tree (len(Tree)).
 	Boxes int
 	// Inside, Outside, Undecided count the leaves of each class.
@@ -76,18 +76,18 @@ type Result struct {
 
 // Level returns the smallest L ≥ 0 with 2^-L ≤ res: boxes are halved until
 // each side is at most res times the corresponding side of the box. It
-// returns an error unless 2^-checker.MaxPavingLevel ≤ res.
+// returns an error unless 2^-claims.MaxPavingLevel ≤ res.
 func Level(res *big.Rat) (int, error) {
 	if res == nil || res.Sign() <= 0 {
 		return 0, fmt.Errorf("the resolution must be > 0")
 	}
-	for l := 0; l <= checker.MaxPavingLevel; l++ {
+	for l := 0; l <= claims.MaxPavingLevel; l++ {
 		// 2^-l ≤ res ⇔ num·2^l ≥ den
 		if new(big.Int).Lsh(res.Num(), uint(l)).Cmp(res.Denom()) >= 0 {
 			return l, nil
 		}
 	}
-	return 0, fmt.Errorf("resolution %s is finer than 2^-%d", res.RatString(), checker.MaxPavingLevel)
+	return 0, fmt.Errorf("resolution %s is finer than 2^-%d", res.RatString(), claims.MaxPavingLevel)
 }
 
 // PaveRegion paves the box for the set where every condition is > 0 (set
@@ -115,8 +115,8 @@ func PaveRegion(ctx context.Context, conds []*poly.Poly, box []Side, level int, 
 	if n == 0 || n > poly.MaxCenteredDims {
 		return nil, fmt.Errorf("a paving needs 1 to %d parameters, not %d", poly.MaxCenteredDims, n)
 	}
-	if level < 0 || level > checker.MaxPavingLevel {
-		return nil, fmt.Errorf("resolution level %d outside [0, %d]", level, checker.MaxPavingLevel)
+	if level < 0 || level > claims.MaxPavingLevel {
+		return nil, fmt.Errorf("resolution level %d outside [0, %d]", level, claims.MaxPavingLevel)
 	}
 	vars := make([]int, n)
 	sides := make([]poly.Interval, n)
@@ -179,7 +179,7 @@ func PaveRegion(ctx context.Context, conds []*poly.Poly, box []Side, level int, 
 			tasks = append(tasks, task{g: g, forms: forms})
 			return nil
 		}
-		segs = append(segs, segment{code: checker.PaveSplit})
+		segs = append(segs, segment{code: claims.PaveSplit})
 		dim := poly.SplitDim(g.K)
 		lo, hi := g.Halves(dim)
 		if err := top(lo, halves(forms, dim, false)); err != nil {
@@ -266,11 +266,11 @@ func PaveRegion(ctx context.Context, conds []*poly.Poly, box []Side, level int, 
 	}
 	for _, c := range []byte(pv.Tree) {
 		switch c {
-		case checker.PaveInside:
+		case claims.PaveInside:
 			pv.Inside++
-		case checker.PaveOutside:
+		case claims.PaveOutside:
 			pv.Outside++
-		case checker.PaveUndecided:
+		case claims.PaveUndecided:
 			pv.Undecided++
 		}
 	}
@@ -357,7 +357,7 @@ func (w *worker) floatClass(g grid) byte {
 		if math.IsInf(w.x[i].Lo, 0) || math.IsInf(w.x[i].Hi, 0) {
 			// A side beyond float64 (an end past 1e308): the float pass
 			// proposes nothing there; the exact test decides alone.
-			return checker.PaveUndecided
+			return claims.PaveUndecided
 		}
 		w.pm[i] = interval.Pt(w.x[i].Mid())
 	}
@@ -366,14 +366,14 @@ func (w *worker) floatClass(g grid) byte {
 	for _, fp := range w.fps {
 		y := fp.enclose(w.x, ps, pm)
 		if y.Hi <= 0 {
-			return checker.PaveOutside
+			return claims.PaveOutside
 		}
 		inside = inside && y.Lo > 0
 	}
 	if inside {
-		return checker.PaveInside
+		return claims.PaveInside
 	}
-	return checker.PaveUndecided
+	return claims.PaveUndecided
 }
 
 // exactClass decides the box by the centred forms, as the checker does.
@@ -382,14 +382,14 @@ func (w *worker) exactClass(g grid, forms []*poly.CenteredForm) byte {
 	inside := true
 	for _, f := range forms {
 		if f.NonPositive() {
-			return checker.PaveOutside
+			return claims.PaveOutside
 		}
 		inside = inside && f.PositiveOn(faces)
 	}
 	if inside {
-		return checker.PaveInside
+		return claims.PaveInside
 	}
-	return checker.PaveUndecided
+	return claims.PaveUndecided
 }
 
 // classify returns the code of a leaf, or split true when the box is to be
@@ -399,9 +399,9 @@ func (w *worker) classify(g grid, forms []*poly.CenteredForm) (code byte, split 
 		return 0, false, ErrTooManyBoxes
 	}
 	splittable := g.K[poly.SplitDim(g.K)] < w.level
-	if fc := w.floatClass(g); fc != checker.PaveUndecided {
+	if fc := w.floatClass(g); fc != claims.PaveUndecided {
 		ec := w.exactClass(g, forms)
-		if ec != checker.PaveUndecided {
+		if ec != claims.PaveUndecided {
 			return ec, false, nil
 		}
 		w.rejected++
@@ -430,7 +430,7 @@ func (w *worker) subtree(ctx context.Context, g grid, forms []*poly.CenteredForm
 		b.WriteByte(code)
 		return nil
 	}
-	b.WriteByte(checker.PaveSplit)
+	b.WriteByte(claims.PaveSplit)
 	// Children's forms live in per-depth buffers: the lower child's subtree
 	// only uses deeper ones, so the upper child can reuse the same slot.
 	d := depth(g) + 1

@@ -10,7 +10,7 @@ import (
 
 	"github.com/lyacert/lyacert/certificates"
 	"github.com/lyacert/lyacert/certify/interval"
-	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/poly"
 )
 
@@ -133,7 +133,7 @@ func discBox() ([]*poly.Poly, []Side) {
 }
 
 // Every leaf is what the checker's exact test says, the tree has the shape
-// checker.Paving documents, and points of inside (outside) leaves
+// claims.Paving documents, and points of inside (outside) leaves
 // satisfy (violate) the condition.
 func TestPaveRegionLeaves(t *testing.T) {
 	conds, box := discBox()
@@ -141,9 +141,9 @@ func TestPaveRegionLeaves(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	doc := checker.Paving{Params: []string{"a", "b"}, Resolution: "1/32", Tree: pv.Tree}
+	doc := claims.Paving{Params: []string{"a", "b"}, Resolution: "1/32", Tree: pv.Tree}
 	for _, s := range box {
-		doc.Box = append(doc.Box, checker.Interval{Lo: s.Range.Lo.Value.RatString(), Hi: s.Range.Hi.Value.RatString(), LoClosed: !s.Range.Lo.Open, HiClosed: !s.Range.Hi.Open})
+		doc.Box = append(doc.Box, claims.Interval{Lo: s.Range.Lo.Value.RatString(), Hi: s.Range.Hi.Value.RatString(), LoClosed: !s.Range.Lo.Open, HiClosed: !s.Range.Hi.Open})
 	}
 	sum, err := certificates.Summarize(&doc)
 	if err != nil {
@@ -165,9 +165,9 @@ func TestPaveRegionLeaves(t *testing.T) {
 			}
 			v := conds[0].Eval(pt)
 			switch {
-			case lf.Class == checker.PaveInside && v.Sign() <= 0:
+			case lf.Class == claims.PaveInside && v.Sign() <= 0:
 				t.Errorf("inside leaf %v has %s at %v", lf, v.RatString(), pt)
-			case lf.Class == checker.PaveOutside && v.Sign() > 0:
+			case lf.Class == claims.PaveOutside && v.Sign() > 0:
 				t.Errorf("outside leaf %v has %s at %v", lf, v.RatString(), pt)
 			}
 		}

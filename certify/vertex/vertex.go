@@ -13,6 +13,7 @@ import (
 	"github.com/lyacert/lyacert/certify"
 	"github.com/lyacert/lyacert/certify/sdp"
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/model"
 	"github.com/lyacert/lyacert/poly"
 )
@@ -68,7 +69,7 @@ type Result struct {
 	// Reason says why no P was found (numerical evidence, not a proof).
 	Reason string
 	// Doc is the sealed certificate, verified by the kernel (Outcome).
-	Doc     *checker.Document
+	Doc     *claims.Document
 	Outcome checker.Outcome
 }
 
@@ -159,21 +160,13 @@ func prepare(m *model.Model) (*Result, [][]*poly.Poly, error) {
 	}
 	res.At = at
 	n := len(m.States)
-	states := make([]bool, m.Ring.NumVars())
-	vals := map[int]*big.Rat{}
-	for i, v := range at {
-		states[i], vals[i] = true, v
+	jac, global, nonPoly := m.JacobianAt(at)
+	if nonPoly >= 0 {
+		return nil, nil, bad(m.FPos[nonPoly], "%s' has a denominator; the vertex test needs polynomials", m.States[nonPoly])
 	}
-	res.Global = true
-	jac := make([][]*poly.Poly, n)
-	for i, f := range m.F {
-		if !f.IsPoly() {
-			return nil, nil, bad(m.FPos[i], "%s' has a denominator; the vertex test needs polynomials", m.States[i])
-		}
-		res.Global = res.Global && f.Num.DegreeIn(states) <= 1
-		jac[i] = make([]*poly.Poly, n)
+	res.Global = global
+	for i := range n {
 		for k := range n {
-			jac[i][k] = new(poly.Poly).EvalVars(new(poly.Poly).Derivative(f.Num, k), vals)
 			if jac[i][k].Degree() > 1 {
 				return nil, nil, bad(m.FPos[i], "∂%s'/∂%s = %s at the equilibrium is not affine in the parameters (a power or product of them); the vertex test needs an affine linearization", m.States[i], m.States[k], jac[i][k])
 			}
@@ -187,21 +180,12 @@ func (r *Result) vertices(jac [][]*poly.Poly) error {
 	m := r.Model
 	n := len(m.States)
 	free := m.FreeParams()
-	x := make([]*big.Rat, m.Ring.NumVars())
-	for i := range x {
-		x[i] = new(big.Rat)
-	}
-	copy(x, r.At)
 	for v := range 1 << len(free) {
 		vx := Vertex{Margin: math.NaN()}
-		for j, p := range free {
-			end := p.Range.Lo.Value
-			if v>>j&1 == 1 {
-				end = p.Range.Hi.Value
-			}
+		x := m.Vertex(r.At, v)
+		for _, p := range free {
 			k, _ := m.Ring.Index(p.Name)
-			x[k] = end
-			vx.Params = append(vx.Params, end)
+			vx.Params = append(vx.Params, x[k])
 		}
 		a := mat.NewDense(n, n, nil)
 		vx.A = make([][]*big.Rat, n)
@@ -377,7 +361,7 @@ func (r *Result) certificate(ctx context.Context, opts Options) error {
 			p[i] = append(p[i], poly.RatString(v))
 		}
 	}
-	vl := &checker.VertexLyapunov{P: p}
+	vl := &claims.VertexLyapunov{P: p}
 	for _, v := range r.Vertices {
 		var mv [][]string
 		for _, row := range poly.DecayAt(v.A, false, r.P) {

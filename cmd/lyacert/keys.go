@@ -8,6 +8,7 @@ import (
 
 	"github.com/lyacert/lyacert/certificates"
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/report"
 )
 
@@ -85,7 +86,7 @@ func (c *signCmd) run(e *env) int {
 	if err != nil {
 		return e.fail(exitInput, err)
 	}
-	doc, err := checker.Read(strings.NewReader(string(src)))
+	doc, err := claims.Read(strings.NewReader(string(src)))
 	if err != nil {
 		return e.failf(exitInput, "%s: %w", name, err)
 	}
@@ -105,7 +106,7 @@ func (c *signCmd) run(e *env) int {
 	so := report.SignOutput{Certificate: c.Cert, Digest: doc.Digest, Fingerprint: certificates.Fingerprint(key.Public().(ed25519.PublicKey))}
 	if old != nil {
 		replaced := "a malformed signature"
-		if pub, err := (&checker.Document{Signature: old}).Signer(); err == nil {
+		if pub, err := (&claims.Document{Signature: old}).Signer(); err == nil {
 			replaced = certificates.Fingerprint(pub)
 			fmt.Fprintf(e.stderr, "lyacert: %s: replacing the signature by key %s\n", name, replaced)
 		} else {
@@ -199,7 +200,7 @@ func readTrusted(paths []string) ([]ed25519.PublicKey, error) {
 // trustOf checks the signature against the keys of verify --trust; the
 // mathematics is checker.Verify's. Without trusted keys only the signer is
 // named (Verify has already checked a present signature).
-func trustOf(doc *checker.Document, trusted []ed25519.PublicKey) report.Trust {
+func trustOf(doc *claims.Document, trusted []ed25519.PublicKey) report.Trust {
 	t := report.Trust{Required: len(trusted) > 0}
 	if pub, err := doc.Signer(); err == nil {
 		t.Signer = certificates.Fingerprint(pub)
@@ -211,7 +212,7 @@ func trustOf(doc *checker.Document, trusted []ed25519.PublicKey) report.Trust {
 	switch {
 	case err == nil:
 		t.Trusted, t.Signer = true, certificates.Fingerprint(pub)
-	case errors.Is(err, checker.ErrUnsigned):
+	case errors.Is(err, claims.ErrUnsigned):
 		t.Reason = "the certificate is not signed, and --trust requires a signature by a trusted key"
 	case errors.Is(err, certificates.ErrUntrusted):
 		t.Reason = "it is signed by key " + t.Signer + ", which is none of the keys given with --trust"

@@ -12,6 +12,7 @@ import (
 
 	"github.com/lyacert/lyacert/certify"
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/poly"
 )
 
@@ -135,9 +136,9 @@ func readInput(path string, stdin io.Reader) (string, []byte, error) {
 }
 
 // readCertificate reads a certificate file, or standard input for "-": at
-// most checker.MaxDocumentBytes plus one byte (checker.Read refuses more).
+// most claims.MaxDocumentBytes plus one byte (claims.Read refuses more).
 func readCertificate(path string, stdin io.Reader) (string, []byte, error) {
-	return readBounded(path, stdin, checker.MaxDocumentBytes)
+	return readBounded(path, stdin, claims.MaxDocumentBytes)
 }
 
 func readBounded(path string, stdin io.Reader, max int64) (string, []byte, error) {

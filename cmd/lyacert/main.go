@@ -12,6 +12,7 @@ import (
 
 	"github.com/lyacert/lyacert/certificates"
 	"github.com/lyacert/lyacert/certify/boxsos"
+	"github.com/lyacert/lyacert/claims"
 
 	"github.com/alecthomas/kong"
 	"github.com/willabides/kongplete"
@@ -419,7 +420,7 @@ func (c *verifyCmd) verify(ctx context.Context, e *env) int {
 	if err != nil {
 		return e.fail(exitInput, err)
 	}
-	doc, err := checker.Read(strings.NewReader(string(src)))
+	doc, err := claims.Read(strings.NewReader(string(src)))
 	if err != nil {
 		return e.failf(exitInput, "%s: %w", name, err)
 	}

@@ -13,7 +13,7 @@ import (
 
 	"github.com/lyacert/lyacert/certificates"
 	"github.com/lyacert/lyacert/certify/direct"
-	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/model"
 	"github.com/lyacert/lyacert/poly"
 	"github.com/lyacert/lyacert/report"
@@ -214,7 +214,7 @@ func (pf *paveFlags) finish(res *direct.Result, e *env) int {
 
 // writeRegionPlot writes report.RegionPlot's strip of a one-parameter
 // region, atomically.
-func writeRegionPlot(path string, doc *checker.Document) error {
+func writeRegionPlot(path string, doc *claims.Document) error {
 	format, err := plotFormat(path)
 	if err != nil {
 		return err
@@ -231,7 +231,7 @@ func writeRegionPlot(path string, doc *checker.Document) error {
 // the format of the file's extension, atomically. The names and the number
 // of slices were checked before the paving (planPlot); the values can only
 // be checked against the sides now.
-func writePlot(path string, pv *checker.Paving, slice []string) error {
+func writePlot(path string, pv *claims.Paving, slice []string) error {
 	format, err := plotFormat(path)
 	if err != nil {
 		return err

@@ -12,6 +12,7 @@ import (
 	"github.com/lyacert/lyacert/certify"
 	"github.com/lyacert/lyacert/certify/direct"
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/examples"
 	"github.com/lyacert/lyacert/model"
 	"github.com/lyacert/lyacert/poly"
@@ -57,7 +58,7 @@ func (c *reportCmd) run(e *env) int {
 	if err != nil {
 		return e.fail(exitInput, err)
 	}
-	doc, err := checker.Read(bytes.NewReader(src))
+	doc, err := claims.Read(bytes.NewReader(src))
 	if err != nil {
 		return e.failf(exitInput, "%s: %w", name, err)
 	}
@@ -109,7 +110,7 @@ func figureBeside(out string) func(string, []byte) (string, error) {
 
 // writeReport renders the report to out (standard output when empty) and
 // returns the exit code of the certificate's verdict.
-func writeReport(doc *checker.Document, opts report.Options, out string, e *env) int {
+func writeReport(doc *claims.Document, opts report.Options, out string, e *env) int {
 	var buf bytes.Buffer
 	if err := report.Render(&buf, doc, opts); err != nil {
 		if errors.Is(err, report.ErrInvalid) && !poly.IsExceeded(err.Error()) {

@@ -1,4 +1,4 @@
-package checker
+package claims
 
 import (
 	"crypto/ed25519"
@@ -57,15 +57,4 @@ func (d *Document) VerifySignature() (ed25519.PublicKey, error) {
 		return nil, ErrBadSignature
 	}
 	return pub, nil
-}
-
-// signature records the check of a present signature. Verify does not
-// require one; a present one must verify, since a reader would otherwise take
-// a forged or stale signature at face value.
-func (c *run) signature() {
-	if _, err := c.doc.VerifySignature(); err != nil {
-		c.add("signature", false, "%v", err)
-	} else {
-		c.add("signature", true, "the ed25519 signature of the digest by the key it names is valid")
-	}
 }

@@ -1,4 +1,4 @@
-package checker
+package claims
 
 import (
 	"bytes"
@@ -8,6 +8,12 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"maps"
+	"math/big"
+	"reflect"
+	"slices"
+
+	"github.com/lyacert/lyacert/poly"
 )
 
 // Format is the format version of the certificates this kernel reads.
@@ -63,6 +69,19 @@ type Claim interface {
 
 // claimTypes makes an empty claim of each rule, for decoding.
 var claimTypes = map[string]func() Claim{}
+
+func init() {
+	for _, c := range []Claim{new(OrbitalDerivative), new(QuadraticPart), new(MonomialGram), new(MarginGram),
+		new(BoxMultiplier), new(MinorCondition), new(NullSpace), new(Invariance), new(PointCheck), new(SturmRegion),
+		new(Paving), new(WitnessPoints), new(Refutation), new(NotSOS), new(KrawczykEnclosure), new(Linearization),
+		new(VertexLyapunov), new(SublevelBasin)} {
+		t := reflect.TypeOf(c).Elem()
+		claimTypes[c.Rule()] = func() Claim { return reflect.New(t).Interface().(Claim) }
+	}
+}
+
+// Rules returns the names of the rules a claim may name, sorted.
+func Rules() []string { return slices.Sorted(maps.Keys(claimTypes)) }
 
 // marshalClaim writes a claim with its rule name.
 func marshalClaim(c Claim) (json.RawMessage, error) {
@@ -242,4 +261,22 @@ func marshalNoEscape(v any) ([]byte, error) {
 		return nil, err
 	}
 	return bytes.TrimSuffix(buf.Bytes(), []byte("\n")), nil
+}
+
+// CanonicalRat reads a number that must be in poly.RatString form.
+func CanonicalRat(s string) (*big.Rat, bool) {
+	q, ok := poly.ParseRat(s)
+	if !ok || poly.RatString(q) != s {
+		return nil, false
+	}
+	return q, true
+}
+
+// IntervalText writes the closed interval [lo, hi] of x, ends in canonical
+// form; a stated interval equal to it is closed with exactly those ends.
+func IntervalText(x poly.Interval) [2]string {
+	if x.Lo.Open || x.Hi.Open || x.Lo.Value == nil || x.Hi.Value == nil {
+		return [2]string{"(", ")"} // equal to no stated closed interval
+	}
+	return [2]string{poly.RatString(x.Lo.Value), poly.RatString(x.Hi.Value)}
 }

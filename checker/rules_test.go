@@ -1,0 +1,22 @@
+package checker
+
+import (
+	"slices"
+	"testing"
+
+	"github.com/lyacert/lyacert/claims"
+)
+
+// TestRuleTableCoversFormat: every claim type of the format has exactly one
+// rule of the kernel, and every rule a claim type (common practice: a
+// dispatch table checked against the types it dispatches on).
+func TestRuleTableCoversFormat(t *testing.T) {
+	var names []string
+	for _, r := range rules {
+		names = append(names, r.name)
+	}
+	slices.Sort(names)
+	if want := claims.Rules(); !slices.Equal(names, want) {
+		t.Errorf("the rule table has %v; the format has %v", names, want)
+	}
+}

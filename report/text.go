@@ -272,7 +272,7 @@ func conditionsText(w io.Writer, res *direct.Result) {
 	fmt.Fprintln(w)
 }
 
-func factorText(f direct.FactorStatus) string {
+func factorText(f direct.SignedFactor) string {
 	s := f.P.String()
 	if f.Power > 1 {
 		if f.P.NumTerms() > 1 {

@@ -468,11 +468,11 @@ func strings(m [][]*big.Rat) [][]string {
 	return out
 }
 
-// Document returns a certificate of the same model as doc, a certificate
+// Certify returns a certificate of the same model as doc, a certificate
 // by the direct method: its derivative, V's form and V's conditions, with
 // −V̇'s form, its conditions and every claim resting on them (regions,
 // kernels, refutations) replaced by bm. The result is sealed, not checked.
-func Document(doc *claims.Document, bm *claims.BoxMultiplier) (*claims.Document, error) {
+func Certify(doc *claims.Document, bm *claims.BoxMultiplier) (*claims.Document, error) {
 	out := *doc
 	out.Digest, out.Signature, out.Claims = "", nil, []claims.Claim{}
 	for _, c := range doc.Claims {

@@ -40,7 +40,7 @@ func certify(t *testing.T, name string) (*claims.Document, error) {
 	if err != nil {
 		return nil, err
 	}
-	return Document(res.Doc, bm)
+	return Certify(res.Doc, bm)
 }
 
 // TestFind: the kernel accepts the certificates found where V works on the

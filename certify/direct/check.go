@@ -54,12 +54,12 @@ type Condition struct {
 	Index    int
 	Minor    poly.RatFunc
 	Constant *big.Rat
-	Factors  []FactorStatus
+	Factors  []SignedFactor
 	Q        *poly.Poly // Q > 0 is what remains
 }
 
-// FactorStatus is a factor with what the assumptions say of its sign.
-type FactorStatus struct {
+// SignedFactor is a factor with what the assumptions say of its sign.
+type SignedFactor struct {
 	PowerFactor
 	Status string
 }
@@ -370,7 +370,7 @@ func (res *Result) conditions() {
 			sign := c.Sign()
 			for _, fa := range factors {
 				st := checker.FactorStatus(fa.P, fa.Power, box)
-				cond.Factors = append(cond.Factors, FactorStatus{fa, st})
+				cond.Factors = append(cond.Factors, SignedFactor{fa, st})
 				switch st {
 				case claims.StatusNegative:
 					sign = -sign

@@ -173,7 +173,7 @@ func sosGram(p poly.RatFunc, nstates int) (f Form, m Method, prob *sdp.Problem, 
 }
 
 // notSOSClaim states an exact moment separation in the basis z.
-func notSOSClaim(z []*poly.Poly, ns *sos.NotSOS) *claims.NotSOS {
+func notSOSClaim(z []*poly.Poly, ns *sos.Separation) *claims.NotSOS {
 	r := z[0].Ring()
 	n := len(z)
 	mom, l, d := poly.NewMatrix(r, n), poly.NewMatrix(r, n), make([]string, n)

@@ -33,13 +33,13 @@ type Certificate struct {
 	Bits    int      // rounding precision: entries were rounded to multiples of 2^−Bits before the projection
 }
 
-// NotSOS proves that p is not a sum of squares: a linear functional L
+// Separation proves that p is not a sum of squares: a linear functional L
 // on the monomials of the classes (L(x^γ) = Moments[γ]) with L(p) < 0 whose
 // moment matrix M_ab = L(z_a·z_b) is positive definite. If p = zᵀGz with
 // G ⪰ 0, then L(p) = ⟨M, G⟩ ≥ 0, a contradiction. The argument rests on
 // the basis containing every monomial a Gram matrix of p can use (the
 // half Newton polytope, Reznick 1978); a checker must re-derive that too.
-type NotSOS struct {
+type Separation struct {
 	Moments map[string]*big.Rat // by the key of the exponent (see Key)
 	Moment  [][]*big.Rat        // M in the basis
 	Factor  LDL                 // M = L·D·Lᵀ, every D[k] > 0 (or M = 0, Factor empty)
@@ -61,15 +61,15 @@ type Sizes struct {
 	MarginIterations int
 }
 
-// Result is the outcome of Find: a Certificate, a NotSOS proof, or neither
+// Result is the outcome of Find: a Certificate, a Separation proof, or neither
 // (the method found no proof either way).
 type Result struct {
 	Vars        []int   // ring indices of the variables of the basis exponents
 	Basis       [][]int // exponents of the monomials z, over Vars
 	Certificate *Certificate
-	NotSOS      *NotSOS
+	NotSOS      *Separation
 	// Margin is a certificate of p − ε·Σ z_a² ⪰ 0 (z_a the pure powers of
-	// the basis), tried when there is neither a Certificate nor a NotSOS.
+	// the basis), tried when there is neither a Certificate nor a Separation.
 	Margin *MarginCertificate
 	// Outside is a monomial of p (by Key) that no product of the basis
 	// reaches: then no Gram matrix exists in it, plainly.
@@ -490,7 +490,7 @@ func (g *Gram) round(x []float64, coef []*big.Rat, t float64) *Certificate {
 // measure on [−1, 1]ⁿ, whose moment matrix is positive definite (monomials
 // are linearly independent functions on the cube), with a weight θ small
 // enough to keep L(p) < 0.
-func (g *Gram) refute(y []float64) *NotSOS {
+func (g *Gram) refute(y []float64) *Separation {
 	n := len(g.Basis)
 	ref := make([]*big.Rat, len(g.Classes))
 	for ci, c := range g.Classes {
@@ -545,7 +545,7 @@ func (g *Gram) refute(y []float64) *NotSOS {
 			}
 			var f LDL
 			if f.Factorize(M) {
-				return &NotSOS{Moments: mom, Moment: M, Factor: f, Value: v}
+				return &Separation{Moments: mom, Moment: M, Factor: f, Value: v}
 			}
 		}
 	}

@@ -363,7 +363,7 @@ func runCheck(ctx context.Context, name string, src []byte, settings []model.Set
 		box = &report.BoxSOSOutput{}
 		bm, err := boxsos.Find(ctx, m)
 		if err == nil {
-			bd, err2 := boxsos.Document(res.Doc, bm)
+			bd, err2 := boxsos.Certify(res.Doc, bm)
 			err = err2
 			if err == nil {
 				if v := checker.VerifyContext(ctx, bd); v.Valid && v.Verdict == checker.VerdictHolds && (res.Verdict != checker.VerdictHolds || v.Kind == checker.KindGlobal) {

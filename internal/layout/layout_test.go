@@ -169,3 +169,68 @@ func exactPackage(t *testing.T, name string, own []string) int {
 	}
 	return lines
 }
+
+// TestNoNamesSharedWithEngine: no exported name of the kernel or of the
+// format it reads is also an exported name of the engine (certify/...), so
+// that a reader never mistakes what the engine computed for what the kernel
+// checked.
+func TestNoNamesSharedWithEngine(t *testing.T) {
+	trusted := map[string]string{}
+	for _, dir := range []string{"checker", "claims"} {
+		for name := range exported(t, dir) {
+			trusted[name] = dir
+		}
+	}
+	for pkg := range packages(t) {
+		if pkg != "certify" && !strings.HasPrefix(pkg, "certify/") {
+			continue
+		}
+		for name := range exported(t, pkg) {
+			if dir, ok := trusted[name]; ok {
+				t.Errorf("%s.%s has the name of %s.%s", pkg, name, dir, name)
+			}
+		}
+	}
+}
+
+// exported returns the exported top-level names (types, functions,
+// constants, variables) of a package's non-test files.
+func exported(t *testing.T, dir string) map[string]bool {
+	t.Helper()
+	pkg, err := build.ImportDir(filepath.Join(root(t), dir), 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	out := map[string]bool{}
+	fset := token.NewFileSet()
+	for _, file := range pkg.GoFiles {
+		f, err := parser.ParseFile(fset, filepath.Join(pkg.Dir, file), nil, 0)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, d := range f.Decls {
+			switch d := d.(type) {
+			case *ast.FuncDecl:
+				if d.Recv == nil && d.Name.IsExported() {
+					out[d.Name.Name] = true
+				}
+			case *ast.GenDecl:
+				for _, s := range d.Specs {
+					switch s := s.(type) {
+					case *ast.TypeSpec:
+						if s.Name.IsExported() {
+							out[s.Name.Name] = true
+						}
+					case *ast.ValueSpec:
+						for _, n := range s.Names {
+							if n.IsExported() {
+								out[n.Name] = true
+							}
+						}
+					}
+				}
+			}
+		}
+	}
+	return out
+}

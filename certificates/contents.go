@@ -21,6 +21,9 @@ type Contents struct {
 	// nested certificates of point pieces.
 	Invariance *claims.Invariance
 	Points     []*claims.PointCheck
+	// Algebraic are the point pieces at irrational parameter values
+	// settled by margin Gram forms whose pivots are ≥ 0 there.
+	Algebraic []*claims.AlgebraicPoint
 }
 
 // FormView is a Gram matrix with its LDLᵀ: of the quadratic part (Basis nil)
@@ -62,6 +65,8 @@ func ContentsOf(d *claims.Document) Contents {
 			c.Invariance = x
 		case *claims.PointCheck:
 			c.Points = append(c.Points, x)
+		case *claims.AlgebraicPoint:
+			c.Algebraic = append(c.Algebraic, x)
 		case *claims.NullSpace:
 			c.Kernel = x.Vectors
 		case *claims.SturmRegion:

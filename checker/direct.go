@@ -150,23 +150,32 @@ func (c *run) matrix(name string, rows [][]string, n int, what string) (poly.Mat
 	return out, true
 }
 
-// form checks G = L·D·Lᵀ and the minors of one form against the recomputed G.
-func (c *run) form(f *claims.LDLForm, g poly.Matrix) (*checkedForm, bool) {
+// ldl checks a stated G against the recomputed g and G = L·D·Lᵀ exactly, L
+// unit lower triangular with a zero column below every zero pivot.
+func (c *run) ldl(f *claims.LDLForm, g poly.Matrix) (*checkedForm, bool) {
 	name, n := f.Of, len(g)
-	cf := &checkedForm{g: g}
+	cf := &checkedForm{g: g, zero: make([]bool, n)}
 	claimedG, ok1 := c.matrix("form "+name, f.Gram, n, "the Gram matrix")
 	l, ok2 := c.matrix("form "+name, f.L, n, "L")
 	d, ok3 := c.list("ldl "+name, f.D, n, "pivots")
 	if !ok1 || !ok2 || !ok3 || !c.add("gram "+name, claimedG.Equal(g), "the Gram matrix equals the one recomputed from the model") {
 		return cf, false
 	}
-	cf.d, cf.l, cf.zero = d, l, make([]bool, n)
+	cf.d, cf.l = d, l
 	for i := range n {
 		cf.zero[i] = d[i].IsZero()
 		cf.semidef = cf.semidef || cf.zero[i]
 	}
-	if !c.add("ldl "+name, l.UnitLower(cf.zero), "L is unit lower triangular, with a zero column below every zero pivot") ||
-		!c.add("ldl "+name, g.EqualLDL(l, d), "L·D·Lᵀ reproduces the Gram matrix exactly") {
+	return cf, c.add("ldl "+name, l.UnitLower(cf.zero), "L is unit lower triangular, with a zero column below every zero pivot") &&
+		c.add("ldl "+name, g.EqualLDL(l, d), "L·D·Lᵀ reproduces the Gram matrix exactly")
+}
+
+// form checks G = L·D·Lᵀ and the minors of one form against the recomputed G.
+func (c *run) form(f *claims.LDLForm, g poly.Matrix) (*checkedForm, bool) {
+	name, n := f.Of, len(g)
+	cf, ok := c.ldl(f, g)
+	d, l := cf.d, cf.l
+	if !ok {
 		return cf, false
 	}
 	// Minors: of G itself (no zero pivot), or of its principal submatrix on
@@ -282,19 +291,9 @@ func (c *run) minorCondition(cl claims.Claim) bool {
 }
 
 // FactorStatus classifies f^power over the parameter box by its exact
-// interval enclosure: positive (the power is even and f keeps away from zero,
-// or the power is odd and f > 0), negative (odd power, f < 0), or a condition.
+// interval enclosure (poly.PowerSign).
 func FactorStatus(f *poly.Poly, power int, box []poly.Interval) string {
-	e := f.Enclose(box)
-	switch {
-	case power%2 == 0 && !e.ContainsZero():
-		return claims.StatusPositive
-	case power%2 == 1 && e.Positive():
-		return claims.StatusPositive
-	case power%2 == 1 && e.Negative():
-		return claims.StatusNegative
-	}
-	return claims.StatusCondition
+	return map[int]string{1: claims.StatusPositive, -1: claims.StatusNegative, 0: claims.StatusCondition}[f.PowerSign(power, box)]
 }
 
 // nullSpace: for G = L·D·Lᵀ ⪰ 0 the set where zᵀGz = 0 is the kernel of G;

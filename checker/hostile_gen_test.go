@@ -201,6 +201,24 @@ func hostileFiles(t *testing.T) map[string][]byte {
 		"forged-basin-level-huge.json": edit(t, "basin-ring.json", func(d *claims.Document) {
 			claimOf[*claims.SublevelBasin](t, d, 0).Level = "10"
 		}),
+		// At a = √2 a bigger margin on x² keeps every identity but makes
+		// the pivot 7/4 − a² negative there: the sign at the root refuses it.
+		"forged-algebraic-negative-pivot.json": edit(t, "algebraic.json", func(d *claims.Document) {
+			f := &claimOf[*claims.AlgebraicPoint](t, d, 0).Forms[1]
+			f.Margin = "1/4*x^2 + 1/2*x^4 + 1/2*y^4"
+			f.Gram[1][1], f.D[1] = "7/4", "-a^2 + 7/4"
+		}),
+		"forged-algebraic-other-root.json": edit(t, "algebraic.json", func(d *claims.Document) {
+			ap := claimOf[*claims.AlgebraicPoint](t, d, 0)
+			ap.Value, ap.Isolating = "-1.41421356237310", [2]string{"-2", "-1"}
+		}),
+		"forged-algebraic-decimal.json": edit(t, "algebraic.json", func(d *claims.Document) {
+			claimOf[*claims.AlgebraicPoint](t, d, 0).Value = "1.41421356237311"
+		}),
+		"forged-algebraic-minors.json": edit(t, "algebraic.json", func(d *claims.Document) {
+			f := &claimOf[*claims.AlgebraicPoint](t, d, 0).Forms[0]
+			f.Minors = []string{"3/4", "9/16"}
+		}),
 		"forged-basin-level-zero.json": edit(t, "basin-ring.json", func(d *claims.Document) {
 			claimOf[*claims.SublevelBasin](t, d, 0).Level = "0"
 		}),

@@ -101,33 +101,19 @@ func (c *run) sturmRegion(cl claims.Claim) bool {
 // arbitrarily close to the equilibrium. A Gram matrix in a monomial basis
 // is not unique, so only quadratic parts count.
 func (c *run) regionPieces(rg *claims.SturmRegion, pi int, conds []poly.Univariate, dom poly.Interval) (anyHolds, anyFails, allRefuted, ok bool) {
-	if !c.add("region", len(rg.Pieces) > 0, "the pieces partition the range %s of %s", dom, rg.Param) {
-		return false, false, false, false
-	}
 	var pieces []poly.Span
 	for i, p := range rg.Pieces {
 		what := fmt.Sprintf("piece %d", i+1)
 		lo, ok1 := c.readEnd(p.Lo, p.LoPoly, p.LoIsolating, p.LoClosed, pi, what+" lower")
 		hi, ok2 := c.readEnd(p.Hi, p.HiPoly, p.HiIsolating, p.HiClosed, pi, what+" upper")
-		sp := poly.Span{Lo: lo, Hi: hi}
-		if !ok1 || !ok2 || !c.add("region", sp.Point() || poly.Less(lo, hi), "%s is a non-empty interval", what) {
+		if !ok1 || !ok2 {
 			return false, false, false, false
 		}
-		pieces = append(pieces, sp)
+		pieces = append(pieces, poly.Span{Lo: lo, Hi: hi})
 	}
-	// Tiling: the first starts where the range starts, each next one starts
-	// where the previous ends, with the shared end in exactly one of them,
-	// and the last ends where the range ends.
-	first, last := pieces[0].Lo, pieces[len(pieces)-1].Hi
-	if !c.add("region", first.Matches(dom.Lo), "the first piece starts at the lower end of the range %s", dom) ||
-		!c.add("region", last.Matches(dom.Hi), "the last piece ends at the upper end of the range %s", dom) {
+	err := poly.Tiles(pieces, dom)
+	if !c.add("region", err == nil, "the pieces partition the range %s of %s%s", dom, rg.Param, errSuffix(err)) {
 		return false, false, false, false
-	}
-	for i := 1; i < len(pieces); i++ {
-		a, b := pieces[i-1].Hi, pieces[i].Lo
-		if !c.add("region", a.Same(b) && a.Closed != b.Closed, "pieces %d and %d meet, their common end in exactly one", i, i+1) {
-			return false, false, false, false
-		}
 	}
 	// Each piece: all conditions > 0 on it, or one condition ≤ 0 on all of it.
 	signs, known := poly.Tiling(pieces).Signs(conds)
@@ -159,8 +145,8 @@ func (c *run) regionPieces(rg *claims.SturmRegion, pi int, conds []poly.Univaria
 			anyHolds = true
 			holdsText = append(holdsText, p.Interval)
 			// A rational point piece may hold by a point-check instead.
-			at := c.points[rg.Param+"="+p.Lo]
-			if at != nil && pieces[i].Point() && pieces[i].Lo.Rational() {
+			at := c.points[claims.EndKey(rg.Param, p.Lo, p.LoPoly, p.LoIsolating)]
+			if at != nil && pieces[i].Point() {
 				if c.atPoint == "" || kindRank(at[1]) < kindRank(c.atPoint) {
 					c.atPoint = at[1]
 				}

@@ -43,14 +43,25 @@ func (c *run) marginGram(cl claims.Claim) bool {
 	if !ok {
 		return false
 	}
+	g, ok := c.marginIdentity(mg, whole)
+	if !ok {
+		return false
+	}
+	cf, ok := c.form(&mg.LDLForm, g)
+	cf.basis, cf.semidef = true, false // definite by the margin
+	c.forms[mg.Of] = cf
+	return ok
+}
+
+// marginIdentity reads the basis z (monomials in the states), the margin
+// Σ εᵢ·xᵢ^(2kᵢ) (rational εᵢ > 0, a term for every state) and G (entries
+// free of the states) of a margin form, and checks zᵀGz = whole − margin.
+func (c *run) marginIdentity(mg *claims.MarginGram, whole poly.RatFunc) (poly.Matrix, bool) {
 	name := "margin " + mg.Of
 	z, ok1 := c.monomials(name, mg.Basis, false)
 	m, ok2 := c.parse(name, mg.Margin)
-	if !ok1 || !ok2 {
-		return false
-	}
-	if !c.add(name, m.IsPoly() && m.Num.EvenPowers(len(c.m.States)), "the margin is Σ εᵢ·xᵢ^(2kᵢ), rational εᵢ > 0, kᵢ ≥ 1, a term for every state") {
-		return false
+	if !ok1 || !ok2 || !c.add(name, m.IsPoly() && m.Num.EvenPowers(len(c.m.States)), "the margin is Σ εᵢ·xᵢ^(2kᵢ), rational εᵢ > 0, kᵢ ≥ 1, a term for every state") {
+		return nil, false
 	}
 	g, ok := c.matrix(name, mg.Gram, len(z), "the Gram matrix")
 	for i := 0; ok && i < len(z); i++ {
@@ -58,14 +69,8 @@ func (c *run) marginGram(cl claims.Claim) bool {
 			ok = ok && g[i][j].DegreeIn(c.r.StateMask()) <= 0
 		}
 	}
-	if !c.add(name, ok, "the Gram matrix has %d rows of entries free of states", len(z)) ||
-		!c.add(name, poly.QuadraticFormIn(g, z).Equal(whole.Sub(m)), "zᵀGz equals the whole function less the margin exactly") {
-		return false
-	}
-	cf, ok := c.form(&mg.LDLForm, g)
-	cf.basis, cf.semidef = true, false // definite by the margin
-	c.forms[mg.Of] = cf
-	return ok
+	return g, c.add(name, ok, "the Gram matrix has %d rows of entries free of states", len(z)) &&
+		c.add(name, poly.QuadraticFormIn(g, z).Equal(whole.Sub(m)), "zᵀGz equals the whole function less the margin exactly")
 }
 
 // momentSeparation: a linear functional L with L(p) < 0 whose moment

@@ -77,6 +77,7 @@ func ruleTable() []rule {
 		{"semidefinite-kernel", 3, (*run).nullSpace},
 		{"invariance", 3, (*run).invariance},
 		{"point-check", 3, (*run).pointCheck},
+		{"algebraic-point", 3, (*run).algebraicPoint},
 		{"sturm-region", 4, (*run).sturmRegion},
 		{"paving", 4, (*run).paving},
 		{"witness-points", 4, (*run).witnessPoints},

@@ -72,7 +72,7 @@ var claimTypes = map[string]func() Claim{}
 
 func init() {
 	for _, c := range []Claim{new(OrbitalDerivative), new(QuadraticPart), new(MonomialGram), new(MarginGram),
-		new(BoxMultiplier), new(MinorCondition), new(NullSpace), new(Invariance), new(PointCheck), new(SturmRegion),
+		new(BoxMultiplier), new(MinorCondition), new(NullSpace), new(Invariance), new(PointCheck), new(AlgebraicPoint), new(SturmRegion),
 		new(Paving), new(WitnessPoints), new(Refutation), new(NotSOS), new(KrawczykEnclosure), new(Linearization),
 		new(VertexLyapunov), new(SublevelBasin)} {
 		t := reflect.TypeOf(c).Elem()

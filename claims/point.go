@@ -26,3 +26,29 @@ func (p *PointCheck) Key() string {
 	}
 	return strings.Join(parts, ", ")
 }
+
+// AlgebraicPoint proves the claim at one irrational value α of the
+// parameter Param: the unique root of Poly in the isolating interval
+// Isolating, Value its decimal, as a region's piece writes that end.
+// Forms are margin Gram forms of V and of −V̇, in that order, without
+// minors: their identities hold for every value of the parameter, and
+// their pivots are ≥ 0 at α.
+type AlgebraicPoint struct {
+	Param     string       `json:"param"`
+	Value     string       `json:"value"`
+	Poly      string       `json:"poly"`
+	Isolating [2]string    `json:"isolating"`
+	Forms     []MarginGram `json:"forms"`
+}
+
+func (*AlgebraicPoint) Rule() string { return "algebraic-point" }
+
+// EndKey names a value of a parameter as a region's piece writes it: the
+// decimal, and for an irrational value its polynomial and isolating
+// interval.
+func EndKey(param, value, poly string, iso *[2]string) string {
+	if iso == nil {
+		return param + "=" + value
+	}
+	return param + "=" + value + " " + poly + " (" + iso[0] + ", " + iso[1] + ")"
+}

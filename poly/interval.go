@@ -508,3 +508,17 @@ func (side Interval) SameBounded(r Interval) bool {
 		side.Lo.Value.Cmp(r.Lo.Value) == 0 && side.Lo.Open == r.Lo.Open &&
 		side.Hi.Value.Cmp(r.Hi.Value) == 0 && side.Hi.Open == r.Hi.Open
 }
+
+// PowerSign is the sign of p^power on the box that p's exact enclosure
+// proves: 1 when the power is even and p keeps away from zero, or odd and
+// p > 0; −1 when odd and p < 0; 0 when the enclosure decides nothing.
+func (p *Poly) PowerSign(power int, box []Interval) int {
+	e := p.Enclose(box)
+	switch {
+	case power%2 == 0 && !e.ContainsZero(), power%2 == 1 && e.Positive():
+		return 1
+	case power%2 == 1 && e.Negative():
+		return -1
+	}
+	return 0
+}

@@ -1,7 +1,10 @@
 package poly
 
 import (
+	"errors"
+	"fmt"
 	"math/big"
+	"slices"
 	"strconv"
 	"strings"
 )
@@ -87,6 +90,30 @@ type Span struct{ Lo, Hi End }
 // Point reports a span of one point.
 func (s Span) Point() bool { return s.Lo.Same(s.Hi) && s.Lo.Closed && s.Hi.Closed }
 
+// Tiles reports how spans fail to tile dom, nil when they do: every span
+// a point or of positive length, the first starting where dom starts, each
+// next one where the previous ends with the shared end in exactly one of
+// them, and the last ending where dom ends.
+func Tiles(spans []Span, dom Interval) error {
+	if len(spans) == 0 {
+		return errors.New("no pieces")
+	}
+	for i, sp := range spans {
+		switch {
+		case !sp.Point() && !Less(sp.Lo, sp.Hi):
+			return fmt.Errorf("piece %d is empty", i+1)
+		case i == 0 && !sp.Lo.Matches(dom.Lo):
+			return fmt.Errorf("the first piece does not start at the lower end of %s", dom)
+		case i > 0 && (!spans[i-1].Hi.Same(sp.Lo) || spans[i-1].Hi.Closed == sp.Lo.Closed):
+			return fmt.Errorf("pieces %d and %d do not meet with their common end in exactly one", i, i+1)
+		}
+	}
+	if !spans[len(spans)-1].Hi.Matches(dom.Hi) {
+		return fmt.Errorf("the last piece does not end at the upper end of %s", dom)
+	}
+	return nil
+}
+
 // sample returns a rational point inside a span of positive length.
 func (s Span) sample() *big.Rat {
 	lo, hi := s.Lo.inner(false), s.Hi.inner(true)
@@ -131,4 +158,56 @@ func parseDecimal(s string) (*big.Rat, *big.Rat, bool) {
 		half.Quo(half, p)
 	}
 	return v, half, true
+}
+
+// SignAt returns the sign of q at the point e (a rational end, or the
+// unique root α of e.P in (e.A, e.B)), and false when it cannot tell within
+// maxRefine bisections. At α: zero when gcd(P, q) has a root in (A, B) (α
+// is P's only root there); else the interval is halved, keeping α (Sturm),
+// until q has no root in it, and q's sign at any point of it is its sign
+// at α.
+func SignAt(q Univariate, e End) (int, bool) {
+	const maxRefine = 4096
+	switch {
+	case e.Rational():
+		return q.Sign(e.Value), true
+	case !e.Algebraic():
+		return 0, false
+	}
+	if g := UnivariateGCD(e.P, q); g.Degree() >= 1 && g.CountRoots(UBoundOpen(e.A), UBoundOpen(e.B)) > 0 {
+		return 0, true
+	}
+	a, b := e.A, e.B
+	for range maxRefine {
+		if q.CountRoots(UBoundOpen(a), UBoundOpen(b)) == 0 {
+			return q.Sign(uMid(a, b)), true
+		}
+		m := uMid(a, b)
+		switch {
+		case e.P.Sign(m) == 0:
+			return q.Sign(m), true
+		case e.P.CountRoots(UBoundOpen(a), UBoundOpen(m)) == 1:
+			b = m
+		default:
+			a = m
+		}
+	}
+	return 0, false
+}
+
+// NonNegativeAt reports that every function of defined and of nonneg is a
+// rational function of variable v alone whose denominator is non-zero at
+// the point e (rational or algebraic), and every function of nonneg is ≥ 0
+// there; the signs are exact (SignAt).
+func NonNegativeAt(e End, v int, defined, nonneg []RatFunc) bool {
+	for k, f := range slices.Concat(defined, nonneg) {
+		den, ok1 := f.DenPoly().Univariate(v)
+		num, ok2 := new(Poly).Mul(f.Num, f.DenPoly()).Univariate(v)
+		sd, ok3 := SignAt(den, e)
+		sn, ok4 := SignAt(num, e)
+		if !ok1 || !ok2 || !ok3 || !ok4 || sd == 0 || k >= len(defined) && sn < 0 {
+			return false
+		}
+	}
+	return true
 }

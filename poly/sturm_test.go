@@ -1,6 +1,9 @@
 package poly
 
-import "testing"
+import (
+	"math/big"
+	"testing"
+)
 
 // TestCoprimeBasis checks the defining properties of a gcd-free (coprime)
 // basis (common practice): square-free elements, pairwise coprime, and for
@@ -116,6 +119,59 @@ func TestTilingSigns(t *testing.T) {
 						signs[j].Positive[i], signs[j].NonPositive[i], wantPos[j][i], wantNonPos[j][i])
 				}
 			}
+		}
+	}
+}
+
+// TestSignAt: signs of polynomials at √2 and at the golden ratio φ, each
+// the only root of its polynomial in (1, 2) (values from memory: √2 ≈
+// 1.41421356, φ = (1 + √5)/2 ≈ 1.61803399).
+func TestSignAt(t *testing.T) {
+	sqrt2 := End{P: UnivariateFromInts(-2, 0, 1), A: big.NewRat(1, 1), B: big.NewRat(2, 1), Closed: true}
+	phi := End{P: UnivariateFromInts(-1, -1, 1), A: big.NewRat(1, 1), B: big.NewRat(2, 1), Closed: true}
+	for _, c := range []struct {
+		name string
+		q    Univariate
+		at   End
+		want int
+	}{
+		{"a^2 - 2 at √2", UnivariateFromInts(-2, 0, 1), sqrt2, 0},
+		{"(a^2 - 2)(a + 7) at √2", UnivariateFromInts(-14, -2, 7, 1), sqrt2, 0},
+		{"1000000a - 1414213 at √2", UnivariateFromInts(-1414213, 1000000), sqrt2, 1},
+		{"1000000a - 1414214 at √2", UnivariateFromInts(-1414214, 1000000), sqrt2, -1},
+		{"3 at √2", UnivariateFromInts(3), sqrt2, 1},
+		{"a^2 - a - 1 at φ", UnivariateFromInts(-1, -1, 1), phi, 0},
+		{"a - 8/5 at φ", NewUnivariate(big.NewRat(-8, 5), big.NewRat(1, 1)), phi, 1},
+		{"a^2 - 2 at φ", UnivariateFromInts(-2, 0, 1), phi, 1},
+		{"a - 5/3 at φ", NewUnivariate(big.NewRat(-5, 3), big.NewRat(1, 1)), phi, -1},
+	} {
+		got, ok := SignAt(c.q, c.at)
+		if !ok || got != c.want {
+			t.Errorf("%s: sign %d (%v), want %d", c.name, got, ok, c.want)
+		}
+	}
+}
+
+// TestTiles: pieces that tile [0, ∞) and pieces that leave a gap or
+// overlap (common practice: a partition of an interval).
+func TestTiles(t *testing.T) {
+	r := func(n int64) End { return End{Value: big.NewRat(n, 1), Closed: true} }
+	open := func(e End) End { e.Closed = false; return e }
+	inf := End{Inf: 1}
+	dom := Interval{Lo: Bound{Value: new(big.Rat)}, Hi: Bound{Inf: 1, Open: true}}
+	good := []Span{{r(0), open(r(1))}, {r(1), r(1)}, {open(r(1)), inf}}
+	if err := Tiles(good, dom); err != nil {
+		t.Errorf("a partition is refused: %v", err)
+	}
+	for name, bad := range map[string][]Span{
+		"gap":     {{r(0), open(r(1))}, {open(r(1)), inf}},
+		"overlap": {{r(0), r(1)}, {r(1), inf}},
+		"late":    {{r(1), inf}},
+		"empty":   {{r(0), open(r(0))}, {r(0), inf}},
+		"none":    nil,
+	} {
+		if Tiles(bad, dom) == nil {
+			t.Errorf("%s: accepted", name)
 		}
 	}
 }

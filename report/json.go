@@ -49,6 +49,10 @@ type CheckOutput struct {
 	// Points: rational point pieces of the region settled by a nested
 	// certificate of the model with the parameter fixed there ([] when none).
 	Points []PointOutput `json:"points"`
+	// AlgebraicPoints: irrational point pieces of the region (a root of a
+	// polynomial in an isolating interval) settled by Gram matrices of the
+	// whole functions less margins, with pivots ≥ 0 there ([] when none).
+	AlgebraicPoints []*claims.AlgebraicPoint `json:"algebraic_points"`
 	// BoxSOS is the result of check --box-sos (null without the flag).
 	BoxSOS *BoxSOSOutput `json:"box_sos"`
 }
@@ -129,7 +133,10 @@ func CheckJSON(res *direct.Result, written string) CheckOutput {
 		Region: regionJSON(c.Region), Witnesses: c.Witnesses, Refutation: c.Refutation, Kernel: c.Kernel, NotSOS: c.NotSOS,
 		Digest: doc.Digest, Checks: len(res.Check.Records), Certificate: written,
 	}
-	out.Invariance, out.Points = res.Invariance, []PointOutput{}
+	out.Invariance, out.Points, out.AlgebraicPoints = res.Invariance, []PointOutput{}, c.Algebraic
+	if out.AlgebraicPoints == nil {
+		out.AlgebraicPoints = []*claims.AlgebraicPoint{}
+	}
 	for _, pc := range res.Points {
 		kind := checker.Verify(pc.Certificate).Kind
 		out.Points = append(out.Points, PointOutput{Params: pc.Params, Claim: kind, Digest: pc.Certificate.Digest})

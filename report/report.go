@@ -467,6 +467,11 @@ func (b *builder) derivation(p *page) error {
 			" vanishes: on such a solution the square bases of ", neg(b.derivName()), " and their derivatives along the flow vanish, and the certificate writes ",
 			gs, " as exact combinations of them, each with the equilibrium's coordinate as its only real root (Sturm). Bounded solutions therefore tend to the equilibrium.")
 	}
+	for _, ap := range d.Algebraic {
+		p.Points = append(p.Points, rich{"at " + ap.Param + " = " + ap.Value + " (the root of " + ap.Poly + " in (" + ap.Isolating[0] + ", " + ap.Isolating[1] +
+			")), where the quadratic test is only semidefinite, Gram matrices of V and of ", neg(b.derivName()),
+			" less margins Σ εᵢxᵢ^(2kᵢ), exact in the parameter, have pivots ≥ 0 there (signs at the root by gcd and Sturm sequences), which proves: " + claimWords[checker.KindGlobal]})
+	}
 	for _, pc := range d.Points {
 		out := checker.Verify(pc.Certificate)
 		p.Points = append(p.Points, rich{"at ", b.paramPoint(pc.Params), ", where the quadratic test is inconclusive, a certificate of the model with these values, nested in this one and re-checked with it, proves: " + claimWords[out.Kind] + " (digest " + pc.Certificate.Digest + ")"})

@@ -97,8 +97,11 @@ type Result struct {
 	Kernel     [][]poly.RatFunc
 	Invariance *claims.Invariance   // the invariance principle's identities, when found
 	Points     []*claims.PointCheck // rational point pieces proven by the model with the parameter fixed there
-	Doc        *claims.Document
-	Check      checker.Outcome
+	// AlgebraicPoints are irrational point pieces proven by margin Gram
+	// forms whose pivots are ≥ 0 at the root.
+	AlgebraicPoints []*claims.AlgebraicPoint
+	Doc             *claims.Document
+	Check           checker.Outcome
 	// Paving is the engine's paving of a region in several parameters
 	// (Region.Paving is its exact record in the certificate); nil when
 	// none was made.
@@ -273,7 +276,22 @@ func (res *Result) checkPoints(name string, pieces []claims.Piece) {
 	}()
 	for i, pc := range pieces {
 		v, isRat := new(big.Rat).SetString(pc.Lo)
-		if pc.Status != claims.PieceUndecided || !isRat || pc.LoPoly != "" || pc.Lo != pc.Hi || !pc.LoClosed || !pc.HiClosed {
+		if pc.Status != claims.PieceUndecided || pc.Lo != pc.Hi || !pc.LoClosed || !pc.HiClosed {
+			continue
+		}
+		if pc.LoPoly != "" {
+			k, _ := res.Model.Ring.Index(name)
+			if ap := res.algebraicPoint(k, pc); ap != nil {
+				if weakest == "" {
+					weakest = checker.KindGlobal
+				}
+				pieces[i].Holds, pieces[i].Status = true, claims.PieceHolds
+				res.AlgebraicPoints = append(res.AlgebraicPoints, ap)
+				res.Notes = append(res.Notes, fmt.Sprintf("at %s = %s (the root of %s in (%s, %s)), where a quadratic part is only semidefinite, Gram matrices of the whole functions less margins, with pivots ≥ 0 there (exact signs at the root, Sturm), prove global asymptotic stability; the region is closed there", name, pc.Lo, pc.LoPoly, pc.LoIsolating[0], pc.LoIsolating[1]))
+			}
+			continue
+		}
+		if !isRat {
 			continue
 		}
 		fixed, err := model.FixParams(res.Model, []model.Setting{{Name: name, Value: v}})
@@ -929,6 +947,9 @@ func (res *Result) document(source string) *claims.Document {
 	}
 	for _, pc := range res.Points {
 		add(pc)
+	}
+	for _, ap := range res.AlgebraicPoints {
+		add(ap)
 	}
 	switch rg := res.Region; {
 	case rg != nil && rg.Paving != nil:

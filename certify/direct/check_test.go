@@ -1,6 +1,7 @@
 package direct
 
 import (
+	"fmt"
 	"math"
 	"math/big"
 	"math/rand/v2"
@@ -395,4 +396,34 @@ func parseModelText(t testing.TB, src string) *model.Model {
 		t.Fatal(err)
 	}
 	return m
+}
+
+// TestAlgebraicClosedEnd: a constructed model (testdata/models/algebraic.lya)
+// whose region closes at an irrational end. At a = √2 the quadratic part of
+// −V̇, 2x² − 2a·xy + y² = (√2x − y)², is only semidefinite, and the quartic
+// part 2x⁴ + 2y⁴ is definite with no cubic terms, so −V̇ is definite there
+// (common practice: a semidefinite quadratic part whose kernel the next even
+// part makes definite); for a > √2 the quadratic part is indefinite
+// (Sylvester's criterion, det = 2 − a² < 0), a refutation.
+func TestAlgebraicClosedEnd(t *testing.T) {
+	m := loadCase(t, "algebraic.lya", nil)
+	res, err := Check(m, "algebraic.lya")
+	if err != nil {
+		t.Fatal(err)
+	}
+	var got []string
+	for _, pc := range res.Region.Pieces {
+		got = append(got, fmt.Sprintf("%s %v %s %s %v %s", pc.Status, pc.LoClosed, pc.Lo, pc.Hi, pc.HiClosed, pc.HiPoly))
+	}
+	want := []string{
+		"holds true 0 1.41421356237310 false a^2 - 2",
+		"holds true 1.41421356237310 1.41421356237310 true a^2 - 2",
+		"fails false 1.41421356237310 inf false ",
+	}
+	if !slices.Equal(got, want) {
+		t.Errorf("pieces\n got %q\nwant %q", got, want)
+	}
+	if len(res.AlgebraicPoints) != 1 || res.Verdict != checker.VerdictOnRegion || !res.Check.Valid {
+		t.Errorf("algebraic points %d, verdict %s, valid %v", len(res.AlgebraicPoints), res.Verdict, res.Check.Valid)
+	}
 }

@@ -39,6 +39,7 @@ var certificateCases = []struct {
 	{"quartic", "quartic.lya", nil},
 	{"margin", "margin.lya", nil},
 	{"motzkin", "motzkin.lya", nil},
+	{"algebraic", "algebraic.lya", nil},
 }
 
 func loadCase(t testing.TB, file string, set []string) *model.Model {

@@ -16,7 +16,7 @@ import (
 const (
 	lieOrders      = 3
 	cofactorDegree = 2
-	vanishDegree   = 4
+	vanishDegree   = 8
 	maxColumns     = 240
 )
 

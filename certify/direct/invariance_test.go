@@ -1,6 +1,9 @@
 package direct
 
 import (
+	"fmt"
+	"math/big"
+	"math/rand/v2"
 	"slices"
 	"testing"
 
@@ -118,5 +121,41 @@ func TestIsolatedPointOfTheRegion(t *testing.T) {
 	want := []string{"fails 0..4", "holds 4..4", "fails 4..10"}
 	if !slices.Equal(status, want) || res.Verdict != checker.VerdictOnRegion || res.Claim != checker.KindGlobal || len(res.Points) != 1 {
 		t.Errorf("pieces %v, verdict %s %s, %d points; want %v, holds-on-region global, 1 point", status, res.Verdict, res.Claim, len(res.Points), want)
+	}
+}
+
+// TestInvarianceRandomized: planted oscillators with a hardening spring and
+// damping, x' = y, y' = −k(x) − c·y − e·y³ with k(x) = a·x + b·x³ + d·x⁵
+// (a, c > 0; b, d, e ≥ 0) and the energy V = a·x²/2 + b·x⁴/4 + d·x⁶/6 +
+// y²/2. Then V̇ = −c·y² − e·y⁴ ≤ 0 vanishes only on {y = 0}, where a
+// solution has y' = −k(x) = 0, so x = 0: the largest invariant set is the
+// equilibrium, and V is radially unbounded, so the equilibrium is globally
+// asymptotically stable (LaSalle 1960; Khalil, Nonlinear Systems, ch. 4).
+// Every case must be proven so, and the kernel must accept the certificate.
+func TestInvarianceRandomized(t *testing.T) {
+	r := rand.New(rand.NewPCG(7, 11))
+	q := func(lo int) *big.Rat { return big.NewRat(int64(lo+r.IntN(9)), int64(1+r.IntN(4))) }
+	n := 40
+	if testing.Short() {
+		n = 10
+	}
+	for k := range n {
+		a, b, c, d, e := q(1), q(0), q(1), q(0), q(0)
+		if k%3 == 0 {
+			d = new(big.Rat)
+		}
+		src := fmt.Sprintf("# planted damped oscillator %d\nstate x, y\nx' = y\ny' = -(%s)*x - (%s)*x^3 - (%s)*x^5 - (%s)*y - (%s)*y^3\nV = (%s)*x^2/2 + (%s)*x^4/4 + (%s)*x^6/6 + y^2/2\n",
+			k, a.RatString(), b.RatString(), d.RatString(), c.RatString(), e.RatString(), a.RatString(), b.RatString(), d.RatString())
+		m, err := model.Parse("planted.lya", []byte(src))
+		if err != nil {
+			t.Fatal(err)
+		}
+		res, err := Check(m, "planted.lya")
+		if err != nil {
+			t.Fatal(err)
+		}
+		if res.Verdict != checker.VerdictHolds || res.Claim != checker.KindGlobal || !res.Check.Valid {
+			t.Errorf("case %d: %s %s (valid %v), want holds global-asymptotic\n%s", k, res.Verdict, res.Claim, res.Check.Valid, src)
+		}
 	}
 }

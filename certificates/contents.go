@@ -32,6 +32,9 @@ type FormView struct {
 	Name   string
 	Basis  []string
 	Margin string
+	// Triangular orders the states when the form's squares solve for them
+	// in turn (a semidefinite form that is definite after all).
+	Triangular []string
 	claims.LDLForm
 }
 
@@ -59,6 +62,12 @@ func ContentsOf(d *claims.Document) Contents {
 			c.Forms = append(c.Forms, FormView{Name: x.Of, Basis: x.Basis, Margin: x.Margin, LDLForm: x.LDLForm})
 		case *claims.NotSOS:
 			c.NotSOS = append(c.NotSOS, *x)
+		case *claims.TriangularSquares:
+			for i := range c.Forms {
+				if c.Forms[i].Name == x.Of {
+					c.Forms[i].Triangular = x.Order
+				}
+			}
 		case *claims.MinorCondition:
 			c.Conditions = append(c.Conditions, *x)
 		case *claims.Invariance:

@@ -25,6 +25,8 @@
 //	box-multiplier-sos   −V̇ − Σ εᵢxᵢ^(2kᵢ) = σ₀ + Σ σᵢ·(pᵢ − loᵢ)(hiᵢ − pᵢ), σ = zᵀGz, G ⪰ 0
 //	                     by exact LDLᵀ, z monomials in states and parameters: −V̇
 //	                     definite on the closed parameter box (S-procedure)
+//	triangular-squares   square bases of a semidefinite Gram form solve for the states in
+//	                     turn (c·s + h, h in earlier states): definite, radially unbounded
 //	minor-condition      a minor's factorization as an identity; factor signs by
 //	                     exact interval enclosure over the parameter box (Moore 1966)
 //	semidefinite-kernel  the kernel of a semidefinite −V̇: independent vectors with

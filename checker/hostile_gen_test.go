@@ -219,6 +219,13 @@ func hostileFiles(t *testing.T) map[string][]byte {
 			f := &claimOf[*claims.AlgebraicPoint](t, d, 0).Forms[0]
 			f.Minors = []string{"3/4", "9/16"}
 		}),
+		// The squares are x, then y − x²: y first solves for nothing.
+		"forged-triangular-order.json": edit(t, "triangular.json", func(d *claims.Document) {
+			claimOf[*claims.TriangularSquares](t, d, 0).Order = []string{"y", "x"}
+		}),
+		"forged-triangular-short.json": edit(t, "triangular.json", func(d *claims.Document) {
+			claimOf[*claims.TriangularSquares](t, d, 0).Order = []string{"x"}
+		}),
 		"forged-basin-level-zero.json": edit(t, "basin-ring.json", func(d *claims.Document) {
 			claimOf[*claims.SublevelBasin](t, d, 0).Level = "0"
 		}),

@@ -9,46 +9,12 @@ import (
 	"github.com/lyacert/lyacert/poly"
 )
 
-// readEnd reads one end of a piece: ±inf, a rational, or an algebraic
-// number (Sturm: exactly one root of its polynomial in the isolating
-// interval, and the stated decimal is that root rounded).
+// readEnd reads one end of a piece (claims.ReadEnd): ±inf, a rational, or
+// an algebraic number, the only root of its polynomial in the isolating
+// interval that the stated decimal rounds (Sturm).
 func (c *run) readEnd(value, polyText string, iso *[2]string, closed bool, param int, what string) (poly.End, bool) {
-	e := poly.End{Closed: closed}
-	switch {
-	case polyText == "" && iso == nil && value == "-inf":
-		e.Inf = -1
-	case polyText == "" && iso == nil && value == "inf":
-		e.Inf = 1
-	case polyText == "" && iso == nil:
-		q, ok := poly.ParseRat(value)
-		if !c.add("region", ok, "%s end %q is a rational", what, value) {
-			return e, false
-		}
-		e.Value = q
-	default:
-		key := fmt.Sprint(param, " ", polyText)
-		if c.sturm[key] == nil {
-			f, ok := c.parse("region", polyText)
-			if !ok {
-				return e, false
-			}
-			u, uni := f.Num.Univariate(param)
-			if !c.add("region", f.IsPoly() && uni && u.Degree() >= 2, "%s end: %s is a polynomial of degree ≥ 2 in the region's parameter", what, polyText) {
-				return e, false
-			}
-			c.sturm[key] = poly.NewSturm(u) // built once per polynomial
-		}
-		st := c.sturm[key]
-		if !c.add("region", iso != nil, "%s end: %s comes with an isolating interval", what, polyText) {
-			return e, false
-		}
-		a, b, err := st.Isolates(*iso, value)
-		if !c.add("region", err == nil, "%s end: %s has exactly one root in its isolating interval, and it rounds to %s (Sturm)%s", what, polyText, value, errSuffix(err)) {
-			return e, false
-		}
-		e.P, e.A, e.B = st.P, a, b
-	}
-	return e, e.Inf == 0 || c.add("region", !closed, "%s end %s is open", what, value)
+	e, err := claims.ReadEnd(c.r, param, value, polyText, iso, closed, c.sturm)
+	return e, c.add("region", err == nil, "%s end %s is ±inf (open), a rational, or the only root of its polynomial in its isolating interval, which rounds to it (Sturm)%s", what, value, errSuffix(err))
 }
 
 // sturmRegion: the exact set of values of one parameter where every

@@ -2,6 +2,7 @@ package checker
 
 import (
 	"math/big"
+	"slices"
 
 	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/poly"
@@ -119,4 +120,42 @@ func (c *run) momentSeparation(cl claims.Claim) bool {
 	}
 	c.notSOS = append(c.notSOS, ns.Of)
 	return true
+}
+
+// triangular: the square bases qₖ with non-zero pivots (> 0 where the
+// conditions hold) of a semidefinite Gram form in a monomial basis vanish
+// together only at the equilibrium and grow without bound with the
+// states. In Order the k-th of them is c·s + h, c a non-zero rational and h
+// a polynomial without constant term in the states before s (measured
+// from the equilibrium): by induction all qₖ = 0 forces every state to 0,
+// and all qₖ bounded every state bounded. So Σ dₖ·qₖ² is positive definite
+// and radially unbounded (a triangular system of squares).
+func (c *run) triangular(cl claims.Claim) bool {
+	ts := cl.(*claims.TriangularSquares)
+	f, what, n := c.forms[ts.Of], "triangular "+ts.Of, len(c.m.States)
+	if !c.once(what) || !c.add(what, f != nil && f.basis && f.semidef && len(ts.Order) == n, "follows a semidefinite Gram form in a monomial basis, with an order of the %d states", n) {
+		return false
+	}
+	solved, k := make([]bool, n), 0
+	for i := 0; i < len(f.d) && k < n; i++ {
+		s, ok := c.r.Index(ts.Order[k])
+		if f.zero[i] {
+			continue
+		} else if !c.add(what, ok && s < n && !solved[s], "%s is a state not yet solved for", ts.Order[k]) {
+			return false
+		}
+		e := make([]int, c.r.NumVars())
+		e[s] = 1
+		q := c.m.Shift(poly.SquareBase(f.l, f.z, i))
+		lin := q.Coefficient(e, c.r.StateMask())
+		h := q.Sub(lin.Mul(poly.FromPoly(poly.Var(c.r, s))))
+		later := slices.ContainsFunc(h.Num.VarsUsed(), func(v int) bool { return v < n && !solved[v] })
+		if !c.add(what, lin.IsPoly() && lin.Num.IsConst() && !lin.IsZero() && !later && h.Homogeneous(0, c.r.StateMask()).IsZero(),
+			"square %d is c·%s + h, c a non-zero rational, h without constant term in the states before it", i+1, ts.Order[k]) {
+			return false
+		}
+		solved[s], k = true, k+1
+	}
+	f.semidef = false
+	return c.add(what, k == n, "the squares solve for every state in turn: the form vanishes only at the equilibrium and is radially unbounded")
 }

@@ -73,6 +73,7 @@ func ruleTable() []rule {
 		{"monomial-gram-ldl", 1, (*run).monomialGram},
 		{"margin-gram-ldl", 1, (*run).marginGram},
 		{"box-multiplier-sos", 1, (*run).boxMultiplier},
+		{"triangular-squares", 2, (*run).triangular},
 		{"minor-condition", 2, (*run).minorCondition},
 		{"semidefinite-kernel", 3, (*run).nullSpace},
 		{"invariance", 3, (*run).invariance},

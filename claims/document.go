@@ -71,7 +71,7 @@ type Claim interface {
 var claimTypes = map[string]func() Claim{}
 
 func init() {
-	for _, c := range []Claim{new(OrbitalDerivative), new(QuadraticPart), new(MonomialGram), new(MarginGram),
+	for _, c := range []Claim{new(OrbitalDerivative), new(QuadraticPart), new(MonomialGram), new(MarginGram), new(TriangularSquares),
 		new(BoxMultiplier), new(MinorCondition), new(NullSpace), new(Invariance), new(PointCheck), new(AlgebraicPoint), new(SturmRegion),
 		new(Paving), new(WitnessPoints), new(Refutation), new(NotSOS), new(KrawczykEnclosure), new(Linearization),
 		new(VertexLyapunov), new(SublevelBasin)} {

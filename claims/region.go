@@ -1,5 +1,12 @@
 package claims
 
+import (
+	"errors"
+	"fmt"
+
+	"github.com/lyacert/lyacert/poly"
+)
+
 // SturmRegion is the exact set of values of one parameter where every
 // condition holds: Pieces partition the parameter's allowed range (or a side
 // of a paving's box) into intervals on which every condition holds (Holds)
@@ -44,3 +51,45 @@ const (
 	PieceFails     = "fails"
 	PieceUndecided = "undecided"
 )
+
+// ReadEnd reads one end of a piece of parameter param's range: "-inf" or
+// "inf" (open), an exact rational, or an algebraic number: the only root
+// of the polynomial polyText (degree ≥ 2 in the parameter) in the isolating
+// interval iso, which the decimal value rounds (poly.Sturm.Isolates). The
+// Sturm sequence of each polynomial is built once, in cache.
+func ReadEnd(r *poly.Ring, param int, value, polyText string, iso *[2]string, closed bool, cache map[string]*poly.Sturm) (poly.End, error) {
+	e := poly.End{Closed: closed}
+	switch {
+	case polyText == "" && iso == nil && (value == "-inf" || value == "inf"):
+		e.Inf = map[bool]int{true: -1, false: 1}[value == "-inf"]
+		if closed {
+			return e, errors.New("an infinite end is open")
+		}
+		return e, nil
+	case polyText == "" && iso == nil:
+		q, ok := poly.ParseRat(value)
+		if !ok {
+			return e, fmt.Errorf("%q is not a rational", value)
+		}
+		e.Value = q
+		return e, nil
+	case iso == nil:
+		return e, fmt.Errorf("%s comes without an isolating interval", polyText)
+	}
+	key := fmt.Sprint(param, " ", polyText)
+	if cache[key] == nil {
+		f, err := poly.Parse(r, polyText)
+		if err != nil {
+			return e, err
+		}
+		u, uni := f.Num.Univariate(param)
+		if !f.IsPoly() || !uni || u.Degree() < 2 {
+			return e, fmt.Errorf("%s is not a polynomial of degree ≥ 2 in %s", polyText, r.Name(param))
+		}
+		cache[key] = poly.NewSturm(u)
+	}
+	st := cache[key]
+	a, b, err := st.Isolates(*iso, value)
+	e.P, e.A, e.B = st.P, a, b
+	return e, err
+}

@@ -26,3 +26,14 @@ type NotSOS struct {
 
 func (*MarginGram) Rule() string { return "margin-gram-ldl" }
 func (*NotSOS) Rule() string     { return "moment-separation" }
+
+// TriangularSquares shows that the square bases of a semidefinite Gram form
+// of V or −V̇ (Of) in a monomial basis vanish together only at the
+// equilibrium: taken in order, the k-th base with a non-zero pivot solves
+// for the state Order[k] given the states before it.
+type TriangularSquares struct {
+	Of    string   `json:"of"`
+	Order []string `json:"order"`
+}
+
+func (*TriangularSquares) Rule() string { return "triangular-squares" }

@@ -353,6 +353,9 @@ func (b *builder) derivation(p *page) error {
 		} else if z := d.Forms[1].Basis; len(z) > 0 && d.Forms[1].Margin != "" {
 			p.Quadratic = rich{"The terms of ", dn, " of degree above two, ", ratFuncNode(higher), ", are taken into account: ", neg(dn),
 				" as a whole, less a margin that is a sum of positive multiples of even powers of every state, is a Gram form in the monomial basis (" + strings.Join(z, ", ") + "), and its matrix being positive semidefinite makes it at least the margin, so positive away from the equilibrium."}
+		} else if len(z) > 0 && d.Forms[1].Triangular != nil {
+			p.Quadratic = rich{"The terms of ", dn, " of degree above two, ", ratFuncNode(higher), ", are taken into account: ", neg(dn),
+				" as a whole is a Gram form in the monomial basis (" + strings.Join(z, ", ") + ")."}
 		} else if len(z) > 0 {
 			p.Quadratic = rich{"The terms of ", dn, " of degree above two, ", ratFuncNode(higher), ", are taken into account: ", neg(dn),
 				" as a whole is a Gram form in the monomial basis (" + strings.Join(z, ", ") + "), and its matrix being positive definite with a pure power of every state in the basis makes it positive away from the equilibrium."}
@@ -361,6 +364,14 @@ func (b *builder) derivation(p *page) error {
 		}
 	}
 	for _, f := range d.Forms {
+		if f.Triangular != nil {
+			var fn node = vSym
+			if f.Name != "V" {
+				fn = neg(dn)
+			}
+			p.Quadratic = append(p.Quadratic, " The Gram matrix of ", fn, " is only positive semidefinite, but its squares, taken in order, solve for "+strings.Join(f.Triangular, ", ")+
+				" in turn (each is a non-zero multiple of a new state plus terms in the states before it): ", fn, " vanishes only at the equilibrium and grows without bound, so it is positive definite and radially unbounded.")
+		}
 		lhs := node(sub{vSym, "2"})
 		if f.Name != "V" {
 			lhs = neg(sub{dn, "2"})

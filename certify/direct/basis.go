@@ -5,8 +5,10 @@ import (
 	"fmt"
 	"math/big"
 	"slices"
+	"strings"
 
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/model"
 	"github.com/lyacert/lyacert/poly"
 )
 
@@ -146,15 +148,23 @@ func (res *Result) tryBasis(ctx context.Context, opts PaveOptions) *Result {
 		basis, g, ok := monomialGram(wholes[i], n, i == 0)
 		var l LDL
 		var semiForm *Form // −V̇ ≥ 0 by a semidefinite Gram form: stability, kept in case nothing definite is found
+		var order []string
 		if ok {
 			fac, _ := l.Factorize(g)
 			ok = fac && !l.Semidefinite() && !nonPositivePivot(l) && allPure(basis, n)
+			if fac && !ok && !negativePivot(l) {
+				basis, g, l, order = triangular(m, basis, g, l)
+				ok = order != nil
+			}
 			if i == 1 && fac && !ok && !negativePivot(l) && (l.Semidefinite() || !allPure(basis, n)) {
 				semiForm = &Form{Name: f.Name, Basis: basis, Gram: g, LDL: l, Minors: l.Minors()}
 			}
 		}
 		if ok {
-			nr.Forms = append(nr.Forms, Form{Name: f.Name, Basis: basis, Gram: g, LDL: l, Minors: l.Minors()})
+			nr.Forms = append(nr.Forms, Form{Name: f.Name, Basis: basis, Gram: g, LDL: l, Minors: l.Minors(), Triangular: order})
+			if order != nil {
+				nr.Notes = append(nr.Notes, fmt.Sprintf("the Gram matrix of %s as a whole is only semidefinite, but its squares solve for %s in turn (each a non-zero multiple of a new state plus terms in the states before it): %s vanishes only at the equilibrium and is radially unbounded", formWord(f.Name), strings.Join(order, ", "), formWord(f.Name)))
+			}
 			nr.Methods = append(nr.Methods, Method{Form: f.Name, Name: MethodCanonical, Basis: len(basis)})
 			continue
 		}
@@ -240,4 +250,108 @@ func nonPositivePivot(l LDL) bool {
 		}
 	}
 	return false
+}
+
+// triangular looks for an order of the basis whose semidefinite Gram form
+// has square bases that solve for the states in turn (triangularOrder):
+// the given order first, then every order of the degree-one monomials in
+// front (up to 5 states), the rest after them as given. It returns the
+// basis, Gram matrix and factorization it found, with the order of the
+// states, or the inputs and nil.
+func triangular(m *model.Model, basis []*poly.Poly, g poly.Matrix, l LDL) ([]*poly.Poly, poly.Matrix, LDL, []string) {
+	if order := triangularOrder(m, basis, l); order != nil {
+		return basis, g, l, order
+	}
+	var lin, rest []int
+	for i, b := range basis {
+		if b.Degree() == 1 {
+			lin = append(lin, i)
+		} else {
+			rest = append(rest, i)
+		}
+	}
+	if len(lin) > 5 {
+		return basis, g, l, nil
+	}
+	var found []string
+	var fb []*poly.Poly
+	var fg poly.Matrix
+	var fl LDL
+	var perm func(k int) bool
+	perm = func(k int) bool {
+		if k == len(lin) {
+			idx := append(slices.Clone(lin), rest...)
+			pb := make([]*poly.Poly, len(idx))
+			pg := make(poly.Matrix, len(idx))
+			for a, i := range idx {
+				pb[a], pg[a] = basis[i], make([]poly.RatFunc, len(idx))
+				for b, j := range idx {
+					pg[a][b] = g[i][j]
+				}
+			}
+			var pl LDL
+			if ok, _ := pl.Factorize(pg); !ok || negativePivot(pl) {
+				return false
+			}
+			if order := triangularOrder(m, pb, pl); order != nil {
+				found, fb, fg, fl = order, pb, pg, pl
+				return true
+			}
+			return false
+		}
+		for i := k; i < len(lin); i++ {
+			lin[k], lin[i] = lin[i], lin[k]
+			if perm(k + 1) {
+				return true
+			}
+			lin[k], lin[i] = lin[i], lin[k]
+		}
+		return false
+	}
+	if perm(0) {
+		return fb, fg, fl, found
+	}
+	return basis, g, l, nil
+}
+
+// triangularOrder returns the states in the order in which the square bases
+// of a semidefinite Gram form (those with non-zero pivots, in order) solve
+// for them: the k-th is c·s + h with c a non-zero rational and h without
+// constant term in the states before s. Then the form vanishes only at the
+// equilibrium and is radially unbounded (the kernel's triangular-squares
+// rule). Nil when the first len(states) squares do not solve so.
+func triangularOrder(m *model.Model, basis []*poly.Poly, l LDL) []string {
+	n, r := len(m.States), m.Ring
+	z := make([]poly.RatFunc, len(basis))
+	for i, b := range basis {
+		z[i] = poly.FromPoly(b)
+	}
+	solved := make([]bool, n)
+	var order []string
+	for i := 0; i < len(l.D) && len(order) < n; i++ {
+		if l.Zero[i] {
+			continue
+		}
+		q := poly.SquareBase(l.L, z, i)
+		found := -1
+		for s := 0; s < n && found < 0; s++ {
+			e := make([]int, r.NumVars())
+			e[s] = 1
+			lin := q.Coefficient(e, r.StateMask())
+			h := q.Sub(lin.Mul(poly.FromPoly(poly.Var(r, s))))
+			later := slices.ContainsFunc(h.Num.VarsUsed(), func(v int) bool { return v < n && !solved[v] })
+			if !solved[s] && lin.IsPoly() && lin.Num.IsConst() && !lin.IsZero() && !later && h.Homogeneous(0, r.StateMask()).IsZero() {
+				found = s
+			}
+		}
+		if found < 0 {
+			return nil
+		}
+		solved[found] = true
+		order = append(order, m.States[found])
+	}
+	if len(order) < n {
+		return nil
+	}
+	return order
 }

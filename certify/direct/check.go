@@ -32,6 +32,10 @@ type Form struct {
 	// Margin, when not nil, is Σ εᵢ·xᵢ^(2kᵢ): the Gram matrix is that of
 	// the whole function less the margin, and only ⪰ 0 (margin-gram-ldl).
 	Margin *poly.Poly
+	// Triangular, when not nil, orders the states so that the square bases
+	// of a semidefinite Gram form in a monomial basis solve for them in
+	// turn (triangular-squares): the form is definite after all.
+	Triangular []string
 }
 
 // SquareBase returns the k-th base of the completed squares of the form
@@ -923,6 +927,11 @@ func (res *Result) document(source string) *claims.Document {
 			mg.Basis = append(mg.Basis, z.String())
 		}
 		add(mg)
+	}
+	for _, f := range res.Forms {
+		if f.Triangular != nil {
+			add(&claims.TriangularSquares{Of: f.Name, Order: f.Triangular})
+		}
 	}
 	for _, c := range res.Conds {
 		cd := &claims.MinorCondition{Form: c.Form, Index: c.Index, Minor: c.Minor.String(), Constant: c.Constant.RatString(), Condition: c.Q.String(), Factors: []claims.Factor{}}

@@ -427,3 +427,26 @@ func TestAlgebraicClosedEnd(t *testing.T) {
 		t.Errorf("algebraic points %d, verdict %s, valid %v", len(res.AlgebraicPoints), res.Verdict, res.Check.Valid)
 	}
 }
+
+// TestTriangularSquares: V = x² + (y − x²)² (testdata/models/triangular.lya,
+// constructed) has only singular Gram matrices in its Newton basis (x, y,
+// x²): no x³ or xy term lets the coupling of y and x² move elsewhere. Its
+// squares x and y − x² vanish together only at the origin (common
+// practice: a triangular system), so V is positive definite; with x' = −x,
+// y' = −y − x², V̇ = −2x² − 2(y − x²)² likewise, and the equilibrium is
+// globally asymptotically stable (Lyapunov's direct method).
+func TestTriangularSquares(t *testing.T) {
+	m := loadCase(t, "triangular.lya", nil)
+	res, err := Check(m, "triangular.lya")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if res.Verdict != checker.VerdictHolds || res.Claim != checker.KindGlobal || !res.Check.Valid {
+		t.Fatalf("%s %s (valid %v), want holds global-asymptotic", res.Verdict, res.Claim, res.Check.Valid)
+	}
+	for _, f := range res.Forms {
+		if !slices.Equal(f.Triangular, []string{"x", "y"}) {
+			t.Errorf("%s: triangular order %v, want [x y]", f.Name, f.Triangular)
+		}
+	}
+}

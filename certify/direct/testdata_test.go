@@ -40,6 +40,7 @@ var certificateCases = []struct {
 	{"margin", "margin.lya", nil},
 	{"motzkin", "motzkin.lya", nil},
 	{"algebraic", "algebraic.lya", nil},
+	{"triangular", "triangular.lya", nil},
 }
 
 func loadCase(t testing.TB, file string, set []string) *model.Model {

@@ -43,6 +43,14 @@
 //     LDLᵀ), and boxsos.Certify joins it to the direct method's claims
 //     about V.
 //
+// When the direct method proves only V's quadratic part (V of degree ≥ 4
+// with −V̇ depending on the parameters, where its search for Gram matrices
+// of whole functions does not apply), a Gram matrix of the whole V is
+// taken from the direct method on the model with the parameters fixed at
+// their ranges' lower ends: V has constant coefficients, so that claim
+// and its minors are claims about V alone, and the certificate's claim is
+// then global rather than local.
+//
 // The kernel (checker.Verify) re-checks the whole document, and the
 // engine keeps it only when the kernel derives the verdict and kind it
 // expects (certify.Agrees). Floating point only ever proposes V and the

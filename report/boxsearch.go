@@ -37,8 +37,8 @@ func BoxSearchText(w io.Writer, m *model.Model, degree int, res *boxsearch.Resul
 	s := res.Sizes
 	fmt.Fprintf(ew, "%s: one V of degree %d for the whole parameter box, by a semidefinite program (sums of squares with box multipliers)\n", m.File, degree)
 	fmt.Fprintf(ew, "box: %s\n", boxOf(m))
-	fmt.Fprintf(ew, "  V = z₁ᵀG₁z₁, basis %d; multipliers σ₀, σᵢ of orders %v; %d equations; SDP blocks %v, %d iterations, margin %.3g; %v solving, %v rounding and exact checks\n",
-		s.BasisV, s.Multipliers, s.Constraints, s.Blocks, s.Iterations, s.Margin, s.Solve.Round(1e3), s.Round.Round(1e3))
+	fmt.Fprintf(ew, "  V = z₁ᵀG₁z₁, basis %d; multipliers σ₀, σᵢ of orders %v; %d equations; SDP blocks %v, %d iterations, margin %.3g (−V̇ ≥ margin·Σxᵢ^%d); %v solving, %v rounding and exact checks\n",
+		s.BasisV, s.Multipliers, s.Constraints, s.Blocks, s.Iterations, s.Margin, 2*max(s.Low, 1), s.Solve.Round(1e3), s.Round.Round(1e3))
 	verdict, kind := BoxSearchVerdict(res)
 	if res.Doc == nil {
 		fmt.Fprintf(ew, "no certificate: %s\n", res.Reason)
@@ -86,6 +86,7 @@ type BoxSearchSizes struct {
 	Blocks      []int   `json:"blocks"`
 	Iterations  int     `json:"iterations"`
 	Margin      float64 `json:"margin"`
+	MarginPower int     `json:"margin_power"` // 2 or 4: −V̇ ≥ margin·Σxᵢ^power on the box (search only)
 	Bits        int     `json:"bits"`
 	Roundings   int     `json:"roundings"`
 }
@@ -96,7 +97,7 @@ func BoxSearchJSON(m *model.Model, degree int, res *boxsearch.Result, written st
 	verdict, kind := BoxSearchVerdict(res)
 	out := BoxSearchResultJSON{Model: m.File, Degree: degree, Box: boxOf(m), Verdict: verdict, Claim: kind, Reason: res.Reason, Certificate: written,
 		Sizes: BoxSearchSizes{BasisV: s.BasisV, Multipliers: s.Multipliers, Equations: s.Constraints, Blocks: s.Blocks,
-			Iterations: s.Iterations, Margin: finite(s.Margin), Bits: s.Bits, Roundings: s.Roundings}}
+			Iterations: s.Iterations, Margin: finite(s.Margin), MarginPower: 2 * max(s.Low, 1), Bits: s.Bits, Roundings: s.Roundings}}
 	if res.Doc != nil {
 		out.V, out.Method, out.Checks, out.Digest = res.V.String(), res.Method, len(res.Outcome.Records), res.Doc.Digest
 	}

@@ -43,6 +43,7 @@ const (
 type Sizes struct {
 	BasisV      int   // monomials of z₁ (V = z₁ᵀG₁z₁)
 	Multipliers []int // orders of the Gram matrices of σ₀, σ₁, … in the search
+	Low         int   // 1: margins of the lowest pure powers; 2: of degree 4 (see Search)
 	Constraints int   // equations of the search's SDP
 	Blocks      []int // the SDP's blocks as solved (negative: a diagonal block)
 	Iterations  int   // of the search's SDP
@@ -119,30 +120,83 @@ func Search(ctx context.Context, m *model.Model, opts Options) (*Result, error) 
 	if err != nil {
 		return nil, fmt.Errorf("--box-sos: %w", err)
 	}
-	for _, b := range mults {
-		res.Sizes.Multipliers = append(res.Sizes.Multipliers, len(b.Basis))
+	// First the margin t·Σyⱼ^(2kⱼ) of the lowest pure powers; when the SDP
+	// finds none, the margins of degree 4 without the multipliers' state
+	// monomials of degree 1 (a centre linearization, whose −V̇ has no
+	// definite quadratic part, as in certify/sossearch).
+	var sol *sdp.Result
+	var t float64
+	for low := 1; low <= 2; low++ {
+		ms, mg := mults, marg
+		if low == 2 {
+			if ms, mg = quartic(mults, ns); ms == nil {
+				break
+			}
+		}
+		res.Sizes.Low, res.Sizes.Multipliers = low, nil
+		for _, b := range ms {
+			res.Sizes.Multipliers = append(res.Sizes.Multipliers, len(b.Basis))
+		}
+		prob := program(z1, deriv, ms, mg)
+		res.Problem = prob
+		res.Sizes.Constraints = len(prob.A)
+		res.Sizes.Blocks = prob.Blocks
+		start := time.Now()
+		sol, err = sdp.Solve(ctx, prob, opts.SDP)
+		res.Sizes.Solve += time.Since(start)
+		if err != nil {
+			return nil, err
+		}
+		t = sol.X[len(prob.Blocks)-1].Data[0]
+		res.Status, res.Sizes.Iterations, res.Sizes.Margin = sol.Status, sol.Iterations, t
+		if st := sol.Status; (st == sdp.Optimal || st == sdp.Stalled || st == sdp.IterationLimit) && t > 1e-7 {
+			break
+		}
+		sol = nil
 	}
-	prob := program(z1, deriv, mults, marg)
-	res.Problem = prob
-	res.Sizes.Constraints = len(prob.A)
-	res.Sizes.Blocks = prob.Blocks
-	start := time.Now()
-	sol, err := sdp.Solve(ctx, prob, opts.SDP)
-	res.Sizes.Solve = time.Since(start)
-	if err != nil {
-		return nil, err
-	}
-	nb := len(prob.Blocks) - 1
-	t := sol.X[nb].Data[0]
-	res.Status, res.Sizes.Iterations, res.Sizes.Margin = sol.Status, sol.Iterations, t
-	if st := sol.Status; !(st == sdp.Optimal || st == sdp.Stalled || st == sdp.IterationLimit) || !(t > 1e-7) {
-		res.Reason = fmt.Sprintf("the SDP found no V of degree %d with V and −V̇ positive definite on the whole box (solver: %v, margin %.3g); numerical evidence, not a proof that none exists", opts.Degree, sol.Status, t)
+	if sol == nil {
+		res.Reason = fmt.Sprintf("the SDP found no V of degree %d with V and −V̇ positive definite on the whole box (solver: %v, margin %.3g); numerical evidence, not a proof that none exists", opts.Degree, res.Status, res.Sizes.Margin)
 		return res, nil
 	}
-	start = time.Now()
+	start := time.Now()
 	err = res.prove(ctx, m, opts, z1, sol.X[0], t)
 	res.Sizes.Round = time.Since(start)
 	return res, err
+}
+
+// quartic returns the multipliers without the monomials of state degree 1
+// (a multiplier left empty is dropped), and the margin's terms yⱼ⁴; nil
+// when σ₀ has no yⱼ² to carry them.
+func quartic(mults []boxsos.Multiplier, ns int) ([]boxsos.Multiplier, [][]int) {
+	var out []boxsos.Multiplier
+	for k, mu := range mults {
+		var basis [][]int
+		for _, e := range mu.Basis {
+			if deg(e[:ns]) >= 2 {
+				basis = append(basis, e)
+			}
+		}
+		if len(basis) == 0 && k == 0 {
+			return nil, nil
+		}
+		if len(basis) > 0 {
+			out = append(out, boxsos.Multiplier{Param: mu.Param, Basis: basis, G: mu.G})
+		}
+	}
+	var marg [][]int
+	for j := range ns {
+		found := false
+		for _, e := range out[0].Basis {
+			found = found || e[j] == 2 && deg(e) == 2
+		}
+		if !found {
+			return nil, nil
+		}
+		e := make([]int, len(out[0].Basis[0]))
+		e[j] = 4
+		marg = append(marg, e)
+	}
+	return out, marg
 }
 
 // derivatives returns, for every exponent e = z_a + z_b of z₁'s products

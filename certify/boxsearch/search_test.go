@@ -141,6 +141,20 @@ func TestSearch(t *testing.T) {
 		// Routh–Hurwitz for s² + c·s + k (common practice): k < 0 in the
 		// box makes the origin a saddle.
 		{"duffing-saddle", "state x, y\nparameter k in [-1, 1]\nparameter c in [1, 2]\nx' = y\ny' = -k*x - c*y - x^3\n", 4, false},
+		// A constructed centre (by hand): the linearization x' = y,
+		// y' = −x is a rotation, so no V has −V̇ with a definite quadratic
+		// part, but V = x² + y² gives V̇ = −2a·x⁴ − 2y⁴ < 0 for a ∈ [1, 2]:
+		// the search's second attempt, with margins of degree 4.
+		{"centre", "state x, y\nparameter a in [1, 2]\nx' = y - a*x^3\ny' = -x - y^3\n", 2, true},
+		{"centre-4", "state x, y\nparameter a in [1, 2]\nx' = y - a*x^3\ny' = -x - y^3\n", 4, true},
+		// A constructed map (by hand): with V = x² + y², ΔV =
+		// (p² − 15/16)x² + (p/4)xy + (p²/4 − 15/16)y², negative definite for
+		// |p| ≤ 1/2 (diagonal ≤ −11/16, off-diagonal ≤ 1/16; Gershgorin,
+		// common practice).
+		{"map", "state x, y\nparameter p in [-1/2, 1/2]\nx+ = p*x + 1/4*y\ny+ = -1/4*x + 1/2*y*p\n", 2, true},
+		// The map x+ = p·x has |p| > 1 for p ∈ (1, 3/2]: unstable (common
+		// practice), no certificate.
+		{"map-unstable", "state x, y\nparameter p in [1/2, 3/2]\nx+ = p*x\ny+ = 1/2*y\n", 2, false},
 		// The kernel's own example (checker/testdata, boxquartic.lya, an
 		// invented scenario): V = x² + y² works on the box (by hand).
 		{"boxquartic", "state x, y\nparameter p in [0, 2]\nparameter c in [1, 3]\nx' = -x - c*x^3 + p*y\ny' = -x - y\n", 2, true},

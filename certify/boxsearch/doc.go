@@ -29,6 +29,12 @@
 // literature (Papachristodoulou & Prajna 2002), with ε = t for both, so
 // the same t leaves room to round V.
 //
+// When the linearization is a centre for some parameter value, no V has
+// −V̇ with a definite quadratic part and the program has t = 0. A second
+// program then drops the state monomials of degree 1 from the
+// multipliers' bases and takes the margin t·Σⱼ yⱼ⁴ (the higher-order
+// margins of certify/sossearch); V keeps V − t·Σyᵢ² a sum of squares.
+//
 // # From the proposal to a proof
 //
 // Only V is kept. Its coefficients are rounded to multiples of 2^−k

@@ -57,7 +57,9 @@ func proven(t *testing.T, res *Result) bool {
 // whose determinant 2 − p²/4 is positive exactly for p < 2√2 (Sylvester's
 // criterion, common practice): the centre's V fails at the corner p = 4,
 // where the (2, 2) entry is −1 and V̇ > 0 along the y-axis near the
-// origin. A V for the whole box exists: x² + 5y² gives
+// origin. (For Q = diag(q₁, q₃) the centre's P works at p = 4 exactly when
+// q₃ > 3q₁, by hand: Q = I, find's default, is not such a Q.) A V for the
+// whole box exists: x² + 5y² gives
 // −V̇ = 2x² − 2p·xy + 10y² + 2x⁴ + 10y⁴, definite for p² < 20 (by hand).
 const corner = `state x, y
 parameter p in [0, 4]
@@ -130,12 +132,16 @@ func TestSearch(t *testing.T) {
 		// Strogatz §9.2: for r > 1 the origin is a saddle (pitchfork at
 		// r = 1); the box [1/2, 2] holds unstable values, no certificate.
 		{"lorenz-past-1", "state x, y, z\nparameter r in [1/2, 2]\nx' = 10*(y - x)\ny' = r*x - y - x*z\nz' = x*y - 8/3*z\n", 2, false},
-		// The damped Duffing oscillator x'' + c·x' + k·x + x³ = 0 (Khalil,
-		// Nonlinear Systems, 3rd ed., §4.1, energy with a cross term, from
-		// memory): V = 2x² + xy + y² + x⁴/2 gives −V̇ = (quadratic form
-		// definite for k, c ∈ [1, 2]) + x⁴ (by hand), so degree 4 suffices;
-		// no quadratic V does, as x³·(∂V/∂y) is then a binary quartic with
-		// no y⁴ term and an x³y term, indefinite.
+		// The damped Duffing oscillator x'' + c·x' + k·x + x³ = 0, whose
+		// energy plus a cross term is a Lyapunov function (as for the
+		// pendulum with friction in Khalil, Nonlinear Systems, 3rd ed.,
+		// §4.1, from memory). By hand: V = 2x² + xy + y² + x⁴/2 gives
+		// −V̇ = k·x² − (4 − c − 2k)·xy + (2c − 1)·y² + x⁴, whose quadratic
+		// part has determinant 4k(2c − 1) − (4 − c − 2k)² ≥ 3 on
+		// k, c ∈ [1, 2] (least at k = c = 1), so degree 4 suffices. No
+		// quadratic V does: −V̇'s quartic part is then x³·∂V/∂y = x³·(βx +
+		// 2γy), with no y⁴ to dominate the x³y term (indefinite unless
+		// γ = 0, and then V is not definite).
 		{"duffing-4", "state x, y\nparameter k in [1, 2]\nparameter c in [1, 2]\nx' = y\ny' = -k*x - c*y - x^3\n", 4, true},
 		{"duffing-2", "state x, y\nparameter k in [1, 2]\nparameter c in [1, 2]\nx' = y\ny' = -k*x - c*y - x^3\n", 2, false},
 		// Routh–Hurwitz for s² + c·s + k (common practice): k < 0 in the

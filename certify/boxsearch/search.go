@@ -205,12 +205,7 @@ func quartic(mults []boxsos.Multiplier, ns int) ([]boxsos.Multiplier, [][]int) {
 // polynomial with coefficient 1 on every term that some S_e has.
 func derivatives(m *model.Model, z1 [][]int) (map[string]*poly.Poly, *poly.Poly, error) {
 	r := m.Ring
-	has := make([]bool, r.NumVars())
-	unshift := make([]poly.RatFunc, r.NumVars())
-	for i := range m.States {
-		has[i] = true
-		unshift[i] = poly.FromPoly(poly.Var(r, i)).Sub(m.At[i])
-	}
+	unshift, has := centred(m)
 	deriv := map[string]*poly.Poly{}
 	all := poly.Zero(r)
 	seen := map[string]bool{}
@@ -326,12 +321,7 @@ func program(z1 [][]int, deriv map[string]*poly.Poly, mults []boxsos.Multiplier,
 // It stops at the first V the kernel accepts over the whole box.
 func (res *Result) prove(ctx context.Context, m *model.Model, opts Options, z1 [][]int, g1 sdp.Block, t float64) error {
 	r := m.Ring
-	has := make([]bool, r.NumVars())
-	unshift := make([]poly.RatFunc, r.NumVars())
-	for i := range m.States {
-		has[i] = true
-		unshift[i] = poly.FromPoly(poly.Var(r, i)).Sub(m.At[i])
-	}
+	unshift, has := centred(m)
 	coef := map[string]float64{}
 	exps := map[string][]int{}
 	var keys []string
@@ -518,6 +508,20 @@ func wholeV(ctx context.Context, m *model.Model, dr *direct.Result, opts Options
 	return &out, true
 }
 
+// centred returns the substitution xᵢ ↦ xᵢ − x*ᵢ of the states (for
+// ComposeStates), which takes a polynomial in coordinates centred at the
+// equilibrium to the model's coordinates.
+func centred(m *model.Model) ([]poly.RatFunc, []bool) {
+	r := m.Ring
+	has := make([]bool, r.NumVars())
+	unshift := make([]poly.RatFunc, r.NumVars())
+	for i := range m.States {
+		has[i] = true
+		unshift[i] = poly.FromPoly(poly.Var(r, i)).Sub(m.At[i])
+	}
+	return unshift, has
+}
+
 func deg(e []int) int {
 	s := 0
 	for _, k := range e {
@@ -535,24 +539,28 @@ func add(a, b []int) []int {
 }
 
 // monomials returns the exponents, over the nv variables of the ring, of
-// the monomials of the first ns variables (the states) of degree 1 to d.
+// the monomials of the first ns variables (the states) of degree 1 to d,
+// by degree: those of degree k are those of degree k − 1 times a state
+// at or after their last one, so each comes once.
 func monomials(ns, nv, d int) [][]int {
-	var out [][]int
-	cur := make([]int, nv)
-	var rec func(i, left int)
-	rec = func(i, left int) {
-		if i == ns-1 {
-			cur[i] = left
-			out = append(out, append([]int(nil), cur...))
-			return
+	var out, last [][]int
+	last = [][]int{make([]int, nv)}
+	for range d {
+		var next [][]int
+		for _, e := range last {
+			from := 0
+			for j := range ns {
+				if e[j] > 0 {
+					from = j
+				}
+			}
+			for j := from; j < ns; j++ {
+				f := append([]int(nil), e...)
+				f[j]++
+				next = append(next, f)
+			}
 		}
-		for v := left; v >= 0; v-- {
-			cur[i] = v
-			rec(i+1, left-v)
-		}
-	}
-	for dg := 1; dg <= d; dg++ {
-		rec(0, dg)
+		out, last = append(out, next...), next
 	}
 	return out
 }

@@ -425,7 +425,8 @@ func (res *Result) try(ctx context.Context, m *model.Model, opts Options, v poly
 	}
 	doc, err := boxsos.Certify(base, bm)
 	if err != nil {
-		return false, err
+		res.Reason = "the box certificate for the rounded V: " + err.Error()
+		return false, nil
 	}
 	out := checker.Verify(doc)
 	if err := certify.Agrees(out, checker.VerdictHolds, kind); err != nil {

@@ -20,7 +20,7 @@ import (
 
 // sosFlags are find's options for a V found by a semidefinite program.
 type sosFlags struct {
-	Degree int    `name:"degree" placeholder:"2D" help:"Search V of this even degree by a semidefinite program (sums of squares) instead of solving a Lyapunov equation; every parameter must be fixed."`
+	Degree int    `name:"degree" placeholder:"2D" help:"Search V of this even degree by a semidefinite program (sums of squares) instead of solving a Lyapunov equation; every parameter must be fixed (with --box-sos: free in closed bounded ranges)."`
 	SDPOut string `name:"sdp-out" placeholder:"FILE" help:"With --degree: write the last semidefinite program solved to FILE in SDPA sparse format."`
 	BoxSOS bool   `name:"box-sos" help:"With --degree and free parameters in closed bounded ranges: search one V of that degree, with constant coefficients, for every parameter value in the box; the SDP holds V and the sums of squares σ of −V̇ − margin = σ₀ + Σ σᵢ·(pᵢ − loᵢ)(hiᵢ − pᵢ) together; -o writes the certificate."`
 }

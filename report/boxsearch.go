@@ -37,8 +37,16 @@ func BoxSearchText(w io.Writer, m *model.Model, degree int, res *boxsearch.Resul
 	s := res.Sizes
 	fmt.Fprintf(ew, "%s: one V of degree %d for the whole parameter box, by a semidefinite program (sums of squares with box multipliers)\n", m.File, degree)
 	fmt.Fprintf(ew, "box: %s\n", boxOf(m))
-	fmt.Fprintf(ew, "  V = z₁ᵀG₁z₁, basis %d; multipliers σ₀, σᵢ of orders %v; %d equations; SDP blocks %v, %d iterations, margin %.3g (−V̇ ≥ margin·Σxᵢ^%d); %v solving, %v rounding and exact checks\n",
-		s.BasisV, s.Multipliers, s.Constraints, s.Blocks, s.Iterations, s.Margin, 2*max(s.Low, 1), s.Solve.Round(1e3), s.Round.Round(1e3))
+	var orders []string
+	for i, n := range s.Multipliers {
+		name := "σ₀"
+		if i < len(s.Factors) && s.Factors[i] != "" {
+			name = "σ_" + s.Factors[i]
+		}
+		orders = append(orders, fmt.Sprintf("%s %d", name, n))
+	}
+	fmt.Fprintf(ew, "  V = z₁ᵀG₁z₁, basis %d; Gram orders of the multipliers %s; %d equations; SDP blocks %v, %d iterations, margin %.3g (−V̇ ≥ margin·Σxᵢ^%d); %v solving, %v rounding and exact checks\n",
+		s.BasisV, strings.Join(orders, ", "), s.Constraints, s.Blocks, s.Iterations, s.Margin, 2*max(s.Low, 1), s.Solve.Round(1e3), s.Round.Round(1e3))
 	verdict, kind := BoxSearchVerdict(res)
 	if res.Doc == nil {
 		fmt.Fprintf(ew, "no certificate: %s\n", res.Reason)

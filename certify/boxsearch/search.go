@@ -41,12 +41,13 @@ const (
 
 // Sizes describe the work of a search.
 type Sizes struct {
-	BasisV      int   // monomials of z₁ (V = z₁ᵀG₁z₁)
-	Multipliers []int // orders of the Gram matrices of σ₀, σ₁, … in the search
-	Low         int   // 1: margins of the lowest pure powers; 2: of degree 4 (see Search)
-	Constraints int   // equations of the search's SDP
-	Blocks      []int // the SDP's blocks as solved (negative: a diagonal block)
-	Iterations  int   // of the search's SDP
+	BasisV      int      // monomials of z₁ (V = z₁ᵀG₁z₁)
+	Multipliers []int    // orders of the Gram matrices of σ₀, σ₁, … in the search
+	Factors     []string // the parameter whose box factor each σ multiplies ("" for σ₀)
+	Low         int      // 1: margins of the lowest pure powers; 2: of degree 4 (see Search)
+	Constraints int      // equations of the search's SDP
+	Blocks      []int    // the SDP's blocks as solved (negative: a diagonal block)
+	Iterations  int      // of the search's SDP
 	Margin      float64
 	Bits        int // V's coefficients rounded to multiples of 2^−Bits (relative)
 	Roundings   int // rounded V tried
@@ -133,9 +134,10 @@ func Search(ctx context.Context, m *model.Model, opts Options) (*Result, error) 
 				break
 			}
 		}
-		res.Sizes.Low, res.Sizes.Multipliers = low, nil
+		res.Sizes.Low, res.Sizes.Multipliers, res.Sizes.Factors = low, nil, nil
 		for _, b := range ms {
 			res.Sizes.Multipliers = append(res.Sizes.Multipliers, len(b.Basis))
+			res.Sizes.Factors = append(res.Sizes.Factors, b.Param)
 		}
 		prob := program(z1, deriv, ms, mg)
 		res.Problem = prob

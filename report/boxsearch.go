@@ -57,9 +57,9 @@ func BoxSearchText(w io.Writer, m *model.Model, degree int, res *boxsearch.Resul
 	fmt.Fprintf(ew, "  coefficients rounded to multiples of 2^-%d of the largest (%d rounding(s) tried)\n", s.Bits, s.Roundings)
 	switch res.Method {
 	case boxsearch.MethodDirect:
-		fmt.Fprintf(ew, "proven by: the %s (V's form and −V̇'s, exactly, for every parameter value in the box)\n", res.Method)
+		fmt.Fprintln(ew, "proven by: the direct method (V's form and −V̇'s, exactly, for every parameter value in the box)")
 	default:
-		fmt.Fprintf(ew, "proven by: %s (the direct method proves V's form; −V̇ − margin = σ₀ + Σ σᵢ·(pᵢ − loᵢ)(hiᵢ − pᵢ) with every σ a sum of squares, rule box-multiplier-sos)\n", res.Method)
+		fmt.Fprintln(ew, "proven by: sums of squares with box multipliers (the direct method proves V's form; −V̇ − margin = σ₀ + Σ σᵢ·(pᵢ − loᵢ)(hiᵢ − pᵢ) with every σ a sum of squares, rule box-multiplier-sos)")
 	}
 	fmt.Fprintf(ew, "verdict: %s (%s): %s for every parameter value in the box\n", verdict, kind, textClaims[kind])
 	fmt.Fprintf(ew, "checked by the kernel: %d checks passed\n", len(res.Outcome.Records))
@@ -78,7 +78,7 @@ type BoxSearchResultJSON struct {
 	Verdict     string         `json:"verdict"`
 	Claim       string         `json:"claim"`
 	V           string         `json:"v,omitempty"`
-	Method      string         `json:"method,omitempty"`
+	Method      string         `json:"method,omitempty"` // "direct" or "box-multiplier-sos"
 	Checks      int            `json:"checks_passed"`
 	Digest      string         `json:"digest,omitempty"`
 	Certificate string         `json:"certificate,omitempty"`
@@ -88,15 +88,16 @@ type BoxSearchResultJSON struct {
 
 // BoxSearchSizes are the sizes of the search in --json.
 type BoxSearchSizes struct {
-	BasisV      int     `json:"basis_v"`
-	Multipliers []int   `json:"multipliers"`
-	Equations   int     `json:"equations"`
-	Blocks      []int   `json:"blocks"`
-	Iterations  int     `json:"iterations"`
-	Margin      float64 `json:"margin"`
-	MarginPower int     `json:"margin_power"` // 2 or 4: −V̇ ≥ margin·Σxᵢ^power on the box (search only)
-	Bits        int     `json:"bits"`
-	Roundings   int     `json:"roundings"`
+	BasisV      int      `json:"basis_v"`
+	Multipliers []int    `json:"multipliers"` // Gram orders of σ₀, σᵢ
+	Factors     []string `json:"factors"`     // the parameter of each σ ("" for σ₀)
+	Equations   int      `json:"equations"`
+	Blocks      []int    `json:"blocks"`
+	Iterations  int      `json:"iterations"`
+	Margin      float64  `json:"margin"`
+	MarginPower int      `json:"margin_power"` // 2 or 4: −V̇ ≥ margin·Σxᵢ^power on the box (search only)
+	Bits        int      `json:"bits"`
+	Roundings   int      `json:"roundings"`
 }
 
 // BoxSearchJSON returns the --json shape of res.
@@ -104,7 +105,7 @@ func BoxSearchJSON(m *model.Model, degree int, res *boxsearch.Result, written st
 	s := res.Sizes
 	verdict, kind := BoxSearchVerdict(res)
 	out := BoxSearchResultJSON{Model: m.File, Degree: degree, Box: boxOf(m), Verdict: verdict, Claim: kind, Reason: res.Reason, Certificate: written,
-		Sizes: BoxSearchSizes{BasisV: s.BasisV, Multipliers: s.Multipliers, Equations: s.Constraints, Blocks: s.Blocks,
+		Sizes: BoxSearchSizes{BasisV: s.BasisV, Multipliers: s.Multipliers, Factors: s.Factors, Equations: s.Constraints, Blocks: s.Blocks,
 			Iterations: s.Iterations, Margin: finite(s.Margin), MarginPower: 2 * max(s.Low, 1), Bits: s.Bits, Roundings: s.Roundings}}
 	if res.Doc != nil {
 		out.V, out.Method, out.Checks, out.Digest = res.V.String(), res.Method, len(res.Outcome.Records), res.Doc.Digest

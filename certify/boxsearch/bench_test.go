@@ -56,7 +56,7 @@ func BenchmarkSearchBox(b *testing.B) {
 			b.ReportMetric(round/float64(b.N)*1e3, "exact-ms/op")
 			b.ReportMetric(float64(last.Sizes.Constraints), "equations")
 			b.ReportMetric(float64(last.Sizes.Iterations), "iterations")
-			b.Logf("%s: V = %s by the %s; multipliers %v, blocks %v", bm.name, last.V, last.Method, last.Sizes.Multipliers, last.Sizes.Blocks)
+			b.Logf("%s: V = %s method %s; multipliers %v, blocks %v", bm.name, last.V, last.Method, last.Sizes.Multipliers, last.Sizes.Blocks)
 		})
 	}
 }

@@ -33,10 +33,10 @@ type Options struct {
 const (
 	// MethodDirect: the direct method alone (certify/direct) proves V̇ < 0
 	// on the whole box.
-	MethodDirect = "direct method"
+	MethodDirect = "direct"
 	// MethodBoxSOS: the direct method proves V's form, and a sum of squares
 	// with multipliers of the box (certify/boxsos) proves V̇ < 0 on it.
-	MethodBoxSOS = "sums of squares with box multipliers"
+	MethodBoxSOS = "box-multiplier-sos"
 )
 
 // Sizes describe the work of a search.

@@ -113,7 +113,7 @@ func TestCornerNeedsTheBox(t *testing.T) {
 	if at4.Verdict != checker.VerdictHolds {
 		t.Errorf("the V found, %s, at p = 4: %s", res.V, at4.Verdict)
 	}
-	t.Logf("V = %s by the %s; sizes %+v", res.V, res.Method, res.Sizes)
+	t.Logf("V = %s method %s; sizes %+v", res.V, res.Method, res.Sizes)
 }
 
 func TestSearch(t *testing.T) {
@@ -181,7 +181,7 @@ func TestSearch(t *testing.T) {
 				if res.V.DegreeIn(res.Direct.Model.Ring.ParamMask()) != 0 {
 					t.Errorf("V = %s depends on the parameters", res.V)
 				}
-				t.Logf("V = %s by the %s; sizes %+v", res.V, res.Method, res.Sizes)
+				t.Logf("V = %s method %s; sizes %+v", res.V, res.Method, res.Sizes)
 			}
 		})
 	}

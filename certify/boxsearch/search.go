@@ -59,7 +59,7 @@ type Sizes struct {
 // the kernel with the verdict "holds" over the whole box; nil when none was
 // found, and then Reason says why.
 type Result struct {
-	V       poly.RatFunc   // the rounded V proven (or the last one tried)
+	V       poly.RatFunc   // the rounded V proven, or the last one tried (the zero value, unusable, when none was)
 	Direct  *direct.Result // the direct method on that V
 	Doc     *claims.Document
 	Outcome checker.Outcome // the kernel's outcome for Doc
@@ -100,7 +100,7 @@ func Search(ctx context.Context, m *model.Model, opts Options) (*Result, error) 
 	}
 	for i, f := range m.F {
 		if !f.IsPoly() {
-			return nil, &poly.Error{Pos: m.FPos[i], Msg: fmt.Sprintf("%s has a denominator; --box-sos needs polynomials", m.States[i])}
+			return nil, &poly.Error{Pos: m.FPos[i], Msg: fmt.Sprintf("the right-hand side of %s has a denominator; --box-sos needs polynomials", m.States[i])}
 		}
 	}
 	z1 := monomials(ns, r.NumVars(), opts.Degree/2)

@@ -44,12 +44,12 @@ func Find(ctx context.Context, m *model.Model) (*claims.BoxMultiplier, error) {
 	if err != nil {
 		return nil, err
 	}
+	// emax, the largest coefficient of −V̇, bounds ε for the solver only.
 	emax := 0.0
 	for _, t := range p.Terms() {
 		f, _ := t.Coef.Float64()
 		emax = max(emax, math.Abs(f))
 	}
-	// emax, the largest coefficient of −V̇, bounds ε for the solver only.
 	marginExps := marginExponents(r, zx, pure)
 	prob, rows := problem(p, blocks, marginExps, emax)
 	for _, a := range prob.A {

@@ -40,48 +40,17 @@ func Find(ctx context.Context, m *model.Model) (*claims.BoxMultiplier, error) {
 		return nil, errors.New("−V̇ is not a polynomial at the equilibrium")
 	}
 	p, r := d.Num, d.Num.Ring()
-	zx, err := stateBasis(p)
+	blocks, zx, pure, err := layout(m, p)
 	if err != nil {
 		return nil, err
 	}
-	pure, emax, err := margin(p, zx)
-	if err != nil {
-		return nil, err
+	// emax, the largest coefficient of −V̇, bounds ε for the solver only.
+	emax := 0.0
+	for _, t := range p.Terms() {
+		f, _ := t.Coef.Float64()
+		emax = max(emax, math.Abs(f))
 	}
-	var params []int
-	for i := r.NumStates(); i < r.NumVars(); i++ {
-		params = append(params, i)
-	}
-	dp := max(1, (p.DegreeIn(r.ParamMask())+1)/2)
-	blocks := []block{{basis: product(zx, paramMonomials(r.NumVars(), params, dp)), g: poly.ConstInt(r, 1)}}
-	for _, pr := range m.Params {
-		i, ok := r.Index(pr.Name)
-		lo, hi := pr.Range.Lo, pr.Range.Hi
-		if !ok || pr.Fixed != nil || lo.Inf != 0 || hi.Inf != 0 || lo.Open || hi.Open {
-			continue
-		}
-		x := poly.Var(r, i)
-		g := new(poly.Poly).Mul(new(poly.Poly).Sub(x, poly.Const(r, lo.Value)), new(poly.Poly).Sub(poly.Const(r, hi.Value), x))
-		blocks = append(blocks, block{param: pr.Name, basis: product(zx, paramMonomials(r.NumVars(), params, dp-1)), g: g})
-	}
-	if len(blocks) == 1 {
-		return nil, errors.New("no parameter has a closed bounded range")
-	}
-	order := 0
-	for _, b := range blocks {
-		order += len(b.basis)
-	}
-	if order > maxOrder {
-		return nil, fmt.Errorf("Gram matrices of total order %d, more than %d", order, maxOrder)
-	}
-	var marginExps [][]int
-	for _, a := range pure {
-		e := make([]int, r.NumVars())
-		for j, k := range zx[a] {
-			e[j] = 2 * k
-		}
-		marginExps = append(marginExps, e)
-	}
+	marginExps := marginExponents(r, zx, pure)
 	prob, rows := problem(p, blocks, marginExps, emax)
 	for _, a := range prob.A {
 		if len(a) == 0 {
@@ -127,6 +96,88 @@ func Find(ctx context.Context, m *model.Model) (*claims.BoxMultiplier, error) {
 		}
 	}
 	return nil, ErrNotFound
+}
+
+// layout returns the blocks of a certificate for a −V̇ with p's terms: σ₀
+// and one σᵢ per free parameter with a closed bounded range (see the
+// package comment for the bases), the state basis Z_x and, per state, the
+// index in Z_x of its lowest pure power.
+func layout(m *model.Model, p *poly.Poly) ([]block, [][]int, []int, error) {
+	r := p.Ring()
+	zx, err := stateBasis(p)
+	if err != nil {
+		return nil, nil, nil, err
+	}
+	pure, err := margin(p, zx)
+	if err != nil {
+		return nil, nil, nil, err
+	}
+	var params []int
+	for i := r.NumStates(); i < r.NumVars(); i++ {
+		params = append(params, i)
+	}
+	dp := max(1, (p.DegreeIn(r.ParamMask())+1)/2)
+	blocks := []block{{basis: product(zx, paramMonomials(r.NumVars(), params, dp)), g: poly.ConstInt(r, 1)}}
+	for _, pr := range m.Params {
+		i, ok := r.Index(pr.Name)
+		lo, hi := pr.Range.Lo, pr.Range.Hi
+		if !ok || pr.Fixed != nil || lo.Inf != 0 || hi.Inf != 0 || lo.Open || hi.Open {
+			continue
+		}
+		x := poly.Var(r, i)
+		g := new(poly.Poly).Mul(new(poly.Poly).Sub(x, poly.Const(r, lo.Value)), new(poly.Poly).Sub(poly.Const(r, hi.Value), x))
+		blocks = append(blocks, block{param: pr.Name, basis: product(zx, paramMonomials(r.NumVars(), params, dp-1)), g: g})
+	}
+	if len(blocks) == 1 {
+		return nil, nil, nil, errors.New("no parameter has a closed bounded range")
+	}
+	order := 0
+	for _, b := range blocks {
+		order += len(b.basis)
+	}
+	if order > maxOrder {
+		return nil, nil, nil, fmt.Errorf("Gram matrices of total order %d, more than %d", order, maxOrder)
+	}
+	return blocks, zx, pure, nil
+}
+
+// marginExponents returns the exponents of the margin's terms x_j^(2k_j),
+// one per state, from the lowest pure powers of Z_x.
+func marginExponents(r *poly.Ring, zx [][]int, pure []int) [][]int {
+	var out [][]int
+	for _, a := range pure {
+		e := make([]int, r.NumVars())
+		for j, k := range zx[a] {
+			e[j] = 2 * k
+		}
+		out = append(out, e)
+	}
+	return out
+}
+
+// Multiplier is one sum of squares σ = zᵀGz of a box certificate: the
+// exponents of its basis z over the ring's variables, and the factor it
+// multiplies, (p − lo)(hi − p) for the parameter Param, 1 for σ₀ (Param "").
+type Multiplier struct {
+	Param string
+	Basis [][]int
+	G     *poly.Poly
+}
+
+// Multipliers returns the sums of squares a box certificate of a −V̇ with
+// the terms of p would use (σ₀ first), and the exponents of the margin's
+// terms, one per state. A search that does not know −V̇'s coefficients
+// yet (V unknown) passes a p with every term −V̇ can have.
+func Multipliers(m *model.Model, p *poly.Poly) ([]Multiplier, [][]int, error) {
+	blocks, zx, pure, err := layout(m, p)
+	if err != nil {
+		return nil, nil, err
+	}
+	out := make([]Multiplier, len(blocks))
+	for i, b := range blocks {
+		out[i] = Multiplier{Param: b.param, Basis: b.basis, G: b.g}
+	}
+	return out, marginExponents(p.Ring(), zx, pure), nil
 }
 
 // stateBasis returns Z_x: exponents over all variables, zero on the
@@ -199,11 +250,9 @@ func stateBasis(p *poly.Poly) ([][]int, error) {
 	return out, nil
 }
 
-// margin picks, for every state, the lowest pure power x_j^k of Z_x, and
-// bounds ε by the smallest coefficient of x_j^(2k) in −V̇ at p = 0's
-// neighbourhood (the largest coefficient over parameter parts; a bound
-// for the solver only).
-func margin(p *poly.Poly, zx [][]int) ([]int, float64, error) {
+// margin picks, for every state, the lowest pure power x_j^k of Z_x: the
+// margin's term for that state is ε·x_j^(2k).
+func margin(p *poly.Poly, zx [][]int) ([]int, error) {
 	ns := p.Ring().NumStates()
 	pure := make([]int, ns)
 	for j := range ns {
@@ -218,15 +267,10 @@ func margin(p *poly.Poly, zx [][]int) ([]int, float64, error) {
 			}
 		}
 		if pure[j] < 0 {
-			return nil, 0, fmt.Errorf("no pure power of state %s in the basis", p.Ring().Name(j))
+			return nil, fmt.Errorf("no pure power of state %s in the basis", p.Ring().Name(j))
 		}
 	}
-	emax := 0.0
-	for _, t := range p.Terms() {
-		f, _ := t.Coef.Float64()
-		emax = max(emax, math.Abs(f))
-	}
-	return pure, emax, nil
+	return pure, nil
 }
 
 func marginPoly(r *poly.Ring, zx [][]int, pure []int, eps *big.Rat) *poly.Poly {

@@ -116,6 +116,9 @@ func (c *findCmd) find(ctx context.Context, e *env) int {
 	if err != nil {
 		return e.fail(exitInput, err)
 	}
+	if c.BoxSOS {
+		return c.findBox(ctx, e, m)
+	}
 	if c.BoxLyapunov {
 		return c.boxLyapunov(ctx, e, m)
 	}

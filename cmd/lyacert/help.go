@@ -118,13 +118,16 @@ exact functions of them: existence, Jacobian, characteristic polynomial,
 Hurwitz determinants, and along one free parameter the exact pieces of its
 range by type and stability and the bifurcation values (--plot draws the
 diagram). That analysis writes no certificate; it exits 0 when the branches
-have a closed form, 1 when they do not.
+have a closed form, 1 when they do not. With --degree 2D --box-sos it
+instead searches one V of that degree for every value in the box of the
+free parameters' closed ranges, and certifies it (exit 0), or exits 1.
 
 Examples:
   lyacert find model.lya --set r=20
   lyacert find model.lya --set r=20 --all -o c.json
   lyacert find model.lya --set r=20 --q 1,2,3 --json
   lyacert find lorenz.lya --set sigma=10 --set b=8/3 --plot branches.svg
+  lyacert find model.lya --degree 2 --box-sos -o box.json
 
 ` + exitCodesText
 }

@@ -24,6 +24,7 @@ var layers = [][]string{
 	{"certify", "certify/pave", "certify/sos"},
 	{"certify/direct", "certify/branches"},
 	{"certify/equilibria", "certify/sossearch", "certify/basin", "certify/vertex", "certify/boxsos"},
+	{"certify/boxsearch"},
 	{"sweep"},
 	{"report"},
 	{"cmd/lyacert", "examples/slurm"},

@@ -4,6 +4,7 @@ import (
 	"context"
 	"errors"
 	"fmt"
+	"math/big"
 	"slices"
 
 	"github.com/lyacert/lyacert/model"
@@ -20,8 +21,17 @@ type Options struct {
 	// the system has n(n+1)/2 unknowns).
 	MaxStates int
 	// Param names the parameter to classify along; the only free one by
-	// default. Classification needs every other parameter fixed.
+	// default. Classification along it needs every other parameter fixed.
 	Param string
+
+	// Two or more free parameters: the map over their box (Map). Box
+	// replaces a parameter's allowed range by [lo, hi] ∩ range; every
+	// free parameter needs a bounded range or a Box. Resolution bounds the
+	// bisection (default DefaultResolution), MaxBoxes the boxes examined
+	// (default DefaultMapBoxes).
+	Box        map[string][2]*big.Rat
+	Resolution *big.Rat
+	MaxBoxes   int
 }
 
 func (o Options) withDefaults() Options {
@@ -54,6 +64,10 @@ type Analysis struct {
 	Range        poly.Interval
 	Pieces       []Segment
 	Bifurcations []Bifurcation
+
+	// Two or more free parameters: the labelled bisection of their box;
+	// nil when a parameter has no bounded range (a note says which).
+	Map *Map
 }
 
 // Branch is one equilibrium branch: x = Coords(p) where the parameters p

@@ -12,7 +12,10 @@ import (
 
 // Label is the linear type of one branch on one piece of the parameter range.
 type Label struct {
-	Exists bool
+	// Undecided: on a box of a Map, the exact tests did not decide the
+	// label on the whole box (Kind and Stability are then "undecided").
+	Undecided bool
+	Exists    bool
 	// Kind: "node", "focus", "degenerate node", "saddle", "centre
 	// candidate", "zero eigenvalue", "eigenvalue 1", "eigenvalue -1",
 	// "hyperbolic" (n ≥ 4, no finer type), "non-isolated", or "" when
@@ -92,8 +95,6 @@ func classify(ctx context.Context, m *model.Model, an *Analysis, opts Options) e
 	case len(free) == 1:
 		e.pi, _ = m.Ring.Index(free[0].Name)
 		an.Param, an.Range = free[0].Name, free[0].Range
-	default:
-		return nil
 	}
 	if !an.ClosedForm {
 		return nil
@@ -147,6 +148,9 @@ func classify(ctx context.Context, m *model.Model, an *Analysis, opts Options) e
 		// Coordinates of two branches meet where a transcritical or
 		// pitchfork may happen; those places are roots of the above.
 	}
+	if len(free) >= 2 {
+		return paveMap(ctx, m, an, ex, crit, opts)
+	}
 	pts, err := criticalPoints(ctx, e, crit, an.Range)
 	if err != nil {
 		return err
@@ -160,7 +164,7 @@ func classify(ctx context.Context, m *model.Model, an *Analysis, opts Options) e
 		t := samplePoint(p.Span)
 		p.Labels = make([]Label, len(an.Branches))
 		for i, b := range an.Branches {
-			l, err := label(e, b, ex[i], t, m.Discrete)
+			l, err := label(pointSigns{e, t}, b, ex[i], m.Discrete)
 			if err != nil {
 				return fmt.Errorf("branch %d at %s: %w", i, endString(p.Span.Lo), err)
 			}
@@ -389,9 +393,9 @@ func endString(e poly.End) string {
 
 // exists decides whether the branch is defined at t: w(t) ≥ 0 and no
 // condition polynomial vanishes.
-func exists(e evaluator, b *Branch, t point) (bool, error) {
+func exists(e signs, b *Branch) (bool, error) {
 	for _, c := range b.Nonzero {
-		s, err := e.polySign(c, t)
+		s, err := e.polySign(c)
 		if err != nil {
 			return false, err
 		}
@@ -400,7 +404,7 @@ func exists(e evaluator, b *Branch, t point) (bool, error) {
 		}
 	}
 	if b.W != nil {
-		s, err := e.ratSign(*b.W, t)
+		s, err := e.ratSign(*b.W)
 		if errors.Is(err, errDivZero) {
 			return false, nil
 		}
@@ -433,8 +437,8 @@ func routhCount(lead int, h []int) int {
 	return u
 }
 
-func label(e evaluator, b *Branch, ex extra, t point, discrete bool) (Label, error) {
-	ok, err := exists(e, b, t)
+func label(e signs, b *Branch, ex extra, discrete bool) (Label, error) {
+	ok, err := exists(e, b)
 	if err != nil || !ok {
 		return Label{}, err
 	}
@@ -445,7 +449,7 @@ func label(e evaluator, b *Branch, ex extra, t point, discrete bool) (Label, err
 	signs := func(xs []Surd) ([]int, error) {
 		out := make([]int, len(xs))
 		for i, x := range xs {
-			s, err := e.sign(x, t)
+			s, err := e.sign(x)
 			if err != nil {
 				return nil, err
 			}
@@ -474,7 +478,7 @@ func label(e evaluator, b *Branch, ex extra, t point, discrete bool) (Label, err
 		}
 		lead = s[2]
 	} else {
-		s, err := e.sign(b.CharPoly[0], t)
+		s, err := e.sign(b.CharPoly[0])
 		if err != nil {
 			return Label{}, err
 		}
@@ -491,14 +495,14 @@ func label(e evaluator, b *Branch, ex extra, t point, discrete bool) (Label, err
 		if n == 2 {
 			c = b.CharPoly[0]
 		}
-		sc, err := e.sign(c, t)
+		sc, err := e.sign(c)
 		if err != nil {
 			return Label{}, err
 		}
 		if sc < 0 {
 			u = 1
 			if n == 3 {
-				sa, err := e.sign(b.CharPoly[2], t)
+				sa, err := e.sign(b.CharPoly[2])
 				if err != nil {
 					return Label{}, err
 				}
@@ -516,7 +520,7 @@ func label(e evaluator, b *Branch, ex extra, t point, discrete bool) (Label, err
 			if discrete {
 				c0 = ex.p1
 			}
-			sc, err := e.sign(c0, t)
+			sc, err := e.sign(c0)
 			if err != nil {
 				return Label{}, err
 			}
@@ -532,7 +536,7 @@ func label(e evaluator, b *Branch, ex extra, t point, discrete bool) (Label, err
 			// Stodola's necessary condition: a Hurwitz polynomial has
 			// all coefficients positive.
 			for _, c := range b.CharPoly {
-				if s, err := e.sign(c, t); err == nil && s < 0 {
+				if s, err := e.sign(c); err == nil && s < 0 {
 					l.Stability = "unstable"
 				}
 			}
@@ -561,7 +565,7 @@ func label(e evaluator, b *Branch, ex extra, t point, discrete bool) (Label, err
 		l.Kind = "hyperbolic"
 		return l, nil
 	}
-	s, err := e.sign(*d, t)
+	s, err := e.sign(*d)
 	if err != nil {
 		return Label{}, err
 	}

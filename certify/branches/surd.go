@@ -278,3 +278,28 @@ func critical(x Surd) []*poly.Poly {
 	}
 	return out
 }
+
+// signs decides the signs of parameter functions on a set of parameter
+// values: one value (pointSigns) or a box (boxSigns). A sign is the one
+// the function has at every value of the set; errUndecided says that the
+// set's test does not decide it.
+type signs interface {
+	sign(x Surd) (int, error)
+	polySign(p *poly.Poly) (int, error)
+	ratSign(f poly.RatFunc) (int, error)
+}
+
+// errUndecided marks a sign that a box test leaves open.
+var errUndecided = errors.New("sign not decided on the box")
+
+// pointSigns decides signs at one value t of the free parameter.
+type pointSigns struct {
+	e evaluator
+	t point
+}
+
+func (p pointSigns) sign(x Surd) (int, error)           { return p.e.sign(x, p.t) }
+func (p pointSigns) polySign(q *poly.Poly) (int, error) { return p.e.polySign(q, p.t) }
+func (p pointSigns) ratSign(f poly.RatFunc) (int, error) {
+	return p.e.ratSign(f, p.t)
+}

@@ -43,6 +43,9 @@ type BranchesOutput struct {
 	// on a grid of it (SamplesJSON; not exact between grid values); null
 	// otherwise.
 	Samples *SamplesOutput `json:"samples"`
+	// Map: with two or more free parameters, the labelled bisection of
+	// their box (MapJSON); null otherwise.
+	Map *MapOutput `json:"map"`
 }
 
 // FreeParamOutput is a free parameter and its assumed range.
@@ -419,7 +422,7 @@ func BranchesJSON(m *model.Model, an *branches.Analysis, certs []LinearCert) Bra
 		Analysis: "symbolic", TimeKind: timeWord(m.Discrete), Params: map[string]string{},
 		Free: []FreeParamOutput{}, ClosedForm: an.ClosedForm, Reason: an.Reason,
 		Notes: append([]string{}, an.Notes...), Branches: []BranchOutput{}, Bifurcations: []BifurcationOutput{},
-		LinearCertificates: LinearCertsJSON(certs),
+		LinearCertificates: LinearCertsJSON(certs), Map: MapJSON(an),
 	}
 	for _, p := range m.Params {
 		if p.Fixed != nil {
@@ -618,8 +621,11 @@ func branchesText(w io.Writer, m *model.Model, an *branches.Analysis, certs []Li
 		}
 	}
 	if pi < 0 {
-		if len(m.FreeParams()) > 1 {
-			fmt.Fprintln(w, "\nNo classification: it runs along one free parameter; fix the others with --set.")
+		switch {
+		case an.Map != nil:
+			mapText(w, an)
+		case len(m.FreeParams()) > 1:
+			fmt.Fprintln(w, "\nNo classification: every free parameter needs a bounded range or a box (--box NAME=LO..HI), or fix all but one with --set.")
 		}
 		if len(certs) > 0 {
 			LinearCertsText(w, "", certs)

@@ -34,6 +34,8 @@ type findCmd struct {
 	Exact         bool     `name:"exact" help:"At fixed parameters: certify with the exact rational solution P of the Lyapunov equation instead of the short rounded one (rational equilibria only; elsewhere the rounded P is used, with a note)."`
 	Points        int      `name:"points" placeholder:"N" default:"41" help:"With one free parameter and no closed form for the branches: sample the parameter's range at N evenly spaced values (at least 2) and find the equilibria at each (sampled, not exact between them)."`
 	Report        string   `name:"report" placeholder:"FILE.md|FILE.tex|FILE.html" help:"With free parameters: write a report of the analysis (branches, classification, bifurcations and the bifurcation diagram): Markdown or a LaTeX document with the diagram as a PNG beside it (FILE-diagram.png), or one HTML page with it inline."`
+	Box           []string `name:"box" placeholder:"NAME=LO..HI" help:"With two or more free parameters: classify over this range of a parameter instead of its allowed range (repeatable); every free parameter needs a bounded range or a box."`
+	Resolution    string   `name:"resolution" default:"1/64" placeholder:"P/Q" help:"With two or more free parameters: halve boxes while a label is undecided, until each side is at most this share of the box's side."`
 	PlotState     string   `name:"plot-state" placeholder:"STATE" help:"Draw only this state's coordinate in --plot (default: one panel per state)."`
 	sosFlags
 	limitFlags
@@ -191,8 +193,12 @@ func (c *findCmd) symbolic(ctx context.Context, e *env, m *model.Model, format s
 		return e.failf(exitInput, "--exact chooses the P of a certificate at one parameter point; fix the free parameters (%s) with --set", paramNames(free))
 	case c.Q != "identity":
 		return e.failf(exitInput, "--q sets the Lyapunov equation of a certificate; fix the free parameters (%s) with --set", paramNames(free))
-	case c.Plot != "" && len(free) != 1:
-		return e.failf(exitInput, "--plot %s draws a bifurcation diagram along one free parameter, and %s are free; fix all but one with --set", c.Plot, paramNames(free))
+	case c.Plot != "" && len(free) > 2:
+		return e.failf(exitInput, "--plot %s draws a bifurcation diagram along one free parameter or a map over two, and %s are free; fix all but two with --set", c.Plot, paramNames(free))
+	case c.PlotState != "" && len(free) != 1:
+		return e.failf(exitInput, "--plot-state chooses the panels of a bifurcation diagram along one free parameter, and %s are free", paramNames(free))
+	case (len(c.Box) > 0 || c.Resolution != "1/64") && len(free) < 2:
+		return e.failf(exitInput, "--box and --resolution set the map over two or more free parameters, and %s is free", paramNames(free))
 	case c.Points < 2 || c.Points > 10001:
 		return e.failf(exitInput, "--points %d: give between 2 and 10001 grid values", c.Points)
 	case c.PlotState != "" && c.Plot == "" && c.Report == "":
@@ -214,9 +220,19 @@ func (c *findCmd) symbolic(ctx context.Context, e *env, m *model.Model, format s
 		}
 		states = s
 	}
-	an, err := branches.Analyze(ctx, m, branches.Options{})
+	opts, err := c.mapOptions()
 	if err != nil {
 		return e.fail(exitInput, err)
+	}
+	an, err := branches.Analyze(ctx, m, opts)
+	if err != nil {
+		if ctx.Err() != nil {
+			return exitStopped
+		}
+		return e.fail(exitInput, err)
+	}
+	if c.Plot != "" && len(free) == 2 && an.ClosedForm && an.Map == nil {
+		return e.failf(exitInput, "--plot %s: no map to draw (%s)", c.Plot, strings.Join(an.Notes, "; "))
 	}
 	var certs []report.LinearCert
 	if c.CertifyLinear && an.ClosedForm {
@@ -258,7 +274,15 @@ func (c *findCmd) symbolic(ctx context.Context, e *env, m *model.Model, format s
 		}
 		return exitFails
 	}
-	if c.Plot != "" {
+	if c.Plot != "" && an.Map != nil {
+		data, err := report.BranchMap(m, an, format)
+		if err != nil {
+			return e.failf(exitFails, "--plot %s: %w", c.Plot, err)
+		}
+		if err := certificates.WriteFileAtomic(c.Plot, data, 0o644); err != nil {
+			return e.failf(exitInput, "writing the plot: %w", err)
+		}
+	} else if c.Plot != "" {
 		data, err := report.BifurcationDiagram(m, an, states, format)
 		if err != nil {
 			return e.failf(exitFails, "--plot %s: %w", c.Plot, err)
@@ -268,6 +292,40 @@ func (c *findCmd) symbolic(ctx context.Context, e *env, m *model.Model, format s
 		}
 	}
 	return exitHolds
+}
+
+// mapOptions reads --box and --resolution for the map over several free
+// parameters.
+func (c *findCmd) mapOptions() (branches.Options, error) {
+	var o branches.Options
+	res, err := constant(c.Resolution, "--resolution")
+	if err != nil {
+		return o, err
+	}
+	if res.Sign() <= 0 || res.Cmp(big.NewRat(1, 1)) > 0 {
+		return o, fmt.Errorf("--resolution %s: give a share in (0, 1]", c.Resolution)
+	}
+	o.Resolution = res
+	o.Box = map[string][2]*big.Rat{}
+	for _, s := range c.Box {
+		name, lo, hi, err := parseBox(s)
+		if err != nil {
+			return o, err
+		}
+		if _, dup := o.Box[name]; dup {
+			return o, fmt.Errorf("--box %s: given twice", name)
+		}
+		l, err := constant(lo, "--box "+name+" (lower end)")
+		if err != nil {
+			return o, err
+		}
+		h, err := constant(hi, "--box "+name+" (upper end)")
+		if err != nil {
+			return o, err
+		}
+		o.Box[name] = [2]*big.Rat{l, h}
+	}
+	return o, nil
 }
 
 // boxLyapunov runs the vertex test (certify/vertex) on the box of the free

@@ -8,7 +8,7 @@ import (
 )
 
 // TestMapOutput checks the map's JSON and text for a companion form with
-// two gains, x''' + 2x'' + k₂x' + k₁x = 0 (an invented scenario): by the
+// two gains, x”' + 2x” + k₂x' + k₁x = 0 (an invented scenario): by the
 // Routh–Hurwitz criterion for a cubic (Dorf & Bishop, Modern Control
 // Systems, §6.2) the origin is stable iff k₁ > 0 and 2k₂ > k₁, which on
 // [−1, 4]² is the exact share ∫ (4 − k₁/2) dk₁ over (0, 4] divided by 25,

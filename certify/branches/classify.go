@@ -139,17 +139,22 @@ func classify(ctx context.Context, m *model.Model, an *Analysis, opts Options) e
 			addSurd(ex[i].p1)
 			addSurd(ex[i].pm1)
 		}
+		// Coordinates of two branches meet where a transcritical or
+		// pitchfork may happen; those places are roots of the above.
+	}
+	if len(free) >= 2 {
+		// The map labels by the quantities above; P(p)'s region is not
+		// mapped (its minors are long, and the labels say where the
+		// branch is stable).
+		return paveMap(ctx, m, an, ex, crit, opts)
+	}
+	for _, b := range an.Branches {
 		if q := b.Quadratic; q != nil && q.P != nil {
 			addSurd(q.SystemDet)
 			for _, mi := range q.Minors {
 				addSurd(mi)
 			}
 		}
-		// Coordinates of two branches meet where a transcritical or
-		// pitchfork may happen; those places are roots of the above.
-	}
-	if len(free) >= 2 {
-		return paveMap(ctx, m, an, ex, crit, opts)
 	}
 	pts, err := criticalPoints(ctx, e, crit, an.Range)
 	if err != nil {

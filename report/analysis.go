@@ -6,6 +6,7 @@ import (
 	htmltemplate "html/template"
 	"io"
 	"math/big"
+	"slices"
 	"strings"
 	texttemplate "text/template"
 
@@ -134,7 +135,7 @@ func buildAnalysis(m *model.Model, an *branches.Analysis, s *equilibria.Sampling
 	p := &analysisPage{
 		Title: "Equilibrium analysis", Source: m.File, Tool: opts.Tool, Discrete: m.Discrete,
 		Description: paragraphs(m.Description), ClosedForm: an.ClosedForm,
-		Reason: strings.TrimPrefix(an.Reason, "no closed form: "), Notes: an.Notes,
+		Reason: strings.TrimPrefix(an.Reason, "no closed form: "), Notes: append(slices.Clone(an.Notes), degenerateReportNotes(m, an)...),
 		Note: analysisNoteReport, Cautions: []string{analysisCaution},
 	}
 	if m.File != "" {

@@ -32,6 +32,10 @@ type Options struct {
 	Box        map[string][2]*big.Rat
 	Resolution *big.Rat
 	MaxBoxes   int
+
+	// For the analysis at a degenerate value (Degeneracy): no
+	// classification, no further degeneracies.
+	noClassify, noDegenerate bool
 }
 
 func (o Options) withDefaults() Options {
@@ -68,6 +72,10 @@ type Analysis struct {
 	// Two or more free parameters: the labelled bisection of their box;
 	// nil when a parameter has no bounded range (a note says which).
 	Map *Map
+
+	// Degenerate lists where a condition c(p) ≠ 0 of the branches fails
+	// within the parameters' ranges, with the equilibria there.
+	Degenerate []Degeneracy
 }
 
 // Branch is one equilibrium branch: x = Coords(p) where the parameters p
@@ -183,6 +191,14 @@ func Analyze(ctx context.Context, m *model.Model, opts Options) (*Analysis, erro
 		if err := linearize(ctx, m, b, opts); err != nil {
 			return nil, err
 		}
+	}
+	if !opts.noDegenerate {
+		if err := degeneracies(ctx, m, an, opts); err != nil {
+			return nil, err
+		}
+	}
+	if opts.noClassify {
+		return an, nil
 	}
 	if err := classify(ctx, m, an, opts); err != nil {
 		return nil, err

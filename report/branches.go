@@ -46,6 +46,9 @@ type BranchesOutput struct {
 	// Map: with two or more free parameters, the labelled bisection of
 	// their box (MapJSON); null otherwise.
 	Map *MapOutput `json:"map"`
+	// Degenerate: where a condition "c != 0" of the branches fails within
+	// the ranges, with the equilibria found there (DegenerateJSON).
+	Degenerate []DegenerateOutput `json:"degenerate"`
 }
 
 // FreeParamOutput is a free parameter and its assumed range.
@@ -422,7 +425,7 @@ func BranchesJSON(m *model.Model, an *branches.Analysis, certs []LinearCert) Bra
 		Analysis: "symbolic", TimeKind: timeWord(m.Discrete), Params: map[string]string{},
 		Free: []FreeParamOutput{}, ClosedForm: an.ClosedForm, Reason: an.Reason,
 		Notes: append([]string{}, an.Notes...), Branches: []BranchOutput{}, Bifurcations: []BifurcationOutput{},
-		LinearCertificates: LinearCertsJSON(certs), Map: MapJSON(an),
+		LinearCertificates: LinearCertsJSON(certs), Map: MapJSON(an), Degenerate: DegenerateJSON(m, an),
 	}
 	for _, p := range m.Params {
 		if p.Fixed != nil {
@@ -549,6 +552,7 @@ func branchesText(w io.Writer, m *model.Model, an *branches.Analysis, certs []Li
 	for _, n := range an.Notes {
 		fmt.Fprintf(w, "  note: %s\n", n)
 	}
+	degenerateText(w, m, an)
 	pi := -1
 	if an.Param != "" {
 		pi, _ = an.Ring.Index(an.Param)

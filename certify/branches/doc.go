@@ -118,4 +118,14 @@
 // exactly where the branch is linearly stable. For one free parameter
 // Quadratic.Region is that set as spans; the caller turns it into a region
 // the kernel checks.
+//
+// A branch with a square root √w has no such region the kernel can read
+// (its Jacobian lies in Q(p)(√w)). When w is of degree one in a parameter,
+// w = c·p + d, the substitution p = (u² − d)/c with a new parameter u > 0
+// makes √w = u, so the branch is rational in u (Reparametrize): the model
+// in u is an ordinary model, and its region in u maps back to p through the
+// relation, monotone on u > 0 when c is a constant. An algebraic end u*,
+// the root of q(u), maps to the root of E(s)² − s·O(s)² with
+// q(u) = E(u²) + u·O(u²) and s = c·p + d, isolated by refining u*'s
+// interval (MapBack).
 package branches

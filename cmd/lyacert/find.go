@@ -377,6 +377,14 @@ func (c *findCmd) linearCerts(ctx context.Context, m *model.Model, an *branches.
 			return nil, err
 		}
 		text, err := branches.LinearModel(m, an, i)
+		if errors.Is(err, branches.ErrNoLinearModel) && an.Branches[i].W != nil && an.Branches[i].Isolated() {
+			lc, err := c.reparamCert(ctx, m, an, i, err)
+			if err != nil {
+				return nil, err
+			}
+			out = append(out, lc)
+			continue
+		}
 		if errors.Is(err, branches.ErrNoLinearModel) {
 			out = append(out, report.LinearCert{Branch: i, Skipped: err.Error()})
 			continue
@@ -409,6 +417,68 @@ func (c *findCmd) linearCerts(ctx context.Context, m *model.Model, an *branches.
 		out = append(out, lc)
 	}
 	return out, nil
+}
+
+// reparamCert certifies the linearisation along a branch with a square
+// root through its rational parametrization (branches.Reparametrize): the
+// certificate is about the model in the new parameter, and its region is
+// mapped back to the original one.
+func (c *findCmd) reparamCert(ctx context.Context, m *model.Model, an *branches.Analysis, i int, why error) (report.LinearCert, error) {
+	rp, err := branches.Reparametrize(ctx, m, an, i)
+	if errors.Is(err, branches.ErrNoReparametrization) {
+		return report.LinearCert{Branch: i, Skipped: fmt.Sprintf("%v; %v", why, err)}, nil
+	}
+	if err != nil {
+		return report.LinearCert{}, err
+	}
+	text, err := branches.LinearModel(rp.Model, rp.Analysis, rp.Index)
+	if errors.Is(err, branches.ErrNoLinearModel) {
+		return report.LinearCert{Branch: i, Skipped: fmt.Sprintf("%v; in %s: %v", why, rp.NewParam, err)}, nil
+	}
+	if err != nil {
+		return report.LinearCert{}, err
+	}
+	name := fmt.Sprintf("%s (branch %d in %s, linearised)", m.File, i+1, rp.NewParam)
+	lm, err := model.Parse(name, []byte(text))
+	if err != nil {
+		return report.LinearCert{}, fmt.Errorf("the linear model of branch %d in %s: %w", i+1, rp.NewParam, err)
+	}
+	res, err := direct.CheckPaving(ctx, lm, name, direct.PaveOptions{})
+	if err != nil {
+		if ctx.Err() != nil {
+			return report.LinearCert{}, ctx.Err()
+		}
+		return report.LinearCert{Branch: i, Skipped: err.Error()}, nil
+	}
+	var coords []string
+	for k, s := range m.States {
+		coords = append(coords, s+" = "+rp.Analysis.Branches[rp.Index].Coords[k].String())
+	}
+	pi, _ := an.Ring.Index(rp.Param)
+	p, _ := m.Param(rp.Param)
+	info := &report.Reparam{Param: rp.Param, NewParam: rp.NewParam, Radicand: an.Branches[i].W.String(), Relation: rp.Relation(),
+		Model: rp.Text, Coordinates: strings.Join(coords, ", "), Ring: an.Ring, Index: pi}
+	switch rg := res.Region; {
+	case rg == nil:
+		info.Region, err = rp.Region(nil, res.Verdict == checker.VerdictHolds, p.Range)
+	case rg.Paving != nil:
+		err = errors.New("the region in the new parameter is a paving")
+	default:
+		info.Region, err = rp.Region(rg.Pieces, false, p.Range)
+	}
+	if err != nil {
+		info.Note = err.Error()
+	}
+	lc := report.LinearCert{Branch: i, Model: text, Result: res, Reparam: info}
+	if c.Out != "" && res.Doc != nil {
+		ext := filepath.Ext(c.Out)
+		path := strings.TrimSuffix(c.Out, ext) + "-" + strconv.Itoa(i+1) + ext
+		if err := certificates.WriteFile(res.Doc, path); err != nil {
+			return report.LinearCert{}, fmt.Errorf("writing the certificate: %w", err)
+		}
+		lc.Written = path
+	}
+	return lc, nil
 }
 
 func paramNames(ps []model.Param) string {

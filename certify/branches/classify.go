@@ -462,9 +462,9 @@ func label(e signs, b *Branch, ex extra, discrete bool) (Label, error) {
 		}
 		return out, nil
 	}
-	h, err := signs(b.Hurwitz)
-	if err != nil {
-		return Label{}, err
+	h, herr := signs(b.Hurwitz)
+	if herr != nil && !errors.Is(herr, errUndecided) {
+		return Label{}, herr
 	}
 	l := Label{Exists: true, Stability: "undetermined", Unstable: -1}
 	lead := 1
@@ -490,6 +490,39 @@ func label(e signs, b *Branch, ex extra, discrete bool) (Label, error) {
 		if s == 0 {
 			l.Kind = "zero eigenvalue"
 			return l, nil
+		}
+	}
+	if herr != nil {
+		// On a box: the Hurwitz determinants' signs are not all decided.
+		// Where no eigenvalue meets the imaginary axis (the unit circle),
+		// their count on each side is constant on the connected box: that
+		// holds when c₀ ≠ 0 (p(±1) ≠ 0 for maps, checked above) and
+		// Hₙ₋₁ ≠ 0, which by Orlando's formula is ± the product of the
+		// pairwise sums of the roots (of q for maps), so no imaginary
+		// pair. Then the count is the one at the box's centre.
+		c, ok := e.(centred)
+		if !ok {
+			return Label{}, herr
+		}
+		n := len(b.Hurwitz)
+		if n >= 2 {
+			if s, err := e.sign(b.Hurwitz[n-2]); err != nil || s == 0 {
+				return Label{}, errUndecided
+			}
+		}
+		at := c.centre()
+		if h, herr = signsAt(at, b.Hurwitz); herr != nil {
+			return Label{}, errUndecided
+		}
+		if discrete {
+			s, err := at.sign(*b.Lead)
+			if err != nil || s == 0 {
+				return Label{}, errUndecided
+			}
+			lead = s
+		}
+		if routhCount(lead, h) < 0 {
+			return Label{}, errUndecided
 		}
 	}
 	u := routhCount(lead, h)

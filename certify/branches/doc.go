@@ -103,7 +103,12 @@
 // a² − b²w has one sign there, a + b√w does not vanish on the box and has
 // the sign of a (norm > 0) or of b (norm < 0), which is constant on the
 // connected box and read at its centre; otherwise a and b must share one
-// sign. A label that needs an undecided sign is "undecided" on that box.
+// sign. When some Hurwitz determinant's sign is undecided but c₀ (p(±1)
+// for maps) and Hₙ₋₁ have one sign on the box, no eigenvalue meets the
+// imaginary axis (unit circle) there — by Orlando's formula Hₙ₋₁ is ± the
+// product of the pairwise sums of the roots — so the number of unstable
+// eigenvalues is constant on the connected box and is read at its centre.
+// A label that needs an undecided sign is "undecided" on that box.
 // Two halves with equal labels are merged back into their parent. The
 // bisection stops at MaxBoxes boxes (Map.Truncated) and honours the
 // context's deadline.

@@ -285,11 +285,11 @@ func (pv *paver) walk(g poly.DyadicBox, forms []*poly.CenteredForm) error {
 // decided when the exact enclosure of its centred form (poly.CenteredForm,
 // open faces excluded) lies on one side of 0.
 type boxSigns struct {
-	pv     *paver
-	g      poly.DyadicBox
-	forms  []*poly.CenteredForm
-	faces  poly.OpenFaces
-	centre []*big.Rat
+	pv      *paver
+	g       poly.DyadicBox
+	forms   []*poly.CenteredForm
+	faces   poly.OpenFaces
+	centre0 []*big.Rat
 }
 
 func (s *boxSigns) polySign(p *poly.Poly) (int, error) {
@@ -364,6 +364,24 @@ func (s *boxSigns) sign(x Surd) (int, error) {
 	return 0, errUndecided
 }
 
+// centre returns exact signs at the box's centre.
+func (s *boxSigns) centre() signs {
+	s.centrePoint()
+	return ratSigns{s.centre0}
+}
+
+func (s *boxSigns) centrePoint() {
+	if s.centre0 == nil {
+		s.centre0 = make([]*big.Rat, s.pv.m.Ring.NumVars())
+		for i := range s.centre0 {
+			s.centre0[i] = new(big.Rat)
+		}
+		for i, v := range s.pv.vars {
+			s.centre0[v] = poly.Corner(s.pv.sides[i], 2*s.g.A[i]+1, s.g.K[i]+1)
+		}
+	}
+}
+
 // centreSign returns the sign of f on the box given that f does not vanish
 // there: its sign at the centre, once its denominator is shown non-zero on
 // the box.
@@ -373,16 +391,8 @@ func (s *boxSigns) centreSign(f poly.RatFunc) (int, error) {
 			return 0, err
 		}
 	}
-	if s.centre == nil {
-		s.centre = make([]*big.Rat, s.pv.m.Ring.NumVars())
-		for i := range s.centre {
-			s.centre[i] = new(big.Rat)
-		}
-		for i, v := range s.pv.vars {
-			s.centre[v] = poly.Corner(s.pv.sides[i], 2*s.g.A[i]+1, s.g.K[i]+1)
-		}
-	}
-	v, err := f.Eval(s.centre)
+	s.centrePoint()
+	v, err := f.Eval(s.centre0)
 	if err != nil || v.Sign() == 0 {
 		return 0, errUndecided
 	}

@@ -71,3 +71,36 @@ z' = -k1*x - k2*y - 2*z
 		t.Fatal("the map's SVG lacks its legend")
 	}
 }
+
+// TestMapInAnalysisReport: the analysis report shows the map's shares and,
+// for two parameters, its picture (inline SVG in HTML, a PNG beside a
+// Markdown file).
+func TestMapInAnalysisReport(t *testing.T) {
+	m, an := analyzeText(t, `# Companion form with two gains (an invented scenario).
+state x, y, z
+parameter k1 in [-1, 4]
+parameter k2 in [-1, 4]
+x' = y
+y' = z
+z' = -k1*x - k2*y - 2*z
+`)
+	var html bytes.Buffer
+	if err := RenderAnalysis(&html, m, an, nil, AnalysisOptions{Format: HTML, WholeDocument: true, Tool: "test"}); err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(html.String(), `<section id="map">`) || !strings.Contains(html.String(), "node, stable: ") || strings.Count(html.String(), "<svg") != 1 {
+		t.Fatal("the HTML report lacks the map")
+	}
+	var md bytes.Buffer
+	var figure []byte
+	opts := AnalysisOptions{Format: Markdown, Tool: "test", Figure: func(name string, data []byte) (string, error) {
+		figure = data
+		return "f-" + name, nil
+	}}
+	if err := RenderAnalysis(&md, m, an, nil, opts); err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(md.String(), "## Classification over the box of k1 and k2") || !strings.Contains(md.String(), "![Map of the labels](f-map.png)") || !bytes.HasPrefix(figure, []byte("\x89PNG")) {
+		t.Fatalf("the Markdown report lacks the map:\n%s", md.String())
+	}
+}

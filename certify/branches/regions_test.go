@@ -446,3 +446,33 @@ func TestMapNeedsBox(t *testing.T) {
 		t.Fatal("a box of an unknown parameter was accepted")
 	}
 }
+
+// TestMapCentreCandidate: x' = ay, y' = −bx has trace 0 and determinant ab
+// (hand computation): a centre candidate where ab > 0 and a saddle where
+// ab < 0 (trace–determinant classification, common practice). With
+// a ∈ [1, 2], b ∈ [−1, 2], every decided leaf must say so at its centre,
+// and the undecided ones must touch b = 0.
+func TestMapCentreCandidate(t *testing.T) {
+	m := parse(t, "cc.lya", "# A lossless oscillator with two gains (an invented scenario).\nstate x, y\nparameter a in [1, 2]\nparameter b in [-1, 2]\nx' = a*y\ny' = -b*x\n")
+	an := mapOf(t, m, Options{})
+	for _, l := range an.Map.Leaves {
+		lo, hi := an.Map.Corners(l)
+		lab := l.Labels[0]
+		switch {
+		case lab.Undecided:
+			if lo[1].Sign() > 0 || hi[1].Sign() < 0 {
+				t.Fatalf("undecided away from b = 0: b ∈ [%s, %s]", lo[1].RatString(), hi[1].RatString())
+			}
+		case lo[1].Sign() > 0:
+			if lab.Kind != "centre candidate" {
+				t.Fatalf("b ∈ [%s, %s]: %+v", lo[1].RatString(), hi[1].RatString(), lab)
+			}
+		case hi[1].Sign() < 0:
+			if lab.Kind != "saddle" || lab.Unstable != 1 {
+				t.Fatalf("b ∈ [%s, %s]: %+v", lo[1].RatString(), hi[1].RatString(), lab)
+			}
+		default:
+			t.Fatalf("leaf across b = 0 decided: %+v", lab)
+		}
+	}
+}

@@ -177,6 +177,9 @@ func buildAnalysis(m *model.Model, an *branches.Analysis, s *equilibria.Sampling
 		return p, nil
 	}
 	p.Complete = "The list is complete for every parameter value."
+	if len(an.Degenerate) > 0 {
+		p.Complete = "The list is complete at every parameter value except those named in the notes below."
+	}
 	if hasNonzero(an) {
 		p.Complete = "The list is complete at every parameter value where no condition the elimination divided by vanishes; where one does, fix the parameters there to see that point."
 	}

@@ -546,6 +546,8 @@ func branchesText(w io.Writer, m *model.Model, an *branches.Analysis, certs []Li
 	if hasNonzero(an) {
 		fmt.Fprintln(w, "  the list is complete at every parameter value where no condition \"derived assuming … != 0\" below fails;")
 		fmt.Fprintln(w, "  where one fails the elimination divided by zero: fix the parameters there with --set to see that point")
+	} else if len(an.Degenerate) > 0 {
+		fmt.Fprintln(w, "  the list is complete at every parameter value except those named below")
 	} else {
 		fmt.Fprintln(w, "  the list is complete for every parameter value")
 	}

@@ -28,6 +28,10 @@ type DegenerateOutput struct {
 	// OffBranches: some equilibrium there is the value of no branch.
 	OffBranches bool   `json:"off_branches"`
 	Note        string `json:"note"`
+	// Kind: "divisor" (the elimination divided by c) or "equation" (c was
+	// met as an equation in the parameters alone: a further case of
+	// equilibria exists only where c = 0).
+	Kind string `json:"kind"`
 }
 
 // DegenerateEquilib is one equilibrium (or set of equilibria) at a
@@ -44,7 +48,10 @@ type DegenerateEquilib struct {
 func DegenerateJSON(m *model.Model, an *branches.Analysis) []DegenerateOutput {
 	out := []DegenerateOutput{}
 	for _, d := range an.Degenerate {
-		o := DegenerateOutput{Condition: d.Cond.String() + " != 0", Checked: d.Checked, Equilibria: []DegenerateEquilib{}, OffBranches: d.OffBranches(), Note: d.Note}
+		o := DegenerateOutput{Condition: d.Cond.String() + " != 0", Checked: d.Checked, Equilibria: []DegenerateEquilib{}, OffBranches: d.OffBranches(), Note: d.Note, Kind: "divisor"}
+		if d.Equation {
+			o.Kind = "equation"
+		}
 		if d.Param != "" {
 			p := d.Param
 			o.Param = &p
@@ -103,17 +110,23 @@ func degenerateNotes(m *model.Model, an *branches.Analysis) []string {
 			}
 			where = fmt.Sprintf("at %s = %s", *o.Param, v)
 		}
+		fails := o.Condition + " fails"
+		apply := "the branches' formulas do not apply"
+		if o.Kind == "equation" {
+			fails = strings.TrimSuffix(o.Condition, " != 0") + ", met as an equation, vanishes"
+			apply = "the elimination's list of branches misses a case"
+		}
 		switch {
 		case !o.Checked:
-			out = append(out, fmt.Sprintf("warning: %s (%s fails) the branches' formulas do not apply, and equilibria that exist only there are not among them: %s", where, o.Condition, o.Note))
+			out = append(out, fmt.Sprintf("warning: %s (%s) %s, and equilibria that exist only there are not among them: %s", where, fails, apply, o.Note))
 		case len(o.Equilibria) == 0:
-			out = append(out, fmt.Sprintf("%s (%s fails) the branches' formulas do not apply; with %s fixed there no equilibrium is found", where, o.Condition, *o.Param))
+			out = append(out, fmt.Sprintf("%s (%s) %s; with %s fixed there no equilibrium is found", where, fails, apply, *o.Param))
 		default:
 			word := "note"
 			if o.OffBranches {
 				word = "warning"
 			}
-			s := fmt.Sprintf("%s: %s (%s fails) the branches' formulas do not apply; with %s fixed there the equilibria are:", word, where, o.Condition, *o.Param)
+			s := fmt.Sprintf("%s: %s (%s) %s; with %s fixed there the equilibria are:", word, where, fails, apply, *o.Param)
 			for _, e := range o.Equilibria {
 				var parts []string
 				for _, st := range m.States {

@@ -74,8 +74,11 @@ type Analysis struct {
 	Map *Map
 
 	// Degenerate lists where a condition c(p) ≠ 0 of the branches fails
-	// within the parameters' ranges, with the equilibria there.
+	// within the parameters' ranges, with the equilibria there; also where
+	// a parameter polynomial that the elimination met as an equation
+	// vanishes (a further branch may exist only there).
 	Degenerate []Degeneracy
+	further    []*poly.Poly
 }
 
 // Branch is one equilibrium branch: x = Coords(p) where the parameters p
@@ -154,6 +157,7 @@ func Analyze(ctx context.Context, m *model.Model, opts Options) (*Analysis, erro
 		return nil, err
 	}
 	an.Notes = s.notes
+	an.further = s.further
 	for _, rb := range s.out {
 		b, err := backSubstitute(rb, n, r)
 		if err != nil {

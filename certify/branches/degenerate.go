@@ -21,6 +21,10 @@ type Degeneracy struct {
 	Cond  *poly.Poly
 	Param string
 	Value *poly.URoot
+	// Equation: c was met as an equation in the parameters alone (the
+	// equilibria of that case exist only where c = 0); otherwise the
+	// elimination divided by c.
+	Equation bool
 	// Checked: the equilibria at Value were computed by the same
 	// analysis with the parameter fixed there (a rational root only).
 	// Found are they, in the ring of that analysis (Ring); OnBranch[i]
@@ -45,12 +49,20 @@ func (d *Degeneracy) OffBranches() bool { return slices.Contains(d.OnBranch, -1)
 func degeneracies(ctx context.Context, m *model.Model, an *Analysis, opts Options) error {
 	var conds []*poly.Poly
 	seen := map[string]bool{}
+	equation := map[*poly.Poly]bool{}
 	for _, b := range an.Branches {
 		for _, c := range b.Nonzero {
 			if k := c.String(); !seen[k] && !c.IsConst() {
 				seen[k] = true
 				conds = append(conds, c)
 			}
+		}
+	}
+	for _, c := range an.further {
+		if k := c.String(); !seen[k] {
+			seen[k] = true
+			conds = append(conds, c)
+			equation[c] = true
 		}
 	}
 	free := m.FreeParams()
@@ -68,7 +80,7 @@ func degeneracies(ctx context.Context, m *model.Model, an *Analysis, opts Option
 			if len(used) > 1 && !mayVanish(m, c, used) {
 				continue
 			}
-			an.Degenerate = append(an.Degenerate, Degeneracy{Cond: c, Note: "it may vanish within the parameters' ranges; fix the parameters at such a point with --set to see the equilibria there"})
+			an.Degenerate = append(an.Degenerate, Degeneracy{Cond: c, Equation: equation[c], Note: "it may vanish within the parameters' ranges; fix the parameters at such a point with --set to see the equilibria there"})
 			continue
 		}
 		p := used[0]
@@ -81,7 +93,7 @@ func degeneracies(ctx context.Context, m *model.Model, an *Analysis, opts Option
 			if !inRange(r, p.Range) {
 				continue
 			}
-			d := Degeneracy{Cond: c, Param: p.Name, Value: &r}
+			d := Degeneracy{Cond: c, Param: p.Name, Value: &r, Equation: equation[c]}
 			if r.Exact == nil {
 				d.Note = "an irrational value: fix the parameter near it with --set to see the equilibria there"
 			} else if err := d.analyse(ctx, m, an, p.Name, r.Exact, opts); err != nil {

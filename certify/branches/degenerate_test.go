@@ -34,6 +34,11 @@ func TestDegenerate(t *testing.T) {
 		// a = 1 both equations are x + y − 1: the line x = 1 − y.
 		{"matched", "state x, y\nparameter a\nx' = a*x + y - a\ny' = x - 1 + y\n",
 			[]string{"a=0", "[1 0]|[]|1", "a=1", "[(-y + 1) y]|[1]|0"}, ""},
+		// x' = xy, y' = a − 1: no equilibrium unless a = 1, where both
+		// axes are lines of equilibria (a parameter equation, not a
+		// divisor).
+		{"equation", "state x, y\nparameter a\nx' = x*y\ny' = a - 1\n",
+			[]string{"a=1 equation", "[0 y]|[1]|0", "[x 0]|[0]|0"}, ""},
 		// x = 1/(a² − 2): the condition fails at a = √2, irrational: said,
 		// not analysed.
 		{"irrational", "state x, y\nparameter a in [0, 2]\nx' = (a^2 - 2)*x - 1\ny' = -y\n",
@@ -47,6 +52,9 @@ func TestDegenerate(t *testing.T) {
 				v := "root"
 				if d.Value != nil && d.Value.Exact != nil {
 					v = d.Value.Exact.RatString()
+				}
+				if d.Equation {
+					v += " equation"
 				}
 				got = append(got, d.Param+"="+v)
 				for k, f := range d.Found {

@@ -5,6 +5,7 @@ import (
 	"errors"
 	"fmt"
 	"math/big"
+	"slices"
 
 	"github.com/lyacert/lyacert/model"
 	"github.com/lyacert/lyacert/poly"
@@ -503,6 +504,15 @@ func label(e signs, b *Branch, ex extra, discrete bool) (Label, error) {
 		c, ok := e.(centred)
 		if !ok {
 			return Label{}, herr
+		}
+		// The roots move continuously on the box: no coefficient has a
+		// pole there.
+		for _, ck := range b.CharPoly {
+			for _, d := range append(slices.Clone(ck.A.Den), ck.B.Den...) {
+				if _, err := e.polySign(d.P); err != nil {
+					return Label{}, errUndecided
+				}
+			}
 		}
 		n := len(b.Hurwitz)
 		if n >= 2 {

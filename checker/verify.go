@@ -106,13 +106,7 @@ func VerifyContext(ctx context.Context, d *claims.Document) Outcome {
 	}
 	out := Outcome{Valid: c.ok() && len(c.records) > 0, Records: c.records, Verdict: verdict, Kind: kind, Refuted: c.refuted, Basin: c.basin, NotSOS: c.notSOS}
 	if out.Valid {
-		var rs []string
-		for _, r := range []string{"sturm-region", "paving", "witness-points"} {
-			if c.seen[r] {
-				rs = append(rs, r)
-			}
-		}
-		out.Region = strings.Join(rs, " + ")
+		out.Region = strings.Join(slices.DeleteFunc([]string{"sturm-region", "paving", "witness-points"}, func(r string) bool { return !c.seen[r] }), " + ")
 	} else {
 		out.Verdict, out.Kind, out.Refuted, out.Basin, out.NotSOS = "", "", false, "", nil
 	}

@@ -6,6 +6,7 @@ import (
 	htmltemplate "html/template"
 	"io"
 	"math/big"
+	"slices"
 	"strings"
 	texttemplate "text/template"
 
@@ -54,6 +55,7 @@ type analysisPage struct {
 	Ends        []rich
 	Bifurcs     []rich
 	Diagram     *diagramView
+	Map         *mapView // two or more free parameters: the map over their box
 	Samples     []sampleView
 	SampledNote string
 	Note        string
@@ -68,6 +70,19 @@ type branchView struct {
 	Exists   rich
 	Isolated bool
 	Pieces   []rich
+}
+
+// mapView is the map over several free parameters: each branch's share of
+// the box per label, and the picture for two parameters.
+type mapView struct {
+	Title, Intro string
+	Branches     []mapBranchView
+	Diagram      *diagramView
+}
+
+type mapBranchView struct {
+	ID    int
+	Lines []string
 }
 
 // diagramView is the bifurcation diagram: inline SVG (HTML), or a PNG
@@ -103,6 +118,9 @@ func RenderAnalysis(w io.Writer, m *model.Model, an *branches.Analysis, s *equil
 	if err != nil {
 		return err
 	}
+	if err := analysisMap(p, m, an, opts); err != nil {
+		return err
+	}
 	if err := analysisDiagram(p, m, an, opts); err != nil {
 		return err
 	}
@@ -134,7 +152,7 @@ func buildAnalysis(m *model.Model, an *branches.Analysis, s *equilibria.Sampling
 	p := &analysisPage{
 		Title: "Equilibrium analysis", Source: m.File, Tool: opts.Tool, Discrete: m.Discrete,
 		Description: paragraphs(m.Description), ClosedForm: an.ClosedForm,
-		Reason: strings.TrimPrefix(an.Reason, "no closed form: "), Notes: an.Notes,
+		Reason: strings.TrimPrefix(an.Reason, "no closed form: "), Notes: append(slices.Clone(an.Notes), degenerateReportNotes(m, an)...),
 		Note: analysisNoteReport, Cautions: []string{analysisCaution},
 	}
 	if m.File != "" {
@@ -159,6 +177,9 @@ func buildAnalysis(m *model.Model, an *branches.Analysis, s *equilibria.Sampling
 		return p, nil
 	}
 	p.Complete = "The list is complete for every parameter value."
+	if len(an.Degenerate) > 0 {
+		p.Complete = "The list is complete at every parameter value except those named in the notes below."
+	}
 	if hasNonzero(an) {
 		p.Complete = "The list is complete at every parameter value where no condition the elimination divided by vanishes; where one does, fix the parameters there to see that point."
 	}
@@ -382,6 +403,63 @@ func analysisDiagram(p *analysisPage, m *model.Model, an *branches.Analysis, opt
 		d.Figure = ref
 	}
 	p.Diagram = d
+	return nil
+}
+
+// analysisMap adds the map over several free parameters: the shares of
+// each label per branch, and the picture for two parameters (inline SVG
+// for HTML, a PNG through opts.Figure for Markdown and LaTeX).
+func analysisMap(p *analysisPage, m *model.Model, an *branches.Analysis, opts AnalysisOptions) error {
+	mp := an.Map
+	if !an.ClosedForm || mp == nil {
+		return nil
+	}
+	res := new(big.Rat).SetFrac(big.NewInt(1), new(big.Int).Lsh(big.NewInt(1), uint(mp.Level)))
+	var sides []string
+	for i, s := range mp.Box {
+		sides = append(sides, mp.Params[i]+" in "+s.String())
+	}
+	v := &mapView{Title: "Classification over the box of " + strings.Join(mp.Params, " and "),
+		Intro: "The box " + strings.Join(sides, ", ") + " is halved down to " + res.RatString() + " of each side while a label is undecided. Every label below holds on the whole box it is given for: the signs it rests on (trace, determinant, discriminant, Hurwitz determinants) are decided there by exact centred forms. Shares are exact shares of the box's volume."}
+	for i := range an.Branches {
+		bv := mapBranchView{ID: i + 1}
+		for _, sh := range mapShares(mp, i) {
+			k := sh.class
+			if sh.stability != sh.class {
+				k += ", " + sh.stability
+			}
+			f, _ := sh.share.Float64()
+			bv.Lines = append(bv.Lines, fmt.Sprintf("%s: %.2f %% of the box (%s)", k, 100*f, sh.share.RatString()))
+		}
+		v.Branches = append(v.Branches, bv)
+	}
+	if len(mp.Params) == 2 {
+		d := &diagramView{Caption: "Each panel is one branch over (" + strings.Join(mp.Params, ", ") + "); a box is coloured by the label decided on all of it, grey where undecided, white where the branch does not exist."}
+		switch opts.Format {
+		case HTML:
+			svg, err := BranchMap(m, an, "svg")
+			if err != nil {
+				return err
+			}
+			d.SVG = inlineSVG(svg)
+		default:
+			if opts.Figure == nil {
+				d.Note = "The map is in the HTML report, or beside this file when it is written to a file."
+				break
+			}
+			data, err := BranchMap(m, an, "png")
+			if err != nil {
+				return err
+			}
+			ref, err := opts.Figure("map.png", data)
+			if err != nil {
+				return err
+			}
+			d.Figure = ref
+		}
+		v.Diagram = d
+	}
+	p.Map = v
 	return nil
 }
 

@@ -8,6 +8,7 @@ import (
 	"github.com/lyacert/lyacert/certificates"
 	"github.com/lyacert/lyacert/certify/direct"
 	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/poly"
 )
 
 // LinearCert is the kernel's check of one branch's linearisation with the
@@ -19,6 +20,39 @@ type LinearCert struct {
 	Result  *direct.Result
 	Skipped string
 	Written string // the file the certificate was written to, "" for none
+	// Reparam is set when the certificate is about the rational
+	// parametrization of a branch with a square root.
+	Reparam *Reparam
+}
+
+// Reparam says that a linear certificate is about the model in a new
+// parameter u = √w > 0 that makes a branch with a square root rational
+// (branches.Reparametrization), and maps its region back.
+type Reparam struct {
+	Param, NewParam string
+	Radicand        string // w
+	Relation        string // p = (u² − d)/c
+	Model           string // the reparametrized model's text
+	Coordinates     string // the branch in u
+	// Region is the certified region of u mapped back to Param (exact
+	// ends, clipped to its range), written with Ring and Index; Note says
+	// why it is not mapped back.
+	Region []poly.Span
+	Ring   *poly.Ring
+	Index  int
+	Note   string
+}
+
+// ReparamOutput is the JSON of a Reparam.
+type ReparamOutput struct {
+	Param       string           `json:"param"`
+	NewParam    string           `json:"new_param"`
+	Radicand    string           `json:"radicand"`
+	Relation    string           `json:"relation"`
+	Model       string           `json:"model"`
+	Coordinates string           `json:"coordinates"`
+	Region      []IntervalOutput `json:"region"` // in param; null when not mapped back
+	Note        string           `json:"note"`
 }
 
 // LinearCertOutput is the JSON of a LinearCert.
@@ -32,6 +66,9 @@ type LinearCertOutput struct {
 	Digest      *string       `json:"digest"`
 	Checks      int           `json:"checks_passed"`
 	Certificate *string       `json:"certificate"`
+	// Reparametrized: the certificate is about the model in new_param
+	// (its region is in new_param), mapped back to param; null otherwise.
+	Reparametrized *ReparamOutput `json:"reparametrized"`
 }
 
 func strPtr(s string) *string { return &s }
@@ -55,6 +92,14 @@ func LinearCertsJSON(cs []LinearCert) []LinearCertOutput {
 		if c.Written != "" {
 			o.Certificate = strPtr(c.Written)
 		}
+		if rp := c.Reparam; rp != nil {
+			ro := &ReparamOutput{Param: rp.Param, NewParam: rp.NewParam, Radicand: rp.Radicand, Relation: rp.Relation,
+				Model: rp.Model, Coordinates: rp.Coordinates, Note: rp.Note}
+			if rp.Note == "" {
+				ro.Region = spansOutput(rp.Region, rp.Ring, rp.Index)
+			}
+			o.Reparametrized = ro
+		}
 		out = append(out, o)
 	}
 	return out
@@ -72,6 +117,12 @@ func LinearCertsText(w io.Writer, param string, cs []LinearCert) error {
 		}
 		res := c.Result
 		where := "for every parameter value"
+		param := param
+		if rp := c.Reparam; rp != nil {
+			fmt.Fprintf(ew, "  branch %d: through u = sqrt(%s) > 0 in place of %s, %s, the branch is %s — rational in %s.\n", c.Branch+1, rp.Radicand, rp.Param, rp.Relation, rp.Coordinates, rp.NewParam)
+			fmt.Fprintf(ew, "    The certificate below is about that reparametrized model (in %s), not the model in %s:\n", rp.NewParam, rp.Param)
+			param = rp.NewParam
+		}
 		var roots []string
 		if rg := res.Region; rg != nil && rg.Paving == nil {
 			var hold []string
@@ -89,7 +140,11 @@ func LinearCertsText(w io.Writer, param string, cs []LinearCert) error {
 		if res.Verdict != checker.VerdictHolds && res.Region == nil {
 			where = "nowhere (" + res.Reason + ")"
 		}
-		fmt.Fprintf(ew, "  branch %d: the linearisation is asymptotically stable for %s\n", c.Branch+1, where)
+		if c.Reparam != nil {
+			fmt.Fprintf(ew, "    its linearisation is asymptotically stable for %s\n", where)
+		} else {
+			fmt.Fprintf(ew, "  branch %d: the linearisation is asymptotically stable for %s\n", c.Branch+1, where)
+		}
 		for _, s := range roots {
 			fmt.Fprintln(ew, s)
 		}
@@ -100,6 +155,25 @@ func LinearCertsText(w io.Writer, param string, cs []LinearCert) error {
 			fmt.Fprintf(ew, "; written to %s", c.Written)
 		}
 		fmt.Fprintf(ew, "\n    digest %s\n", res.Doc.Digest)
+		if rp := c.Reparam; rp != nil {
+			if rp.Note != "" {
+				fmt.Fprintf(ew, "    not mapped back to %s: %s\n", rp.Param, rp.Note)
+				continue
+			}
+			var ivs []string
+			var back []string
+			for _, iv := range spansOutput(rp.Region, rp.Ring, rp.Index) {
+				ivs = append(ivs, intervalText(iv.checkerInterval()))
+				back = rootLines(back, "    ", iv.checkerInterval())
+			}
+			if len(ivs) == 0 {
+				ivs = []string{"∅"}
+			}
+			fmt.Fprintf(ew, "    mapped back through %s (monotone for %s > 0): %s ∈ %s\n", rp.Relation, rp.NewParam, rp.Param, strings.Join(ivs, " ∪ "))
+			for _, s := range back {
+				fmt.Fprintln(ew, s)
+			}
+		}
 	}
 	return ew.err
 }

@@ -43,6 +43,12 @@ type BranchesOutput struct {
 	// on a grid of it (SamplesJSON; not exact between grid values); null
 	// otherwise.
 	Samples *SamplesOutput `json:"samples"`
+	// Map: with two or more free parameters, the labelled bisection of
+	// their box (MapJSON); null otherwise.
+	Map *MapOutput `json:"map"`
+	// Degenerate: where a condition "c != 0" of the branches fails within
+	// the ranges, with the equilibria found there (DegenerateJSON).
+	Degenerate []DegenerateOutput `json:"degenerate"`
 }
 
 // FreeParamOutput is a free parameter and its assumed range.
@@ -419,7 +425,7 @@ func BranchesJSON(m *model.Model, an *branches.Analysis, certs []LinearCert) Bra
 		Analysis: "symbolic", TimeKind: timeWord(m.Discrete), Params: map[string]string{},
 		Free: []FreeParamOutput{}, ClosedForm: an.ClosedForm, Reason: an.Reason,
 		Notes: append([]string{}, an.Notes...), Branches: []BranchOutput{}, Bifurcations: []BifurcationOutput{},
-		LinearCertificates: LinearCertsJSON(certs),
+		LinearCertificates: LinearCertsJSON(certs), Map: MapJSON(an), Degenerate: DegenerateJSON(m, an),
 	}
 	for _, p := range m.Params {
 		if p.Fixed != nil {
@@ -540,12 +546,15 @@ func branchesText(w io.Writer, m *model.Model, an *branches.Analysis, certs []Li
 	if hasNonzero(an) {
 		fmt.Fprintln(w, "  the list is complete at every parameter value where no condition \"derived assuming … != 0\" below fails;")
 		fmt.Fprintln(w, "  where one fails the elimination divided by zero: fix the parameters there with --set to see that point")
+	} else if len(an.Degenerate) > 0 {
+		fmt.Fprintln(w, "  the list is complete at every parameter value except those named below")
 	} else {
 		fmt.Fprintln(w, "  the list is complete for every parameter value")
 	}
 	for _, n := range an.Notes {
 		fmt.Fprintf(w, "  note: %s\n", n)
 	}
+	degenerateText(w, m, an)
 	pi := -1
 	if an.Param != "" {
 		pi, _ = an.Ring.Index(an.Param)
@@ -618,8 +627,11 @@ func branchesText(w io.Writer, m *model.Model, an *branches.Analysis, certs []Li
 		}
 	}
 	if pi < 0 {
-		if len(m.FreeParams()) > 1 {
-			fmt.Fprintln(w, "\nNo classification: it runs along one free parameter; fix the others with --set.")
+		switch {
+		case an.Map != nil:
+			mapText(w, an)
+		case len(m.FreeParams()) > 1:
+			fmt.Fprintln(w, "\nNo classification: every free parameter needs a bounded range or a box (--box NAME=LO..HI), or fix all but one with --set.")
 		}
 		if len(certs) > 0 {
 			LinearCertsText(w, "", certs)

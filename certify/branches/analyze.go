@@ -4,6 +4,7 @@ import (
 	"context"
 	"errors"
 	"fmt"
+	"math/big"
 	"slices"
 
 	"github.com/lyacert/lyacert/model"
@@ -20,8 +21,21 @@ type Options struct {
 	// the system has n(n+1)/2 unknowns).
 	MaxStates int
 	// Param names the parameter to classify along; the only free one by
-	// default. Classification needs every other parameter fixed.
+	// default. Classification along it needs every other parameter fixed.
 	Param string
+
+	// Two or more free parameters: the map over their box (Map). Box
+	// replaces a parameter's allowed range by [lo, hi] ∩ range; every
+	// free parameter needs a bounded range or a Box. Resolution bounds the
+	// bisection (default DefaultResolution), MaxBoxes the boxes examined
+	// (default DefaultMapBoxes).
+	Box        map[string][2]*big.Rat
+	Resolution *big.Rat
+	MaxBoxes   int
+
+	// For the analysis at a degenerate value (Degeneracy): no
+	// classification, no further degeneracies.
+	noClassify, noDegenerate bool
 }
 
 func (o Options) withDefaults() Options {
@@ -54,6 +68,17 @@ type Analysis struct {
 	Range        poly.Interval
 	Pieces       []Segment
 	Bifurcations []Bifurcation
+
+	// Two or more free parameters: the labelled bisection of their box;
+	// nil when a parameter has no bounded range (a note says which).
+	Map *Map
+
+	// Degenerate lists where a condition c(p) ≠ 0 of the branches fails
+	// within the parameters' ranges, with the equilibria there; also where
+	// a parameter polynomial that the elimination met as an equation
+	// vanishes (a further branch may exist only there).
+	Degenerate []Degeneracy
+	further    []*poly.Poly
 }
 
 // Branch is one equilibrium branch: x = Coords(p) where the parameters p
@@ -132,6 +157,7 @@ func Analyze(ctx context.Context, m *model.Model, opts Options) (*Analysis, erro
 		return nil, err
 	}
 	an.Notes = s.notes
+	an.further = s.further
 	for _, rb := range s.out {
 		b, err := backSubstitute(rb, n, r)
 		if err != nil {
@@ -169,6 +195,14 @@ func Analyze(ctx context.Context, m *model.Model, opts Options) (*Analysis, erro
 		if err := linearize(ctx, m, b, opts); err != nil {
 			return nil, err
 		}
+	}
+	if !opts.noDegenerate {
+		if err := degeneracies(ctx, m, an, opts); err != nil {
+			return nil, err
+		}
+	}
+	if opts.noClassify {
+		return an, nil
 	}
 	if err := classify(ctx, m, an, opts); err != nil {
 		return nil, err

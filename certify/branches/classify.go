@@ -5,6 +5,7 @@ import (
 	"errors"
 	"fmt"
 	"math/big"
+	"slices"
 
 	"github.com/lyacert/lyacert/model"
 	"github.com/lyacert/lyacert/poly"
@@ -12,7 +13,10 @@ import (
 
 // Label is the linear type of one branch on one piece of the parameter range.
 type Label struct {
-	Exists bool
+	// Undecided: on a box of a Map, the exact tests did not decide the
+	// label on the whole box (Kind and Stability are then "undecided").
+	Undecided bool
+	Exists    bool
 	// Kind: "node", "focus", "degenerate node", "saddle", "centre
 	// candidate", "zero eigenvalue", "eigenvalue 1", "eigenvalue -1",
 	// "hyperbolic" (n ≥ 4, no finer type), "non-isolated", or "" when
@@ -92,8 +96,6 @@ func classify(ctx context.Context, m *model.Model, an *Analysis, opts Options) e
 	case len(free) == 1:
 		e.pi, _ = m.Ring.Index(free[0].Name)
 		an.Param, an.Range = free[0].Name, free[0].Range
-	default:
-		return nil
 	}
 	if !an.ClosedForm {
 		return nil
@@ -138,14 +140,22 @@ func classify(ctx context.Context, m *model.Model, an *Analysis, opts Options) e
 			addSurd(ex[i].p1)
 			addSurd(ex[i].pm1)
 		}
+		// Coordinates of two branches meet where a transcritical or
+		// pitchfork may happen; those places are roots of the above.
+	}
+	if len(free) >= 2 {
+		// The map labels by the quantities above; P(p)'s region is not
+		// mapped (its minors are long, and the labels say where the
+		// branch is stable).
+		return paveMap(ctx, m, an, ex, crit, opts)
+	}
+	for _, b := range an.Branches {
 		if q := b.Quadratic; q != nil && q.P != nil {
 			addSurd(q.SystemDet)
 			for _, mi := range q.Minors {
 				addSurd(mi)
 			}
 		}
-		// Coordinates of two branches meet where a transcritical or
-		// pitchfork may happen; those places are roots of the above.
 	}
 	pts, err := criticalPoints(ctx, e, crit, an.Range)
 	if err != nil {
@@ -160,7 +170,7 @@ func classify(ctx context.Context, m *model.Model, an *Analysis, opts Options) e
 		t := samplePoint(p.Span)
 		p.Labels = make([]Label, len(an.Branches))
 		for i, b := range an.Branches {
-			l, err := label(e, b, ex[i], t, m.Discrete)
+			l, err := label(pointSigns{e, t}, b, ex[i], m.Discrete)
 			if err != nil {
 				return fmt.Errorf("branch %d at %s: %w", i, endString(p.Span.Lo), err)
 			}
@@ -389,9 +399,9 @@ func endString(e poly.End) string {
 
 // exists decides whether the branch is defined at t: w(t) ≥ 0 and no
 // condition polynomial vanishes.
-func exists(e evaluator, b *Branch, t point) (bool, error) {
+func exists(e signs, b *Branch) (bool, error) {
 	for _, c := range b.Nonzero {
-		s, err := e.polySign(c, t)
+		s, err := e.polySign(c)
 		if err != nil {
 			return false, err
 		}
@@ -400,7 +410,7 @@ func exists(e evaluator, b *Branch, t point) (bool, error) {
 		}
 	}
 	if b.W != nil {
-		s, err := e.ratSign(*b.W, t)
+		s, err := e.ratSign(*b.W)
 		if errors.Is(err, errDivZero) {
 			return false, nil
 		}
@@ -433,8 +443,8 @@ func routhCount(lead int, h []int) int {
 	return u
 }
 
-func label(e evaluator, b *Branch, ex extra, t point, discrete bool) (Label, error) {
-	ok, err := exists(e, b, t)
+func label(e signs, b *Branch, ex extra, discrete bool) (Label, error) {
+	ok, err := exists(e, b)
 	if err != nil || !ok {
 		return Label{}, err
 	}
@@ -445,7 +455,7 @@ func label(e evaluator, b *Branch, ex extra, t point, discrete bool) (Label, err
 	signs := func(xs []Surd) ([]int, error) {
 		out := make([]int, len(xs))
 		for i, x := range xs {
-			s, err := e.sign(x, t)
+			s, err := e.sign(x)
 			if err != nil {
 				return nil, err
 			}
@@ -453,9 +463,9 @@ func label(e evaluator, b *Branch, ex extra, t point, discrete bool) (Label, err
 		}
 		return out, nil
 	}
-	h, err := signs(b.Hurwitz)
-	if err != nil {
-		return Label{}, err
+	h, herr := signs(b.Hurwitz)
+	if herr != nil && !errors.Is(herr, errUndecided) {
+		return Label{}, herr
 	}
 	l := Label{Exists: true, Stability: "undetermined", Unstable: -1}
 	lead := 1
@@ -474,13 +484,55 @@ func label(e evaluator, b *Branch, ex extra, t point, discrete bool) (Label, err
 		}
 		lead = s[2]
 	} else {
-		s, err := e.sign(b.CharPoly[0], t)
+		s, err := e.sign(b.CharPoly[0])
 		if err != nil {
 			return Label{}, err
 		}
 		if s == 0 {
 			l.Kind = "zero eigenvalue"
 			return l, nil
+		}
+	}
+	if herr != nil {
+		// On a box: the Hurwitz determinants' signs are not all decided.
+		// Where no eigenvalue meets the imaginary axis (the unit circle),
+		// their count on each side is constant on the connected box: that
+		// holds when c₀ ≠ 0 (p(±1) ≠ 0 for maps, checked above) and
+		// Hₙ₋₁ ≠ 0, which by Orlando's formula is ± the product of the
+		// pairwise sums of the roots (of q for maps), so no imaginary
+		// pair. Then the count is the one at the box's centre.
+		c, ok := e.(centred)
+		if !ok {
+			return Label{}, herr
+		}
+		// The roots move continuously on the box: no coefficient has a
+		// pole there.
+		for _, ck := range b.CharPoly {
+			for _, d := range append(slices.Clone(ck.A.Den), ck.B.Den...) {
+				if _, err := e.polySign(d.P); err != nil {
+					return Label{}, errUndecided
+				}
+			}
+		}
+		n := len(b.Hurwitz)
+		if n >= 2 {
+			if s, err := e.sign(b.Hurwitz[n-2]); err != nil || s == 0 {
+				return Label{}, errUndecided
+			}
+		}
+		at := c.centre()
+		if h, herr = signsAt(at, b.Hurwitz); herr != nil {
+			return Label{}, errUndecided
+		}
+		if discrete {
+			s, err := at.sign(*b.Lead)
+			if err != nil || s == 0 {
+				return Label{}, errUndecided
+			}
+			lead = s
+		}
+		if routhCount(lead, h) < 0 {
+			return Label{}, errUndecided
 		}
 	}
 	u := routhCount(lead, h)
@@ -491,14 +543,14 @@ func label(e evaluator, b *Branch, ex extra, t point, discrete bool) (Label, err
 		if n == 2 {
 			c = b.CharPoly[0]
 		}
-		sc, err := e.sign(c, t)
+		sc, err := e.sign(c)
 		if err != nil {
 			return Label{}, err
 		}
 		if sc < 0 {
 			u = 1
 			if n == 3 {
-				sa, err := e.sign(b.CharPoly[2], t)
+				sa, err := e.sign(b.CharPoly[2])
 				if err != nil {
 					return Label{}, err
 				}
@@ -516,7 +568,7 @@ func label(e evaluator, b *Branch, ex extra, t point, discrete bool) (Label, err
 			if discrete {
 				c0 = ex.p1
 			}
-			sc, err := e.sign(c0, t)
+			sc, err := e.sign(c0)
 			if err != nil {
 				return Label{}, err
 			}
@@ -532,7 +584,7 @@ func label(e evaluator, b *Branch, ex extra, t point, discrete bool) (Label, err
 			// Stodola's necessary condition: a Hurwitz polynomial has
 			// all coefficients positive.
 			for _, c := range b.CharPoly {
-				if s, err := e.sign(c, t); err == nil && s < 0 {
+				if s, err := e.sign(c); err == nil && s < 0 {
 					l.Stability = "unstable"
 				}
 			}
@@ -561,7 +613,7 @@ func label(e evaluator, b *Branch, ex extra, t point, discrete bool) (Label, err
 		l.Kind = "hyperbolic"
 		return l, nil
 	}
-	s, err := e.sign(*d, t)
+	s, err := e.sign(*d)
 	if err != nil {
 		return Label{}, err
 	}

@@ -36,6 +36,15 @@
 // of the moves applies, or a limit of Options is exceeded, Analyze returns
 // ClosedForm = false with the reason: the caller samples instead.
 //
+// Where a recorded condition c(p) ≠ 0 can fail inside the parameters'
+// ranges the formulas say nothing, and equilibria that exist only where
+// c = 0 are not among the branches. Such places are listed (Degeneracy):
+// for c in one parameter its real roots in the range are isolated, and at
+// a rational root the equilibria are computed with the parameter fixed
+// there and matched with the branches' values there; for an irrational
+// root, or a c in several parameters that the exact centred form on the
+// ranges' box does not keep from zero, a note says so.
+//
 // # Linearisation
 //
 // Along an isolated branch the Jacobian J(p) has entries in Q(p)(√w). Its
@@ -79,6 +88,31 @@
 // p(−1) = 0. Values are exact rationals or algebraic numbers with their
 // polynomial and isolating interval.
 //
+// # Several free parameters
+//
+// With two or more free parameters, each with a bounded range or a box,
+// the box is bisected as in set inversion (Moore 1966; Jaulin & Walter
+// 1993): a box is halved along its widest side (relative to the box) while
+// some branch's label on it is undecided and a side is wider than the
+// resolution. A label is the one of the one-parameter case, computed by the
+// same rules, but every sign it uses must hold on the whole box: a
+// polynomial's sign is decided by the exact enclosure of its centred form
+// (poly.CenteredForm, halved exactly along the tree, open ends of the
+// ranges excluded), a rational function's by its numerator and every
+// denominator factor. For a + b√w on a box where w ≥ 0: when the norm
+// a² − b²w has one sign there, a + b√w does not vanish on the box and has
+// the sign of a (norm > 0) or of b (norm < 0), which is constant on the
+// connected box and read at its centre; otherwise a and b must share one
+// sign. When some Hurwitz determinant's sign is undecided but c₀ (p(±1)
+// for maps) and Hₙ₋₁ have one sign on the box, no eigenvalue meets the
+// imaginary axis (unit circle) there — by Orlando's formula Hₙ₋₁ is ± the
+// product of the pairwise sums of the roots — so the number of unstable
+// eigenvalues is constant on the connected box and is read at its centre.
+// A label that needs an undecided sign is "undecided" on that box.
+// Two halves with equal labels are merged back into their parent. The
+// bisection stops at MaxBoxes boxes (Map.Truncated) and honours the
+// context's deadline.
+//
 // # Quadratic certificate
 //
 // P(p) solves AᵀP + PA = −I (AᵀPA − P = −I for maps) with A = J(p): a
@@ -89,4 +123,14 @@
 // exactly where the branch is linearly stable. For one free parameter
 // Quadratic.Region is that set as spans; the caller turns it into a region
 // the kernel checks.
+//
+// A branch with a square root √w has no such region the kernel can read
+// (its Jacobian lies in Q(p)(√w)). When w is of degree one in a parameter,
+// w = c·p + d, the substitution p = (u² − d)/c with a new parameter u > 0
+// makes √w = u, so the branch is rational in u (Reparametrize): the model
+// in u is an ordinary model, and its region in u maps back to p through the
+// relation, monotone on u > 0 when c is a constant. An algebraic end u*,
+// the root of q(u), maps to the root of E(s)² − s·O(s)² with
+// q(u) = E(u²) + u·O(u²) and s = c·p + d, isolated by refining u*'s
+// interval (MapBack).
 package branches

@@ -41,6 +41,9 @@ type solver struct {
 	out     []rawBranch
 	notes   []string
 	reasons []string
+	// further are the parameter polynomials e met as equations: where
+	// e = 0 a further branch may exist.
+	further []*poly.Poly
 }
 
 func (s *solver) stateMask(j int) []bool {
@@ -94,6 +97,7 @@ func (s *solver) solve(eqs []*poly.Poly, steps []subst, conds []*poly.Poly) erro
 			// here for generic parameters.
 			if !e.IsConst() {
 				s.notes = append(s.notes, fmt.Sprintf("equilibria exist on a further branch only where %s = 0", e))
+				s.further = appendCond(s.further, e)
 			}
 			return nil
 		}

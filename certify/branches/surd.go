@@ -278,3 +278,81 @@ func critical(x Surd) []*poly.Poly {
 	}
 	return out
 }
+
+// signs decides the signs of parameter functions on a set of parameter
+// values: one value (pointSigns) or a box (boxSigns). A sign is the one
+// the function has at every value of the set; errUndecided says that the
+// set's test does not decide it.
+type signs interface {
+	sign(x Surd) (int, error)
+	polySign(p *poly.Poly) (int, error)
+	ratSign(f poly.RatFunc) (int, error)
+}
+
+// errUndecided marks a sign that a box test leaves open.
+var errUndecided = errors.New("sign not decided on the box")
+
+// pointSigns decides signs at one value t of the free parameter.
+type pointSigns struct {
+	e evaluator
+	t point
+}
+
+func (p pointSigns) sign(x Surd) (int, error)           { return p.e.sign(x, p.t) }
+func (p pointSigns) polySign(q *poly.Poly) (int, error) { return p.e.polySign(q, p.t) }
+func (p pointSigns) ratSign(f poly.RatFunc) (int, error) {
+	return p.e.ratSign(f, p.t)
+}
+
+// centred is a set of parameter values with a rational centre: a box.
+type centred interface {
+	centre() signs
+}
+
+// signsAt returns the signs of xs under e.
+func signsAt(e signs, xs []Surd) ([]int, error) {
+	out := make([]int, len(xs))
+	for i, x := range xs {
+		s, err := e.sign(x)
+		if err != nil {
+			return nil, err
+		}
+		out[i] = s
+	}
+	return out, nil
+}
+
+// ratSigns decides signs exactly at a rational point of every ring
+// variable.
+type ratSigns struct{ at []*big.Rat }
+
+func (s ratSigns) polySign(p *poly.Poly) (int, error) { return p.Eval(s.at).Sign(), nil }
+
+func (s ratSigns) ratSign(f poly.RatFunc) (int, error) {
+	v, err := f.Eval(s.at)
+	if err != nil {
+		return 0, errDivZero
+	}
+	return v.Sign(), nil
+}
+
+func (s ratSigns) sign(x Surd) (int, error) {
+	a, err := x.A.Eval(s.at)
+	if err != nil {
+		return 0, errDivZero
+	}
+	if x.B.IsZero() {
+		return a.Sign(), nil
+	}
+	b, err1 := x.B.Eval(s.at)
+	w, err2 := x.W.Eval(s.at)
+	if err1 != nil || err2 != nil {
+		return 0, errDivZero
+	}
+	if w.Sign() < 0 {
+		return 0, errors.New("square root of a negative number")
+	}
+	nm := new(big.Rat).Mul(a, a)
+	nm.Sub(nm, new(big.Rat).Mul(new(big.Rat).Mul(b, b), w))
+	return surdSign(a.Sign(), b.Sign(), w.Sign(), nm.Sign()), nil
+}

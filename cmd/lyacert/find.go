@@ -34,6 +34,8 @@ type findCmd struct {
 	Exact         bool     `name:"exact" help:"At fixed parameters: certify with the exact rational solution P of the Lyapunov equation instead of the short rounded one (rational equilibria only; elsewhere the rounded P is used, with a note)."`
 	Points        int      `name:"points" placeholder:"N" default:"41" help:"With one free parameter and no closed form for the branches: sample the parameter's range at N evenly spaced values (at least 2) and find the equilibria at each (sampled, not exact between them)."`
 	Report        string   `name:"report" placeholder:"FILE.md|FILE.tex|FILE.html" help:"With free parameters: write a report of the analysis (branches, classification, bifurcations and the bifurcation diagram): Markdown or a LaTeX document with the diagram as a PNG beside it (FILE-diagram.png), or one HTML page with it inline."`
+	Box           []string `name:"box" placeholder:"NAME=LO..HI" help:"With two or more free parameters: classify over this range of a parameter instead of its allowed range (repeatable); every free parameter needs a bounded range or a box."`
+	Resolution    string   `name:"resolution" default:"1/64" placeholder:"P/Q" help:"With two or more free parameters: halve boxes while a label is undecided, until each side is at most this share of the box's side."`
 	PlotState     string   `name:"plot-state" placeholder:"STATE" help:"Draw only this state's coordinate in --plot (default: one panel per state)."`
 	sosFlags
 	limitFlags
@@ -194,8 +196,12 @@ func (c *findCmd) symbolic(ctx context.Context, e *env, m *model.Model, format s
 		return e.failf(exitInput, "--exact chooses the P of a certificate at one parameter point; fix the free parameters (%s) with --set", paramNames(free))
 	case c.Q != "identity":
 		return e.failf(exitInput, "--q sets the Lyapunov equation of a certificate; fix the free parameters (%s) with --set", paramNames(free))
-	case c.Plot != "" && len(free) != 1:
-		return e.failf(exitInput, "--plot %s draws a bifurcation diagram along one free parameter, and %s are free; fix all but one with --set", c.Plot, paramNames(free))
+	case c.Plot != "" && len(free) > 2:
+		return e.failf(exitInput, "--plot %s draws a bifurcation diagram along one free parameter or a map over two, and %s are free; fix all but two with --set", c.Plot, paramNames(free))
+	case c.PlotState != "" && len(free) != 1:
+		return e.failf(exitInput, "--plot-state chooses the panels of a bifurcation diagram along one free parameter, and %s are free", paramNames(free))
+	case (len(c.Box) > 0 || c.Resolution != "1/64") && len(free) < 2:
+		return e.failf(exitInput, "--box and --resolution set the map over two or more free parameters, and %s is free", paramNames(free))
 	case c.Points < 2 || c.Points > 10001:
 		return e.failf(exitInput, "--points %d: give between 2 and 10001 grid values", c.Points)
 	case c.PlotState != "" && c.Plot == "" && c.Report == "":
@@ -217,9 +223,19 @@ func (c *findCmd) symbolic(ctx context.Context, e *env, m *model.Model, format s
 		}
 		states = s
 	}
-	an, err := branches.Analyze(ctx, m, branches.Options{})
+	opts, err := c.mapOptions()
 	if err != nil {
 		return e.fail(exitInput, err)
+	}
+	an, err := branches.Analyze(ctx, m, opts)
+	if err != nil {
+		if ctx.Err() != nil {
+			return exitStopped
+		}
+		return e.fail(exitInput, err)
+	}
+	if c.Plot != "" && len(free) == 2 && an.ClosedForm && an.Map == nil {
+		return e.failf(exitInput, "--plot %s: no map to draw (%s)", c.Plot, strings.Join(an.Notes, "; "))
 	}
 	var certs []report.LinearCert
 	if c.CertifyLinear && an.ClosedForm {
@@ -261,7 +277,15 @@ func (c *findCmd) symbolic(ctx context.Context, e *env, m *model.Model, format s
 		}
 		return exitFails
 	}
-	if c.Plot != "" {
+	if c.Plot != "" && an.Map != nil {
+		data, err := report.BranchMap(m, an, format)
+		if err != nil {
+			return e.failf(exitFails, "--plot %s: %w", c.Plot, err)
+		}
+		if err := certificates.WriteFileAtomic(c.Plot, data, 0o644); err != nil {
+			return e.failf(exitInput, "writing the plot: %w", err)
+		}
+	} else if c.Plot != "" {
 		data, err := report.BifurcationDiagram(m, an, states, format)
 		if err != nil {
 			return e.failf(exitFails, "--plot %s: %w", c.Plot, err)
@@ -271,6 +295,40 @@ func (c *findCmd) symbolic(ctx context.Context, e *env, m *model.Model, format s
 		}
 	}
 	return exitHolds
+}
+
+// mapOptions reads --box and --resolution for the map over several free
+// parameters.
+func (c *findCmd) mapOptions() (branches.Options, error) {
+	var o branches.Options
+	res, err := constant(c.Resolution, "--resolution")
+	if err != nil {
+		return o, err
+	}
+	if res.Sign() <= 0 || res.Cmp(big.NewRat(1, 1)) > 0 {
+		return o, fmt.Errorf("--resolution %s: give a share in (0, 1]", c.Resolution)
+	}
+	o.Resolution = res
+	o.Box = map[string][2]*big.Rat{}
+	for _, s := range c.Box {
+		name, lo, hi, err := parseBox(s)
+		if err != nil {
+			return o, err
+		}
+		if _, dup := o.Box[name]; dup {
+			return o, fmt.Errorf("--box %s: given twice", name)
+		}
+		l, err := constant(lo, "--box "+name+" (lower end)")
+		if err != nil {
+			return o, err
+		}
+		h, err := constant(hi, "--box "+name+" (upper end)")
+		if err != nil {
+			return o, err
+		}
+		o.Box[name] = [2]*big.Rat{l, h}
+	}
+	return o, nil
 }
 
 // boxLyapunov runs the vertex test (certify/vertex) on the box of the free
@@ -322,6 +380,14 @@ func (c *findCmd) linearCerts(ctx context.Context, m *model.Model, an *branches.
 			return nil, err
 		}
 		text, err := branches.LinearModel(m, an, i)
+		if errors.Is(err, branches.ErrNoLinearModel) && an.Branches[i].W != nil && an.Branches[i].Isolated() {
+			lc, err := c.reparamCert(ctx, m, an, i, err)
+			if err != nil {
+				return nil, err
+			}
+			out = append(out, lc)
+			continue
+		}
 		if errors.Is(err, branches.ErrNoLinearModel) {
 			out = append(out, report.LinearCert{Branch: i, Skipped: err.Error()})
 			continue
@@ -354,6 +420,68 @@ func (c *findCmd) linearCerts(ctx context.Context, m *model.Model, an *branches.
 		out = append(out, lc)
 	}
 	return out, nil
+}
+
+// reparamCert certifies the linearisation along a branch with a square
+// root through its rational parametrization (branches.Reparametrize): the
+// certificate is about the model in the new parameter, and its region is
+// mapped back to the original one.
+func (c *findCmd) reparamCert(ctx context.Context, m *model.Model, an *branches.Analysis, i int, why error) (report.LinearCert, error) {
+	rp, err := branches.Reparametrize(ctx, m, an, i)
+	if errors.Is(err, branches.ErrNoReparametrization) {
+		return report.LinearCert{Branch: i, Skipped: fmt.Sprintf("%v; %v", why, err)}, nil
+	}
+	if err != nil {
+		return report.LinearCert{}, err
+	}
+	text, err := branches.LinearModel(rp.Model, rp.Analysis, rp.Index)
+	if errors.Is(err, branches.ErrNoLinearModel) {
+		return report.LinearCert{Branch: i, Skipped: fmt.Sprintf("%v; in %s: %v", why, rp.NewParam, err)}, nil
+	}
+	if err != nil {
+		return report.LinearCert{}, err
+	}
+	name := fmt.Sprintf("%s (branch %d in %s, linearised)", m.File, i+1, rp.NewParam)
+	lm, err := model.Parse(name, []byte(text))
+	if err != nil {
+		return report.LinearCert{}, fmt.Errorf("the linear model of branch %d in %s: %w", i+1, rp.NewParam, err)
+	}
+	res, err := direct.CheckPaving(ctx, lm, name, direct.PaveOptions{})
+	if err != nil {
+		if ctx.Err() != nil {
+			return report.LinearCert{}, ctx.Err()
+		}
+		return report.LinearCert{Branch: i, Skipped: err.Error()}, nil
+	}
+	var coords []string
+	for k, s := range m.States {
+		coords = append(coords, s+" = "+rp.Analysis.Branches[rp.Index].Coords[k].String())
+	}
+	pi, _ := an.Ring.Index(rp.Param)
+	p, _ := m.Param(rp.Param)
+	info := &report.Reparam{Param: rp.Param, NewParam: rp.NewParam, Radicand: an.Branches[i].W.String(), Relation: rp.Relation(),
+		Model: rp.Text, Coordinates: strings.Join(coords, ", "), Ring: an.Ring, Index: pi}
+	switch rg := res.Region; {
+	case rg == nil:
+		info.Region, err = rp.Region(nil, res.Verdict == checker.VerdictHolds, p.Range)
+	case rg.Paving != nil:
+		err = errors.New("the region in the new parameter is a paving")
+	default:
+		info.Region, err = rp.Region(rg.Pieces, false, p.Range)
+	}
+	if err != nil {
+		info.Note = err.Error()
+	}
+	lc := report.LinearCert{Branch: i, Model: text, Result: res, Reparam: info}
+	if c.Out != "" && res.Doc != nil {
+		ext := filepath.Ext(c.Out)
+		path := strings.TrimSuffix(c.Out, ext) + "-" + strconv.Itoa(i+1) + ext
+		if err := certificates.WriteFile(res.Doc, path); err != nil {
+			return report.LinearCert{}, fmt.Errorf("writing the certificate: %w", err)
+		}
+		lc.Written = path
+	}
+	return lc, nil
 }
 
 func paramNames(ps []model.Param) string {

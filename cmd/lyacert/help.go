@@ -117,7 +117,9 @@ With parameters left free it analyses the equilibrium branches instead, as
 exact functions of them: existence, Jacobian, characteristic polynomial,
 Hurwitz determinants, and along one free parameter the exact pieces of its
 range by type and stability and the bifurcation values (--plot draws the
-diagram). That analysis writes no certificate; it exits 0 when the branches
+diagram); over two or more, a map of boxes of their --box ranges, each
+labelled where the exact tests decide it on the whole box (--plot draws it
+for two). That analysis writes no certificate; it exits 0 when the branches
 have a closed form, 1 when they do not. With --degree 2D --box-sos it
 instead searches one V of that degree for every value in the box of the
 free parameters' closed ranges, and certifies it (exit 0), or exits 1.
@@ -128,6 +130,7 @@ Examples:
   lyacert find model.lya --set r=20 --q 1,2,3 --json
   lyacert find lorenz.lya --set sigma=10 --set b=8/3 --plot branches.svg
   lyacert find model.lya --degree 2 --box-sos -o box.json
+  lyacert find lorenz.lya --set sigma=10 --box r=0..30 --box b=0..4 --plot map.png
 
 ` + exitCodesText
 }

@@ -169,6 +169,8 @@ func parseDecimal(s string) (*big.Rat, *big.Rat, bool) {
 func SignAt(q Univariate, e End) (int, bool) {
 	const maxRefine = 4096
 	switch {
+	case q.Degree() <= 0: // a constant (or zero)
+		return q.Sign(new(big.Rat)), true
 	case e.Rational():
 		return q.Sign(e.Value), true
 	case !e.Algebraic():

@@ -16,6 +16,9 @@ import (
 // definite. It returns the claim, or nil when that test fails.
 func (res *Result) algebraicPoint(i int, pc claims.Piece) *claims.AlgebraicPoint {
 	r := res.Model.Ring
+	if res.HigherV.IsZero() && res.HigherD.IsZero() {
+		return nil // quadratic forms only semidefinite at α: no margin fits
+	}
 	f, err := poly.Parse(r, pc.LoPoly)
 	if err != nil || pc.LoIsolating == nil || !f.IsPoly() {
 		return nil

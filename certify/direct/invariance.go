@@ -16,7 +16,7 @@ import (
 const (
 	lieOrders      = 3
 	cofactorDegree = 2
-	vanishDegree   = 8
+	vanishDegree   = 8 // tried only as far as max(4, the degree of f)
 	maxColumns     = 240
 )
 
@@ -84,8 +84,12 @@ func (res *Result) invariance() *claims.Invariance {
 	if monos == nil {
 		return nil
 	}
+	top := 4
+	for _, f := range m.F {
+		top = min(vanishDegree, max(top, f.Num.Degree()))
+	}
 	for s := range n {
-		v, ok := vanishing(r, s, y[s], at[s], gens, monos)
+		v, ok := vanishing(r, s, y[s], at[s], gens, monos, top)
 		if !ok {
 			return nil
 		}
@@ -135,8 +139,8 @@ func stateMonomials(r *poly.Ring, n, d int) []poly.RatFunc {
 // vanishing solves for g(s) = Σ_e a_e·(s − s*)ᵉ = Σ_{j,m} c_{jm}·m·hⱼ with
 // the least degree of g that admits a solution, and keeps it when g's only
 // real root is s*.
-func vanishing(r *poly.Ring, s int, zs poly.RatFunc, at *big.Rat, gens, monos []poly.RatFunc) (claims.Vanish, bool) {
-	for deg := 1; deg <= vanishDegree; deg++ {
+func vanishing(r *poly.Ring, s int, zs poly.RatFunc, at *big.Rat, gens, monos []poly.RatFunc, top int) (claims.Vanish, bool) {
+	for deg := 1; deg <= top; deg++ {
 		var cols []poly.RatFunc
 		for e := 1; e <= deg; e++ {
 			cols = append(cols, zs.Pow(e))

@@ -31,8 +31,8 @@ func (c *run) sublevelBasin(cl claims.Claim) bool {
 	b := cl.(*claims.SublevelBasin)
 	n := len(c.m.States)
 	const what = "sublevel-basin"
-	if !c.once(what) || !c.add(what, c.derived && !c.m.Discrete && c.v.IsPoly() && c.vdot.IsPoly(),
-		"follows V̇ in continuous time, V and V̇ polynomials") {
+	if !c.once(what) || !c.add(what, c.derived && !c.m.Discrete && c.v.IsPoly() && c.vdot.IsPoly() && c.basin == "",
+		"follows V̇ in continuous time, V and V̇ polynomials, one basin claim") {
 		return false
 	}
 	level, ok := poly.ParseRat(b.Level)

@@ -220,8 +220,8 @@ func TestCertifiedSetsConverge(t *testing.T) {
 			for k := 0; k < 1000; {
 				x := make([]float64, n)
 				for i := range x {
-					a, _ := new(big.Rat).SetString(r.Claim.Lo[i])
-					b, _ := new(big.Rat).SetString(r.Claim.Hi[i])
+					a, _ := new(big.Rat).SetString(r.Box[i].Lo.Value.RatString())
+					b, _ := new(big.Rat).SetString(r.Box[i].Hi.Value.RatString())
 					x[i] = float(a) + rng.Float64()*(float(b)-float(a))
 				}
 				if rs.v.Eval(x) > c {

@@ -38,6 +38,7 @@ type BasinOutput struct {
 	Parameters  []ParamRangeJS `json:"parameters,omitempty"`
 	HoldsFor    string         `json:"holds_for,omitempty"`
 	Method      string         `json:"method"`
+	Rule        string         `json:"rule"` // the kernel rule that proves c_lo
 	Note        string         `json:"note"`
 	Boxes       int            `json:"boxes"`
 	Verdict     string         `json:"verdict"` // the direct method's, as the kernel derives it
@@ -114,7 +115,7 @@ func dec(q *big.Rat) string {
 func BasinJSON(res *basin.Result, written string) BasinOutput {
 	d := res.Direct
 	out := BasinOutput{V: d.V.String(), Vdot: d.Vdot.String(), CLo: res.Level.RatString(), CLoDecimal: dec(res.Level),
-		Method: res.Method, Note: res.Note, Boxes: res.Inside + res.Outside, Verdict: res.Check.Verdict, Claim: res.Check.Kind,
+		Method: res.Method, Rule: res.Rule, Note: res.Note, Boxes: res.Inside + res.Outside, Verdict: res.Check.Verdict, Claim: res.Check.Kind,
 		Digest: res.Doc.Digest, Checks: len(res.Check.Records), Certificate: written}
 	for _, a := range res.Equilibrium {
 		out.Equilibrium = append(out.Equilibrium, a.RatString())
@@ -215,8 +216,13 @@ func BasinText(w io.Writer, res *basin.Result, written string) error {
 	}
 	fmt.Fprintf(ew, "equilibrium (%s) = (%s)\n\n", strings.Join(m.States, ", "), strings.Join(at, ", "))
 	fmt.Fprintf(ew, "Region of attraction by sublevel sets of V:\n")
-	fmt.Fprintf(ew, "  c_lo = %s ≈ %s  certified: every state in the component of {V ≤ c_lo} around the\n", res.Level.RatString(), dec(res.Level))
-	fmt.Fprintf(ew, "         equilibrium tends to it (sublevel-basin, re-checked exactly)\n")
+	if res.SProcedure != nil {
+		fmt.Fprintf(ew, "  c_lo = %s ≈ %s  certified: every state of {V ≤ c_lo} tends to the equilibrium\n", res.Level.RatString(), dec(res.Level))
+		fmt.Fprintf(ew, "         (S-procedure, sublevel-sprocedure, re-checked exactly)\n")
+	} else {
+		fmt.Fprintf(ew, "  c_lo = %s ≈ %s  certified: every state in the component of {V ≤ c_lo} around the\n", res.Level.RatString(), dec(res.Level))
+		fmt.Fprintf(ew, "         equilibrium tends to it (branch and bound, sublevel-basin, re-checked exactly)\n")
+	}
 	if len(res.Params) > 0 {
 		fmt.Fprintf(ew, "         for %s: %s\n", forEvery, paramBox(res))
 	}
@@ -311,11 +317,12 @@ func BasinPlot(res *basin.Result, format string) ([]byte, error) {
 	}
 	var fs [][]*big.Rat
 	for i := range 2 {
-		lo, _ := new(big.Rat).SetString(res.Claim.Lo[i])
-		hi, _ := new(big.Rat).SetString(res.Claim.Hi[i])
-		fs = append(fs, []*big.Rat{lo, hi})
+		fs = append(fs, []*big.Rat{res.Box[i].Lo.Value, res.Box[i].Hi.Value})
 	}
 	s := newBasinScene(m.States, res.Direct.V.Num, res.Direct.Vdot.Num, m.F, res.Equilibrium, res.Level, fs)
+	if res.SProcedure != nil {
+		s.frame = "box searched"
+	}
 	s.title = fmt.Sprintf("Region of attraction: {V ≤ %s} certified", dec(res.Level))
 	if res.Upper != nil {
 		s.title += fmt.Sprintf(", c_hi = %s", dec(res.Upper))
@@ -340,6 +347,7 @@ type basinScene struct {
 	upper   float64    // 0 when unknown
 	counter []float64  // nil when unknown
 	title   string
+	frame   string // the legend of the box drawn; "" for "paved box"
 }
 
 // newBasinScene converts the exact data of a two-state basin to float64;
@@ -379,7 +387,11 @@ func (s *basinScene) plot() *plot.Plot {
 	p.Add(frame, level, zero)
 	p.Legend.Add("V = c_lo (certified)", level)
 	p.Legend.Add("V̇ = 0", zero)
-	p.Legend.Add("paved box", frame)
+	if s.frame == "" {
+		p.Legend.Add("paved box", frame)
+	} else {
+		p.Legend.Add(s.frame, frame)
+	}
 	rhs := func(x, dx []float64) { dx[0], dx[1] = fs[0].Eval(x), fs[1].Eval(x) }
 	far := 10 * math.Max(x1-x0, y1-y0)
 	traj := func(start []float64, dashed bool) *plotter.Line {

@@ -60,6 +60,54 @@ func TestRingLevelIsTwo(t *testing.T) {
 	}
 }
 
+// Slotine & Li, Applied Nonlinear Control, ch. 3: V̇ = 2V(V − 2), best
+// level exactly 2, now by the S-procedure (kernel rule sublevel-sprocedure).
+// With s = 2V the identity leaves σ = (4 − ε − 2c)·V (hand computation), a
+// sum of squares for every c < 2, so the bisection must come within the gap.
+func TestRingSProcedure(t *testing.T) {
+	r := find(t, "ring.lya", Options{Gap: 0.01, Method: MethodSOS})
+	if lo := float(r.Level); lo < 1.98 || lo >= 2 {
+		t.Errorf("c_lo = %g, want in [1.98, 2) (Slotine & Li: the best level is 2)", lo)
+	}
+	if r.Rule != "sublevel-sprocedure" || r.SProcedure == nil || r.Claim != nil {
+		t.Errorf("rule %q, want sublevel-sprocedure alone", r.Rule)
+	}
+	if !strings.HasPrefix(r.Method, "S-procedure") {
+		t.Errorf("method %q", r.Method)
+	}
+}
+
+// Khalil, Nonlinear Systems, §8.2 (Van der Pol in reverse time): the
+// S-procedure's level against the dense polar scan of
+// TestVanDerPolAgainstPolarScan (2.30448, recomputed there), never above it.
+func TestVanDerPolSProcedure(t *testing.T) {
+	const scan = 2.304478
+	r := find(t, "vanderpol.lya", Options{Gap: 0.005, Method: MethodSOS})
+	if lo := float(r.Level); lo > scan || (scan-lo)/scan > 0.01 {
+		t.Errorf("c_lo = %g, want within 1 %% below the polar scan's %g", lo, scan)
+	}
+}
+
+// Automatic choice: the S-procedure applies to the ring (V quadratic, no
+// free parameter) and closes the gap, so its rule proves the level; with a
+// free parameter only the branch and bound applies; --method sos then fails
+// with a reason.
+func TestMethodChoice(t *testing.T) {
+	if r := find(t, "ring.lya", Options{Gap: 0.01}); r.Rule != "sublevel-sprocedure" {
+		t.Errorf("ring, auto: rule %q, want sublevel-sprocedure", r.Rule)
+	}
+	if r := find(t, "ringbox.lya", Options{Gap: 0.05}); r.Rule != "sublevel-basin" {
+		t.Errorf("ringbox, auto: rule %q, want sublevel-basin", r.Rule)
+	}
+	if r := find(t, "ring.lya", Options{Gap: 0.05, Method: MethodBranch}); r.Rule != "sublevel-basin" || r.Claim == nil {
+		t.Errorf("ring, bb: rule %q, want sublevel-basin", r.Rule)
+	}
+	_, err := Find(context.Background(), load(t, "ringbox.lya"), "ringbox.lya", Options{Method: MethodSOS})
+	if err == nil || !strings.Contains(err.Error(), "every parameter fixed") {
+		t.Errorf("ringbox, sos: %v, want an error about fixed parameters", err)
+	}
+}
+
 // The ring example of Slotine & Li (Applied Nonlinear Control, ch. 3) with
 // its 2 made a parameter a ∈ [1, 2]: V̇ = 2V(V − a), so for each a the best
 // level is a (hand computation, generalizing the book's), and one level for

@@ -19,6 +19,7 @@ type basinCmd struct {
 	Plot     string   `name:"plot" placeholder:"FILE" help:"Draw the certified set, V̇ = 0, the counterexample and trajectories (two states) to FILE (.svg, .png or .pdf)."`
 	Gap      float64  `name:"gap" default:"0.01" help:"Stop refining when (c_hi − c_lo)/c_hi is at most this."`
 	MaxBoxes int      `name:"max-boxes" default:"300000" help:"At most this many boxes in the bisection tree."`
+	Method   string   `name:"method" default:"auto" enum:"auto,bb,sos" help:"How c_lo is certified: bb (interval branch and bound), sos (the S-procedure: sums of squares with a multiplier of c − V; every parameter fixed, V radially unbounded), auto (the S-procedure where it applies, the branch and bound unless it closed the gap; the larger level)."`
 	Improve  bool     `name:"improve" help:"Search quadratic V = yᵀPy with AᵀP + PA = −Q over many Q (A the linearization, Hurwitz) for the largest certified ball about the equilibrium; keep the best."`
 	limitFlags
 	timeoutFlag
@@ -62,12 +63,12 @@ func (c *basinCmd) run(e *env) int {
 		var res *basin.Result
 		var imp *basin.Improvement
 		if c.Improve {
-			imp, err = basin.Improve(ctx, m, name, basin.Options{Gap: c.Gap, MaxBoxes: c.MaxBoxes}, basin.ImproveOptions{})
+			imp, err = basin.Improve(ctx, m, name, basin.Options{Gap: c.Gap, MaxBoxes: c.MaxBoxes, Method: c.Method}, basin.ImproveOptions{})
 			if err == nil {
 				res = imp.Result
 			}
 		} else {
-			res, err = basin.Find(ctx, m, name, basin.Options{Gap: c.Gap, MaxBoxes: c.MaxBoxes})
+			res, err = basin.Find(ctx, m, name, basin.Options{Gap: c.Gap, MaxBoxes: c.MaxBoxes, Method: c.Method})
 		}
 		if err != nil {
 			if errors.Is(err, certify.ErrUnverified) {

@@ -71,9 +71,9 @@ type Result struct {
 	// Box is the box of the states around the equilibrium that the branch
 	// and bound paves (also set when the S-procedure proved the level: the
 	// rays' extent of the sublevel set, for pictures).
-	Box []poly.Interval
-	Doc *claims.Document
-	Check         checker.Outcome
+	Box   []poly.Interval
+	Doc   *claims.Document
+	Check checker.Outcome
 	// Boxes counts the tree's leaves: Inside where V̇ < 0 was proven,
 	// Outside where V > Level; NearTests the boxes at the equilibrium on
 	// which the quadratic bound was tried.

@@ -302,11 +302,45 @@ func TestErrors(t *testing.T) {
 	}
 }
 
+// BenchmarkRingSProcedure: two states to a 1 % gap by the S-procedure.
+func BenchmarkRingSProcedure(b *testing.B) {
+	m := load(b, "ring.lya")
+	for b.Loop() {
+		r, err := Find(context.Background(), m, "ring.lya", Options{Gap: 0.01, Method: MethodSOS})
+		if err != nil || r.Gap() > 0.01 {
+			b.Fatal(err, r.Gap())
+		}
+	}
+}
+
+// BenchmarkVanDerPolSProcedure: two states to a 1 % gap by the S-procedure.
+func BenchmarkVanDerPolSProcedure(b *testing.B) {
+	m := load(b, "vanderpol.lya")
+	for b.Loop() {
+		r, err := Find(context.Background(), m, "vanderpol.lya", Options{Gap: 0.01, Method: MethodSOS})
+		if err != nil || r.Gap() > 0.01 {
+			b.Fatal(err, r.Gap())
+		}
+	}
+}
+
+// BenchmarkTrioSProcedure: three states (an invented model) to a 1 % gap
+// by the S-procedure.
+func BenchmarkTrioSProcedure(b *testing.B) {
+	m := load(b, "trio.lya")
+	for b.Loop() {
+		r, err := Find(context.Background(), m, "trio.lya", Options{Gap: 0.01, Method: MethodSOS})
+		if err != nil || r.Gap() > 0.01 {
+			b.Fatal(err, r.Gap())
+		}
+	}
+}
+
 // BenchmarkRingOnePercent: two states to a 1 % gap.
 func BenchmarkRingOnePercent(b *testing.B) {
 	m := load(b, "ring.lya")
 	for b.Loop() {
-		r, err := Find(context.Background(), m, "ring.lya", Options{Gap: 0.01})
+		r, err := Find(context.Background(), m, "ring.lya", Options{Gap: 0.01, Method: MethodBranch})
 		if err != nil || r.Gap() > 0.01 {
 			b.Fatal(err, r.Gap())
 		}
@@ -317,7 +351,7 @@ func BenchmarkRingOnePercent(b *testing.B) {
 func BenchmarkVanDerPolOnePercent(b *testing.B) {
 	m := load(b, "vanderpol.lya")
 	for b.Loop() {
-		r, err := Find(context.Background(), m, "vanderpol.lya", Options{Gap: 0.01})
+		r, err := Find(context.Background(), m, "vanderpol.lya", Options{Gap: 0.01, Method: MethodBranch})
 		if err != nil || r.Gap() > 0.01 {
 			b.Fatal(err, r.Gap())
 		}
@@ -328,7 +362,7 @@ func BenchmarkVanDerPolOnePercent(b *testing.B) {
 func BenchmarkTrioFivePercent(b *testing.B) {
 	m := load(b, "trio.lya")
 	for b.Loop() {
-		r, err := Find(context.Background(), m, "trio.lya", Options{Gap: 0.05})
+		r, err := Find(context.Background(), m, "trio.lya", Options{Gap: 0.05, Method: MethodBranch})
 		if err != nil || r.Gap() > 0.05 {
 			b.Fatal(err, r.Gap())
 		}

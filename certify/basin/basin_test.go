@@ -108,6 +108,27 @@ func TestMethodChoice(t *testing.T) {
 	}
 }
 
+// An invented model whose V = x² − x⁴/10 is positive only near 0: its
+// sublevel sets are unbounded, so the S-procedure must not apply, and the
+// branch and bound certifies the component around 0. V̇ = −2x² + 12/5·x⁴ −
+// 2/5·x⁶ first vanishes at x² = 1 (hand computation), where V = 9/10.
+func TestLocalVKeepsBranchAndBound(t *testing.T) {
+	m, err := model.Parse("local.lya", []byte("state x\nx' = -x + x^3\nV = x^2 - 1/10*x^4\n"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, err := Find(context.Background(), m, "local.lya", Options{Method: MethodSOS}); err == nil || !strings.Contains(err.Error(), "radially unbounded") {
+		t.Errorf("sos: %v, want an error about V not radially unbounded", err)
+	}
+	r, err := Find(context.Background(), m, "local.lya", Options{Gap: 0.02})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if lo := float(r.Level); r.Rule != "sublevel-basin" || lo > 0.9 || lo < 0.9*0.98 {
+		t.Errorf("auto: rule %q, c_lo = %g; want sublevel-basin and c_lo in [0.882, 0.9]", r.Rule, lo)
+	}
+}
+
 // The ring example of Slotine & Li (Applied Nonlinear Control, ch. 3) with
 // its 2 made a parameter a ∈ [1, 2]: V̇ = 2V(V − a), so for each a the best
 // level is a (hand computation, generalizing the book's), and one level for

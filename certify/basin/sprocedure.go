@@ -168,7 +168,8 @@ func (p *sproc) feasible(eps float64) bool { return eps > 1e-7*p.scale }
 // level just below the best feasible one, stepping down when rounding
 // fails. It returns the claim and its level.
 func (p *sproc) search(ctx context.Context, lo, hi, rel float64) (*claims.SublevelSProcedure, *big.Rat, error) {
-	for hi-lo > rel*hi && p.solves < 40 {
+	top := hi
+	for hi-lo > rel*hi && p.solves < 40 && (lo > 0 || hi > 1e-6*top) {
 		mid := (lo + hi) / 2
 		if lo == 0 {
 			mid = hi / 2

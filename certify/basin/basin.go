@@ -272,25 +272,45 @@ func (res *Result) sprocedure(ctx context.Context, d *direct.Result, target, gap
 	if err := globalV(d); err != nil {
 		return fail(err)
 	}
-	sp, err := newSProc(d)
-	if err != nil {
-		return fail(err)
-	}
-	cl, level, err := sp.search(ctx, 0, target, gap/4)
-	if err := ctx.Err(); err != nil {
-		return nil, err
-	}
-	if err != nil {
-		if !required {
-			res.Note = "the S-procedure certified no level: " + err.Error()
+	// Multipliers of the least degree first, then one degree more (their
+	// bases hold the lower ones, so the level found is a feasible start)
+	// while the gap stays open.
+	var cl *claims.SublevelSProcedure
+	var level *big.Rat
+	var sp *sproc
+	solves, lo, tried := 0, 0.0, 0
+	for extra := 0; extra < 2 && !res.closed(target, gap); extra++ {
+		q, err := newSProc(d, extra)
+		if err != nil {
+			if extra == 0 {
+				return fail(err)
+			}
+			break
 		}
-		return fail(err)
+		c, l, err := q.search(ctx, lo, target, gap/4)
+		solves, tried = solves+q.solves, q.degS
+		if err := ctx.Err(); err != nil {
+			return nil, err
+		}
+		if err != nil {
+			if extra == 0 && !required {
+				res.Note = "the S-procedure certified no level: " + err.Error()
+			}
+			if extra == 0 {
+				return fail(err)
+			}
+			break
+		}
+		if level == nil || l.Cmp(level) > 0 {
+			cl, level, sp = c, l, q
+			lo, _ = l.Float64()
+			res.Level, res.SProcedure, res.Rule = level, cl, "sublevel-sprocedure"
+		}
 	}
-	res.Level, res.SProcedure, res.Rule = level, cl, "sublevel-sprocedure"
 	res.Method = fmt.Sprintf("S-procedure: −V̇ − ε·Σyᵢ² − s·(c − V) = σ with s (degree %d, %d monomials) and σ (degree %d, %d monomials) sums of squares, bisection on c (%d semidefinite programs), exact rounding and LDLᵀ; c_hi by rays, pattern search and an exact rational point",
-		sp.degS, len(cl.Multiplier.Basis), sp.degR, len(cl.Remainder.Basis), sp.solves)
-	if lf, _ := level.Float64(); lf < target*(1-gap) {
-		res.Note = fmt.Sprintf("the S-procedure's level is not within %g of c_hi (multipliers of degree %d)", gap, sp.degS)
+		sp.degS, len(cl.Multiplier.Basis), sp.degR, len(cl.Remainder.Basis), solves)
+	if !res.closed(target, gap) && res.Note == "" {
+		res.Note = fmt.Sprintf("the S-procedure's level is not within %g of c_hi (multipliers up to degree %d)", gap, tried)
 	}
 	return cl, nil
 }

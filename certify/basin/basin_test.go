@@ -10,8 +10,12 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/lyacert/lyacert/certificates"
 	"github.com/lyacert/lyacert/certify"
+	"github.com/lyacert/lyacert/certify/direct"
 	"github.com/lyacert/lyacert/certify/ode"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/model"
 )
 
@@ -387,5 +391,40 @@ func BenchmarkTrioFivePercent(b *testing.B) {
 		if err != nil || r.Gap() > 0.05 {
 			b.Fatal(err, r.Gap())
 		}
+	}
+}
+
+// Multipliers of one degree more (s of degree 4, σ of degree 6) on Van
+// der Pol in reverse time (Khalil, Nonlinear Systems, §8.2): the level
+// against the polar scan of TestVanDerPolAgainstPolarScan, and the
+// certificate accepted by the kernel with that level.
+func TestSProcedureHigherDegree(t *testing.T) {
+	const scan = 2.304478
+	ctx := context.Background()
+	d, err := direct.CheckPaving(ctx, load(t, "vanderpol.lya"), "vanderpol.lya", direct.PaveOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	sp, err := newSProc(d, 1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if sp.degS != 4 || sp.degR != 6 {
+		t.Fatalf("degrees %d and %d, want 4 and 6", sp.degS, sp.degR)
+	}
+	cl, level, err := sp.search(ctx, 0, scan, 0.0025)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if lo := float(level); lo > scan || (scan-lo)/scan > 0.01 {
+		t.Errorf("c_lo = %g, want within 1 %% below the polar scan's %g", lo, scan)
+	}
+	doc := *d.Doc
+	doc.Claims = append(append([]claims.Claim(nil), d.Doc.Claims...), cl)
+	if err := certificates.Seal(&doc); err != nil {
+		t.Fatal(err)
+	}
+	if out := checker.Verify(&doc); !out.Valid || out.Basin != level.RatString() {
+		t.Errorf("the kernel: valid %v, level %q; want %s", out.Valid, out.Basin, level.RatString())
 	}
 }

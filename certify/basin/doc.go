@@ -40,8 +40,8 @@
 // so that on {V ≤ c}, where c − V ≥ 0, −V̇ ≥ ε·|y|² > 0 but at x*. The
 // set is compact (V radially unbounded) and positively invariant, so all
 // of it is attracted (kernel rule sublevel-sprocedure). s = z₁ᵀG₁z₁ has
-// degree 2d₁ with 2d₁ + deg V ≥ deg(−V̇), d₁ ≥ 1, σ = z₀ᵀG₀z₀ the degree
-// of the other terms; z holds every monomial of degree 1 to d (s and σ
+// degree 2d₁ with 2d₁ + deg V ≥ deg(−V̇), d₁ ≥ 1 (then d₁ + 1 while the gap
+// stays open), σ = z₀ᵀG₀z₀ the degree of the other terms; z holds every monomial of degree 1 to d (s and σ
 // vanish at y = 0, as the identity forces). For a fixed c the identity is
 // linear in G₀, G₁ and ε: a semidefinite program maximising ε
 // (certify/sdp). The largest c with ε clearly positive is found by

@@ -32,10 +32,10 @@ type sproc struct {
 }
 
 // newSProc sets up the search: s of degree 2d₁ with 2d₁ + deg V ≥ deg(−V̇)
-// (d₁ ≥ 1), σ of the degree 2d₀ of the identity's other terms, both in
+// (d₁ ≥ 1, raised by extra), σ of the degree 2d₀ of the identity's other terms, both in
 // every monomial of degree 1 to d (s and σ vanish at y = 0, as the identity
 // forces: there −V̇ = V = 0).
-func newSProc(d *direct.Result) (*sproc, error) {
+func newSProc(d *direct.Result, extra int) (*sproc, error) {
 	v, nvd := d.Shifted.V, d.Shifted.Vdot.Neg()
 	if !v.IsPoly() || !nvd.IsPoly() || nvd.Num.IsZero() {
 		return nil, errors.New("V and V̇ must be polynomials")
@@ -45,7 +45,7 @@ func newSProc(d *direct.Result) (*sproc, error) {
 		return nil, errors.New("the S-procedure needs every parameter fixed")
 	}
 	dv, dd := v.Num.Degree(), nvd.Num.Degree()
-	d1 := max(1, (dd-dv+1)/2)
+	d1 := max(1, (dd-dv+1)/2) + extra
 	d0 := (max(dd, 2*d1+dv) + 1) / 2
 	p := &sproc{r: r, v: v.Num, nvd: nvd.Num, z0: monomialsUpTo(r.NumStates(), d0), z1: monomialsUpTo(r.NumStates(), d1), degS: 2 * d1, degR: 2 * d0}
 	if len(p.z0)+len(p.z1) > 300 {

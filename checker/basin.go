@@ -58,7 +58,7 @@ func (c *run) sublevelBasin(cl claims.Claim) bool {
 	}
 	near := c.m.Shift(c.vdot).Neg().Num // −V̇ at x* + y, in y
 	count := 0
-	err = claims.WalkPaving(b.Tree, len(sides), res, func(code byte, g poly.DyadicBox) error {
+	err = claims.WalkDirected(b.Tree, len(sides), res, func(code byte, g poly.DyadicBox) error {
 		fs := walk.At(g)
 		if count++; count%4096 == 0 && c.ctx.Err() != nil {
 			return c.ctx.Err()

@@ -256,6 +256,20 @@ func hostileFiles(t *testing.T) map[string][]byte {
 		"forged-basin-box-range-open.json": edit(t, "basin-ringbox.json", func(d *claims.Document) {
 			widen(t, d, "in (1, 2]", claims.Interval{Lo: "1", Hi: "2", HiClosed: true})
 		}),
+		// A split along a fourth coordinate of a box of three (x1, x2, a).
+		"forged-basin-split-beyond-coordinates.json": edit(t, "basin-ringbox.json", func(d *claims.Document) {
+			b := claimOf[*claims.SublevelBasin](t, d, 0)
+			i := strings.IndexAny(b.Tree, "abc")
+			if i < 0 {
+				t.Fatal("the ringbox tree has no directed split")
+			}
+			b.Tree = b.Tree[:i] + "d" + b.Tree[i+1:]
+		}),
+		// Directed splits belong to basin trees only: a paving tree keeps S.
+		"forged-paving-directed-split.json": edit(t, "twogains.json", func(d *claims.Document) {
+			pv := claimOf[*claims.Paving](t, d, 0)
+			pv.Tree = strings.Replace(pv.Tree, "S", "a", 1)
+		}),
 		// The S-procedure on the ring (V̇ = 2V(V − 2), best level 2) at the
 		// level 3: with s = 2V the identity leaves σ = −(2 + 1/256)·V, so
 		// the remainder's pivots are negative (hand computation).

@@ -163,7 +163,7 @@ func Find(ctx context.Context, m *model.Model, source string, o Options) (*Resul
 	if err != nil {
 		return nil, err
 	}
-	p := &paver{n: n, at: res.Equilibrium, atf: at, near: near}
+	p := &paver{n: n, at: res.Equilibrium, atf: at, near: near, directed: len(res.Params) > 0 && n+len(res.Params) <= claims.MaxDirected}
 	for i := range n {
 		h := decimalUp(1.1*ext[i] + 1e-9)
 		p.sides = append(p.sides, poly.Closed(new(big.Rat).Sub(res.Equilibrium[i], h), new(big.Rat).Add(res.Equilibrium[i], h)))

@@ -161,6 +161,24 @@ func TestRingBoxLevelIsOne(t *testing.T) {
 	}
 }
 
+// Two parameters: the ring with radius a ∈ [1, 2] and a rotation b ∈ [0, 1]
+// that leaves V̇ = 2V(V − a) unchanged (hand computation; Slotine & Li,
+// Applied Nonlinear Control, ch. 3, generalized), so the best level for
+// every (a, b) is 1. V̇ does not involve b, so the directed bisection never
+// halves b; it closes a 1 % gap with few boxes.
+func TestTwoParametersLevelIsOne(t *testing.T) {
+	r := find(t, "ringspin.lya", Options{Gap: 0.01})
+	if lo := float(r.Level); lo < 0.98 || lo > 1 {
+		t.Errorf("c_lo = %g, want in [0.98, 1]", lo)
+	}
+	if strings.ContainsRune(r.Claim.Tree, 'd') {
+		t.Errorf("the tree halves b, on which V and V̇ do not depend")
+	}
+	if r.Inside+r.Outside > 20000 {
+		t.Errorf("%d boxes, want far fewer than the 300,000 of halving every side in turn", r.Inside+r.Outside)
+	}
+}
+
 // A parameter range that is not closed and bounded has no box to bisect.
 func TestParameterRangeMustBeCompact(t *testing.T) {
 	for _, rng := range []string{"in (1, 2]", "> 1", ""} {
@@ -355,6 +373,18 @@ func BenchmarkTrioSProcedure(b *testing.B) {
 	m := load(b, "trio.lya")
 	for b.Loop() {
 		r, err := Find(context.Background(), m, "trio.lya", Options{Gap: 0.01, Method: MethodSOS})
+		if err != nil || r.Gap() > 0.01 {
+			b.Fatal(err, r.Gap())
+		}
+	}
+}
+
+// BenchmarkTwoParametersOnePercent: two states and two parameters (the
+// ring with an uncertain radius and rotation) to a 1 % gap.
+func BenchmarkTwoParametersOnePercent(b *testing.B) {
+	m := load(b, "ringspin.lya")
+	for b.Loop() {
+		r, err := Find(context.Background(), m, "ringspin.lya", Options{Gap: 0.01})
 		if err != nil || r.Gap() > 0.01 {
 			b.Fatal(err, r.Gap())
 		}

@@ -6,8 +6,12 @@
 //
 // Free parameters must have closed bounded ranges, and the equilibrium must
 // not depend on them: c_lo then holds for every parameter value p in the
-// box. The bisection runs over states and parameters together (every side
-// halved in turn, so the widest relative to the box first), and for each
+// box. The bisection runs over states and parameters together, each box
+// halved along the coordinate whose terms make the largest share of the
+// widths of the enclosures of V and −V̇ (poly.CenteredForm.Spread; the
+// tree names it, claims.WalkDirected), so that a parameter on which
+// neither depends, or a state near which they are flat, is not halved in
+// vain; without parameters every side is halved in turn. For each
 // fixed p the boxes whose parameter sides hold p pave the state box, so the
 // argument below applies slice by slice. c_hi is the least of the values
 // found at a grid of parameter values, and its point comes with the p at

@@ -27,8 +27,8 @@ type sproc struct {
 	z0, z1     [][]int
 	margin     [][]int
 	scale      float64 // the largest coefficient of −V̇, for tolerances
-	solves     int
-	degS, degR int
+	solves     int     // semidefinite programs solved
+	degS, degR int     // the degrees of s and σ
 }
 
 // newSProc sets up the search: s of degree 2d₁ with 2d₁ + deg V ≥ deg(−V̇)
@@ -144,8 +144,8 @@ func (p *sproc) problem(c float64) *sdp.Problem {
 	return prob
 }
 
-// margin solves the SDP at level c and returns the largest ε found, 0 when
-// the solver does not reach optimality.
+// marginAt solves the SDP at level c and returns the largest ε found (0
+// when the solver does not reach optimality) with the problem.
 func (p *sproc) marginAt(ctx context.Context, c float64) (float64, *sdp.Problem, error) {
 	prob := p.problem(c)
 	p.solves++

@@ -287,6 +287,9 @@ func (res *Result) sprocedure(ctx context.Context, d *direct.Result, target, gap
 			}
 			break
 		}
+		if extra > 0 && len(q.z0)+len(q.z1) > maxRaised {
+			break
+		}
 		c, l, err := q.search(ctx, lo, target, gap/4)
 		solves, tried = solves+q.solves, q.degS
 		if err := ctx.Err(); err != nil {
@@ -347,6 +350,12 @@ func globalV(d *direct.Result) error {
 	}
 	return nil
 }
+
+// maxRaised bounds the orders of the Gram matrices (σ's and s's together)
+// when the S-procedure raises the multipliers' degree, so that the
+// bisection's SDPs stay small; the branch and bound follows when the gap
+// is still open.
+const maxRaised = 80
 
 // maxParams bounds the free parameters of a basin: the grid of c_hi has
 // 5, 3 or 2 values per parameter, and the tree halves every parameter as

@@ -288,6 +288,10 @@ func hostileFiles(t *testing.T) map[string][]byte {
 		"forged-sprocedure-two-basins.json": edit(t, "basin-vanderpol.json", func(d *claims.Document) {
 			d.Claims = append(d.Claims, claimOf[*claims.SublevelSProcedure](t, honest(t, "basin-vanderpol-sos.json"), 0))
 		}),
+		// The claim alone: no derivative, no form of V.
+		"forged-sprocedure-alone.json": edit(t, "basin-vanderpol-sos.json", func(d *claims.Document) {
+			d.Claims = d.Claims[len(d.Claims)-1:]
+		}),
 		// Without V's form nothing makes {V ≤ c} compact.
 		"forged-sprocedure-no-v-form.json": edit(t, "basin-vanderpol-sos.json", func(d *claims.Document) {
 			d.Claims = []claims.Claim{d.Claims[0], d.Claims[len(d.Claims)-1]}

@@ -15,8 +15,12 @@ import (
 // (LaSalle): all of Ω lies in the region of attraction.
 func (c *run) sublevelSProcedure(cl claims.Claim) bool {
 	sp, fv, what := cl.(*claims.SublevelSProcedure), c.forms["V"], "sublevel-sprocedure"
-	vs, ds := c.m.Shift(c.v), c.m.Shift(c.vdot).Neg()
-	ok := c.derived && !c.m.Discrete && vs.IsPoly() && ds.IsPoly() && c.basin == "" && fv != nil && !fv.semidef && (!c.higherV || fv.basis)
+	ok := c.derived && !c.m.Discrete && c.basin == "" && fv != nil && !fv.semidef && (!c.higherV || fv.basis)
+	vs, ds := c.v, c.vdot // shifted only after the derivative
+	if ok {
+		vs, ds = c.m.Shift(c.v), c.m.Shift(c.vdot).Neg()
+		ok = vs.IsPoly() && ds.IsPoly()
+	}
 	for k, w := range c.minors {
 		ok = ok && (w.form != "V" || k < len(c.conds) && c.conds[k].Num.IsConst() && c.conds[k].Num.ConstTerm().Sign() > 0)
 	}

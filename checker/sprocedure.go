@@ -5,14 +5,13 @@ import (
 	"github.com/lyacert/lyacert/poly"
 )
 
-// sublevelSProcedure: the S-procedure on a sublevel set (Khalil, Nonlinear
-// Systems, §8.2). With y = x − x*, s and σ sums of squares and m = Σ εᵢyᵢ^(2kᵢ),
-// the identity −V̇ − m − s·(c − V) = σ gives −V̇ ≥ m > 0 on Ω = {V ≤ c} but at
-// x*. V's form (conditions of its minors positive constants) makes V positive
-// definite and radially unbounded for every parameter value, so Ω is compact,
-// and positively invariant: V decreases where a solution would leave it.
-// Solutions in Ω tend to the largest invariant set in {V̇ = 0} ∩ Ω = {x*}
-// (LaSalle): all of Ω lies in the region of attraction.
+// sublevelSProcedure: the S-procedure on a sublevel set (Khalil, Nonlinear Systems,
+// §8.2). With y = x − x*, s, σ sums of squares and m = Σ εᵢyᵢ^(2kᵢ), −V̇ − m − s·(c − V)
+// = σ gives −V̇ ≥ m > 0 on Ω = {V ≤ c} but at x*. V's form (its minors' conditions
+// positive constants) makes V positive definite and radially unbounded for every
+// parameter value: Ω is compact and positively invariant (V decreases where a solution
+// would leave it), and its solutions tend to the largest invariant set in {V̇ = 0} ∩ Ω,
+// {x*} (LaSalle): all of Ω lies in the region of attraction.
 func (c *run) sublevelSProcedure(cl claims.Claim) bool {
 	sp, fv, what := cl.(*claims.SublevelSProcedure), c.forms["V"], "sublevel-sprocedure"
 	ok := c.derived && !c.m.Discrete && c.basin == "" && fv != nil && !fv.semidef && (!c.higherV || fv.basis)

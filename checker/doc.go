@@ -60,6 +60,8 @@
 //	                     −V̇ = yᵀ(G + M(y))y definite on a box at the equilibrium),
 //	                     so {V ≤ c} around the equilibrium is compact, invariant
 //	                     and attracted; the level joins the outcome, not the verdict
+//	sublevel-sprocedure  S-procedure: −V̇ − Σ εᵢyᵢ^(2kᵢ) − s·(c − V) = σ, s, σ ⪰ 0 by exact
+//	                     LDLᵀ, V's form radially unbounded: all of {V ≤ c} attracted
 //
 // Lyapunov's direct method combines them: V and −V̇ definite as wholes give
 // global asymptotic stability, their quadratic parts local asymptotic

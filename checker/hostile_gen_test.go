@@ -281,6 +281,46 @@ func hostileFiles(t *testing.T) map[string][]byte {
 		"forged-basin-box-range-open.json": edit(t, "basin-ringbox.json", func(d *claims.Document) {
 			widen(t, d, "in (1, 2]", claims.Interval{Lo: "1", Hi: "2", HiClosed: true})
 		}),
+		// A split along a fourth coordinate of a box of three (x1, x2, a).
+		"forged-basin-split-beyond-coordinates.json": edit(t, "basin-ringbox.json", func(d *claims.Document) {
+			b := claimOf[*claims.SublevelBasin](t, d, 0)
+			i := strings.IndexAny(b.Tree, "abc")
+			if i < 0 {
+				t.Fatal("the ringbox tree has no directed split")
+			}
+			b.Tree = b.Tree[:i] + "d" + b.Tree[i+1:]
+		}),
+		// Directed splits belong to basin trees only: a paving tree keeps S.
+		"forged-paving-directed-split.json": edit(t, "twogains.json", func(d *claims.Document) {
+			pv := claimOf[*claims.Paving](t, d, 0)
+			pv.Tree = strings.Replace(pv.Tree, "S", "a", 1)
+		}),
+		// The S-procedure on the ring (V̇ = 2V(V − 2), best level 2) at the
+		// level 3: with s = 2V the identity leaves σ = −(2 + 1/256)·V, so
+		// the remainder's pivots are negative (hand computation).
+		"forged-sprocedure-negative-pivot.json": edit(t, "basin-ring.json", func(d *claims.Document) {
+			sq := func(g string) claims.SquareSum {
+				return claims.SquareSum{Basis: []string{"x1", "x2"}, Gram: [][]string{{g, "0"}, {"0", g}}, L: [][]string{{"1", "0"}, {"0", "1"}}, D: []string{g, g}}
+			}
+			d.Claims[len(d.Claims)-1] = &claims.SublevelSProcedure{Level: "3", Margin: "1/256*x1^2 + 1/256*x2^2", Multiplier: sq("2"), Remainder: sq("-513/256")}
+		}),
+		// The Van der Pol S-procedure claim raised beyond the optimal level
+		// (about 2.3045 by the polar scan of certify/basin's tests).
+		"forged-sprocedure-level-raised.json": edit(t, "basin-vanderpol-sos.json", func(d *claims.Document) {
+			claimOf[*claims.SublevelSProcedure](t, d, 0).Level = "5/2"
+		}),
+		// Two basin claims: a certificate states one level.
+		"forged-sprocedure-two-basins.json": edit(t, "basin-vanderpol.json", func(d *claims.Document) {
+			d.Claims = append(d.Claims, claimOf[*claims.SublevelSProcedure](t, honest(t, "basin-vanderpol-sos.json"), 0))
+		}),
+		// The claim alone: no derivative, no form of V.
+		"forged-sprocedure-alone.json": edit(t, "basin-vanderpol-sos.json", func(d *claims.Document) {
+			d.Claims = d.Claims[len(d.Claims)-1:]
+		}),
+		// Without V's form nothing makes {V ≤ c} compact.
+		"forged-sprocedure-no-v-form.json": edit(t, "basin-vanderpol-sos.json", func(d *claims.Document) {
+			d.Claims = []claims.Claim{d.Claims[0], d.Claims[len(d.Claims)-1]}
+		}),
 		"forged-region-piece-holds.json": edit(t, "lorenz.json", func(d *claims.Document) {
 			rg := claimOf[*claims.SturmRegion](t, d, 0)
 			rg.Pieces[2].Holds = true

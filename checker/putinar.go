@@ -38,29 +38,11 @@ func (c *run) boxMultiplier(cl claims.Claim) bool {
 		if !ok {
 			return false
 		}
-		z, ok := c.monomials(what, t.Basis, true)
+		sq, ok := c.squares(what, &t.SquareSum, true)
 		if !ok {
 			return false
 		}
-		gm, ok1 := c.matrix(what, t.Gram, len(z), "the Gram matrix")
-		l, ok2 := c.matrix(what, t.L, len(z), "L")
-		d, ok3 := c.list(what, t.D, len(z), "pivots")
-		if !ok1 || !ok2 || !ok3 {
-			return false
-		}
-		gc, ok1 := gm.Consts()
-		_, ok2 = l.Consts()
-		dc, ok3 := poly.Matrix{d}.Consts()
-		zero := make([]bool, len(z))
-		for i := 0; ok3 && i < len(z); i++ {
-			ok3, zero[i] = dc[0][i].Sign() >= 0, dc[0][i].Sign() == 0
-		}
-		if !c.add(what, ok1 && ok2 && ok3, "G, L and D are rational numbers, D ≥ 0") ||
-			!c.add(what, l.UnitLower(zero), "L is unit lower triangular, with a zero column below every zero pivot") ||
-			!c.add(what, gm.EqualLDL(l, d), "L·D·Lᵀ reproduces G exactly, so G ⪰ 0") {
-			return false
-		}
-		sum.Add(sum, poly.Bilinear(g, gc, z))
+		sum.Add(sum, new(poly.Poly).Mul(g, sq))
 	}
 	if !c.add(name, sum.Equal(new(poly.Poly).Sub(whole.Num, m.Num)), "σ₀ + Σ σᵢ·(pᵢ − loᵢ)(hiᵢ − pᵢ) equals −V̇ less the margin exactly") {
 		return false

@@ -28,9 +28,9 @@ func boxDocument(t *testing.T, model string) *claims.Document {
 			&claims.QuadraticPart{LDLForm: claims.LDLForm{Of: "V", Gram: [][]string{{"1", "0"}, {"0", "1"}},
 				L: [][]string{{"1", "0"}, {"0", "1"}}, D: []string{"1", "1"}, Minors: []string{"1", "1"}}},
 			&claims.BoxMultiplier{Margin: "x^2 + y^2", Terms: []claims.Multiplied{
-				{Basis: []string{"x", "a*x", "y", "b*y"}, Gram: gram, L: l, D: []string{"3", "2/3", "3", "2/3"}},
-				{Parameter: "a", Basis: []string{"x"}, Gram: [][]string{{"2"}}, L: [][]string{{"1"}}, D: []string{"2"}},
-				{Parameter: "b", Basis: []string{"y"}, Gram: [][]string{{"2"}}, L: [][]string{{"1"}}, D: []string{"2"}},
+				{SquareSum: claims.SquareSum{Basis: []string{"x", "a*x", "y", "b*y"}, Gram: gram, L: l, D: []string{"3", "2/3", "3", "2/3"}}},
+				{Parameter: "a", SquareSum: claims.SquareSum{Basis: []string{"x"}, Gram: [][]string{{"2"}}, L: [][]string{{"1"}}, D: []string{"2"}}},
+				{Parameter: "b", SquareSum: claims.SquareSum{Basis: []string{"y"}, Gram: [][]string{{"2"}}, L: [][]string{{"1"}}, D: []string{"2"}}},
 			}},
 			&claims.MinorCondition{Form: "V", Index: 1, Minor: "1", Constant: "1", Factors: []claims.Factor{}, Condition: "1"},
 			&claims.MinorCondition{Form: "V", Index: 2, Minor: "1", Constant: "1", Factors: []claims.Factor{}, Condition: "1"},

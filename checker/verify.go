@@ -37,8 +37,9 @@ type Record struct {
 // Refuted says that an exact point refutes the candidate itself (not only
 // the argument); Region names the rules the region of parameters rests on
 // ("" when the conditions are settled without one). Basin is the level c of
-// a verified sublevel-basin claim: the component of {V ≤ c} around the
-// equilibrium lies in its region of attraction ("" without one).
+// a verified sublevel-basin claim (the component of {V ≤ c} around the
+// equilibrium lies in its region of attraction) or sublevel-sprocedure
+// claim (all of {V ≤ c} does); "" without one.
 type Outcome struct {
 	Valid   bool     `json:"valid"`
 	Verdict string   `json:"verdict"`
@@ -88,6 +89,7 @@ func ruleTable() []rule {
 		{"linearization", 7, (*run).linearization},
 		{"vertex-lyapunov", 7, (*run).vertexLyapunov},
 		{"sublevel-basin", 8, (*run).sublevelBasin},
+		{"sublevel-sprocedure", 8, (*run).sublevelSProcedure},
 	}
 }
 

@@ -11,9 +11,10 @@ import (
 // around the equilibrium tends to the equilibrium. The box of the states
 // (sides [Lo[i], Hi[i]], canonical rationals) times the box of the free
 // parameters (their ranges, which must be closed and bounded) is bisected
-// like a Paving's (Resolution, Tree; codes S, I, O, no U): on an O box
-// V > Level throughout, on an I box V̇ < 0 except at the equilibrium; every
-// box that touches a face of the state box is an O box.
+// like a Paving's (Resolution, Tree; codes S, I, O, no U), and a split may
+// name its coordinate k by the letter PaveSplitAlong + k (WalkDirected):
+// on an O box V > Level throughout, on an I box V̇ < 0 except at the
+// equilibrium; every box that touches a face of the state box is an O box.
 type SublevelBasin struct {
 	Level      string   `json:"level"`
 	Lo         []string `json:"lo"`

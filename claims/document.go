@@ -74,7 +74,7 @@ func init() {
 	for _, c := range []Claim{new(OrbitalDerivative), new(QuadraticPart), new(MonomialGram), new(MarginGram), new(TriangularSquares),
 		new(BoxMultiplier), new(MinorCondition), new(NullSpace), new(Invariance), new(PointCheck), new(AlgebraicPoint), new(SturmRegion),
 		new(Paving), new(WitnessPoints), new(Refutation), new(NotSOS), new(KrawczykEnclosure), new(Linearization),
-		new(VertexLyapunov), new(SublevelBasin)} {
+		new(VertexLyapunov), new(SublevelBasin), new(SublevelSProcedure)} {
 		t := reflect.TypeOf(c).Elem()
 		claimTypes[c.Rule()] = func() Claim { return reflect.New(t).Interface().(Claim) }
 	}

@@ -62,10 +62,32 @@ func ResolutionLevel(s string) (int, bool) {
 	return l, true
 }
 
+// PaveSplitAlong is the code of a box halved along coordinate k (k < 26,
+// at most MaxDirected coordinates): PaveSplitAlong + k, a lower-case letter,
+// in the trees WalkDirected reads.
+const (
+	PaveSplitAlong = 'a'
+	MaxDirected    = 26
+)
+
 // WalkPaving calls node for every box of the tree in depth-first order and
 // checks the tree's shape: known codes, a split only above the resolution
 // level, an undecided box only at it, and nothing after the tree.
 func WalkPaving(tree string, n, level int, node func(code byte, g poly.DyadicBox) error) error {
+	return walkTree(tree, n, level, false, node)
+}
+
+// WalkDirected is WalkPaving for trees whose splits may also name their
+// coordinate: the code PaveSplitAlong + k halves the box along coordinate
+// k, allowed while the box has been halved fewer than level times along
+// it; node then sees the code PaveSplit. S still halves along
+// poly.SplitDim. Every tree is a partition of the box into dyadic boxes,
+// whatever the coordinates chosen.
+func WalkDirected(tree string, n, level int, node func(code byte, g poly.DyadicBox) error) error {
+	return walkTree(tree, n, level, true, node)
+}
+
+func walkTree(tree string, n, level int, directed bool, node func(code byte, g poly.DyadicBox) error) error {
 	pos := 0
 	var rec func(g poly.DyadicBox) error
 	rec = func(g poly.DyadicBox) error {
@@ -74,16 +96,23 @@ func WalkPaving(tree string, n, level int, node func(code byte, g poly.DyadicBox
 		}
 		code := tree[pos]
 		pos++
-		switch code {
-		case PaveSplit:
+		dim := -1
+		switch k := int(code) - PaveSplitAlong; {
+		case directed && k >= 0 && k < min(n, MaxDirected):
+			if g.K[k] >= level {
+				return fmt.Errorf("box %d is split along coordinate %d at the resolution", pos, k+1)
+			}
+			code, dim = PaveSplit, k
+		case code == PaveSplit:
 			if g.MinLevel() >= level {
 				return fmt.Errorf("box %d is split but is at the resolution", pos)
 			}
-		case PaveUndecided:
+			dim = poly.SplitDim(g.K)
+		case code == PaveUndecided:
 			if g.MinLevel() < level {
 				return fmt.Errorf("box %d is undecided but wider than the resolution", pos)
 			}
-		case PaveInside, PaveOutside:
+		case code == PaveInside || code == PaveOutside:
 		default:
 			return fmt.Errorf("box %d has the unknown code %q", pos, code)
 		}
@@ -93,7 +122,7 @@ func WalkPaving(tree string, n, level int, node func(code byte, g poly.DyadicBox
 		if code != PaveSplit {
 			return nil
 		}
-		lo, hi := g.Halves(poly.SplitDim(g.K))
+		lo, hi := g.Halves(dim)
 		if err := rec(lo); err != nil {
 			return err
 		}

@@ -12,11 +12,8 @@ type BoxMultiplier struct {
 
 // Multiplied is one sum of squares of a multiplier identity.
 type Multiplied struct {
-	Parameter string     `json:"parameter"`
-	Basis     []string   `json:"basis"`
-	Gram      [][]string `json:"gram"`
-	L         [][]string `json:"l"`
-	D         []string   `json:"d"`
+	Parameter string `json:"parameter"`
+	SquareSum
 }
 
 func (*BoxMultiplier) Rule() string { return "box-multiplier-sos" }

@@ -2,11 +2,12 @@ package poly
 
 // FormWalk keeps the centred forms of a list of polynomials on the boxes of
 // a bisection tree walked depth first (lower half first, each box halved
-// along SplitDim): the forms of a box follow from its parent's by
+// along any coordinate): the forms of a box follow from its parent's by
 // CenteredForm.Half, so the walk costs integer shifts and additions only.
 type FormWalk struct {
 	root  []*CenteredForm
 	forms [][]*CenteredForm // forms[d]: the box at depth d of the current path
+	halvs [][]int           // halvs[d]: the halvings K of that box
 }
 
 // NewFormWalk returns the walk of the polynomials ps over the box whose side
@@ -21,6 +22,7 @@ func NewFormWalk(ps []*Poly, vars []int, box []Interval) (*FormWalk, error) {
 		w.root[j] = f
 	}
 	w.forms = [][]*CenteredForm{w.root}
+	w.halvs = [][]int{make([]int, len(box))}
 	return w, nil
 }
 
@@ -38,10 +40,15 @@ func (w *FormWalk) At(g DyadicBox) []*CenteredForm {
 			fs[j] = new(CenteredForm)
 		}
 		w.forms = append(w.forms, fs)
+		w.halvs = append(w.halvs, make([]int, len(g.K)))
 	}
-	// g is the lower or upper half of its parent along the parent's split
-	// coordinate; the parent's forms are the last written at depth d − 1.
-	dim := ParentSplit(g.K)
+	// g is the lower or upper half of its parent, the box last passed at
+	// depth d − 1, along the one coordinate halved once more.
+	dim := 0
+	for dim < len(g.K)-1 && g.K[dim] == w.halvs[d-1][dim] {
+		dim++
+	}
+	copy(w.halvs[d], g.K)
 	for j := range w.root {
 		w.forms[d][j].Half(w.forms[d-1][j], dim, g.A[dim]%2 == 1)
 	}

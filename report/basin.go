@@ -6,6 +6,7 @@ import (
 	"io"
 	"math"
 	"math/big"
+	"slices"
 	"strings"
 
 	"github.com/lyacert/lyacert/certify"
@@ -38,6 +39,7 @@ type BasinOutput struct {
 	Parameters  []ParamRangeJS `json:"parameters,omitempty"`
 	HoldsFor    string         `json:"holds_for,omitempty"`
 	Method      string         `json:"method"`
+	Rule        string         `json:"rule"` // the kernel rule that proves c_lo
 	Note        string         `json:"note"`
 	Boxes       int            `json:"boxes"`
 	Verdict     string         `json:"verdict"` // the direct method's, as the kernel derives it
@@ -114,7 +116,7 @@ func dec(q *big.Rat) string {
 func BasinJSON(res *basin.Result, written string) BasinOutput {
 	d := res.Direct
 	out := BasinOutput{V: d.V.String(), Vdot: d.Vdot.String(), CLo: res.Level.RatString(), CLoDecimal: dec(res.Level),
-		Method: res.Method, Note: res.Note, Boxes: res.Inside + res.Outside, Verdict: res.Check.Verdict, Claim: res.Check.Kind,
+		Method: res.Method, Rule: res.Rule, Note: res.Note, Boxes: res.Inside + res.Outside, Verdict: res.Check.Verdict, Claim: res.Check.Kind,
 		Digest: res.Doc.Digest, Checks: len(res.Check.Records), Certificate: written}
 	for _, a := range res.Equilibrium {
 		out.Equilibrium = append(out.Equilibrium, a.RatString())
@@ -215,8 +217,13 @@ func BasinText(w io.Writer, res *basin.Result, written string) error {
 	}
 	fmt.Fprintf(ew, "equilibrium (%s) = (%s)\n\n", strings.Join(m.States, ", "), strings.Join(at, ", "))
 	fmt.Fprintf(ew, "Region of attraction by sublevel sets of V:\n")
-	fmt.Fprintf(ew, "  c_lo = %s ≈ %s  certified: every state in the component of {V ≤ c_lo} around the\n", res.Level.RatString(), dec(res.Level))
-	fmt.Fprintf(ew, "         equilibrium tends to it (sublevel-basin, re-checked exactly)\n")
+	if res.SProcedure != nil {
+		fmt.Fprintf(ew, "  c_lo = %s ≈ %s  certified: every state of {V ≤ c_lo} tends to the equilibrium\n", res.Level.RatString(), dec(res.Level))
+		fmt.Fprintf(ew, "         (S-procedure, sublevel-sprocedure, re-checked exactly)\n")
+	} else {
+		fmt.Fprintf(ew, "  c_lo = %s ≈ %s  certified: every state in the component of {V ≤ c_lo} around the\n", res.Level.RatString(), dec(res.Level))
+		fmt.Fprintf(ew, "         equilibrium tends to it (branch and bound, sublevel-basin, re-checked exactly)\n")
+	}
 	if len(res.Params) > 0 {
 		fmt.Fprintf(ew, "         for %s: %s\n", forEvery, paramBox(res))
 	}
@@ -296,101 +303,172 @@ func (s *segLayer) Thumbnail(c *draw.Canvas) {
 	c.StrokeLine2(s.style, c.Min.X, y, c.Max.X, y)
 }
 
-// BasinPlot draws a two-state estimate: the boundary of the certified
-// sublevel set {V = c_lo}, the curve V̇ = 0, the counterexample, and
-// trajectories of the Dormand–Prince integrator from points just inside
-// the set (solid) and just outside {V ≤ c_hi} (dashed). The picture is
-// float64 and proves nothing.
-func BasinPlot(res *basin.Result, format string) ([]byte, error) {
+// BasinPlot draws an estimate in the plane of two states (plane names
+// them; the first two when it is empty), the others at the equilibrium:
+// the boundary of the certified sublevel set {V = c_lo} in that slice, the
+// curve V̇ = 0 there, the counterexample (projected onto the plane when the
+// model has more states), and trajectories of the Dormand–Prince
+// integrator, in every state, from points of the slice just inside the set
+// (solid) and just outside {V ≤ c_hi} (dashed), drawn projected onto the
+// plane. The picture is float64 and proves nothing.
+func BasinPlot(res *basin.Result, format string, plane ...string) ([]byte, error) {
 	m := res.Direct.Model
 	if len(res.Params) > 0 {
 		return nil, fmt.Errorf("the plot needs every parameter fixed (free: %s)", strings.Join(res.Params, ", "))
 	}
-	if len(m.States) != 2 {
-		return nil, fmt.Errorf("the plot needs two states, the model has %d", len(m.States))
+	if len(m.States) < 2 {
+		return nil, fmt.Errorf("the plot needs at least two states, the model has %d", len(m.States))
+	}
+	ij, err := planeOf(m.States, plane)
+	if err != nil {
+		return nil, err
 	}
 	var fs [][]*big.Rat
-	for i := range 2 {
-		lo, _ := new(big.Rat).SetString(res.Claim.Lo[i])
-		hi, _ := new(big.Rat).SetString(res.Claim.Hi[i])
-		fs = append(fs, []*big.Rat{lo, hi})
+	for _, i := range ij {
+		fs = append(fs, []*big.Rat{res.Box[i].Lo.Value, res.Box[i].Hi.Value})
 	}
-	s := newBasinScene(m.States, res.Direct.V.Num, res.Direct.Vdot.Num, m.F, res.Equilibrium, res.Level, fs)
+	s := newBasinScene(m.States, res.Direct.V.Num, res.Direct.Vdot.Num, m.F, res.Equilibrium, res.Level, fs, ij)
+	if res.SProcedure != nil {
+		s.frame = "box searched"
+	}
 	s.title = fmt.Sprintf("Region of attraction: {V ≤ %s} certified", dec(res.Level))
 	if res.Upper != nil {
 		s.title += fmt.Sprintf(", c_hi = %s", dec(res.Upper))
 		s.upper, _ = res.Upper.Float64()
-		cx, _ := res.Counterexample[0].Float64()
-		cy, _ := res.Counterexample[1].Float64()
-		s.counter = []float64{cx, cy}
+		for _, i := range ij {
+			x, _ := res.Counterexample[i].Float64()
+			s.counter = append(s.counter, x)
+		}
+	}
+	if len(m.States) > 2 {
+		var fixed []string
+		for k, name := range m.States {
+			if k != ij[0] && k != ij[1] {
+				fixed = append(fixed, name+" = "+res.Equilibrium[k].RatString())
+			}
+		}
+		s.title += "\nslice " + strings.Join(fixed, ", ")
+		s.projected = true
 	}
 	return renderPlot(6*vg.Inch, 6*vg.Inch, format, func(c draw.Canvas) { s.plot().Draw(c) })
 }
 
-// basinScene is what a two-state picture of a certified sublevel set
-// shows, all in float64: V, V̇ and the right-hand sides, the equilibrium,
-// the level c_lo, the paved box and, when known, c_hi with its point.
-type basinScene struct {
-	states  []string
-	v, vd   certify.FloatPoly
-	f       [2]certify.FloatPoly
-	at      [2]float64
-	level   float64
-	box     [4]float64 // x0, x1, y0, y1
-	upper   float64    // 0 when unknown
-	counter []float64  // nil when unknown
-	title   string
+// planeOf returns the indices of the two states of a plot's plane, named
+// in plane (the first two states when it is empty).
+func planeOf(states, plane []string) ([2]int, error) {
+	if len(plane) == 0 {
+		return [2]int{0, 1}, nil
+	}
+	var ij [2]int
+	if len(plane) != 2 || plane[0] == plane[1] {
+		return ij, fmt.Errorf("the plane of the plot is two different states, not %q", strings.Join(plane, ","))
+	}
+	for k, name := range plane {
+		i := slices.Index(states, name)
+		if i < 0 {
+			return ij, fmt.Errorf("the plane of the plot names %q, not a state (states: %s)", name, strings.Join(states, ", "))
+		}
+		ij[k] = i
+	}
+	return ij, nil
 }
 
-// newBasinScene converts the exact data of a two-state basin to float64;
-// sides are the paved box's [lo, hi] per state.
-func newBasinScene(states []string, v, vdot *poly.Poly, f []poly.RatFunc, at []*big.Rat, level *big.Rat, sides [][]*big.Rat) *basinScene {
-	s := &basinScene{states: states, v: certify.NewFloatPoly(v, 2), vd: certify.NewFloatPoly(vdot, 2)}
-	for i := range 2 {
-		s.f[i] = certify.NewFloatPoly(f[i].Num, 2)
+// basinScene is what a picture of a certified sublevel set shows, in the
+// plane of two states (the others at the equilibrium), all in float64: V,
+// V̇ and the right-hand sides in every state, the equilibrium, the level
+// c_lo, the box's sides in the plane and, when known, c_hi with its point
+// in the plane.
+type basinScene struct {
+	states    []string
+	ij        [2]int
+	v, vd     certify.FloatPoly
+	f         []certify.FloatPoly
+	at        []float64
+	level     float64
+	box       [4]float64 // x0, x1, y0, y1 in the plane
+	upper     float64    // 0 when unknown
+	counter   []float64  // nil when unknown
+	title     string
+	frame     string // the legend of the box drawn; "" for "paved box"
+	projected bool   // more than two states: trajectories and point projected
+}
+
+// newBasinScene converts the exact data of a basin to float64; sides are
+// the box's [lo, hi] for the two states ij of the plane.
+func newBasinScene(states []string, v, vdot *poly.Poly, f []poly.RatFunc, at []*big.Rat, level *big.Rat, sides [][]*big.Rat, ij [2]int) *basinScene {
+	n := len(states)
+	s := &basinScene{states: states, ij: ij, v: certify.NewFloatPoly(v, n), vd: certify.NewFloatPoly(vdot, n), at: make([]float64, n)}
+	for i := range n {
+		s.f = append(s.f, certify.NewFloatPoly(f[i].Num, n))
 		s.at[i], _ = at[i].Float64()
-		s.box[2*i], _ = sides[i][0].Float64()
-		s.box[2*i+1], _ = sides[i][1].Float64()
+	}
+	for k := range 2 {
+		s.box[2*k], _ = sides[k][0].Float64()
+		s.box[2*k+1], _ = sides[k][1].Float64()
 	}
 	s.level, _ = level.Float64()
 	return s
 }
 
-// plot draws the scene: the curves V = c_lo and V̇ = 0 by marching squares
-// on a 300 × 300 grid, trajectories of the Dormand–Prince integrator from
-// points just inside {V ≤ c_lo} (solid) and, with c_hi, just outside
-// {V ≤ c_hi} (dashed), the counterexample and the paved box.
+// point is the state with the plane's coordinates (x, y), the others at
+// the equilibrium.
+func (s *basinScene) point(x, y float64) []float64 {
+	pt := append([]float64(nil), s.at...)
+	pt[s.ij[0]], pt[s.ij[1]] = x, y
+	return pt
+}
+
+// plot draws the scene: the curves V = c_lo and V̇ = 0 in the plane by
+// marching squares on a 300 × 300 grid, trajectories of the Dormand–Prince
+// integrator from points just inside {V ≤ c_lo} (solid) and, with c_hi,
+// just outside {V ≤ c_hi} (dashed), the counterexample and the box.
 func (s *basinScene) plot() *plot.Plot {
 	v, vd, fs, clo := s.v, s.vd, s.f, s.level
 	box := s.box
+	i, j := s.ij[0], s.ij[1]
 	// A margin of a quarter around the paved box.
 	wx, wy := box[1]-box[0], box[3]-box[2]
 	x0, x1, y0, y1 := box[0]-wx/4, box[1]+wx/4, box[2]-wy/4, box[3]+wy/4
 	p := plot.New()
 	p.Title.Text = s.title
-	p.X.Label.Text, p.Y.Label.Text = s.states[0], s.states[1]
+	p.X.Label.Text, p.Y.Label.Text = s.states[i], s.states[j]
 	p.X.Min, p.X.Max, p.Y.Min, p.Y.Max = x0, x1, y0, y1
-	level := &segLayer{contour(func(x, y float64) float64 { return v.Eval([]float64{x, y}) - clo }, x0, x1, y0, y1, 300),
+	level := &segLayer{contour(func(x, y float64) float64 { return v.Eval(s.point(x, y)) - clo }, x0, x1, y0, y1, 300),
 		draw.LineStyle{Color: holdsColor, Width: vg.Points(2)}}
-	zero := &segLayer{contour(func(x, y float64) float64 { return vd.Eval([]float64{x, y}) }, x0, x1, y0, y1, 300),
+	zero := &segLayer{contour(func(x, y float64) float64 { return vd.Eval(s.point(x, y)) }, x0, x1, y0, y1, 300),
 		draw.LineStyle{Color: color.RGBA{0xd9, 0x5f, 0x02, 0xff}, Width: vg.Points(1)}}
 	frame := &segLayer{[][4]float64{{box[0], box[2], box[1], box[2]}, {box[1], box[2], box[1], box[3]}, {box[1], box[3], box[0], box[3]}, {box[0], box[3], box[0], box[2]}},
 		draw.LineStyle{Color: color.Gray{0xa0}, Width: vg.Points(0.7), Dashes: []vg.Length{vg.Points(1), vg.Points(2)}}}
 	p.Add(frame, level, zero)
 	p.Legend.Add("V = c_lo (certified)", level)
 	p.Legend.Add("V̇ = 0", zero)
-	p.Legend.Add("paved box", frame)
-	rhs := func(x, dx []float64) { dx[0], dx[1] = fs[0].Eval(x), fs[1].Eval(x) }
+	if s.frame == "" {
+		p.Legend.Add("paved box", frame)
+	} else {
+		p.Legend.Add(s.frame, frame)
+	}
+	rhs := func(x, dx []float64) {
+		for k := range fs {
+			dx[k] = fs[k].Eval(x)
+		}
+	}
 	far := 10 * math.Max(x1-x0, y1-y0)
 	traj := func(start []float64, dashed bool) *plotter.Line {
 		r, _ := ode.Integrate(rhs, 0, 30, start, ode.Options{RelTol: 1e-7, AbsTol: 1e-9, MaxSteps: 20000,
-			Stop: func(_ float64, x []float64) bool { return math.Abs(x[0]) > far || math.Abs(x[1]) > far }})
+			Stop: func(_ float64, x []float64) bool {
+				for k := range x {
+					if math.Abs(x[k]-s.at[k]) > far {
+						return true
+					}
+				}
+				return false
+			}})
 		if r == nil {
 			return nil
 		}
 		var pts plotter.XYs
 		for _, x := range r.X {
-			pts = append(pts, plotter.XY{X: x[0], Y: x[1]})
+			pts = append(pts, plotter.XY{X: x[i], Y: x[j]})
 		}
 		l, err := plotter.NewLine(pts)
 		if err != nil {
@@ -403,12 +481,12 @@ func (s *basinScene) plot() *plot.Plot {
 		}
 		return l
 	}
-	// Starts on rays from the equilibrium: where V reaches 0.95·c_lo
-	// (inside) and 1.1·c_hi (outside).
-	atx, aty := s.at[0], s.at[1]
+	// Starts on rays from the equilibrium in the plane: where V reaches
+	// 0.95·c_lo (inside) and 1.1·c_hi (outside).
+	atx, aty := s.at[i], s.at[j]
 	ray := func(th, c float64) []float64 {
 		lo, hi := 0.0, 1e-3
-		pt := func(t float64) []float64 { return []float64{atx + t*math.Cos(th), aty + t*math.Sin(th)} }
+		pt := func(t float64) []float64 { return s.point(atx+t*math.Cos(th), aty+t*math.Sin(th)) }
 		for hi < 1e3 && v.Eval(pt(hi)) < c {
 			lo, hi = hi, hi*1.5
 		}
@@ -435,11 +513,15 @@ func (s *basinScene) plot() *plot.Plot {
 			}
 		}
 	}
+	proj := ""
+	if s.projected {
+		proj = " (projected)"
+	}
 	if inL != nil {
-		p.Legend.Add("trajectories from inside", inL)
+		p.Legend.Add("trajectories from inside"+proj, inL)
 	}
 	if outL != nil {
-		p.Legend.Add("from V = 1.1·c_hi", outL)
+		p.Legend.Add("from V = 1.1·c_hi"+proj, outL)
 	}
 	if s.counter != nil {
 		sc, err := plotter.NewScatter(plotter.XYs{{X: s.counter[0], Y: s.counter[1]}})
@@ -448,9 +530,12 @@ func (s *basinScene) plot() *plot.Plot {
 			sc.GlyphStyle.Radius = vg.Points(7)
 			sc.GlyphStyle.Color = color.RGBA{0xb2, 0x18, 0x2b, 0xff}
 			p.Add(sc)
-			p.Legend.Add("counterexample (V̇ ≥ 0)", sc)
+			p.Legend.Add("counterexample (V̇ ≥ 0)"+proj, sc)
 		}
 	}
 	p.Legend.Top = true
+	// The view, set again: Add widens it to every point of an escaping
+	// trajectory, which would shrink the set to a sliver.
+	p.X.Min, p.X.Max, p.Y.Min, p.Y.Max = x0, x1, y0, y1
 	return p
 }

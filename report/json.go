@@ -172,8 +172,8 @@ type VerifyOutput struct {
 	TrustRequired    bool             `json:"trust_required"`
 	Trusted          bool             `json:"trusted"`
 	UntrustedBecause *string          `json:"untrusted_because"`
-	// Basin is the level c of a verified sublevel-basin claim (absent
-	// without one).
+	// Basin is the level c of a verified sublevel-basin or
+	// sublevel-sprocedure claim (absent without one).
 	Basin string `json:"basin,omitempty"`
 	// NotSOS names the functions ("V", "-Vdot") the checker proved no sum
 	// of squares in a stated basis (absent when none).

@@ -635,7 +635,11 @@ func VerifyText(w io.Writer, file string, doc *claims.Document, out checker.Outc
 	fmt.Fprintf(ew, "%s: valid. %d checks passed (exact arithmetic).\n", file, len(out.Records))
 	fmt.Fprintf(ew, "  claim %s, verdict %s\n  digest %s\n", out.Kind, out.Verdict, doc.Digest)
 	if out.Basin != "" {
-		fmt.Fprintf(ew, "  region of attraction: the component of {V ≤ %s} around the equilibrium\n", out.Basin)
+		if len(certificates.ClaimsOf[*claims.SublevelSProcedure](doc)) > 0 {
+			fmt.Fprintf(ew, "  region of attraction: all of {V ≤ %s} (S-procedure)\n", out.Basin)
+		} else {
+			fmt.Fprintf(ew, "  region of attraction: the component of {V ≤ %s} around the equilibrium\n", out.Basin)
+		}
 		if box := freeRanges(doc); box != "" {
 			fmt.Fprintf(ew, "    for %s: %s\n", forEvery, box)
 		}

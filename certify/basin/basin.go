@@ -6,6 +6,8 @@ import (
 	"fmt"
 	"math"
 	"math/big"
+	"slices"
+	"strings"
 
 	"github.com/lyacert/lyacert/certificates"
 	"github.com/lyacert/lyacert/certify"
@@ -26,7 +28,22 @@ type Options struct {
 	// MaxLevel bounds the halvings of every side (default 30, at most
 	// claims.MaxPavingLevel − 1).
 	MaxLevel int
+	// Method chooses how c_lo is certified: MethodAuto (""), MethodBranch
+	// or MethodSOS.
+	Method string
 }
+
+// The methods for c_lo. MethodBranch is interval branch and bound (kernel
+// rule sublevel-basin); MethodSOS the S-procedure (sublevel-sprocedure),
+// which needs every parameter fixed and V proven positive definite and
+// radially unbounded by the direct method. MethodAuto tries the
+// S-procedure first where it applies and runs the branch and bound unless
+// the S-procedure already closed the gap, keeping the larger level.
+const (
+	MethodAuto   = "auto"
+	MethodBranch = "bb"
+	MethodSOS    = "sos"
+)
 
 // Result is an estimate of the region of attraction by sublevel sets of V.
 type Result struct {
@@ -47,14 +64,23 @@ type Result struct {
 	Params        []string
 	ParamBox      []poly.Interval
 	CounterParams []*big.Rat
-	Claim         *claims.SublevelBasin
-	Doc           *claims.Document
-	Check         checker.Outcome
+	// Claim is the branch and bound's claim, SProcedure the S-procedure's:
+	// the one that proved Level, the other nil.
+	Claim      *claims.SublevelBasin
+	SProcedure *claims.SublevelSProcedure
+	// Box is the box of the states around the equilibrium that the branch
+	// and bound paves (also set when the S-procedure proved the level: the
+	// rays' extent of the sublevel set, for pictures).
+	Box   []poly.Interval
+	Doc   *claims.Document
+	Check checker.Outcome
 	// Boxes counts the tree's leaves: Inside where V̇ < 0 was proven,
 	// Outside where V > Level; NearTests the boxes at the equilibrium on
 	// which the quadratic bound was tried.
 	Inside, Outside, NearTests int
-	Method                     string
+	// Method says how the level was proven, with the sizes of the work;
+	// Rule names the kernel rule (sublevel-basin or sublevel-sprocedure).
+	Method, Rule string
 	// Note says why the gap was not closed, when it was not.
 	Note string
 }
@@ -137,34 +163,35 @@ func Find(ctx context.Context, m *model.Model, source string, o Options) (*Resul
 	if err != nil {
 		return nil, err
 	}
-	p := &paver{n: n, at: res.Equilibrium, atf: at, near: near}
+	p := &paver{n: n, at: res.Equilibrium, atf: at, near: near, directed: len(res.Params) > 0 && n+len(res.Params) <= claims.MaxDirected}
 	for i := range n {
 		h := decimalUp(1.1*ext[i] + 1e-9)
 		p.sides = append(p.sides, poly.Closed(new(big.Rat).Sub(res.Equilibrium[i], h), new(big.Rat).Add(res.Equilibrium[i], h)))
 	}
+	res.Box = p.sides
 	p.sides = append(p.sides, res.ParamBox...)
-	root, least, err := p.run(ctx, d.V.Num, new(poly.Poly).Neg(d.Vdot.Num), target*(1-o.Gap), o.MaxLevel, o.MaxBoxes)
-	if err != nil {
-		return nil, err
+	var cl claims.Claim
+	if o.Method != MethodBranch {
+		sp, err := res.sprocedure(ctx, d, target, o.Gap, o.Method == MethodSOS)
+		if err != nil {
+			return nil, err
+		}
+		if sp != nil {
+			cl = sp
+		}
 	}
-	if least == nil || least.Sign() <= 0 {
-		return nil, fmt.Errorf("basin: no positive level certified within %d boxes and %d halvings per side (is the quadratic part of −V̇ positive definite at the equilibrium?)", o.MaxBoxes, o.MaxLevel)
+	if o.Method != MethodSOS && !res.closed(target, o.Gap) {
+		bb, err := res.branch(ctx, p, d, target, o)
+		switch {
+		case err != nil && cl == nil:
+			return nil, err
+		case err == nil:
+			cl = bb
+		}
 	}
-	res.Level = below(least)
-	if lf, _ := res.Level.Float64(); lf < target*(1-o.Gap) && res.Note == "" {
-		res.Note = fmt.Sprintf("the gap was not closed to %g: %d boxes, finest halving %d", o.Gap, p.boxes, o.MaxLevel)
-	}
-	tr, level, in, out := tree(root, n)
-	res.Inside, res.Outside, res.NearTests = in, out, p.nearTry
-	cl := &claims.SublevelBasin{Level: res.Level.RatString(), Resolution: new(big.Rat).SetFrac(big.NewInt(1), new(big.Int).Lsh(big.NewInt(1), uint(level))).RatString(), Tree: tr}
-	for _, s := range p.sides[:n] {
-		cl.Lo = append(cl.Lo, s.Lo.Value.RatString())
-		cl.Hi = append(cl.Hi, s.Hi.Value.RatString())
-	}
-	res.Claim = cl
-	res.Method = fmt.Sprintf("interval branch and bound: %d boxes (%d with V̇ < 0, %d with V > c_lo), exact centred forms, the quadratic bound tried on %d boxes at the equilibrium; c_hi by %s", in+out, in, out, p.nearTry, "rays, pattern search and an exact rational point")
 	doc := *d.Doc
 	doc.Claims = append(append([]claims.Claim(nil), d.Doc.Claims...), cl)
+	level := res.Level.RatString()
 	doc.Signature = nil
 	if err := certificates.Seal(&doc); err != nil {
 		return nil, err
@@ -177,11 +204,158 @@ func Find(ctx context.Context, m *model.Model, source string, o Options) (*Resul
 	if err := certify.Agrees(res.Check, d.Verdict, d.Claim); err != nil {
 		return nil, err
 	}
-	if res.Check.Basin != cl.Level {
-		return nil, fmt.Errorf("%w: the checker derives the level %q, the engine wrote %q", certify.ErrUnverified, res.Check.Basin, cl.Level)
+	if res.Check.Basin != level {
+		return nil, fmt.Errorf("%w: the checker derives the level %q, the engine wrote %q", certify.ErrUnverified, res.Check.Basin, level)
 	}
 	return res, nil
 }
+
+// closed reports a level within gap of target.
+func (res *Result) closed(target, gap float64) bool {
+	if res.Level == nil {
+		return false
+	}
+	lf, _ := res.Level.Float64()
+	return lf >= target*(1-gap)
+}
+
+// branch runs the interval branch and bound and, when its level beats the
+// one res holds (if any), makes it res's level and returns its claim; nil
+// when it does not beat it.
+func (res *Result) branch(ctx context.Context, p *paver, d *direct.Result, target float64, o Options) (*claims.SublevelBasin, error) {
+	n := p.n
+	root, least, err := p.run(ctx, d.V.Num, new(poly.Poly).Neg(d.Vdot.Num), target*(1-o.Gap), o.MaxLevel, o.MaxBoxes)
+	if err != nil {
+		return nil, err
+	}
+	if least == nil || least.Sign() <= 0 {
+		return nil, fmt.Errorf("basin: no positive level certified within %d boxes and %d halvings per side (is the quadratic part of −V̇ positive definite at the equilibrium?)", o.MaxBoxes, o.MaxLevel)
+	}
+	level := below(least)
+	if res.Level != nil && level.Cmp(res.Level) <= 0 {
+		return nil, errors.New("basin: the branch and bound's level is not larger")
+	}
+	res.Level, res.SProcedure, res.Rule = level, nil, "sublevel-basin"
+	note := ""
+	if lf, _ := res.Level.Float64(); lf < target*(1-o.Gap) {
+		note = fmt.Sprintf("the gap was not closed to %g: %d boxes, finest halving %d", o.Gap, p.boxes, o.MaxLevel)
+	}
+	if res.Note == "" || strings.HasPrefix(res.Note, "the gap") || strings.HasPrefix(res.Note, "the S-procedure") {
+		res.Note = note
+	}
+	tr, depth, in, out := tree(root, n)
+	res.Inside, res.Outside, res.NearTests = in, out, p.nearTry
+	cl := &claims.SublevelBasin{Level: res.Level.RatString(), Resolution: new(big.Rat).SetFrac(big.NewInt(1), new(big.Int).Lsh(big.NewInt(1), uint(depth))).RatString(), Tree: tr}
+	for _, s := range p.sides[:n] {
+		cl.Lo = append(cl.Lo, s.Lo.Value.RatString())
+		cl.Hi = append(cl.Hi, s.Hi.Value.RatString())
+	}
+	res.Claim = cl
+	res.Method = fmt.Sprintf("interval branch and bound: %d boxes (%d with V̇ < 0, %d with V > c_lo), exact centred forms, the quadratic bound tried on %d boxes at the equilibrium; c_hi by %s", in+out, in, out, p.nearTry, "rays, pattern search and an exact rational point")
+	return cl, nil
+}
+
+// sprocedure looks for a level by the S-procedure when it applies (every
+// parameter fixed, V's form global), bisecting on c below target to a
+// quarter of the gap; it sets res's level and returns the claim, or nil
+// when it does not apply or finds none. With required, either is an error.
+func (res *Result) sprocedure(ctx context.Context, d *direct.Result, target, gap float64, required bool) (*claims.SublevelSProcedure, error) {
+	fail := func(err error) (*claims.SublevelSProcedure, error) {
+		if required {
+			return nil, fmt.Errorf("basin --method sos: %w", err)
+		}
+		return nil, nil
+	}
+	if len(res.Params) > 0 {
+		return fail(errors.New("the S-procedure needs every parameter fixed (use --set)"))
+	}
+	if err := globalV(d); err != nil {
+		return fail(err)
+	}
+	// Multipliers of the least degree first, then one degree more (their
+	// bases hold the lower ones, so the level found is a feasible start)
+	// while the gap stays open.
+	var cl *claims.SublevelSProcedure
+	var level *big.Rat
+	var sp *sproc
+	solves, lo, tried := 0, 0.0, 0
+	for extra := 0; extra < 2 && !res.closed(target, gap); extra++ {
+		q, err := newSProc(d, extra)
+		if err != nil {
+			if extra == 0 {
+				return fail(err)
+			}
+			break
+		}
+		if extra > 0 && len(q.z0)+len(q.z1) > maxRaised {
+			break
+		}
+		c, l, err := q.search(ctx, lo, target, gap/4)
+		solves, tried = solves+q.solves, q.degS
+		if err := ctx.Err(); err != nil {
+			return nil, err
+		}
+		if err != nil {
+			if extra == 0 && !required {
+				res.Note = "the S-procedure certified no level: " + err.Error()
+			}
+			if extra == 0 {
+				return fail(err)
+			}
+			break
+		}
+		if level == nil || l.Cmp(level) > 0 {
+			cl, level, sp = c, l, q
+			lo, _ = l.Float64()
+			res.Level, res.SProcedure, res.Rule = level, cl, "sublevel-sprocedure"
+		}
+	}
+	res.Method = fmt.Sprintf("S-procedure: −V̇ − ε·Σyᵢ² − s·(c − V) = σ with s (degree %d, %d monomials) and σ (degree %d, %d monomials) sums of squares, bisection on c (%d semidefinite programs), exact rounding and LDLᵀ; c_hi by rays, pattern search and an exact rational point",
+		sp.degS, len(cl.Multiplier.Basis), sp.degR, len(cl.Remainder.Basis), solves)
+	if !res.closed(target, gap) && res.Note == "" {
+		res.Note = fmt.Sprintf("the S-procedure's level is not within %g of c_hi (multipliers up to degree %d)", gap, tried)
+	}
+	return cl, nil
+}
+
+// globalV says why the direct method's certificate does not prove V
+// positive definite and radially unbounded for the sublevel-sprocedure
+// rule, or nil when it does: a form of V (its quadratic part when V is
+// quadratic, or a Gram form of the whole V) without zero pivots, and every
+// condition of its minors a positive constant.
+func globalV(d *direct.Result) error {
+	form := false
+	for _, c := range d.Doc.Claims {
+		var f *claims.LDLForm
+		switch c := c.(type) {
+		case *claims.QuadraticPart:
+			if d.HigherV.IsZero() {
+				f = &c.LDLForm
+			}
+		case *claims.MonomialGram:
+			f = &c.LDLForm
+		case *claims.MarginGram:
+			f = &c.LDLForm
+		case *claims.MinorCondition:
+			if q, err := poly.Parse(d.Model.Ring, c.Condition); c.Form == "V" && (err != nil || !q.IsPoly() || !q.Num.IsConst() || q.Num.ConstTerm().Sign() <= 0) {
+				return errors.New("V is not proven positive definite for every parameter value")
+			}
+		}
+		if f != nil && f.Of == "V" {
+			form = !slices.Contains(f.D, "0")
+		}
+	}
+	if !form {
+		return errors.New("V is not proven positive definite and radially unbounded (a quadratic V, or a Gram form of V with a pure power of every state)")
+	}
+	return nil
+}
+
+// maxRaised bounds the orders of the Gram matrices (σ's and s's together)
+// when the S-procedure raises the multipliers' degree, so that the
+// bisection's SDPs stay small; the branch and bound follows when the gap
+// is still open.
+const maxRaised = 80
 
 // maxParams bounds the free parameters of a basin: the grid of c_hi has
 // 5, 3 or 2 values per parameter, and the tree halves every parameter as

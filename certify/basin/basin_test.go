@@ -10,8 +10,12 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/lyacert/lyacert/certificates"
 	"github.com/lyacert/lyacert/certify"
+	"github.com/lyacert/lyacert/certify/direct"
 	"github.com/lyacert/lyacert/certify/ode"
+	"github.com/lyacert/lyacert/checker"
+	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/model"
 )
 
@@ -60,6 +64,75 @@ func TestRingLevelIsTwo(t *testing.T) {
 	}
 }
 
+// Slotine & Li, Applied Nonlinear Control, ch. 3: V̇ = 2V(V − 2), best
+// level exactly 2, now by the S-procedure (kernel rule sublevel-sprocedure).
+// With s = 2V the identity leaves σ = (4 − ε − 2c)·V (hand computation), a
+// sum of squares for every c < 2, so the bisection must come within the gap.
+func TestRingSProcedure(t *testing.T) {
+	r := find(t, "ring.lya", Options{Gap: 0.01, Method: MethodSOS})
+	if lo := float(r.Level); lo < 1.98 || lo >= 2 {
+		t.Errorf("c_lo = %g, want in [1.98, 2) (Slotine & Li: the best level is 2)", lo)
+	}
+	if r.Rule != "sublevel-sprocedure" || r.SProcedure == nil || r.Claim != nil {
+		t.Errorf("rule %q, want sublevel-sprocedure alone", r.Rule)
+	}
+	if !strings.HasPrefix(r.Method, "S-procedure") {
+		t.Errorf("method %q", r.Method)
+	}
+}
+
+// Khalil, Nonlinear Systems, §8.2 (Van der Pol in reverse time): the
+// S-procedure's level against the dense polar scan of
+// TestVanDerPolAgainstPolarScan (2.30448, recomputed there), never above it.
+func TestVanDerPolSProcedure(t *testing.T) {
+	const scan = 2.304478
+	r := find(t, "vanderpol.lya", Options{Gap: 0.005, Method: MethodSOS})
+	if lo := float(r.Level); lo > scan || (scan-lo)/scan > 0.01 {
+		t.Errorf("c_lo = %g, want within 1 %% below the polar scan's %g", lo, scan)
+	}
+}
+
+// Automatic choice: the S-procedure applies to the ring (V quadratic, no
+// free parameter) and closes the gap, so its rule proves the level; with a
+// free parameter only the branch and bound applies; --method sos then fails
+// with a reason.
+func TestMethodChoice(t *testing.T) {
+	if r := find(t, "ring.lya", Options{Gap: 0.01}); r.Rule != "sublevel-sprocedure" {
+		t.Errorf("ring, auto: rule %q, want sublevel-sprocedure", r.Rule)
+	}
+	if r := find(t, "ringbox.lya", Options{Gap: 0.05}); r.Rule != "sublevel-basin" {
+		t.Errorf("ringbox, auto: rule %q, want sublevel-basin", r.Rule)
+	}
+	if r := find(t, "ring.lya", Options{Gap: 0.05, Method: MethodBranch}); r.Rule != "sublevel-basin" || r.Claim == nil {
+		t.Errorf("ring, bb: rule %q, want sublevel-basin", r.Rule)
+	}
+	_, err := Find(context.Background(), load(t, "ringbox.lya"), "ringbox.lya", Options{Method: MethodSOS})
+	if err == nil || !strings.Contains(err.Error(), "every parameter fixed") {
+		t.Errorf("ringbox, sos: %v, want an error about fixed parameters", err)
+	}
+}
+
+// An invented model whose V = x² − x⁴/10 is positive only near 0: its
+// sublevel sets are unbounded, so the S-procedure must not apply, and the
+// branch and bound certifies the component around 0. V̇ = −2x² + 12/5·x⁴ −
+// 2/5·x⁶ first vanishes at x² = 1 (hand computation), where V = 9/10.
+func TestLocalVKeepsBranchAndBound(t *testing.T) {
+	m, err := model.Parse("local.lya", []byte("state x\nx' = -x + x^3\nV = x^2 - 1/10*x^4\n"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, err := Find(context.Background(), m, "local.lya", Options{Method: MethodSOS}); err == nil || !strings.Contains(err.Error(), "radially unbounded") {
+		t.Errorf("sos: %v, want an error about V not radially unbounded", err)
+	}
+	r, err := Find(context.Background(), m, "local.lya", Options{Gap: 0.02})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if lo := float(r.Level); r.Rule != "sublevel-basin" || lo > 0.9 || lo < 0.9*0.98 {
+		t.Errorf("auto: rule %q, c_lo = %g; want sublevel-basin and c_lo in [0.882, 0.9]", r.Rule, lo)
+	}
+}
+
 // The ring example of Slotine & Li (Applied Nonlinear Control, ch. 3) with
 // its 2 made a parameter a ∈ [1, 2]: V̇ = 2V(V − a), so for each a the best
 // level is a (hand computation, generalizing the book's), and one level for
@@ -85,6 +158,24 @@ func TestRingBoxLevelIsOne(t *testing.T) {
 	want.Mul(want, v).Mul(want, big.NewRat(2, 1))
 	if want.Cmp(r.CounterVdot) != 0 || want.Sign() < 0 {
 		t.Errorf("V̇ at the counterexample = %s, 2V(V − a) = %s", r.CounterVdot, want)
+	}
+}
+
+// Two parameters: the ring with radius a ∈ [1, 2] and a rotation b ∈ [0, 1]
+// that leaves V̇ = 2V(V − a) unchanged (hand computation; Slotine & Li,
+// Applied Nonlinear Control, ch. 3, generalized), so the best level for
+// every (a, b) is 1. V̇ does not involve b, so the directed bisection never
+// halves b; it closes a 1 % gap with few boxes.
+func TestTwoParametersLevelIsOne(t *testing.T) {
+	r := find(t, "ringspin.lya", Options{Gap: 0.01})
+	if lo := float(r.Level); lo < 0.98 || lo > 1 {
+		t.Errorf("c_lo = %g, want in [0.98, 1]", lo)
+	}
+	if strings.ContainsRune(r.Claim.Tree, 'd') {
+		t.Errorf("the tree halves b, on which V and V̇ do not depend")
+	}
+	if r.Inside+r.Outside > 20000 {
+		t.Errorf("%d boxes, want far fewer than the 300,000 of halving every side in turn", r.Inside+r.Outside)
 	}
 }
 
@@ -220,8 +311,8 @@ func TestCertifiedSetsConverge(t *testing.T) {
 			for k := 0; k < 1000; {
 				x := make([]float64, n)
 				for i := range x {
-					a, _ := new(big.Rat).SetString(r.Claim.Lo[i])
-					b, _ := new(big.Rat).SetString(r.Claim.Hi[i])
+					a, _ := new(big.Rat).SetString(r.Box[i].Lo.Value.RatString())
+					b, _ := new(big.Rat).SetString(r.Box[i].Hi.Value.RatString())
 					x[i] = float(a) + rng.Float64()*(float(b)-float(a))
 				}
 				if rs.v.Eval(x) > c {
@@ -254,11 +345,57 @@ func TestErrors(t *testing.T) {
 	}
 }
 
+// BenchmarkRingSProcedure: two states to a 1 % gap by the S-procedure.
+func BenchmarkRingSProcedure(b *testing.B) {
+	m := load(b, "ring.lya")
+	for b.Loop() {
+		r, err := Find(context.Background(), m, "ring.lya", Options{Gap: 0.01, Method: MethodSOS})
+		if err != nil || r.Gap() > 0.01 {
+			b.Fatal(err, r.Gap())
+		}
+	}
+}
+
+// BenchmarkVanDerPolSProcedure: two states to a 1 % gap by the S-procedure.
+func BenchmarkVanDerPolSProcedure(b *testing.B) {
+	m := load(b, "vanderpol.lya")
+	for b.Loop() {
+		r, err := Find(context.Background(), m, "vanderpol.lya", Options{Gap: 0.01, Method: MethodSOS})
+		if err != nil || r.Gap() > 0.01 {
+			b.Fatal(err, r.Gap())
+		}
+	}
+}
+
+// BenchmarkTrioSProcedure: three states (an invented model) to a 1 % gap
+// by the S-procedure.
+func BenchmarkTrioSProcedure(b *testing.B) {
+	m := load(b, "trio.lya")
+	for b.Loop() {
+		r, err := Find(context.Background(), m, "trio.lya", Options{Gap: 0.01, Method: MethodSOS})
+		if err != nil || r.Gap() > 0.01 {
+			b.Fatal(err, r.Gap())
+		}
+	}
+}
+
+// BenchmarkTwoParametersOnePercent: two states and two parameters (the
+// ring with an uncertain radius and rotation) to a 1 % gap.
+func BenchmarkTwoParametersOnePercent(b *testing.B) {
+	m := load(b, "ringspin.lya")
+	for b.Loop() {
+		r, err := Find(context.Background(), m, "ringspin.lya", Options{Gap: 0.01})
+		if err != nil || r.Gap() > 0.01 {
+			b.Fatal(err, r.Gap())
+		}
+	}
+}
+
 // BenchmarkRingOnePercent: two states to a 1 % gap.
 func BenchmarkRingOnePercent(b *testing.B) {
 	m := load(b, "ring.lya")
 	for b.Loop() {
-		r, err := Find(context.Background(), m, "ring.lya", Options{Gap: 0.01})
+		r, err := Find(context.Background(), m, "ring.lya", Options{Gap: 0.01, Method: MethodBranch})
 		if err != nil || r.Gap() > 0.01 {
 			b.Fatal(err, r.Gap())
 		}
@@ -269,7 +406,7 @@ func BenchmarkRingOnePercent(b *testing.B) {
 func BenchmarkVanDerPolOnePercent(b *testing.B) {
 	m := load(b, "vanderpol.lya")
 	for b.Loop() {
-		r, err := Find(context.Background(), m, "vanderpol.lya", Options{Gap: 0.01})
+		r, err := Find(context.Background(), m, "vanderpol.lya", Options{Gap: 0.01, Method: MethodBranch})
 		if err != nil || r.Gap() > 0.01 {
 			b.Fatal(err, r.Gap())
 		}
@@ -280,9 +417,44 @@ func BenchmarkVanDerPolOnePercent(b *testing.B) {
 func BenchmarkTrioFivePercent(b *testing.B) {
 	m := load(b, "trio.lya")
 	for b.Loop() {
-		r, err := Find(context.Background(), m, "trio.lya", Options{Gap: 0.05})
+		r, err := Find(context.Background(), m, "trio.lya", Options{Gap: 0.05, Method: MethodBranch})
 		if err != nil || r.Gap() > 0.05 {
 			b.Fatal(err, r.Gap())
 		}
+	}
+}
+
+// Multipliers of one degree more (s of degree 4, σ of degree 6) on Van
+// der Pol in reverse time (Khalil, Nonlinear Systems, §8.2): the level
+// against the polar scan of TestVanDerPolAgainstPolarScan, and the
+// certificate accepted by the kernel with that level.
+func TestSProcedureHigherDegree(t *testing.T) {
+	const scan = 2.304478
+	ctx := context.Background()
+	d, err := direct.CheckPaving(ctx, load(t, "vanderpol.lya"), "vanderpol.lya", direct.PaveOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	sp, err := newSProc(d, 1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if sp.degS != 4 || sp.degR != 6 {
+		t.Fatalf("degrees %d and %d, want 4 and 6", sp.degS, sp.degR)
+	}
+	cl, level, err := sp.search(ctx, 0, scan, 0.0025)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if lo := float(level); lo > scan || (scan-lo)/scan > 0.01 {
+		t.Errorf("c_lo = %g, want within 1 %% below the polar scan's %g", lo, scan)
+	}
+	doc := *d.Doc
+	doc.Claims = append(append([]claims.Claim(nil), d.Doc.Claims...), cl)
+	if err := certificates.Seal(&doc); err != nil {
+		t.Fatal(err)
+	}
+	if out := checker.Verify(&doc); !out.Valid || out.Basin != level.RatString() {
+		t.Errorf("the kernel: valid %v, level %q; want %s", out.Valid, out.Basin, level.RatString())
 	}
 }

@@ -14,6 +14,7 @@ import (
 type node struct {
 	g      poly.DyadicBox
 	lo, hi *node                // the halves, nil for a leaf
+	dim    int                  // the coordinate along which it was halved
 	forms  []*poly.CenteredForm // V and −V̇ on the box, kept while it may be split
 	dec    bool                 // V̇ < 0 proven on it but at the equilibrium (not along the edge)
 	vlo    *big.Rat             // the lower end of V's enclosure
@@ -44,6 +45,45 @@ type paver struct {
 	near    *poly.Poly // −V̇ at x* + y
 	boxes   int        // leaves made
 	nearTry int
+	// directed: halve where the centred forms spread most (free
+	// parameters), not every coordinate in turn.
+	directed bool
+}
+
+// splitDim chooses the coordinate along which n is halved: in turn
+// (poly.SplitDim), or, directed, the one below maxLevel halvings whose
+// terms make the largest share of the enclosures' widths of V and −V̇
+// (CenteredForm.Spread), so that a coordinate neither depends on is never
+// halved; -1 when no coordinate may be halved.
+func (p *paver) splitDim(n *node, maxLevel int) int {
+	if !p.directed {
+		if d := poly.SplitDim(n.g.K); n.g.K[d] < maxLevel {
+			return d
+		}
+		return -1
+	}
+	score := make([]float64, len(n.g.K))
+	for _, f := range n.forms {
+		sp := f.Spread()
+		total := 0.0
+		fs := make([]float64, len(sp))
+		for i, x := range sp {
+			fs[i], _ = new(big.Float).SetInt(x).Float64()
+			total += fs[i]
+		}
+		for i := range fs {
+			if total > 0 {
+				score[i] += fs[i] / total
+			}
+		}
+	}
+	best := -1
+	for i, k := range n.g.K {
+		if k < maxLevel && (best < 0 || score[i] > score[best]) {
+			best = i
+		}
+	}
+	return best
 }
 
 // classify settles what the leaf n shows.
@@ -103,7 +143,8 @@ func (p *paver) run(ctx context.Context, v, negVdot *poly.Poly, goal float64, ma
 	}
 	for q.Len() > 0 {
 		top := (*q)[0]
-		if top.key >= goal || top.g.MinLevel() >= maxLevel || p.boxes >= maxBoxes {
+		dim := p.splitDim(top, maxLevel)
+		if top.key >= goal || dim < 0 || p.boxes >= maxBoxes {
 			break
 		}
 		if p.boxes%1024 == 0 {
@@ -112,7 +153,7 @@ func (p *paver) run(ctx context.Context, v, negVdot *poly.Poly, goal float64, ma
 			}
 		}
 		heap.Pop(q)
-		dim := poly.SplitDim(top.g.K)
+		top.dim = dim
 		gl, gh := top.g.Halves(dim)
 		top.lo, top.hi = &node{g: gl}, &node{g: gh}
 		for k, ch := range []*node{top.lo, top.hi} {
@@ -139,7 +180,9 @@ func (p *paver) run(ctx context.Context, v, negVdot *poly.Poly, goal float64, ma
 	return root, least, nil
 }
 
-// tree writes the bisection tree against the level: S for a split box, I
+// tree writes the bisection tree against the level: S for a box split
+// along poly.SplitDim, claims.PaveSplitAlong + k for one split along
+// another coordinate k, I
 // for a box where V̇ < 0 was proven (off the faces of the first states
 // coordinates, the state box), O for every other
 // box (V > level, since level < the lower end of V on it). It returns the
@@ -150,8 +193,12 @@ func tree(root *node, states int) (string, int, int, int) {
 	var rec func(n *node)
 	rec = func(n *node) {
 		if n.lo != nil {
-			b.WriteByte(claims.PaveSplit)
-			level = max(level, n.g.MinLevel()+1)
+			if n.dim == poly.SplitDim(n.g.K) {
+				b.WriteByte(claims.PaveSplit)
+			} else {
+				b.WriteByte(byte(claims.PaveSplitAlong + n.dim))
+			}
+			level = max(level, n.g.K[n.dim]+1)
 			rec(n.lo)
 			rec(n.hi)
 			return

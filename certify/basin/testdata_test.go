@@ -15,10 +15,11 @@ var update = flag.Bool("update", false, "rewrite the basin certificates of testd
 // basinCases are the basin certificates that live in testdata/certificates
 // for the checker's tests (mutations, hostile copies); a coarse gap keeps
 // them small.
-var basinCases = []struct{ name, model string }{
-	{"basin-ring", "ring.lya"},
-	{"basin-vanderpol", "vanderpol.lya"},
-	{"basin-ringbox", "ringbox.lya"},
+var basinCases = []struct{ name, model, method string }{
+	{"basin-ring", "ring.lya", MethodBranch},
+	{"basin-vanderpol", "vanderpol.lya", MethodBranch},
+	{"basin-ringbox", "ringbox.lya", MethodBranch},
+	{"basin-vanderpol-sos", "vanderpol.lya", MethodSOS},
 }
 
 // TestTestdataBasinCertificates rewrites them with -update; without, it
@@ -26,7 +27,7 @@ var basinCases = []struct{ name, model string }{
 func TestTestdataBasinCertificates(t *testing.T) {
 	for _, c := range basinCases {
 		t.Run(c.name, func(t *testing.T) {
-			r, err := Find(context.Background(), load(t, c.model), c.model, Options{Gap: 0.05})
+			r, err := Find(context.Background(), load(t, c.model), c.model, Options{Gap: 0.05, Method: c.method})
 			if err != nil {
 				t.Fatal(err)
 			}

@@ -423,7 +423,7 @@ func exact(r *poly.Ring, blocks []block, xs []sdp.Block, target *poly.Poly, bits
 		}
 		grams[k] = g
 		resid = new(poly.Poly).Sub(resid, poly.Bilinear(b.g, g, z))
-		t := claims.Multiplied{Parameter: b.param, Gram: strings(g), L: strings(l), D: []string{}}
+		t := claims.Multiplied{Parameter: b.param, SquareSum: claims.SquareSum{Gram: strings(g), L: strings(l), D: []string{}}}
 		for i := range z {
 			t.Basis = append(t.Basis, z[i].String())
 			t.D = append(t.D, d[i].RatString())

@@ -200,7 +200,9 @@ func (f *LDL) bareiss(g poly.Matrix, pr *poly.Ring) (bool, int) {
 		}
 		if s := scale[at[i][j]]; s != scale[t] {
 			p = new(poly.Poly).Mul(p, scale[t])
-			if !p.DivExact(p, s) {
+			if s.IsConst() {
+				p.Scale(p, new(big.Rat).Inv(s.ConstTerm()))
+			} else if !p.DivExact(p, s) {
 				panic("direct: inexact division in fraction-free elimination")
 			}
 		}
@@ -222,10 +224,11 @@ func (f *LDL) bareiss(g poly.Matrix, pr *poly.Ring) (bool, int) {
 			}
 		}
 		if p == nil {
+			f.D[k] = poly.FromPoly(poly.Zero(r))
 			if len(col) > 0 {
 				return false, k
 			}
-			f.D[k], f.Zero[k] = poly.FromPoly(poly.Zero(r)), true
+			f.Zero[k] = true
 			scale[k+1] = prev
 			continue
 		}

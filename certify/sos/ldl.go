@@ -3,6 +3,8 @@ package sos
 import (
 	"fmt"
 	"math/big"
+
+	"github.com/lyacert/lyacert/poly"
 )
 
 // LDL is the factorization A = L·D·Lᵀ of a symmetric rational matrix, L unit
@@ -30,6 +32,12 @@ func (f *LDL) Factorize(a [][]*big.Rat) bool {
 		for j := 0; j <= i; j++ {
 			w[i][j] = new(big.Rat).Set(a[i][j])
 		}
+	}
+	// Entries with a common denominator (a rounded Gram matrix and its
+	// projection): fraction-free elimination in integers, the same values.
+	if l, d, k, ok := poly.PositiveLDL(a, commonBits); ok {
+		f.L, f.D = l, d
+		return k < 0
 	}
 	f.L = make([][]*big.Rat, n)
 	f.D = f.D[:0]
@@ -65,6 +73,10 @@ func (f *LDL) Factorize(a [][]*big.Rat) bool {
 	}
 	return true
 }
+
+// commonBits bounds the common denominator of a matrix factored in
+// integers; beyond it the rational elimination is used.
+const commonBits = 1 << 14
 
 // MinPivot returns the smallest pivot of D.
 func (f *LDL) MinPivot() *big.Rat {

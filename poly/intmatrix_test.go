@@ -537,3 +537,69 @@ func TestPositiveLDLAgainstGonum(t *testing.T) {
 		t.Errorf("only %d trials compared with Cholesky, %d positive definite", agreed, pd)
 	}
 }
+
+// TestEqualLDLUnique: the decision by uniqueness (Golub & Van Loan,
+// Matrix Computations, Thm. 4.1.3) agrees with the sums Σₖ Lᵢₖ·dₖ·Lⱼₖ on
+// exact factorizations and on every single-entry change of a, L or d, and
+// a matrix with a zero leading minor is left to the sums.
+func TestEqualLDLUnique(t *testing.T) {
+	rng := rand.New(rand.NewPCG(413, 1))
+	decidedTrue, decidedFalse := 0, 0
+	for trial := range 120 {
+		n := 1 + rng.IntN(6)
+		a := make([][]*big.Rat, n)
+		for i := range a {
+			a[i] = make([]*big.Rat, n)
+		}
+		for i := range n {
+			for j := 0; j <= i; j++ {
+				v := big.NewRat(int64(rng.IntN(15)-7), int64(1+rng.IntN(4)))
+				if trial%10 == 0 && i == 0 {
+					v.SetInt64(0) // a zero first row: a zero leading minor
+				}
+				a[i][j], a[j][i] = v, new(big.Rat).Set(v)
+			}
+		}
+		l, d, ok, _ := RatLDL(a)
+		if !ok {
+			continue
+		}
+		check := func(what string, a, l [][]*big.Rat, d []*big.Rat) {
+			want := equalLDLSums(a, l, d)
+			eq, decided := equalUniqueLDL(a, l, d)
+			if decided && eq != want {
+				t.Fatalf("trial %d, %s: uniqueness says %v, the sums %v", trial, what, eq, want)
+			}
+			if decided && eq {
+				decidedTrue++
+			} else if decided {
+				decidedFalse++
+			}
+		}
+		check("exact", a, l, d)
+		clone := func(m [][]*big.Rat) [][]*big.Rat {
+			out := make([][]*big.Rat, len(m))
+			for i := range m {
+				out[i] = make([]*big.Rat, len(m[i]))
+				for j := range m[i] {
+					out[i][j] = new(big.Rat).Set(m[i][j])
+				}
+			}
+			return out
+		}
+		bump := big.NewRat(1, int64(1+rng.IntN(5)))
+		i, j := rng.IntN(n), rng.IntN(n)
+		ma := clone(a)
+		ma[i][j].Add(ma[i][j], bump)
+		check("a changed", ma, l, d)
+		ml := clone(l)
+		ml[i][j].Add(ml[i][j], bump)
+		check("L changed", a, ml, d)
+		md := clone([][]*big.Rat{d})[0]
+		md[i].Add(md[i], bump)
+		check("d changed", a, l, md)
+	}
+	if decidedTrue < 50 || decidedFalse < 100 {
+		t.Errorf("decided %d true and %d false", decidedTrue, decidedFalse)
+	}
+}

@@ -118,6 +118,9 @@ type solver struct {
 	ntot   int
 	normB  float64
 	normC  float64
+	// schurData is the m×m storage of the Schur complement, reused from
+	// one iteration to the next (8 MB at m = 1,000).
+	schurData []float64
 }
 
 func newSolver(p *Problem, o Options) *solver {
@@ -398,7 +401,11 @@ func (s *solver) maxStep(f *factor, x, dx bmat) float64 {
 // (X Aᵢ Z⁻¹)_qp = Σ_r X_q,r T_r,p and M_ij = Σ_{(p,q)∈Aⱼ} (Aⱼ)_pq (X Aᵢ Z⁻¹)_qp.
 func (s *solver) schur(x, zinv bmat) *mat.SymDense {
 	m := s.m
-	md := make([]float64, m*m)
+	if len(s.schurData) != m*m {
+		s.schurData = make([]float64, m*m)
+	}
+	md := s.schurData
+	clear(md)
 	for k := range s.blocks {
 		bd := &s.blocks[k]
 		xk, zk := x[k], zinv[k]
@@ -482,15 +489,10 @@ func (s *solver) schur(x, zinv bmat) *mat.SymDense {
 		close(next)
 		wg.Wait()
 	}
-	ms := mat.NewSymDense(m, nil)
-	for i := 0; i < m; i++ {
-		for j := i; j < m; j++ {
-			// Only one triangle was filled for each block; constraints are
-			// ascending in every block, so it is the upper one.
-			ms.SetSym(i, j, md[i*m+j])
-		}
-	}
-	return ms
+	// Only one triangle was filled for each block; constraints are
+	// ascending in every block, so it is the upper one, which is what a
+	// SymDense reads from its row-major backing slice.
+	return mat.NewSymDense(m, md)
 }
 
 // mulXDZinv returns X·D·Z⁻¹ block by block (not symmetric).
@@ -586,6 +588,8 @@ func (s *solver) run(ctx context.Context) (*Result, error) {
 	// without a strictly feasible neighbourhood) can creep for many
 	// iterations at a small residual without reaching the tolerance.
 	worst, halved := math.Inf(1), 0
+	// One factorization reused by every iteration (its storage is kept).
+	var chol mat.Cholesky
 	for it := 0; ; it++ {
 		if err := ctx.Err(); err != nil {
 			return nil, fmt.Errorf("%w: %w", errCancelled, err)
@@ -636,7 +640,6 @@ func (s *solver) run(ctx context.Context) (*Result, error) {
 			return r, nil
 		}
 		zinv := fz.inv
-		var chol mat.Cholesky
 		ms := s.schur(x, zinv)
 		if !chol.Factorize(ms) {
 			// Regularize lightly once: a rank-deficient constraint set.

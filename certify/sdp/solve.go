@@ -428,31 +428,43 @@ func (s *solver) schur(x, zinv bmat) *mat.SymDense {
 			continue
 		}
 		n := bd.n
-		work := func(ci int, tbuf []float64) {
+		// work adds row i = cons[ci] of M for this block. With R = rows(Aᵢ),
+		// T = Aᵢ Z⁻¹ is kept transposed (n × R) and the columns R of X are
+		// gathered (n × R), so that (X Aᵢ Z⁻¹)_qp is a dot product of two
+		// contiguous rows of length |R|.
+		work := func(ci int, tbuf []float64, pos []int) {
 			i := bd.cons[ci]
 			rows := bd.rows[ci]
-			pos := make(map[int]int, len(rows))
+			nr := len(rows)
 			for r, k := range rows {
 				pos[k] = r
 			}
-			t := tbuf[:len(rows)*n]
-			clear(t)
+			tt := tbuf[:nr*n]
+			clear(tt)
 			for _, e := range bd.ents[ci] {
 				r := pos[e.k]
-				row := t[r*n : r*n+n]
 				zl := zk[e.l*n : e.l*n+n]
 				for p, v := range zl {
-					row[p] += e.a * v
+					tt[p*nr+r] += e.a * v
+				}
+			}
+			xg := tbuf[nr*n : 2*nr*n]
+			for q := range n {
+				xq := xk[q*n : q*n+n]
+				g := xg[q*nr : q*nr+nr]
+				for r, kk := range rows {
+					g[r] = xq[kk]
 				}
 			}
 			for cj := ci; cj < len(bd.cons); cj++ {
 				var sum float64
 				for _, e := range bd.ents[cj] {
 					// e.k = p, e.l = q: need (X Aᵢ Z⁻¹)_{q,p}.
-					xq := xk[e.l*n : e.l*n+n]
+					a := xg[e.l*nr : e.l*nr+nr]
+					b := tt[e.k*nr : e.k*nr+nr]
 					var w float64
-					for r, kk := range rows {
-						w += xq[kk] * t[r*n+e.k]
+					for r, v := range a {
+						w += v * b[r]
 					}
 					sum += e.a * w
 				}
@@ -465,9 +477,9 @@ func (s *solver) schur(x, zinv bmat) *mat.SymDense {
 			workers = nc
 		}
 		if workers <= 1 || nc*n < 2000 {
-			buf := make([]float64, n*n)
+			buf, pos := make([]float64, 2*n*n), make([]int, n)
 			for ci := 0; ci < nc; ci++ {
-				work(ci, buf)
+				work(ci, buf, pos)
 			}
 			continue
 		}
@@ -477,9 +489,9 @@ func (s *solver) schur(x, zinv bmat) *mat.SymDense {
 			wg.Add(1)
 			go func() {
 				defer wg.Done()
-				buf := make([]float64, n*n)
+				buf, pos := make([]float64, 2*n*n), make([]int, n)
 				for ci := range next {
-					work(ci, buf)
+					work(ci, buf, pos)
 				}
 			}()
 		}

@@ -110,7 +110,7 @@ type blockData struct {
 }
 
 type solver struct {
-	gram   *mat.Cholesky // of [⟨Aᵢ, Aⱼ⟩], nil when singular
+	gram   *cholesky // of [⟨Aᵢ, Aⱼ⟩], nil when singular
 	p      *Problem
 	o      Options
 	m      int
@@ -207,8 +207,8 @@ func newSolver(p *Problem, o Options) *solver {
 				}
 			}
 		}
-		var c mat.Cholesky
-		if c.Factorize(g) {
+		var c cholesky
+		if c.factorize(g) {
 			s.gram = &c
 		}
 	}
@@ -224,18 +224,11 @@ func (s *solver) refine(dx bmat, rp []float64) {
 		return
 	}
 	adx := s.aop(dx)
-	r := mat.NewVecDense(s.m, nil)
+	r := make([]float64, s.m)
 	for i := range adx {
-		r.SetVec(i, rp[i]-adx[i])
+		r[i] = rp[i] - adx[i]
 	}
-	var w mat.VecDense
-	if err := s.gram.SolveVecTo(&w, r); err != nil {
-		var ce mat.Condition
-		if !errors.As(err, &ce) {
-			return
-		}
-	}
-	axpy(dx, 1, s.atop(w.RawVector().Data))
+	axpy(dx, 1, s.atop(s.gram.solveVec(r)))
 }
 
 // bmat is a block-diagonal matrix: dense n×n data or n diagonal entries.
@@ -601,7 +594,7 @@ func (s *solver) run(ctx context.Context) (*Result, error) {
 	// iterations at a small residual without reaching the tolerance.
 	worst, halved := math.Inf(1), 0
 	// One factorization reused by every iteration (its storage is kept).
-	var chol mat.Cholesky
+	var chol cholesky
 	for it := 0; ; it++ {
 		if err := ctx.Err(); err != nil {
 			return nil, fmt.Errorf("%w: %w", errCancelled, err)
@@ -653,7 +646,7 @@ func (s *solver) run(ctx context.Context) (*Result, error) {
 		}
 		zinv := fz.inv
 		ms := s.schur(x, zinv)
-		if !chol.Factorize(ms) {
+		if !chol.factorize(ms) {
 			// Regularize lightly once: a rank-deficient constraint set.
 			var mx float64
 			for i := 0; i < m; i++ {
@@ -662,7 +655,7 @@ func (s *solver) run(ctx context.Context) (*Result, error) {
 			for i := 0; i < m; i++ {
 				ms.SetSym(i, i, ms.At(i, i)+1e-12*mx+1e-300)
 			}
-			if !chol.Factorize(ms) {
+			if !chol.factorize(ms) {
 				r.Status = Stalled
 				return r, nil
 			}
@@ -671,7 +664,7 @@ func (s *solver) run(ctx context.Context) (*Result, error) {
 		azinv := s.aop(zinv)
 		axrz := s.aop(xrz)
 		direction := func(sigma float64, corr bmat) (dx, dz bmat, dy []float64) {
-			rhs := mat.NewVecDense(m, nil)
+			rhs := make([]float64, m)
 			var acorr []float64
 			if corr != nil {
 				acorr = s.aop(corr)
@@ -681,22 +674,11 @@ func (s *solver) run(ctx context.Context) (*Result, error) {
 				if corr != nil {
 					v -= acorr[i]
 				}
-				rhs.SetVec(i, v)
+				rhs[i] = v
 			}
-			var sol mat.VecDense
-			if err := chol.SolveVecTo(&sol, rhs); err != nil {
-				// A ConditionError still comes with the solution: an
-				// ill-conditioned Schur complement is normal near the
-				// optimum of a degenerate problem.
-				var ce mat.Condition
-				if !errors.As(err, &ce) {
-					return nil, nil, nil
-				}
-			}
-			dy = make([]float64, m)
-			for i := range dy {
-				dy[i] = sol.AtVec(i)
-			}
+			// An ill-conditioned Schur complement is normal near the
+			// optimum of a degenerate problem; the solution is used as it is.
+			dy = chol.solveVec(rhs)
 			dz = s.atop(dy)
 			axpy(dz, 1, rd)
 			dx = s.mul3(x, dz, zinv)

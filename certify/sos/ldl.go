@@ -22,15 +22,9 @@ type LDL struct {
 // one the offending pivot).
 func (f *LDL) Factorize(a [][]*big.Rat) bool {
 	n := len(a)
-	// w holds the Schur complement, lower triangle.
-	w := make([][]*big.Rat, n)
-	for i := range w {
+	for i := range a {
 		if len(a[i]) != n {
 			panic(fmt.Sprintf("sos: row %d of a %d×%d matrix has %d entries", i, n, n, len(a[i])))
-		}
-		w[i] = make([]*big.Rat, i+1)
-		for j := 0; j <= i; j++ {
-			w[i][j] = new(big.Rat).Set(a[i][j])
 		}
 	}
 	// Entries with a common denominator (a rounded Gram matrix and its
@@ -38,6 +32,14 @@ func (f *LDL) Factorize(a [][]*big.Rat) bool {
 	if l, d, k, ok := poly.PositiveLDL(a, commonBits); ok {
 		f.L, f.D = l, d
 		return k < 0
+	}
+	// w holds the Schur complement, lower triangle.
+	w := make([][]*big.Rat, n)
+	for i := range w {
+		w[i] = make([]*big.Rat, i+1)
+		for j := 0; j <= i; j++ {
+			w[i][j] = new(big.Rat).Set(a[i][j])
+		}
 	}
 	f.L = make([][]*big.Rat, n)
 	f.D = f.D[:0]

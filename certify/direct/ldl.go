@@ -113,7 +113,8 @@ func paramRing(g poly.Matrix) (*poly.Ring, bool) {
 }
 
 // bareiss is Factorize by fraction-free elimination (Bareiss 1968) over
-// Q[params]: with Δ a common denominator of the entries and A = Δ·G, every
+// Z[params]: with Δ a common denominator of the entries (their
+// denominator factors and an integer) and A = Δ·G, every
 // entry after k steps is the minor of A on the rows 1…k, i and the columns
 // 1…k, j, got from the previous step by an exact division by the previous
 // pivot; so the pivots are A's leading minors Mₖ, no rational function is
@@ -188,6 +189,29 @@ func (f *LDL) bareiss(g poly.Matrix, pr *poly.Ring) (bool, int) {
 			}
 			a[i][j] = p
 		}
+	}
+	// The least integer that clears the coefficients' denominators joins
+	// Δ, so that A and every minor of it lie in Z[params].
+	den := big.NewInt(1)
+	for i := range a {
+		for _, p := range a[i] {
+			if p != nil {
+				c, _ := p.Content()
+				g := new(big.Int).GCD(nil, nil, den, c.Denom())
+				den.Mul(den, new(big.Int).Quo(c.Denom(), g))
+			}
+		}
+	}
+	if den.Cmp(big.NewInt(1)) != 0 {
+		k := new(big.Rat).SetInt(den)
+		for i := range a {
+			for j, p := range a[i] {
+				if p != nil {
+					a[i][j] = new(poly.Poly).Scale(p, k)
+				}
+			}
+		}
+		deltaPoly.Scale(deltaPoly, k)
 	}
 	// scale[t] is the last non-zero pivot before step t (1 at first):
 	// an entry kept at step s is, at step t, a[i][j]·scale[t]/scale[s].

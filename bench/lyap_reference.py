@@ -126,7 +126,7 @@ def blas_info():
 
 def main():
     ap = argparse.ArgumentParser(description=__doc__.split("\n\n")[0])
-    ap.add_argument("--sizes", default="10,50,100,200", help="comma-separated n (default %(default)s)")
+    ap.add_argument("--sizes", default="10,20,50,100,200,400", help="comma-separated n (default %(default)s)")
     ap.add_argument("--seed", type=int, default=20260101, help="RNG seed (default %(default)s)")
     ap.add_argument("--min-runs", type=int, default=7, help="at least this many timed runs (default %(default)s)")
     ap.add_argument("--min-seconds", type=float, default=0.5, help="and at least this long per case (default %(default)s)")

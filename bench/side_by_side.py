@@ -5,7 +5,7 @@ Run by hand from the repository root (Debian's interpreter, which sees
 python3-sympy and python3-scipy; the script installs them with apt-get when
 they are missing and it runs as root):
 
-    /usr/bin/python3 bench/side_by_side.py [--derive 5,10,20,40] [--find 10,20,50] [--runs 5]
+    /usr/bin/python3 bench/side_by_side.py [--derive 5,10,20,40,80] [--find 10,20,50] [--runs 5]
 
 Two workloads, interleaved size by size, each printed as our median, the
 reference's median and the ratio reference/ours (> 1: lyacert is faster):
@@ -95,7 +95,7 @@ def scipy_find(A):
 
 def main():
     ap = argparse.ArgumentParser()
-    ap.add_argument("--derive", default="5,10,20,40")
+    ap.add_argument("--derive", default="5,10,20,40,80")
     ap.add_argument("--find", default="10,20,50,100,200")
     ap.add_argument("--runs", type=int, default=5)
     a = ap.parse_args()

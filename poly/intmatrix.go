@@ -327,3 +327,84 @@ func NonsingularModPrime(a [][]*big.Rat) bool {
 	}
 	return true
 }
+
+// bareissLower runs Bareiss' elimination on the lower triangle of the
+// symmetric integer matrix w, in place, and stops at the first pivot that
+// is zero, or ≤ 0 when positive is set, returning its index (−1 when there
+// is none). After step k, wₖₖ is the leading minor Δₖ₊₁ and wᵢₖ (i > k) the
+// minor on the rows 1…k, i and the columns 1…k+1; these are not changed by
+// later steps.
+func bareissLower(w [][]*big.Int, positive bool) int {
+	n := len(w)
+	prev := big.NewInt(1)
+	t, r := new(big.Int), new(big.Int)
+	for k := range n {
+		pivot := w[k][k]
+		if s := pivot.Sign(); s == 0 || positive && s < 0 {
+			return k
+		}
+		for i := k + 1; i < n; i++ {
+			wik := w[i][k]
+			for j := k + 1; j <= i; j++ {
+				x := w[i][j]
+				x.Mul(x, pivot)
+				if wik.Sign() != 0 && w[j][k].Sign() != 0 {
+					x.Sub(x, t.Mul(wik, w[j][k]))
+				}
+				x.QuoRem(x, prev, r) // exact (Sylvester's identity)
+			}
+		}
+		prev = pivot
+	}
+	return -1
+}
+
+// PositiveLDL factors the symmetric rational matrix a = L·diag(d)·Lᵀ, L unit
+// lower triangular, and returns k = −1 when every pivot is positive;
+// otherwise k is the first pivot ≤ 0, d holds the pivots up to it and the
+// columns of L before it are filled. The values are those of rational
+// elimination (RatLDL), but they are computed by Bareiss' elimination of
+// the integer matrix b = c·a over a common denominator c: with Δₖ the
+// leading minors of b, dₖ = Δₖ₊₁/(Δₖ·c) and Lᵢₖ = bᵢₖ⁽ᵏ⁾/Δₖ₊₁, so the only
+// gcds are those that put each result in lowest terms. ok is false, and
+// nothing is computed, when the entries have no common denominator of at
+// most maxBits bits. Only the lower triangle of a is read.
+func PositiveLDL(a [][]*big.Rat, maxBits int) (l [][]*big.Rat, d []*big.Rat, k int, ok bool) {
+	n := len(a)
+	lower := make([][]*big.Rat, n)
+	for i := range a {
+		lower[i] = a[i][:i+1]
+	}
+	b, c, ok := CommonDenominator(lower, maxBits)
+	if !ok {
+		return nil, nil, 0, false
+	}
+	k = bareissLower(b, true)
+	last := n
+	if k >= 0 {
+		last = k + 1
+	}
+	l = make([][]*big.Rat, n)
+	for i := range l {
+		l[i] = make([]*big.Rat, n)
+		for j := range l[i] {
+			l[i][j] = new(big.Rat)
+		}
+		l[i][i].SetInt64(1)
+	}
+	prev := big.NewInt(1)
+	for j := range last {
+		piv := b[j][j]
+		d = append(d, new(big.Rat).SetFrac(piv, new(big.Int).Mul(prev, c)))
+		if j == k {
+			break
+		}
+		for i := j + 1; i < n; i++ {
+			if b[i][j].Sign() != 0 {
+				l[i][j].SetFrac(b[i][j], piv)
+			}
+		}
+		prev = piv
+	}
+	return l, d, k, true
+}

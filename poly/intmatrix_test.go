@@ -410,3 +410,196 @@ func TestFormatWithoutParameters(t *testing.T) {
 		}
 	}
 }
+
+// hilbert returns the n×n Hilbert matrix 1/(i + j + 1).
+func hilbert(n int) [][]*big.Rat {
+	h := make([][]*big.Rat, n)
+	for i := range h {
+		h[i] = make([]*big.Rat, n)
+		for j := range h[i] {
+			h[i][j] = big.NewRat(1, int64(i+j+1))
+		}
+	}
+	return h
+}
+
+// TestPositiveLDLHilbert: the leading minors of the Hilbert matrix are
+// det Hₙ = cₙ⁴/c₂ₙ with cₙ = 1!·2!···(n−1)! (Choi 1983, "Tricks or treats
+// with the Hilbert matrix", Amer. Math. Monthly 90), so the pivots are the
+// ratios of consecutive ones and all positive.
+func TestPositiveLDLHilbert(t *testing.T) {
+	c := func(n int) *big.Int {
+		p, f := big.NewInt(1), big.NewInt(1)
+		for i := 1; i < n; i++ {
+			f.Mul(f, big.NewInt(int64(i)))
+			p.Mul(p, f)
+		}
+		return p
+	}
+	det := func(n int) *big.Rat {
+		num := new(big.Int).Exp(c(n), big.NewInt(4), nil)
+		return new(big.Rat).SetFrac(num, c(2*n))
+	}
+	for _, n := range []int{1, 2, 5, 12} {
+		_, d, k, ok := PositiveLDL(hilbert(n), 1<<14)
+		if !ok || k != -1 || len(d) != n {
+			t.Fatalf("n=%d: ok %v, k %d, %d pivots", n, ok, k, len(d))
+		}
+		prod := big.NewRat(1, 1)
+		for i, di := range d {
+			prod.Mul(prod, di)
+			if want := det(i + 1); prod.Cmp(want) != 0 {
+				t.Errorf("n=%d: leading minor %d is %s, want %s", n, i+1, prod.RatString(), want.RatString())
+			}
+		}
+	}
+}
+
+// gonum as a reference: on random symmetric rational matrices with a
+// common denominator, PositiveLDL agrees with mat.Cholesky on positive
+// definiteness, and where all pivots are positive its factors reproduce the
+// matrix exactly and are those of the rational elimination.
+func TestPositiveLDLAgainstGonum(t *testing.T) {
+	rng := rand.New(rand.NewPCG(1968, 14))
+	agreed, pd := 0, 0
+	for trial := range 300 {
+		n := 1 + rng.IntN(7)
+		den := int64(1 + rng.IntN(12))
+		a := make([][]*big.Rat, n)
+		f := mat.NewSymDense(n, nil)
+		for i := range a {
+			a[i] = make([]*big.Rat, n)
+		}
+		for i := range n {
+			for j := 0; j <= i; j++ {
+				v := int64(rng.IntN(21) - 10)
+				if i == j {
+					v += int64(rng.IntN(3 * n * int(den)))
+				}
+				if rng.IntN(3) == 0 && i != j {
+					v = 0
+				}
+				a[i][j], a[j][i] = big.NewRat(v, den), big.NewRat(v, den)
+				f.SetSym(i, j, float64(v)/float64(den))
+			}
+		}
+		var eig mat.EigenSym
+		if !eig.Factorize(f, false) {
+			t.Fatal("eigen decomposition failed")
+		}
+		minAbs := math.Inf(1)
+		for _, v := range eig.Values(nil) {
+			minAbs = math.Min(minAbs, math.Abs(v))
+		}
+		l, d, k, ok := PositiveLDL(a, 1<<14)
+		if !ok {
+			t.Fatalf("trial %d: no common denominator", trial)
+		}
+		if minAbs > 1e-6 {
+			var chol mat.Cholesky
+			if chol.Factorize(f) != (k == -1) {
+				t.Fatalf("trial %d: Cholesky %v, PositiveLDL stops at %d", trial, !(k == -1), k)
+			}
+			agreed++
+		}
+		if k >= 0 {
+			if d[k].Sign() > 0 || len(d) != k+1 {
+				t.Fatalf("trial %d: stopped at %d with pivot %s", trial, k, d[k].RatString())
+			}
+			continue
+		}
+		pd++
+		rl, rd, rok, _ := RatLDL(a)
+		if !rok {
+			t.Fatalf("trial %d: RatLDL fails on a positive definite matrix", trial)
+		}
+		for i := range n {
+			if rd[i].Cmp(d[i]) != 0 {
+				t.Fatalf("trial %d: pivot %d %s, rational elimination %s", trial, i, d[i].RatString(), rd[i].RatString())
+			}
+			for j := range n {
+				if rl[i][j].Cmp(l[i][j]) != 0 {
+					t.Fatalf("trial %d: L[%d][%d] %s, rational elimination %s", trial, i, j, l[i][j].RatString(), rl[i][j].RatString())
+				}
+			}
+			for j := 0; j <= i; j++ {
+				s := new(big.Rat)
+				for m := range n {
+					s.Add(s, new(big.Rat).Mul(new(big.Rat).Mul(l[i][m], d[m]), l[j][m]))
+				}
+				if s.Cmp(a[i][j]) != 0 {
+					t.Fatalf("trial %d: (L·D·Lᵀ)[%d][%d] = %s, want %s", trial, i, j, s.RatString(), a[i][j].RatString())
+				}
+			}
+		}
+	}
+	if agreed < 200 || pd < 50 {
+		t.Errorf("only %d trials compared with Cholesky, %d positive definite", agreed, pd)
+	}
+}
+
+// TestEqualLDLUnique: the decision by uniqueness (Golub & Van Loan,
+// Matrix Computations, Thm. 4.1.3) agrees with the sums Σₖ Lᵢₖ·dₖ·Lⱼₖ on
+// exact factorizations and on every single-entry change of a, L or d, and
+// a matrix with a zero leading minor is left to the sums.
+func TestEqualLDLUnique(t *testing.T) {
+	rng := rand.New(rand.NewPCG(413, 1))
+	decidedTrue, decidedFalse := 0, 0
+	for trial := range 120 {
+		n := 1 + rng.IntN(6)
+		a := make([][]*big.Rat, n)
+		for i := range a {
+			a[i] = make([]*big.Rat, n)
+		}
+		for i := range n {
+			for j := 0; j <= i; j++ {
+				v := big.NewRat(int64(rng.IntN(15)-7), int64(1+rng.IntN(4)))
+				if trial%10 == 0 && i == 0 {
+					v.SetInt64(0) // a zero first row: a zero leading minor
+				}
+				a[i][j], a[j][i] = v, new(big.Rat).Set(v)
+			}
+		}
+		l, d, ok, _ := RatLDL(a)
+		if !ok {
+			continue
+		}
+		check := func(what string, a, l [][]*big.Rat, d []*big.Rat) {
+			want := equalLDLSums(a, l, d)
+			eq, decided := equalUniqueLDL(a, l, d)
+			if decided && eq != want {
+				t.Fatalf("trial %d, %s: uniqueness says %v, the sums %v", trial, what, eq, want)
+			}
+			if decided && eq {
+				decidedTrue++
+			} else if decided {
+				decidedFalse++
+			}
+		}
+		check("exact", a, l, d)
+		clone := func(m [][]*big.Rat) [][]*big.Rat {
+			out := make([][]*big.Rat, len(m))
+			for i := range m {
+				out[i] = make([]*big.Rat, len(m[i]))
+				for j := range m[i] {
+					out[i][j] = new(big.Rat).Set(m[i][j])
+				}
+			}
+			return out
+		}
+		bump := big.NewRat(1, int64(1+rng.IntN(5)))
+		i, j := rng.IntN(n), rng.IntN(n)
+		ma := clone(a)
+		ma[i][j].Add(ma[i][j], bump)
+		check("a changed", ma, l, d)
+		ml := clone(l)
+		ml[i][j].Add(ml[i][j], bump)
+		check("L changed", a, ml, d)
+		md := clone([][]*big.Rat{d})[0]
+		md[i].Add(md[i], bump)
+		check("d changed", a, l, md)
+	}
+	if decidedTrue < 50 || decidedFalse < 100 {
+		t.Errorf("decided %d true and %d false", decidedTrue, decidedFalse)
+	}
+}

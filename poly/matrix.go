@@ -23,20 +23,49 @@ func NewMatrix(r *Ring, n int) Matrix {
 // degree in the states are ignored; callers split q first.
 func GramMatrix(q RatFunc, n int) Matrix {
 	r := q.Ring()
-	mask := r.StateMask()
 	g := NewMatrix(r, n)
-	half := FromPoly(ConstInt(r, 2))
-	for i := 0; i < n; i++ {
-		for j := i; j < n; j++ {
-			e := make([]int, r.NumVars())
-			e[i]++
-			e[j]++
-			c := q.Coefficient(e, mask)
-			if i != j {
-				c = c.Quo(half)
+	// One pass over q's terms, each sent to its entry by the states in its
+	// key (the coefficient of x_i·x_j is the terms with exactly those state
+	// exponents, the states cleared from the key), rather than one pass of
+	// Coefficient per entry.
+	ns := r.nstates
+	coef := map[[2]int]map[string]*big.Rat{}
+	for k, c := range q.Num.terms {
+		var idx [2]int
+		deg := 0
+		for v := 0; v < ns && deg <= 2; v++ {
+			e := int(k[2*v])<<8 | int(k[2*v+1])
+			for range e {
+				if deg < 2 {
+					idx[deg] = v
+				}
+				deg++
 			}
-			g[i][j], g[j][i] = c, c
 		}
+		if deg != 2 || idx[1] >= n {
+			continue
+		}
+		b := []byte(k)
+		clear(b[:2*ns])
+		m := coef[idx]
+		if m == nil {
+			m = map[string]*big.Rat{}
+			coef[idx] = m
+		}
+		m[string(b)] = c // shared (see Poly)
+	}
+	half := FromPoly(ConstInt(r, 2))
+	for idx, m := range coef {
+		i, j := idx[0], idx[1]
+		c := RatFunc{Num: &Poly{ring: r, terms: m}}
+		for _, df := range q.Den {
+			c.Den = append(c.Den, DenFactor{df.P.Clone(), df.Mult})
+		}
+		c = c.cancel()
+		if i != j {
+			c = c.Quo(half)
+		}
+		g[i][j], g[j][i] = c, c
 	}
 	return g
 }

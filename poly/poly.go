@@ -686,25 +686,79 @@ func (z *Poly) DivExact(x, y *Poly) bool {
 	if y.IsZero() {
 		panic("poly: division by zero polynomial")
 	}
-	rem := x.Clone()
-	quo := Zero(x.ring)
-	ly := y.lead()
-	for !rem.IsZero() {
-		lr := rem.lead()
-		e := make([]int, len(lr.Exp))
-		for i := range e {
-			e[i] = lr.Exp[i] - ly.Exp[i]
-			if e[i] < 0 {
-				return false
+	// The remainder is one map updated in place (its coefficients are
+	// replaced, never modified, since they may be shared with x); the
+	// leading term is found by comparing keys, which hold the exponents
+	// big-endian (see sortedTerms), so no exponent vector is decoded.
+	rem := make(map[string]*big.Rat, len(x.terms))
+	for k, c := range x.terms {
+		rem[k] = c
+	}
+	quo := make(map[string]*big.Rat)
+	var ly string
+	ldy := -1
+	for k := range y.terms {
+		if d := keyDegree(k); d > ldy || d == ldy && k > ly {
+			ly, ldy = k, d
+		}
+	}
+	cy := y.terms[ly]
+	nk := len(ly)
+	e := make([]byte, nk)
+	buf := make([]byte, nk)
+	for len(rem) > 0 {
+		var lr string
+		ldr := -1
+		for k := range rem {
+			if d := keyDegree(k); d > ldr || d == ldr && k > lr {
+				lr, ldr = k, d
 			}
 		}
-		c := new(big.Rat).Quo(lr.Coef, ly.Coef)
-		m := Monomial(x.ring, e, c)
-		quo.Add(quo, m)
-		rem.Sub(rem, m.Mul(m, y))
+		for i := 0; i < nk; i += 2 {
+			d := (int(lr[i])<<8 | int(lr[i+1])) - (int(ly[i])<<8 | int(ly[i+1]))
+			if d < 0 {
+				return false
+			}
+			e[i], e[i+1] = byte(d>>8), byte(d)
+		}
+		c := QuoRat(new(big.Rat), rem[lr], cy)
+		quo[string(e)] = c
+		// rem −= c·x^e·y; the leading terms cancel exactly.
+		delete(rem, lr)
+		for k, b := range y.terms {
+			if k == ly {
+				continue
+			}
+			for i := 0; i < nk; i += 2 {
+				s := (int(e[i])<<8 | int(e[i+1])) + (int(k[i])<<8 | int(k[i+1]))
+				if s > 0xffff {
+					panic("poly: exponent out of range")
+				}
+				buf[i], buf[i+1] = byte(s>>8), byte(s)
+			}
+			prod := MulRat(new(big.Rat), c, b)
+			if s, ok := rem[string(buf)]; ok {
+				if v := SubRat(prod, s, prod); v.Sign() == 0 {
+					delete(rem, string(buf))
+				} else {
+					rem[string(buf)] = v
+				}
+			} else {
+				rem[string(buf)] = prod.Neg(prod)
+			}
+		}
 	}
-	z.Set(quo)
+	z.ring, z.terms = x.ring, quo
 	return true
+}
+
+// keyDegree returns the total degree of an encoded exponent vector.
+func keyDegree(k string) int {
+	d := 0
+	for i := 1; i < len(k); i += 2 {
+		d += int(k[i-1])<<8 | int(k[i])
+	}
+	return d
 }
 
 // Content returns the positive rational c and the primitive polynomial q with

@@ -20,9 +20,13 @@ func (a Matrix) Consts() (c [][]*big.Rat, ok bool) {
 
 // EqualLDL reports a = L·diag(d)·Lᵀ exactly, for square a and L of the same
 // size and len(d) rows of them. When every entry is a rational constant the
-// identity is checked in rational arithmetic, Σₖ (Lᵢₖ·dₖ)·Lⱼₖ for j ≤ i and
-// a symmetric a, at O(n³) products of numbers; otherwise as an identity of
-// rational functions.
+// identity is decided by the uniqueness of the factorization where it
+// applies (a symmetric, its leading minors non-zero, L unit lower
+// triangular: L and d are compared with those of Bareiss' elimination of
+// a, see equalUniqueLDL), and otherwise checked in rational arithmetic,
+// Σₖ (Lᵢₖ·dₖ)·Lⱼₖ for j ≤ i and a symmetric a, at O(n³) products of
+// numbers; entries with parameters are compared as an identity of rational
+// functions.
 func (a Matrix) EqualLDL(l Matrix, d []RatFunc) bool {
 	n := len(a)
 	if len(l) != n || len(d) != n {
@@ -43,11 +47,73 @@ func (a Matrix) EqualLDL(l Matrix, d []RatFunc) bool {
 		}
 		return l.Mul(dm).Mul(l.Transpose()).Equal(a)
 	}
+	if eq, decided := equalUniqueLDL(ac, lc, dc[0]); decided {
+		return eq
+	}
+	return equalLDLSums(ac, lc, dc[0])
+}
+
+// equalUniqueLDL decides a = L·diag(d)·Lᵀ for rational a, L and d without
+// forming the products, when it can: a symmetric matrix whose leading
+// minors are all non-zero has exactly one such factorization with L unit
+// lower triangular (Golub & Van Loan, Matrix Computations, 4th ed., Thm.
+// 4.1.3), and Bareiss' elimination of a's integer form over a common
+// denominator c gives it: dₖ = Δₖ₊₁/(Δₖ·c), Lᵢₖ = bᵢₖ⁽ᵏ⁾/Δₖ₊₁ (see
+// PositiveLDL). So the identity holds iff L and d are those, compared by
+// cross-multiplication. decided is false (the caller forms the sums) when L
+// is not unit lower triangular, when a has a zero leading minor, or when
+// its entries have no short common denominator.
+func equalUniqueLDL(a, l [][]*big.Rat, d []*big.Rat) (eq, decided bool) {
+	n := len(a)
+	for i := range n {
+		for j := range n {
+			switch {
+			case j > i && l[i][j].Sign() != 0, i == j && !isOne(l[i][j]):
+				return false, false
+			case j < i && a[i][j].Cmp(a[j][i]) != 0:
+				return false, true // L·D·Lᵀ is symmetric
+			}
+		}
+	}
+	lower := make([][]*big.Rat, n)
+	for i := range a {
+		lower[i] = a[i][:i+1]
+	}
+	b, c, ok := CommonDenominator(lower, 1<<14)
+	if !ok || bareissLower(b, false) >= 0 {
+		return false, false
+	}
+	prev := big.NewInt(1)
+	x, y := new(big.Int), new(big.Int)
+	for k := range n {
+		piv := b[k][k]
+		// dₖ·Δₖ·c = Δₖ₊₁
+		x.Mul(d[k].Num(), prev)
+		x.Mul(x, c)
+		if y.Mul(d[k].Denom(), piv); x.Cmp(y) != 0 {
+			return false, true
+		}
+		for i := k + 1; i < n; i++ {
+			// Lᵢₖ·Δₖ₊₁ = bᵢₖ⁽ᵏ⁾
+			x.Mul(l[i][k].Num(), piv)
+			if y.Mul(l[i][k].Denom(), b[i][k]); x.Cmp(y) != 0 {
+				return false, true
+			}
+		}
+		prev = piv
+	}
+	return true, true
+}
+
+// equalLDLSums is EqualLDL's check for rational entries by the sums
+// Σₖ (Lᵢₖ·dₖ)·Lⱼₖ, j ≤ i.
+func equalLDLSums(ac, lc [][]*big.Rat, dc []*big.Rat) bool {
+	n := len(ac)
 	ld := make([][]*big.Rat, n) // L·diag(d)
 	for i := range n {
 		ld[i] = make([]*big.Rat, n)
 		for k := range n {
-			ld[i][k] = MulRat(new(big.Rat), lc[i][k], dc[0][k])
+			ld[i][k] = MulRat(new(big.Rat), lc[i][k], dc[k])
 		}
 	}
 	s, t := new(big.Rat), new(big.Rat)

@@ -683,13 +683,27 @@ func (p Univariate) isolate() (sf Univariate, isos []uIso) {
 // RationalRoots returns the distinct rational roots of p, ascending. It
 // panics if p is zero.
 //
-// Method: the real roots of the square-free part are isolated by Sturm
+// Method: when a small prime shows p square-free, p-adic lifting
+// (SquareFreeRationalRoots). Otherwise the real roots of the square-free part are isolated by Sturm
 // bisection, and each isolating interval is shrunk to width <= 1/|L| (L the
 // leading coefficient of the primitive integer square-free part); by the
 // rational root theorem such an interval holds at most one candidate k/L,
 // which is tested exactly (see uIsolate). Every returned value is a root and
 // no rational root is missed, whatever the size of the coefficients.
 func (p Univariate) RationalRoots() []*big.Rat {
+	if p.IsZero() {
+		panic("poly: root isolation of the zero polynomial")
+	}
+	// Square-free modulo a small prime (the usual case): p-adic lifting,
+	// which isolates nothing (SquareFreeRationalRoots).
+	if roots, ok := p.SquareFreeRationalRoots(); ok {
+		return roots
+	}
+	return p.isolatedRationalRoots()
+}
+
+// isolatedRationalRoots is RationalRoots by root isolation alone.
+func (p Univariate) isolatedRationalRoots() []*big.Rat {
 	_, isos := p.isolate()
 	var out []*big.Rat
 	for _, r := range isos {

@@ -450,3 +450,98 @@ func TestTriangularSquares(t *testing.T) {
 		}
 	}
 }
+
+// gonum as a reference for the fraction-free elimination with parameters:
+// on random symmetric matrices of rational functions of a and b (sparse,
+// with denominators, sometimes with a zero row), the leading minors that
+// LDL reports equal mat.Det of the leading blocks at rational points, and
+// L·D·Lᵀ reproduces the matrix exactly; a zero pivot with a non-zero
+// column is refused at the right index (its 2×2 principal minor with that
+// entry is −c² < 0, common practice).
+func TestLDLWithParametersAgreesWithDet(t *testing.T) {
+	rng := rand.New(rand.NewPCG(1968, 3))
+	r := poly.NewRing([]string{"x1", "x2", "x3", "x4", "x5"}, []string{"a", "b"})
+	entries := []string{"0", "0", "0", "1", "-2", "3", "a", "a^2 - 1", "b", "a*b + 2", "1/(a^2 + 1)", "b/(b^2 + 2)", "(a - b)/(a^2 + 1)", "2*a/3"}
+	ai, _ := r.Index("a")
+	bi, _ := r.Index("b")
+	checked := 0
+	for trial := 0; trial < 200; trial++ {
+		n := 2 + rng.IntN(4)
+		g := poly.NewMatrix(r, n)
+		for i := 0; i < n; i++ {
+			for j := i; j < n; j++ {
+				e := poly.MustParse(r, entries[rng.IntN(len(entries))])
+				g[i][j], g[j][i] = e, e
+			}
+			if i > 0 && rng.IntN(4) == 0 {
+				g[i][i] = poly.MustParse(r, "4 + a^2 + b^2")
+			}
+		}
+		zeroRow := -1
+		if rng.IntN(5) == 0 {
+			zeroRow = rng.IntN(n)
+			for j := range n {
+				g[zeroRow][j], g[j][zeroRow] = poly.FromPoly(poly.Zero(r)), poly.FromPoly(poly.Zero(r))
+			}
+		}
+		var l LDL
+		ok, col := l.Factorize(g)
+		pt := make([]*big.Rat, r.NumVars())
+		for i := range pt {
+			pt[i] = new(big.Rat)
+		}
+		pt[ai], pt[bi] = big.NewRat(int64(rng.IntN(9)-4), int64(1+rng.IntN(3))), big.NewRat(int64(rng.IntN(9)-4), 1)
+		val := func(f poly.RatFunc) float64 {
+			v, err := f.Eval(pt)
+			if err != nil {
+				t.Fatal(err)
+			}
+			x, _ := v.Float64()
+			return x
+		}
+		if !ok {
+			// The pivot at col vanishes identically and its column does not.
+			if !l.D[col].IsZero() {
+				t.Fatalf("trial %d: refused at %d with a non-zero pivot", trial, col)
+			}
+			continue
+		}
+		dm := poly.NewMatrix(r, n)
+		for i := range l.D {
+			dm[i][i] = l.D[i]
+		}
+		if !l.L.Mul(dm).Mul(l.L.Transpose()).Equal(g) {
+			t.Fatalf("trial %d: L·D·Lᵀ ≠ G for %v", trial, g.Strings())
+		}
+		if zeroRow >= 0 && !l.Zero[zeroRow] {
+			t.Fatalf("trial %d: zero row %d not a zero pivot", trial, zeroRow)
+		}
+		// Minors of the principal submatrix on the non-zero pivots.
+		var keep []int
+		for i := range n {
+			if !l.Zero[i] {
+				keep = append(keep, i)
+			}
+		}
+		minors := l.Minors()
+		if len(minors) != len(keep) {
+			t.Fatalf("trial %d: %d minors for %d non-zero pivots", trial, len(minors), len(keep))
+		}
+		for k := range keep {
+			m := mat.NewDense(k+1, k+1, nil)
+			for i := 0; i <= k; i++ {
+				for j := 0; j <= k; j++ {
+					m.Set(i, j, val(g[keep[i]][keep[j]]))
+				}
+			}
+			want, got := mat.Det(m), val(minors[k])
+			if math.Abs(got-want) > 1e-9*math.Max(1, math.Abs(want)) {
+				t.Fatalf("trial %d: minor %d is %s = %g at a=%s, b=%s; mat.Det gives %g", trial, k+1, minors[k], got, pt[ai], pt[bi], want)
+			}
+			checked++
+		}
+	}
+	if checked < 300 {
+		t.Errorf("only %d minors checked", checked)
+	}
+}

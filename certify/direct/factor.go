@@ -150,6 +150,19 @@ func candidateRoots(q *poly.Poly, v int) []*big.Rat {
 // with multiplicity and the square-free parts of the rest (Yun 1976).
 func univariateFactors(r *poly.Ring, v int, u poly.Univariate) []PowerFactor {
 	var out []PowerFactor
+	if roots, ok := u.SquareFreeRationalRoots(); ok {
+		// Square-free (shown modulo a prime): every root is simple, and
+		// what remains after the linear factors is its own square-free
+		// decomposition, so Yun's gcds over Q are not needed.
+		for _, rho := range roots {
+			u, _ = u.DivMod(poly.NewUnivariate(new(big.Rat).Neg(rho), big.NewRat(1, 1)))
+			out = append(out, PowerFactor{linear(r, v, rho), 1})
+		}
+		if u.Degree() >= 1 {
+			out = append(out, PowerFactor{poly.FromUnivariate(r, v, u.Monic()), 1})
+		}
+		return out
+	}
 	for _, rho := range u.RationalRoots() {
 		lin := poly.NewUnivariate(new(big.Rat).Neg(rho), big.NewRat(1, 1))
 		m := 0

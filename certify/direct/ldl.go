@@ -17,6 +17,10 @@ type LDL struct {
 	L    poly.Matrix
 	D    []poly.RatFunc
 	Zero []bool // pivots that are identically zero
+
+	// minors are the leading minors as the fraction-free elimination
+	// found them (nil when the factorization did not eliminate so).
+	minors []poly.RatFunc
 }
 
 // ErrZeroPivot reports a pivot that is identically zero while its column is
@@ -36,6 +40,7 @@ func (f *LDL) Factorize(g poly.Matrix) (ok bool, col int) {
 	f.L = poly.NewMatrix(r, n)
 	f.D = make([]poly.RatFunc, n)
 	f.Zero = make([]bool, n)
+	f.minors = nil
 	if c, ok := g.Consts(); ok {
 		// Constant entries: the same elimination in rational arithmetic.
 		l, d, ok, col := poly.RatLDL(c)
@@ -51,6 +56,9 @@ func (f *LDL) Factorize(g poly.Matrix) (ok bool, col int) {
 			}
 		}
 		return true, -1
+	}
+	if pr, ok := paramRing(g); ok {
+		return f.bareiss(g, pr)
 	}
 	one := poly.RatConst(r, big.NewRat(1, 1))
 	for k := 0; k < n; k++ {
@@ -87,6 +95,196 @@ func (f *LDL) Factorize(g poly.Matrix) (ok bool, col int) {
 	return true, -1
 }
 
+// paramRing returns the ring of g's parameters alone when no entry of g
+// involves a state (a Gram matrix of a form in the states): its
+// polynomials have short exponent keys.
+func paramRing(g poly.Matrix) (*poly.Ring, bool) {
+	r := g[0][0].Ring()
+	mask := r.StateMask()
+	for i := range g {
+		for _, e := range g[i] {
+			if e.Num.DegreeIn(mask) > 0 {
+				return nil, false
+			}
+		}
+	}
+	names := r.Names()
+	return poly.NewRing(nil, names[r.NumStates():]), true
+}
+
+// bareiss is Factorize by fraction-free elimination (Bareiss 1968) over
+// Z[params]: with Δ a common denominator of the entries (their
+// denominator factors and an integer) and A = Δ·G, every
+// entry after k steps is the minor of A on the rows 1…k, i and the columns
+// 1…k, j, got from the previous step by an exact division by the previous
+// pivot; so the pivots are A's leading minors Mₖ, no rational function is
+// formed inside the loop, and G's pivots and L are quotients of these
+// minors formed once at the end: Dₖ = Mₖ/(Mₖ₋₁·Δ), Lᵢₖ = Aᵢₖ⁽ᵏ⁾/Mₖ.
+//
+// An entry that a step does not change (its row or column of the pivot
+// column is zero) is only scaled by Mₖ/Mₖ₋₁, so it is kept with the step it
+// belongs to and brought up to date, by one product and one exact
+// division, when it is next read: a sparse matrix costs what its fill-in
+// costs. A zero pivot with a zero column leaves the rest unchanged (the
+// elimination goes on as on the submatrix without that index).
+func (f *LDL) bareiss(g poly.Matrix, pr *poly.Ring) (bool, int) {
+	n := len(g)
+	r := g[0][0].Ring()
+	ns := r.NumStates()
+	down := make([]int, r.NumVars()) // full ring → parameter ring
+	up := make([]int, pr.NumVars())  // parameter ring → full ring
+	for i := range down {
+		down[i] = i - ns
+	}
+	for i := range up {
+		up[i] = ns + i
+	}
+	toParams := func(p *poly.Poly) *poly.Poly { return p.Relabel(pr, down) }
+	toFull := func(q poly.RatFunc) poly.RatFunc {
+		out := poly.RatFunc{Num: q.Num.Relabel(r, up)}
+		for _, d := range q.Den {
+			out.Den = append(out.Den, poly.DenFactor{P: d.P.Relabel(r, up), Mult: d.Mult})
+		}
+		return out
+	}
+	// Δ: every denominator factor at its highest multiplicity.
+	var delta []poly.DenFactor
+	for i := range g {
+		for j := 0; j <= i; j++ {
+			for _, d := range g[i][j].Den {
+				k := slices.IndexFunc(delta, func(e poly.DenFactor) bool { return e.P.Equal(d.P) })
+				switch {
+				case k < 0:
+					delta = append(delta, d)
+				case d.Mult > delta[k].Mult:
+					delta[k].Mult = d.Mult
+				}
+			}
+		}
+	}
+	deltaPoly := poly.ConstInt(pr, 1)
+	for _, d := range delta {
+		deltaPoly.Mul(deltaPoly, new(poly.Poly).Pow(toParams(d.P), d.Mult))
+	}
+	// The lower triangle of A (nil: zero) and the step of each entry.
+	a := make([][]*poly.Poly, n)
+	at := make([][]int, n)
+	for i := range a {
+		a[i] = make([]*poly.Poly, i+1)
+		at[i] = make([]int, i+1)
+		for j := 0; j <= i; j++ {
+			e := g[i][j]
+			if e.IsZero() {
+				continue
+			}
+			p := toParams(e.Num)
+			for _, d := range delta {
+				m := d.Mult
+				if k := slices.IndexFunc(e.Den, func(x poly.DenFactor) bool { return x.P.Equal(d.P) }); k >= 0 {
+					m -= e.Den[k].Mult
+				}
+				if m > 0 {
+					p.Mul(p, new(poly.Poly).Pow(toParams(d.P), m))
+				}
+			}
+			a[i][j] = p
+		}
+	}
+	// The least integer that clears the coefficients' denominators joins
+	// Δ, so that A and every minor of it lie in Z[params].
+	den := big.NewInt(1)
+	for i := range a {
+		for _, p := range a[i] {
+			if p != nil {
+				c, _ := p.Content()
+				g := new(big.Int).GCD(nil, nil, den, c.Denom())
+				den.Mul(den, new(big.Int).Quo(c.Denom(), g))
+			}
+		}
+	}
+	if den.Cmp(big.NewInt(1)) != 0 {
+		k := new(big.Rat).SetInt(den)
+		for i := range a {
+			for j, p := range a[i] {
+				if p != nil {
+					a[i][j] = new(poly.Poly).Scale(p, k)
+				}
+			}
+		}
+		deltaPoly.Scale(deltaPoly, k)
+	}
+	// scale[t] is the last non-zero pivot before step t (1 at first):
+	// an entry kept at step s is, at step t, a[i][j]·scale[t]/scale[s].
+	scale := make([]*poly.Poly, n+1)
+	scale[0] = poly.ConstInt(pr, 1)
+	current := func(i, j, t int) *poly.Poly {
+		p := a[i][j]
+		if p == nil || at[i][j] == t {
+			return p
+		}
+		if s := scale[at[i][j]]; s != scale[t] {
+			p = new(poly.Poly).Mul(p, scale[t])
+			if s.IsConst() {
+				p.Scale(p, new(big.Rat).Inv(s.ConstTerm()))
+			} else if !p.DivExact(p, s) {
+				panic("direct: inexact division in fraction-free elimination")
+			}
+		}
+		a[i][j], at[i][j] = p, t
+		return p
+	}
+	one := poly.RatConst(r, big.NewRat(1, 1))
+	dpoly := poly.FromPoly(deltaPoly)
+	dk := poly.FromPoly(poly.ConstInt(pr, 1)) // Δ^(pivots so far)
+	for k := 0; k < n; k++ {
+		f.L[k][k] = one
+		prev := scale[k]
+		p := current(k, k, k)
+		var col []int // rows below k with a non-zero entry in column k
+		for i := k + 1; i < n; i++ {
+			if a[i][k] != nil {
+				current(i, k, k)
+				col = append(col, i)
+			}
+		}
+		if p == nil {
+			f.D[k] = poly.FromPoly(poly.Zero(r))
+			if len(col) > 0 {
+				return false, k
+			}
+			f.Zero[k] = true
+			scale[k+1] = prev
+			continue
+		}
+		pf := poly.FromPoly(p)
+		f.D[k] = toFull(pf.Quo(poly.FromPoly(prev).Mul(dpoly)))
+		dk = dk.Mul(dpoly)
+		f.minors = append(f.minors, toFull(pf.Quo(dk)))
+		for _, i := range col {
+			f.L[i][k] = toFull(poly.FromPoly(a[i][k]).Quo(pf))
+		}
+		for x, i := range col {
+			for _, j := range col[:x+1] {
+				v := new(poly.Poly).Mul(a[i][k], a[j][k])
+				if e := current(i, j, k); e != nil {
+					v.Sub(new(poly.Poly).Mul(p, e), v)
+				} else {
+					v.Neg(v)
+				}
+				if !v.DivExact(v, prev) {
+					panic("direct: inexact division in fraction-free elimination")
+				}
+				a[i][j], at[i][j] = v, k+1
+				if v.IsZero() {
+					a[i][j] = nil
+				}
+			}
+		}
+		scale[k+1] = p
+	}
+	return true, -1
+}
+
 // Semidefinite reports whether some pivot is identically zero.
 func (f *LDL) Semidefinite() bool {
 	for _, z := range f.Zero {
@@ -101,6 +299,9 @@ func (f *LDL) Semidefinite() bool {
 // principal minors of G (Sylvester's criterion), or, when some pivot is zero,
 // those of G's principal submatrix on the non-zero pivots.
 func (f *LDL) Minors() []poly.RatFunc {
+	if f.minors != nil {
+		return slices.Clone(f.minors)
+	}
 	var out []poly.RatFunc
 	var p poly.RatFunc
 	for i, d := range f.D {

@@ -11,7 +11,7 @@ import (
 // bench/lyap_reference.py times SciPy on the same kind of input.
 
 func BenchmarkContinuous(b *testing.B) {
-	for _, n := range []int{10, 50, 100, 200} {
+	for _, n := range []int{10, 20, 50, 100, 200, 400} {
 		rng := rand.New(rand.NewPCG(uint64(n), 1))
 		a := randStable(n, rng)
 		q := randSPD(n, rng)
@@ -26,7 +26,7 @@ func BenchmarkContinuous(b *testing.B) {
 }
 
 func BenchmarkDiscrete(b *testing.B) {
-	for _, n := range []int{10, 50, 100, 200} {
+	for _, n := range []int{10, 20, 50, 100, 200, 400} {
 		rng := rand.New(rand.NewPCG(uint64(n), 2))
 		a := randSchurStable(n, rng)
 		q := randSPD(n, rng)

@@ -110,7 +110,7 @@ type blockData struct {
 }
 
 type solver struct {
-	gram   *mat.Cholesky // of [⟨Aᵢ, Aⱼ⟩], nil when singular
+	gram   *cholesky // of [⟨Aᵢ, Aⱼ⟩], nil when singular
 	p      *Problem
 	o      Options
 	m      int
@@ -118,6 +118,9 @@ type solver struct {
 	ntot   int
 	normB  float64
 	normC  float64
+	// schurData is the m×m storage of the Schur complement, reused from
+	// one iteration to the next (8 MB at m = 1,000).
+	schurData []float64
 }
 
 func newSolver(p *Problem, o Options) *solver {
@@ -204,8 +207,8 @@ func newSolver(p *Problem, o Options) *solver {
 				}
 			}
 		}
-		var c mat.Cholesky
-		if c.Factorize(g) {
+		var c cholesky
+		if c.factorize(g) {
 			s.gram = &c
 		}
 	}
@@ -221,18 +224,11 @@ func (s *solver) refine(dx bmat, rp []float64) {
 		return
 	}
 	adx := s.aop(dx)
-	r := mat.NewVecDense(s.m, nil)
+	r := make([]float64, s.m)
 	for i := range adx {
-		r.SetVec(i, rp[i]-adx[i])
+		r[i] = rp[i] - adx[i]
 	}
-	var w mat.VecDense
-	if err := s.gram.SolveVecTo(&w, r); err != nil {
-		var ce mat.Condition
-		if !errors.As(err, &ce) {
-			return
-		}
-	}
-	axpy(dx, 1, s.atop(w.RawVector().Data))
+	axpy(dx, 1, s.atop(s.gram.solveVec(r)))
 }
 
 // bmat is a block-diagonal matrix: dense n×n data or n diagonal entries.
@@ -398,7 +394,11 @@ func (s *solver) maxStep(f *factor, x, dx bmat) float64 {
 // (X Aᵢ Z⁻¹)_qp = Σ_r X_q,r T_r,p and M_ij = Σ_{(p,q)∈Aⱼ} (Aⱼ)_pq (X Aᵢ Z⁻¹)_qp.
 func (s *solver) schur(x, zinv bmat) *mat.SymDense {
 	m := s.m
-	md := make([]float64, m*m)
+	if len(s.schurData) != m*m {
+		s.schurData = make([]float64, m*m)
+	}
+	md := s.schurData
+	clear(md)
 	for k := range s.blocks {
 		bd := &s.blocks[k]
 		xk, zk := x[k], zinv[k]
@@ -421,31 +421,43 @@ func (s *solver) schur(x, zinv bmat) *mat.SymDense {
 			continue
 		}
 		n := bd.n
-		work := func(ci int, tbuf []float64) {
+		// work adds row i = cons[ci] of M for this block. With R = rows(Aᵢ),
+		// T = Aᵢ Z⁻¹ is kept transposed (n × R) and the columns R of X are
+		// gathered (n × R), so that (X Aᵢ Z⁻¹)_qp is a dot product of two
+		// contiguous rows of length |R|.
+		work := func(ci int, tbuf []float64, pos []int) {
 			i := bd.cons[ci]
 			rows := bd.rows[ci]
-			pos := make(map[int]int, len(rows))
+			nr := len(rows)
 			for r, k := range rows {
 				pos[k] = r
 			}
-			t := tbuf[:len(rows)*n]
-			clear(t)
+			tt := tbuf[:nr*n]
+			clear(tt)
 			for _, e := range bd.ents[ci] {
 				r := pos[e.k]
-				row := t[r*n : r*n+n]
 				zl := zk[e.l*n : e.l*n+n]
 				for p, v := range zl {
-					row[p] += e.a * v
+					tt[p*nr+r] += e.a * v
+				}
+			}
+			xg := tbuf[nr*n : 2*nr*n]
+			for q := range n {
+				xq := xk[q*n : q*n+n]
+				g := xg[q*nr : q*nr+nr]
+				for r, kk := range rows {
+					g[r] = xq[kk]
 				}
 			}
 			for cj := ci; cj < len(bd.cons); cj++ {
 				var sum float64
 				for _, e := range bd.ents[cj] {
 					// e.k = p, e.l = q: need (X Aᵢ Z⁻¹)_{q,p}.
-					xq := xk[e.l*n : e.l*n+n]
+					a := xg[e.l*nr : e.l*nr+nr]
+					b := tt[e.k*nr : e.k*nr+nr]
 					var w float64
-					for r, kk := range rows {
-						w += xq[kk] * t[r*n+e.k]
+					for r, v := range a {
+						w += v * b[r]
 					}
 					sum += e.a * w
 				}
@@ -458,9 +470,9 @@ func (s *solver) schur(x, zinv bmat) *mat.SymDense {
 			workers = nc
 		}
 		if workers <= 1 || nc*n < 2000 {
-			buf := make([]float64, n*n)
+			buf, pos := make([]float64, 2*n*n), make([]int, n)
 			for ci := 0; ci < nc; ci++ {
-				work(ci, buf)
+				work(ci, buf, pos)
 			}
 			continue
 		}
@@ -470,9 +482,9 @@ func (s *solver) schur(x, zinv bmat) *mat.SymDense {
 			wg.Add(1)
 			go func() {
 				defer wg.Done()
-				buf := make([]float64, n*n)
+				buf, pos := make([]float64, 2*n*n), make([]int, n)
 				for ci := range next {
-					work(ci, buf)
+					work(ci, buf, pos)
 				}
 			}()
 		}
@@ -482,15 +494,10 @@ func (s *solver) schur(x, zinv bmat) *mat.SymDense {
 		close(next)
 		wg.Wait()
 	}
-	ms := mat.NewSymDense(m, nil)
-	for i := 0; i < m; i++ {
-		for j := i; j < m; j++ {
-			// Only one triangle was filled for each block; constraints are
-			// ascending in every block, so it is the upper one.
-			ms.SetSym(i, j, md[i*m+j])
-		}
-	}
-	return ms
+	// Only one triangle was filled for each block; constraints are
+	// ascending in every block, so it is the upper one, which is what a
+	// SymDense reads from its row-major backing slice.
+	return mat.NewSymDense(m, md)
 }
 
 // mulXDZinv returns X·D·Z⁻¹ block by block (not symmetric).
@@ -586,6 +593,8 @@ func (s *solver) run(ctx context.Context) (*Result, error) {
 	// without a strictly feasible neighbourhood) can creep for many
 	// iterations at a small residual without reaching the tolerance.
 	worst, halved := math.Inf(1), 0
+	// One factorization reused by every iteration (its storage is kept).
+	var chol cholesky
 	for it := 0; ; it++ {
 		if err := ctx.Err(); err != nil {
 			return nil, fmt.Errorf("%w: %w", errCancelled, err)
@@ -636,9 +645,8 @@ func (s *solver) run(ctx context.Context) (*Result, error) {
 			return r, nil
 		}
 		zinv := fz.inv
-		var chol mat.Cholesky
 		ms := s.schur(x, zinv)
-		if !chol.Factorize(ms) {
+		if !chol.factorize(ms) {
 			// Regularize lightly once: a rank-deficient constraint set.
 			var mx float64
 			for i := 0; i < m; i++ {
@@ -647,7 +655,7 @@ func (s *solver) run(ctx context.Context) (*Result, error) {
 			for i := 0; i < m; i++ {
 				ms.SetSym(i, i, ms.At(i, i)+1e-12*mx+1e-300)
 			}
-			if !chol.Factorize(ms) {
+			if !chol.factorize(ms) {
 				r.Status = Stalled
 				return r, nil
 			}
@@ -656,7 +664,7 @@ func (s *solver) run(ctx context.Context) (*Result, error) {
 		azinv := s.aop(zinv)
 		axrz := s.aop(xrz)
 		direction := func(sigma float64, corr bmat) (dx, dz bmat, dy []float64) {
-			rhs := mat.NewVecDense(m, nil)
+			rhs := make([]float64, m)
 			var acorr []float64
 			if corr != nil {
 				acorr = s.aop(corr)
@@ -666,22 +674,11 @@ func (s *solver) run(ctx context.Context) (*Result, error) {
 				if corr != nil {
 					v -= acorr[i]
 				}
-				rhs.SetVec(i, v)
+				rhs[i] = v
 			}
-			var sol mat.VecDense
-			if err := chol.SolveVecTo(&sol, rhs); err != nil {
-				// A ConditionError still comes with the solution: an
-				// ill-conditioned Schur complement is normal near the
-				// optimum of a degenerate problem.
-				var ce mat.Condition
-				if !errors.As(err, &ce) {
-					return nil, nil, nil
-				}
-			}
-			dy = make([]float64, m)
-			for i := range dy {
-				dy[i] = sol.AtVec(i)
-			}
+			// An ill-conditioned Schur complement is normal near the
+			// optimum of a degenerate problem; the solution is used as it is.
+			dy = chol.solveVec(rhs)
 			dz = s.atop(dy)
 			axpy(dz, 1, rd)
 			dx = s.mul3(x, dz, zinv)

@@ -3,6 +3,8 @@ package sos
 import (
 	"fmt"
 	"math/big"
+
+	"github.com/lyacert/lyacert/poly"
 )
 
 // LDL is the factorization A = L·D·Lᵀ of a symmetric rational matrix, L unit
@@ -20,12 +22,20 @@ type LDL struct {
 // one the offending pivot).
 func (f *LDL) Factorize(a [][]*big.Rat) bool {
 	n := len(a)
-	// w holds the Schur complement, lower triangle.
-	w := make([][]*big.Rat, n)
-	for i := range w {
+	for i := range a {
 		if len(a[i]) != n {
 			panic(fmt.Sprintf("sos: row %d of a %d×%d matrix has %d entries", i, n, n, len(a[i])))
 		}
+	}
+	// Entries with a common denominator (a rounded Gram matrix and its
+	// projection): fraction-free elimination in integers, the same values.
+	if l, d, k, ok := poly.PositiveLDL(a, commonBits); ok {
+		f.L, f.D = l, d
+		return k < 0
+	}
+	// w holds the Schur complement, lower triangle.
+	w := make([][]*big.Rat, n)
+	for i := range w {
 		w[i] = make([]*big.Rat, i+1)
 		for j := 0; j <= i; j++ {
 			w[i][j] = new(big.Rat).Set(a[i][j])
@@ -65,6 +75,10 @@ func (f *LDL) Factorize(a [][]*big.Rat) bool {
 	}
 	return true
 }
+
+// commonBits bounds the common denominator of a matrix factored in
+// integers; beyond it the rational elimination is used.
+const commonBits = 1 << 14
 
 // MinPivot returns the smallest pivot of D.
 func (f *LDL) MinPivot() *big.Rat {

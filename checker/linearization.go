@@ -10,20 +10,9 @@ import (
 )
 
 // rationalMatrix reads an n×n matrix of canonical rationals, symmetric
-// when it is a P.
+// when it is a P (claims.RatMatrix).
 func (c *run) rationalMatrix(what string, rows [][]string, n int) ([][]*big.Rat, bool) {
-	out := make([][]*big.Rat, n)
-	ok := len(rows) == n
-	for i := 0; ok && i < n; i++ {
-		out[i] = make([]*big.Rat, n)
-		ok = len(rows[i]) == n
-		for j := 0; ok && j < n; j++ {
-			out[i][j], ok = claims.CanonicalRat(rows[i][j])
-		}
-	}
-	for i := 0; ok && what == "P" && i < n*n; i++ {
-		ok = out[i/n][i%n].Cmp(out[i%n][i/n]) == 0
-	}
+	out, ok := claims.RatMatrix(rows, n, what == "P")
 	return out, c.add("linearization", ok, "%s is a %d×%d matrix of rationals in canonical form (symmetric if P)", what, n, n)
 }
 
@@ -56,14 +45,9 @@ func (c *run) krawczyk(cl claims.Claim) bool {
 		!c.add("krawczyk", len(kz.Box) == n && len(kz.Krawczyk) == n, "the box and K(X) have one interval per state") {
 		return false
 	}
-	box := make([]poly.Interval, n)
-	for i, iv := range kz.Box {
-		lo, ok1 := claims.CanonicalRat(iv[0])
-		hi, ok2 := claims.CanonicalRat(iv[1])
-		if !c.add("krawczyk", ok1 && ok2 && lo.Cmp(hi) < 0, "box side %d has canonical rational ends, lo < hi", i+1) {
-			return false
-		}
-		box[i] = poly.Closed(lo, hi)
+	box, err := kz.Sides()
+	if !c.add("krawczyk", err == nil, "the box has canonical rational ends, lo < hi%s", errSuffix(err)) {
+		return false
 	}
 	y, ok := c.rationalMatrix("the preconditioner", kz.Preconditioner, n)
 	if !ok {

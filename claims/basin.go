@@ -30,14 +30,19 @@ func (b *SublevelBasin) Sides(n int) ([]poly.Interval, error) {
 	if len(b.Lo) != n || len(b.Hi) != n {
 		return nil, fmt.Errorf("%d and %d sides for %d states", len(b.Lo), len(b.Hi), n)
 	}
-	sides := make([]poly.Interval, n)
-	for i := range n {
-		lo, ok1 := CanonicalRat(b.Lo[i])
-		hi, ok2 := CanonicalRat(b.Hi[i])
-		if !ok1 || !ok2 || lo.Cmp(hi) >= 0 {
+	return closedBox(b.Lo, b.Hi)
+}
+
+// closedBox reads closed sides [lo[i], hi[i]]: canonical rationals, lo < hi.
+func closedBox(lo, hi []string) ([]poly.Interval, error) {
+	sides := make([]poly.Interval, len(lo))
+	for i := range lo {
+		l, ok1 := CanonicalRat(lo[i])
+		h, ok2 := CanonicalRat(hi[i])
+		if !ok1 || !ok2 || l.Cmp(h) >= 0 {
 			return nil, fmt.Errorf("side %d is not two canonical rationals, lo < hi", i+1)
 		}
-		sides[i] = poly.Closed(lo, hi)
+		sides[i] = poly.Closed(l, h)
 	}
 	return sides, nil
 }

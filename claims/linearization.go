@@ -1,5 +1,11 @@
 package claims
 
+import (
+	"math/big"
+
+	"github.com/lyacert/lyacert/poly"
+)
+
 // KrawczykEnclosure proves that a box holds exactly one equilibrium of a
 // model without free parameters and without an "at" point (Krawczyk 1969;
 // Moore 1977): with g = f (continuous time) or g = f − x (discrete time), J
@@ -36,3 +42,31 @@ type Linearization struct {
 
 func (*KrawczykEnclosure) Rule() string { return "krawczyk-enclosure" }
 func (*Linearization) Rule() string     { return "linearization" }
+
+// Sides reads the box: one closed side [lo, hi] per entry, canonical
+// rational ends, lo < hi.
+func (k *KrawczykEnclosure) Sides() ([]poly.Interval, error) {
+	lo, hi := make([]string, len(k.Box)), make([]string, len(k.Box))
+	for i, s := range k.Box {
+		lo[i], hi[i] = s[0], s[1]
+	}
+	return closedBox(lo, hi)
+}
+
+// RatMatrix reads an n×n matrix of canonical rationals (CanonicalRat),
+// symmetric when asked.
+func RatMatrix(rows [][]string, n int, symmetric bool) ([][]*big.Rat, bool) {
+	out := make([][]*big.Rat, n)
+	ok := len(rows) == n
+	for i := 0; ok && i < n; i++ {
+		out[i] = make([]*big.Rat, n)
+		ok = len(rows[i]) == n
+		for j := 0; ok && j < n; j++ {
+			out[i][j], ok = CanonicalRat(rows[i][j])
+		}
+	}
+	for i := 0; ok && symmetric && i < n*n; i++ {
+		ok = out[i/n][i%n].Cmp(out[i%n][i/n]) == 0
+	}
+	return out, ok
+}

@@ -59,3 +59,22 @@ func TestRatLDLAndBareiss(t *testing.T) {
 		}
 	}
 }
+
+// TestEqualLDLRefusesUnsymmetric: a matrix whose lower triangle is that of
+// L·D·Lᵀ but whose upper triangle is not is no L·D·Lᵀ, however it is
+// decided (common practice: L·D·Lᵀ is symmetric). [[1, 100], [0, 1]] has
+// the leading minors of I, so the uniqueness of the factorization alone
+// would take it for I = L·D·Lᵀ with L = I, D = (1, 1); its quadratic form
+// x² + 100xy + y² is indefinite.
+func TestEqualLDLRefusesUnsymmetric(t *testing.T) {
+	r := NewRing([]string{"x", "y"}, nil)
+	q := func(v int64) RatFunc { return RatConst(r, big.NewRat(v, 1)) }
+	a := Matrix{{q(1), q(100)}, {q(0), q(1)}}
+	l := Matrix{{q(1), q(0)}, {q(0), q(1)}}
+	if a.EqualLDL(l, []RatFunc{q(1), q(1)}) {
+		t.Error("an unsymmetric matrix is taken for L·D·Lᵀ")
+	}
+	if b := (Matrix{{q(1), q(0)}, {q(0), q(1)}}); !b.EqualLDL(l, []RatFunc{q(1), q(1)}) {
+		t.Error("I = L·D·Lᵀ with L = I, D = (1, 1) is refused")
+	}
+}

@@ -36,6 +36,16 @@
 // and, once Y is known, P = ZYZᵀ, which is then symmetrized as (P+Pᵀ)/2.
 // Only the symmetric part (Q+Qᵀ)/2 of Q enters C.
 //
+// # Continuous: the sign function first
+//
+// For a Hurwitz A, Continuous first runs Newton's iteration for the matrix
+// sign function of Z = [[Aᵀ, Q], [0, −A]] with determinant scaling
+// (Roberts 1980; Byers 1987): sign(Z) = [[−I, 2P], [0, I]], and the
+// iteration's work is inversions and matrix products, faster than the QR
+// iteration of the Schur form in pure Go at these sizes (see sign.go). When
+// it does not settle at −I (A not Hurwitz, or nearly so), the Schur method
+// below solves the equation and diagnoses singular cases.
+//
 // # Continuous: Bartels–Stewart
 //
 // Partition Y and C conformally with the diagonal blocks of T (blocks
@@ -99,6 +109,11 @@
 //
 //   - R. H. Bartels, G. W. Stewart. Algorithm 432: Solution of the matrix
 //     equation AX + XB = C. Comm. ACM 15(9) (1972), pp. 820–826.
+//   - J. D. Roberts. Linear model reduction and solution of the algebraic
+//     Riccati equation by use of the sign function. Int. J. Control 32(4)
+//     (1980), pp. 677–687.
+//   - R. Byers. Solving the algebraic Riccati equation with the matrix sign
+//     function. Linear Algebra Appl. 85 (1987), pp. 267–279.
 //   - G. Kitagawa. An algorithm for solving the matrix equation X = FXFᵀ + S.
 //     Int. J. Control 25(5) (1977), pp. 745–753.
 //   - A. Y. Barraud. A numerical algorithm to solve AᵀXA − X = Q. IEEE Trans.

@@ -13,8 +13,9 @@ import (
 //
 //	AᵀP + PA = −Q
 //
-// for the symmetric n×n matrix P by the Bartels–Stewart method on the real
-// Schur form of A (see the package documentation). Q must be n×n; only its
+// for the symmetric n×n matrix P: by the matrix sign function when A is
+// Hurwitz, else by the Bartels–Stewart method on the real Schur form of A
+// (see the package documentation). Q must be n×n; only its
 // symmetric part (Q+Qᵀ)/2 is used, so for a non-symmetric Q the result is the
 // symmetric part of the (then non-symmetric) solution. The result is
 // symmetrized as (P+Pᵀ)/2.
@@ -32,6 +33,9 @@ func Continuous(a, q *mat.Dense) (*mat.SymDense, error) {
 	n, err := checkInputs("Continuous", a, q)
 	if err != nil {
 		return nil, err
+	}
+	if p, ok := continuousSign(a, q); ok {
+		return p, nil
 	}
 	s, err := newRealSchur(a)
 	if err != nil {

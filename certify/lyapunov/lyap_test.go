@@ -660,3 +660,37 @@ func TestSolveSmallStein(t *testing.T) {
 		t.Error("1·x·1 − x = 1 not reported singular")
 	}
 }
+
+// TestSignIteration: for a Hurwitz A, Newton's iteration for the matrix
+// sign function (Roberts 1980) gives P with a residual at rounding level;
+// for an A with an eigenvalue in the right half-plane it declines, and
+// Continuous still solves the equation by the Schur method (Bartels &
+// Stewart 1972), checked by its residual.
+func TestSignIteration(t *testing.T) {
+	rng := rand.New(rand.NewPCG(5, 8))
+	for _, n := range []int{1, 2, 7, 30} {
+		a, q := randStable(n, rng), randSPD(n, rng)
+		p, ok := continuousSign(a, q)
+		if !ok {
+			t.Fatalf("n=%d: the sign iteration declines a Hurwitz A", n)
+		}
+		if r := ContinuousResidual(a, p, q); r > 1e-12 {
+			t.Errorf("n=%d: residual %.3g", n, r)
+		}
+		shifted := mat.DenseCopyOf(a)
+		shifted.Set(0, 0, shifted.At(0, 0)+10) // an eigenvalue moves right
+		if IsHurwitz(shifted) {
+			continue
+		}
+		if _, ok := continuousSign(shifted, q); ok {
+			t.Errorf("n=%d: the sign iteration accepts a non-Hurwitz A", n)
+		}
+		p, err := Continuous(shifted, q)
+		if err != nil {
+			continue // singular or ill-conditioned: the Schur method says so
+		}
+		if r := ContinuousResidual(shifted, p, q); r > 1e-9 {
+			t.Errorf("n=%d: non-Hurwitz A: residual %.3g", n, r)
+		}
+	}
+}

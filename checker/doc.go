@@ -34,6 +34,8 @@
 //	invariance           the invariance principle (LaSalle 1960): per state, g(s) =
 //	                     Σ cⱼ·(derivatives of −V̇'s square bases) with the equilibrium
 //	                     g's only real root (Sturm), so {V̇ = 0} holds no other solution
+//	point-check          the model with some parameters fixed, and a whole certificate
+//	                     of it verified from scratch by this table (no deeper nesting)
 //	algebraic-point      margin Gram forms of V and −V̇ as identities in Q(p), pivots ≥ 0
 //	                     at an irrational p = α (signs at α by gcd and Sturm sequences)
 //	sturm-region         Sturm's theorem: the pieces of one parameter's range where

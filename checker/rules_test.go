@@ -1,7 +1,9 @@
 package checker
 
 import (
+	"os"
 	"slices"
+	"strings"
 	"testing"
 
 	"github.com/lyacert/lyacert/claims"
@@ -18,5 +20,19 @@ func TestRuleTableCoversFormat(t *testing.T) {
 	slices.Sort(names)
 	if want := claims.Rules(); !slices.Equal(names, want) {
 		t.Errorf("the rule table has %v; the format has %v", names, want)
+	}
+}
+
+// TestRuleTableDocumented: every rule of the table has its line in the
+// package documentation's table (doc.go).
+func TestRuleTableDocumented(t *testing.T) {
+	doc, err := os.ReadFile("doc.go")
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, r := range rules {
+		if !strings.Contains(string(doc), "//\t"+r.name+" ") {
+			t.Errorf("doc.go does not list the rule %s", r.name)
+		}
 	}
 }

@@ -26,18 +26,6 @@ func SplitDim(k []int) int {
 	return dim
 }
 
-// ParentSplit returns the coordinate along which the parent of a box with
-// halvings k was split. Halving by SplitDim from the undivided box visits the
-// coordinates in turn: the box at depth d is split along d mod n, so the
-// parent of a box at depth d was split along (d − 1) mod n.
-func ParentSplit(k []int) int {
-	d := 0
-	for _, x := range k {
-		d += x
-	}
-	return (d - 1) % len(k)
-}
-
 // Halves returns the lower and the upper half of g along dim.
 func (g DyadicBox) Halves(dim int) (DyadicBox, DyadicBox) {
 	lo := DyadicBox{slices.Clone(g.A), slices.Clone(g.K)}

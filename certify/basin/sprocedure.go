@@ -47,7 +47,7 @@ func newSProc(d *direct.Result, extra int) (*sproc, error) {
 	dv, dd := v.Num.Degree(), nvd.Num.Degree()
 	d1 := max(1, (dd-dv+1)/2) + extra
 	d0 := (max(dd, 2*d1+dv) + 1) / 2
-	p := &sproc{r: r, v: v.Num, nvd: nvd.Num, z0: monomialsUpTo(r.NumStates(), d0), z1: monomialsUpTo(r.NumStates(), d1), degS: 2 * d1, degR: 2 * d0}
+	p := &sproc{r: r, v: v.Num, nvd: nvd.Num, z0: sos.Monomials(r.NumStates(), 1, d0), z1: sos.Monomials(r.NumStates(), 1, d1), degS: 2 * d1, degR: 2 * d0}
 	if len(p.z0)+len(p.z1) > 300 {
 		return nil, fmt.Errorf("Gram matrices of order %d and %d, too large", len(p.z0), len(p.z1))
 	}
@@ -63,39 +63,6 @@ func newSProc(d *direct.Result, extra int) (*sproc, error) {
 	return p, nil
 }
 
-// monomialsUpTo lists the exponents of the monomials of degree 1 to d in n
-// variables, by degree.
-func monomialsUpTo(n, d int) [][]int {
-	var out [][]int
-	e := make([]int, n)
-	var walk func(i, left int)
-	walk = func(i, left int) {
-		if i == n-1 {
-			e[i] = left
-			out = append(out, append([]int(nil), e...))
-			e[i] = 0
-			return
-		}
-		for k := left; k >= 0; k-- {
-			e[i] = k
-			walk(i+1, left-k)
-		}
-		e[i] = 0
-	}
-	for deg := 1; deg <= d; deg++ {
-		walk(0, deg)
-	}
-	return out
-}
-
-func addExp(a, b []int) []int {
-	e := make([]int, len(a))
-	for i := range e {
-		e[i] = a[i] + b[i]
-	}
-	return e
-}
-
 // problem is the SDP at level c: blocks G₀ (σ), G₁ (s) and (ε, slack);
 // one equation per monomial γ,
 //
@@ -103,24 +70,14 @@ func addExp(a, b []int) []int {
 //
 // and ε + slack = scale; maximise ε.
 func (p *sproc) problem(c float64) *sdp.Problem {
-	rows := map[string]int{}
 	prob := &sdp.Problem{Blocks: []int{len(p.z0), len(p.z1), -2}}
-	row := func(e []int) int {
-		k := fmt.Sprint(e)
-		if i, ok := rows[k]; ok {
-			return i
-		}
-		rows[k] = len(prob.A)
-		prob.A = append(prob.A, nil)
-		prob.B = append(prob.B, 0)
-		return rows[k]
-	}
+	row := sos.NewRows(prob).Row
 	for _, t := range p.nvd.Terms() {
 		prob.B[row(t.Exp)], _ = t.Coef.Float64()
 	}
 	for i := range p.z0 {
 		for j := i; j < len(p.z0); j++ {
-			at := row(addExp(p.z0[i], p.z0[j]))
+			at := row(sos.AddExp(p.z0[i], p.z0[j]))
 			prob.A[at] = append(prob.A[at], sdp.Entry{Block: 0, I: i, J: j, V: 1})
 		}
 	}
@@ -129,7 +86,7 @@ func (p *sproc) problem(c float64) *sdp.Problem {
 		for j := i; j < len(p.z1); j++ {
 			for _, t := range cv.Terms() {
 				f, _ := t.Coef.Float64()
-				at := row(addExp(addExp(p.z1[i], p.z1[j]), t.Exp))
+				at := row(sos.AddExp(sos.AddExp(p.z1[i], p.z1[j]), t.Exp))
 				prob.A[at] = append(prob.A[at], sdp.Entry{Block: 1, I: i, J: j, V: f})
 			}
 		}
@@ -240,11 +197,11 @@ func (p *sproc) exact(ctx context.Context, c *big.Rat) (*claims.SublevelSProcedu
 	target := new(poly.Poly).Sub(p.nvd, m)
 	cv := new(poly.Poly).Sub(poly.Const(p.r, c), p.v)
 	for _, bits := range []int{10, 14, 18, 24, 30, 38} {
-		g1 := roundGram(mr.X[1], bits)
+		g1 := sos.RoundBlock(mr.X[1], bits)
 		s := poly.Bilinear(poly.ConstInt(p.r, 1), g1, p.monos(p.z1))
 		resid := new(poly.Poly).Sub(target, new(poly.Poly).Mul(s, cv))
-		g0 := roundGram(mr.X[0], bits)
-		if !project(g0, p.z0, resid) {
+		g0 := sos.RoundBlock(mr.X[0], bits)
+		if !sos.ProjectOnto(g0, p.z0, resid) {
 			continue
 		}
 		sq1, ok1 := p.squares(p.z1, g1)
@@ -308,54 +265,4 @@ func ratStrings(xs []*big.Rat) []string {
 		out[i] = x.RatString()
 	}
 	return out
-}
-
-// roundGram rounds a symmetric block to multiples of 2^−bits.
-func roundGram(x sdp.Block, bits int) [][]*big.Rat {
-	n := x.N
-	g := make([][]*big.Rat, n)
-	for i := range g {
-		g[i] = make([]*big.Rat, n)
-	}
-	for i := range n {
-		for j := i; j < n; j++ {
-			v := math.Round(math.Ldexp((x.At(i, j)+x.At(j, i))/2, bits))
-			q := new(big.Rat).SetFloat64(math.Ldexp(v, -bits))
-			g[i][j], g[j][i] = q, q
-		}
-	}
-	return g
-}
-
-// project moves g onto the Gram matrices of r in the basis z (Peyrl &
-// Parrilo 2008, through sos.Gram.Project); false when a term of r is no
-// product of two basis elements.
-func project(g [][]*big.Rat, z [][]int, r *poly.Poly) bool {
-	fam := &sos.Gram{Basis: z}
-	at := map[string]int{}
-	for a := range z {
-		for b := a; b < len(z); b++ {
-			k := fmt.Sprint(addExp(z[a], z[b]))
-			i, ok := at[k]
-			if !ok {
-				i, at[k] = len(fam.Classes), len(fam.Classes)
-				fam.Classes = append(fam.Classes, sos.Class{Exp: addExp(z[a], z[b])})
-			}
-			fam.Classes[i].Pairs = append(fam.Classes[i].Pairs, [2]int{a, b})
-			fam.Classes[i].Count += map[bool]int{true: 1, false: 2}[a == b]
-		}
-	}
-	coef := make([]*big.Rat, len(fam.Classes))
-	for i := range coef {
-		coef[i] = new(big.Rat)
-	}
-	for _, t := range r.Terms() {
-		i, ok := at[fmt.Sprint(t.Exp)]
-		if !ok {
-			return false
-		}
-		coef[i] = t.Coef
-	}
-	fam.Project(g, coef)
-	return true
 }

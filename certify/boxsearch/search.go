@@ -174,7 +174,7 @@ func quartic(mults []boxsos.Multiplier, ns int) ([]boxsos.Multiplier, [][]int) {
 	for k, mu := range mults {
 		var basis [][]int
 		for _, e := range mu.Basis {
-			if deg(e[:ns]) >= 2 {
+			if sos.Degree(e[:ns]) >= 2 {
 				basis = append(basis, e)
 			}
 		}
@@ -189,7 +189,7 @@ func quartic(mults []boxsos.Multiplier, ns int) ([]boxsos.Multiplier, [][]int) {
 	for j := range ns {
 		found := false
 		for _, e := range out[0].Basis {
-			found = found || e[j] == 2 && deg(e) == 2
+			found = found || e[j] == 2 && sos.Degree(e) == 2
 		}
 		if !found {
 			return nil, nil
@@ -213,7 +213,7 @@ func derivatives(m *model.Model, z1 [][]int) (map[string]*poly.Poly, *poly.Poly,
 	seen := map[string]bool{}
 	for a := range z1 {
 		for b := a; b < len(z1); b++ {
-			e := add(z1[a], z1[b])
+			e := sos.AddExp(z1[a], z1[b])
 			k := sos.Key(e)
 			if _, ok := deriv[k]; ok {
 				continue
@@ -250,17 +250,8 @@ func derivatives(m *model.Model, z1 [][]int) (map[string]*poly.Poly, *poly.Poly,
 func program(z1 [][]int, deriv map[string]*poly.Poly, mults []boxsos.Multiplier, marg [][]int) *sdp.Problem {
 	prob := &sdp.Problem{Blocks: []int{len(z1)}}
 	nb := 1 + len(mults)
-	rows := map[string]int{}
-	row := func(e []int) int {
-		k := sos.Key(e)
-		if i, ok := rows[k]; ok {
-			return i
-		}
-		rows[k] = len(prob.A)
-		prob.A = append(prob.A, nil)
-		prob.B = append(prob.B, 0)
-		return rows[k]
-	}
+	rs := sos.NewRows(prob)
+	row := rs.Row
 	put := func(e []int, en sdp.Entry) {
 		i := row(e)
 		prob.A[i] = append(prob.A[i], en)
@@ -272,7 +263,7 @@ func program(z1 [][]int, deriv map[string]*poly.Poly, mults []boxsos.Multiplier,
 			for j := i; j < len(mu.Basis); j++ {
 				for _, gt := range gs {
 					f, _ := gt.Coef.Float64()
-					put(add(add(mu.Basis[i], mu.Basis[j]), gt.Exp), sdp.Entry{Block: 1 + k, I: i, J: j, V: f})
+					put(sos.AddExp(sos.AddExp(mu.Basis[i], mu.Basis[j]), gt.Exp), sdp.Entry{Block: 1 + k, I: i, J: j, V: f})
 				}
 			}
 		}
@@ -284,17 +275,17 @@ func program(z1 [][]int, deriv map[string]*poly.Poly, mults []boxsos.Multiplier,
 	}
 	for a := range z1 {
 		for b := a; b < len(z1); b++ {
-			for _, t := range deriv[sos.Key(add(z1[a], z1[b]))].Terms() {
+			for _, t := range deriv[sos.Key(sos.AddExp(z1[a], z1[b]))].Terms() {
 				f, _ := t.Coef.Float64()
 				put(t.Exp, sdp.Entry{Block: 0, I: a, J: b, V: f})
-				if a == b && deg(z1[a]) == 1 {
+				if a == b && sos.Degree(z1[a]) == 1 {
 					row(t.Exp)
 					tcoef[sos.Key(t.Exp)] += f
 				}
 			}
 		}
 	}
-	for k, i := range rows {
+	for k, i := range rs.Index {
 		if c := tcoef[k]; c != 0 {
 			prob.A[i] = append(prob.A[i], sdp.Entry{Block: nb, I: 0, J: 0, V: c})
 		}
@@ -305,7 +296,7 @@ func program(z1 [][]int, deriv map[string]*poly.Poly, mults []boxsos.Multiplier,
 	}
 	n1, linear := float64(len(z1)), 0.0
 	for _, e := range z1 {
-		if deg(e) == 1 {
+		if sos.Degree(e) == 1 {
 			linear++
 		}
 	}
@@ -329,7 +320,7 @@ func (res *Result) prove(ctx context.Context, m *model.Model, opts Options, z1 [
 	var keys []string
 	for a := range z1 {
 		for b := a; b < len(z1); b++ {
-			e := add(z1[a], z1[b])
+			e := sos.AddExp(z1[a], z1[b])
 			k := sos.Key(e)
 			if _, ok := exps[k]; !ok {
 				keys = append(keys, k)
@@ -339,7 +330,7 @@ func (res *Result) prove(ctx context.Context, m *model.Model, opts Options, z1 [
 			if a == b {
 				w = 1
 			}
-			if a == b && deg(z1[a]) == 1 {
+			if a == b && sos.Degree(z1[a]) == 1 {
 				g += t
 			}
 			coef[k] += w * g
@@ -523,22 +514,6 @@ func centred(m *model.Model) ([]poly.RatFunc, []bool) {
 		unshift[i] = poly.FromPoly(poly.Var(r, i)).Sub(m.At[i])
 	}
 	return unshift, has
-}
-
-func deg(e []int) int {
-	s := 0
-	for _, k := range e {
-		s += k
-	}
-	return s
-}
-
-func add(a, b []int) []int {
-	e := make([]int, len(a))
-	for i := range e {
-		e[i] = a[i] + b[i]
-	}
-	return e
 }
 
 // monomials returns the exponents, over the nv variables of the ring, of

@@ -9,6 +9,7 @@ import (
 
 	"github.com/lyacert/lyacert/certificates"
 	"github.com/lyacert/lyacert/certify/sdp"
+	"github.com/lyacert/lyacert/certify/sos"
 	"github.com/lyacert/lyacert/claims"
 	"github.com/lyacert/lyacert/model"
 	"github.com/lyacert/lyacert/poly"
@@ -344,29 +345,12 @@ func product(xs, ps [][]int) [][]int {
 	return out
 }
 
-func add(a, b []int) []int {
-	e := make([]int, len(a))
-	for i := range e {
-		e[i] = a[i] + b[i]
-	}
-	return e
-}
-
 // problem sets up: one equation per monomial γ of (x, p),
 // Σ_blocks Σ_{a≤b} w·G_ab = p_γ − ε·[γ in the margin], maximise ε ≤ emax.
 func problem(p *poly.Poly, blocks []block, marginExps [][]int, emax float64) (*sdp.Problem, map[string]int) {
-	rows := map[string]int{}
 	prob := &sdp.Problem{}
-	row := func(e []int) int {
-		k := fmt.Sprint(e)
-		if i, ok := rows[k]; ok {
-			return i
-		}
-		rows[k] = len(prob.A)
-		prob.A = append(prob.A, nil)
-		prob.B = append(prob.B, 0)
-		return rows[k]
-	}
+	rs := sos.NewRows(prob)
+	rows, row := rs.Index, rs.Row
 	for _, t := range p.Terms() {
 		f, _ := t.Coef.Float64()
 		prob.B[row(t.Exp)] = f
@@ -378,7 +362,7 @@ func problem(p *poly.Poly, blocks []block, marginExps [][]int, emax float64) (*s
 			for j := i; j < len(b.basis); j++ {
 				for _, gt := range gs {
 					f, _ := gt.Coef.Float64()
-					at := row(add(add(b.basis[i], b.basis[j]), gt.Exp))
+					at := row(sos.AddExp(sos.AddExp(b.basis[i], b.basis[j]), gt.Exp))
 					prob.A[at] = append(prob.A[at], sdp.Entry{Block: k, I: i, J: j, V: f})
 				}
 			}
@@ -410,8 +394,8 @@ func exact(r *poly.Ring, blocks []block, xs []sdp.Block, target *poly.Poly, bits
 		for i, e := range b.basis {
 			z[i] = poly.Monomial(r, e, big.NewRat(1, 1))
 		}
-		g := roundGram(xs[k], bits)
-		if k == 0 && !project(g, b.basis, resid) {
+		g := sos.RoundBlock(xs[k], bits)
+		if k == 0 && !sos.ProjectOnto(g, b.basis, resid) {
 			return nil
 		}
 		l, d, ok, _ := poly.RatLDL(g)
@@ -434,71 +418,6 @@ func exact(r *poly.Ring, blocks []block, xs []sdp.Block, target *poly.Poly, bits
 		return nil
 	}
 	return cl
-}
-
-// project moves g onto the Gram matrices of r in the basis: the classes
-// {(a, b) : z_a z_b = x^γ} partition the entries, each equation sums one
-// class with unit weights, so the orthogonal projection adds
-// (r_γ − Σ_class G)/|class| to each entry of class γ.
-func project(g [][]*big.Rat, basis [][]int, r *poly.Poly) bool {
-	type class struct {
-		pairs [][2]int
-		coef  *big.Rat
-	}
-	classes := map[string]*class{}
-	var order []string
-	for a := range basis {
-		for b := a; b < len(basis); b++ {
-			k := fmt.Sprint(add(basis[a], basis[b]))
-			if classes[k] == nil {
-				classes[k] = &class{coef: new(big.Rat)}
-				order = append(order, k)
-			}
-			classes[k].pairs = append(classes[k].pairs, [2]int{a, b})
-		}
-	}
-	for _, t := range r.Terms() {
-		c := classes[fmt.Sprint(t.Exp)]
-		if c == nil {
-			return false
-		}
-		c.coef = t.Coef
-	}
-	for _, k := range order {
-		c := classes[k]
-		s, n := new(big.Rat), int64(0)
-		for _, pr := range c.pairs {
-			s.Add(s, g[pr[0]][pr[1]])
-			n++
-			if pr[0] != pr[1] {
-				s.Add(s, g[pr[0]][pr[1]])
-				n++
-			}
-		}
-		d := new(big.Rat).Sub(c.coef, s)
-		d.Quo(d, big.NewRat(n, 1))
-		for _, pr := range c.pairs {
-			v := new(big.Rat).Add(g[pr[0]][pr[1]], d)
-			g[pr[0]][pr[1]], g[pr[1]][pr[0]] = v, v
-		}
-	}
-	return true
-}
-
-func roundGram(x sdp.Block, bits int) [][]*big.Rat {
-	n := x.N
-	g := make([][]*big.Rat, n)
-	for i := range g {
-		g[i] = make([]*big.Rat, n)
-	}
-	for i := range n {
-		for j := i; j < n; j++ {
-			v := math.Round(math.Ldexp((x.At(i, j)+x.At(j, i))/2, bits))
-			q := new(big.Rat).SetFloat64(math.Ldexp(v, -bits))
-			g[i][j], g[j][i] = q, q
-		}
-	}
-	return g
 }
 
 func strings(m [][]*big.Rat) [][]string {

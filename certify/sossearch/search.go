@@ -68,7 +68,7 @@ func Search(ctx context.Context, m *model.Model, opts Options) (*Result, error) 
 	r := m.Ring
 	ns := len(m.States)
 	d := opts.Degree / 2
-	z1 := monomials(ns, 1, d)
+	z1 := sos.Monomials(ns, 1, d)
 	if len(z1) > 400 {
 		return nil, fmt.Errorf("--degree %d with %d states: %d monomials in V's basis, too many", opts.Degree, ns, len(z1))
 	}
@@ -140,7 +140,7 @@ func Search(ctx context.Context, m *model.Model, opts Options) (*Result, error) 
 		}
 		var z2 [][]int
 		for _, e := range g.Basis {
-			if deg(e) >= low && !(attempt == 1 && zero[sos.Key(e)]) {
+			if sos.Degree(e) >= low && !(attempt == 1 && zero[sos.Key(e)]) {
 				z2 = append(z2, e)
 			}
 		}
@@ -323,46 +323,15 @@ func nearZeroDiagonal(z2 [][]int, g2 sdp.Block) map[string]bool {
 	}
 	out := map[string]bool{}
 	for i, e := range z2 {
-		if deg(e) == 1 && math.Abs(g2.At(i, i)) <= 1e-6*dmax {
+		if sos.Degree(e) == 1 && math.Abs(g2.At(i, i)) <= 1e-6*dmax {
 			out[sos.Key(e)] = true
 		}
 	}
 	return out
 }
 
-func deg(e []int) int {
-	s := 0
-	for _, v := range e {
-		s += v
-	}
-	return s
-}
-
 func full(e []int, n int) []int {
 	out := make([]int, n)
 	copy(out, e)
-	return out
-}
-
-// monomials returns the exponents of the monomials in n variables of total
-// degree lo to hi, graded.
-func monomials(n, lo, hi int) [][]int {
-	var out [][]int
-	cur := make([]int, n)
-	var rec func(i, left int)
-	rec = func(i, left int) {
-		if i == n-1 {
-			cur[i] = left
-			out = append(out, append([]int(nil), cur...))
-			return
-		}
-		for v := left; v >= 0; v-- {
-			cur[i] = v
-			rec(i+1, left-v)
-		}
-	}
-	for dg := lo; dg <= hi; dg++ {
-		rec(0, dg)
-	}
 	return out
 }
